@@ -1,0 +1,30 @@
+"""formkit: binary quadratic forms, class groups and representations, exactly.
+
+The public API is re-exported here from one module per topic; see each module's
+docstring for what it covers and which references it follows.
+"""
+
+from __future__ import annotations
+
+import sys as _sys
+
+# Values in this library (fundamental units, huge discriminants) routinely exceed
+# Python's default limit of 4300 digits for int <-> str conversion; lift it so that
+# printing and parsing exact results never fails.
+if hasattr(_sys, "set_int_max_str_digits"):
+    _sys.set_int_max_str_digits(0)
+
+from .errors import *  # noqa: F401,F403,E402
+from .errors import __all__ as _errors_all  # noqa: E402
+from .forms import *  # noqa: F401,F403,E402
+from .forms import __all__ as _forms_all  # noqa: E402
+from .discriminants import *  # noqa: F401,F403,E402
+from .discriminants import __all__ as _disc_all  # noqa: E402
+from .reduction import *  # noqa: F401,F403,E402
+from .reduction import __all__ as _red_all  # noqa: E402
+from .equivalence import *  # noqa: F401,F403,E402
+from .equivalence import __all__ as _eq_all  # noqa: E402
+
+__version__ = "0.1.0"
+
+__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, "__version__"]

@@ -1,0 +1,102 @@
+"""Commands ``reduce`` and ``equivalent``: reduction and equivalence of single forms."""
+
+from __future__ import annotations
+
+import argparse
+
+from .equivalence import equivalence
+from .forms import as_form
+from .reduction import reduce_form, reduced_cycle
+
+
+def _matrix_text(m) -> str:
+    return f"[[{m[0][0]}, {m[0][1]}], [{m[1][0]}, {m[1][1]}]]"
+
+
+def _cmd_reduce(args: argparse.Namespace) -> int:
+    from .cli import emit
+
+    f = as_form(args.form)
+    res = reduce_form(f, steps=args.steps)
+    payload = res.to_dict()
+    cyc = None
+    if f.is_indefinite:
+        cyc = reduced_cycle(res.reduced)
+        payload["cycle"] = [g.to_list() for g in cyc.forms]
+    if args.steps:
+        payload["steps"] = [
+            {"kind": s.kind, "matrix": [list(r) for r in s.matrix], "form": s.after.to_list()}
+            for s in res.steps
+        ]
+
+    def human() -> str:
+        lines = [f"form:          {f}   {f.to_list()}", f"discriminant:  {f.discriminant}  ({f.kind})"]
+        if args.steps:
+            lines.append("steps:")
+            for i, s in enumerate(res.steps, 1):
+                lines.append(f"  {i:3d}. {s.kind:9s} by {_matrix_text(s.matrix):24s} -> {s.after.to_list()}")
+            if not res.steps:
+                lines.append("  (already reduced)")
+        lines.append(f"reduced:       {res.reduced}   {res.reduced.to_list()}")
+        lines.append(f"matrix:        {_matrix_text(res.matrix)}   (form · matrix = reduced)")
+        if cyc is not None:
+            lines.append(f"cycle ({len(cyc)} reduced forms):")
+            lines.extend(f"  {g.to_list()}" for g in cyc.forms)
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def _cmd_equivalent(args: argparse.Namespace) -> int:
+    from .cli import emit
+
+    F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
+    res = equivalence(F, G)
+
+    def human() -> str:
+        if not res.equivalent:
+            return f"{F} and {G} are not equivalent"
+        how = "properly (det +1)" if res.properly else "only improperly (det -1)"
+        return f"{F} and {G} are equivalent, {how}\nmatrix: {_matrix_text(res.matrix)}   (F · matrix = G)"
+
+    emit(args, res.to_dict(), human)
+    return 0
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``reduce`` and ``equivalent`` commands."""
+    p = sub.add_parser(
+        "reduce",
+        parents=[parent],
+        help="reduce a form (definite or indefinite), with the matrix and optional steps",
+        description=(
+            "Reduce a binary quadratic form and print the SL2(Z) matrix taking it to the reduced "
+            "form; for indefinite forms also the whole cycle of reduced forms. "
+            "Python: formkit.reduce_form(form, steps=True), formkit.reduced_cycle(form)."
+        ),
+        epilog="examples:\n  formkit reduce 10,37,35 --steps\n  formkit reduce '-x^2 + 13y^2' --json",
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '3x^2+7xy-5y^2'")
+    p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
+    p.set_defaults(handler=_cmd_reduce)
+
+    q = sub.add_parser(
+        "equivalent",
+        parents=[parent],
+        help="decide proper/improper equivalence of two forms and give the matrix",
+        description=(
+            "Decide whether F and G are equivalent (properly under SL2(Z), or improperly under a "
+            "matrix of determinant -1) and print a matrix M with F·M = G. "
+            "Python: formkit.equivalence(F, G)."
+        ),
+        epilog="examples:\n  formkit equivalent 1,0,-7 -3,2,2\n  formkit equivalent 3,2,5 3,-2,5 --json",
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    q.add_argument("first", metavar="F", help="first form")
+    q.add_argument("second", metavar="G", help="second form")
+    q.set_defaults(handler=_cmd_equivalent)
+
+
+__all__ = ["register"]

@@ -1,0 +1,134 @@
+"""The ``formkit`` command line: a thin layer over the library.
+
+Every command has a ``--json`` form printing one JSON object; the same result is one
+function call away in Python (each command's help names the function).  Commands live
+in the private modules ``formkit._cmd_*``, one per topic; each defines
+``register(subparsers, parent)`` where ``parent`` carries the shared options.
+
+Exit status: 0 on success, 2 for bad input (one line ``formkit: error: …`` on stderr),
+1 for an internal error (a short message; the traceback only with ``--debug``).
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import json
+import re
+import sys
+from typing import Any, Callable, Sequence
+
+from .errors import FormkitError
+
+__all__ = ["main", "build_parser", "emit"]
+
+# Modules providing commands, in the order they appear in ``formkit --help``.
+COMMAND_MODULES = (
+    "formkit._cmd_forms",
+)
+
+_FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")
+
+
+class CommandError(FormkitError):
+    """Bad command-line input that the library itself does not see."""
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse with the house error format: one line, exit status 2."""
+
+    def error(self, message: str) -> None:  # type: ignore[override]
+        sys.stderr.write(f"formkit: error: {message}\n")
+        raise SystemExit(2)
+
+
+def emit(args: argparse.Namespace, payload: dict, human: Callable[[], str] | str) -> None:
+    """Print ``payload`` as one JSON object when ``--json`` was given, else ``human``."""
+    if getattr(args, "json", False):
+        sys.stdout.write(json.dumps(payload, default=_json_default) + "\n")
+    else:
+        text = human() if callable(human) else human
+        sys.stdout.write(text.rstrip("\n") + "\n")
+
+
+def _json_default(obj: Any) -> Any:
+    try:
+        import operator
+
+        return operator.index(obj)
+    except TypeError:
+        pass
+    if hasattr(obj, "to_list"):
+        return obj.to_list()
+    if hasattr(obj, "to_dict"):
+        return obj.to_dict()
+    return str(obj)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    """The full argument parser (all commands registered)."""
+    parent = _Parser(add_help=False)
+    parent.add_argument("--json", action="store_true", help="print one JSON object instead of text")
+    parent.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
+    parser = _Parser(
+        prog="formkit",
+        description=(
+            "Binary quadratic forms ax^2+bxy+cy^2: reduction, equivalence, class groups, genera, "
+            "representations and prime criteria. Forms are written a,b,c or [a,b,c] or as "
+            "polynomials such as '3x^2 + 7xy - 5y^2'; negative numbers and forms may be given "
+            "directly (formkit group -23)."
+        ),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    for name in COMMAND_MODULES:
+        importlib.import_module(name).register(sub, parent)
+    return parser
+
+
+def _protect_negative_arguments(argv: Sequence[str]) -> list[str]:
+    # argparse takes "-x^2+5y^2" or "-1,0,5" for options; a leading space stops that
+    # and the parsers here strip white space.
+    out = []
+    for tok in argv:
+        if _FORMLIKE_DASH.match(tok) and not re.fullmatch(r"-\d+", tok):
+            out.append(" " + tok)
+        else:
+            out.append(tok)
+    return out
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Entry point of the ``formkit`` command; returns the exit status."""
+    if hasattr(sys, "set_int_max_str_digits"):
+        sys.set_int_max_str_digits(0)
+    argv = list(sys.argv[1:] if argv is None else argv)
+    debug = "--debug" in argv
+    try:
+        parser = build_parser()
+        args = parser.parse_args(_protect_negative_arguments(argv))
+        if not getattr(args, "command", None):
+            parser.print_help()
+            return 2
+        return int(args.handler(args) or 0)
+    except SystemExit as exc:  # argparse exits (help, errors)
+        return int(exc.code) if isinstance(exc.code, int) else 2
+    except FormkitError as exc:
+        sys.stderr.write(f"formkit: error: {_one_line(exc)}\n")
+        return 2
+    except KeyboardInterrupt:
+        sys.stderr.write("formkit: interrupted\n")
+        return 130
+    except BrokenPipeError:
+        return 0
+    except Exception as exc:  # internal error
+        if debug:
+            raise
+        sys.stderr.write(
+            f"formkit: internal error: {type(exc).__name__}: {_one_line(exc)} (run with --debug for details)\n"
+        )
+        return 1
+
+
+def _one_line(exc: BaseException) -> str:
+    return " ".join(str(exc).split())

@@ -1,0 +1,57 @@
+"""Exceptions raised by formkit.
+
+Every error a user can provoke with bad input is a :class:`FormkitError`, which is a
+:class:`ValueError`; its message names the offending value and the rule it broke.
+Values that are not integers at all raise :class:`NotAnIntegerError`, which is both a
+:class:`FormkitError` and a :class:`TypeError`.
+"""
+
+from __future__ import annotations
+
+__all__ = [
+    "FormkitError",
+    "NotAnIntegerError",
+    "DiscriminantError",
+    "FormError",
+    "NotPrimitiveError",
+    "ParseError",
+    "DiscriminantMismatchError",
+    "NotPrimeError",
+    "MatrixError",
+]
+
+
+class FormkitError(ValueError):
+    """Base class of every error formkit raises for bad input."""
+
+
+class NotAnIntegerError(FormkitError, TypeError):
+    """A value that must be an integer is not one."""
+
+
+class DiscriminantError(FormkitError):
+    """A number is not a valid discriminant for the operation asked for."""
+
+
+class FormError(FormkitError):
+    """A form does not meet a requirement (definite, non-degenerate, ...)."""
+
+
+class NotPrimitiveError(FormError):
+    """A form must be primitive (gcd(a, b, c) = 1) and is not."""
+
+
+class ParseError(FormkitError):
+    """Text could not be read as a form, matrix or number."""
+
+
+class DiscriminantMismatchError(FormkitError):
+    """Two objects that must share a discriminant do not."""
+
+
+class NotPrimeError(FormkitError):
+    """A number that must be prime is not."""
+
+
+class MatrixError(FormkitError):
+    """A matrix is not in the group required (SL2(Z) or GL2(Z))."""

@@ -1,0 +1,461 @@
+"""Binary quadratic forms as frozen values, and the 2×2 integer matrices acting on them.
+
+A form ``(a, b, c)`` is ``Q(x, y) = ax² + bxy + cy²`` with discriminant ``D = b² − 4ac``.
+A matrix ``M = [[p, q], [r, s]]`` acts on the right by ``(Q·M)(x, y) = Q(px + qy, rx + sy)``,
+so ``(Q·M)·N = Q·(MN)``.  Proper equivalence is the action of SL2(Z), improper
+equivalence that of a matrix of determinant −1.
+
+Matrices are plain nested tuples ``((p, q), (r, s))`` of Python ints (type
+:data:`Matrix`); helpers here multiply, invert and check them.
+
+References
+----------
+.. [1] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2.
+.. [2] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138,
+       Springer 1993, §5.2.
+.. [3] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, Ch. 2.
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
+
+from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker, sqrt_mod_prime
+from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, ParseError
+
+if TYPE_CHECKING:  # pragma: no cover
+    import sympy
+
+__all__ = [
+    "Matrix",
+    "IDENTITY",
+    "Form",
+    "FormLike",
+    "as_form",
+    "as_matrix",
+    "mat_mul",
+    "mat_det",
+    "mat_inverse",
+]
+
+Matrix = Tuple[Tuple[int, int], Tuple[int, int]]
+IDENTITY: Matrix = ((1, 0), (0, 1))
+
+
+def as_matrix(value: object, *, name: str = "matrix") -> Matrix:
+    """Coerce ``[[p, q], [r, s]]`` (any nested sequences of integers) into a :data:`Matrix`.
+
+    Raises
+    ------
+    MatrixError
+        If the shape is wrong or the determinant is not ±1.
+
+    Examples
+    --------
+    >>> as_matrix([[2, 1], [1, 1]])
+    ((2, 1), (1, 1))
+    """
+    try:
+        (p, q), (r, s) = value  # type: ignore[misc]
+    except (TypeError, ValueError) as exc:
+        raise MatrixError(f"{name} must be [[p, q], [r, s]], not {value!r}") from exc
+    m = (
+        (as_int(p, name + " entry"), as_int(q, name + " entry")),
+        (as_int(r, name + " entry"), as_int(s, name + " entry")),
+    )
+    if mat_det(m) not in (1, -1):
+        raise MatrixError(f"{name} must have determinant ±1 (lie in GL2(Z)), not {mat_det(m)}: {m}")
+    return m
+
+
+def mat_mul(m: Matrix, n: Matrix) -> Matrix:
+    """Product ``m·n`` of two 2×2 matrices.
+
+    Examples
+    --------
+    >>> mat_mul(((1, 1), (0, 1)), ((1, 0), (1, 1)))
+    ((2, 1), (1, 1))
+    """
+    (p, q), (r, s) = m
+    (e, f), (g, h) = n
+    return ((p * e + q * g, p * f + q * h), (r * e + s * g, r * f + s * h))
+
+
+def mat_det(m: Matrix) -> int:
+    """Determinant of a 2×2 matrix."""
+    (p, q), (r, s) = m
+    return p * s - q * r
+
+
+def mat_inverse(m: Matrix) -> Matrix:
+    """Inverse of a matrix of determinant ±1 (exact, integral).
+
+    Examples
+    --------
+    >>> mat_inverse(((2, 1), (1, 1)))
+    ((1, -1), (-1, 2))
+    """
+    (p, q), (r, s) = m
+    d = p * s - q * r
+    if d not in (1, -1):
+        raise MatrixError(f"matrix {m} has determinant {d}, so no integral inverse")
+    return ((s * d, -q * d), (-r * d, p * d))
+
+
+class Form:
+    """The binary quadratic form ``ax² + bxy + cy²`` as an immutable, hashable value.
+
+    Parameters
+    ----------
+    a, b, c : int
+        The coefficients.  Any integers are allowed (forms with square discriminant
+        too); operations that need more (a non-square discriminant, definiteness,
+        primitivity) check it and raise :class:`~formkit.errors.FormkitError`.
+
+    Examples
+    --------
+    >>> f = Form(2, 1, 3)
+    >>> f
+    Form(2, 1, 3)
+    >>> print(f)
+    2x^2 + xy + 3y^2
+    >>> f.discriminant, f.is_positive_definite, f(1, -1)
+    (-23, True, 4)
+    >>> f.transform([[1, 1], [0, 1]])
+    Form(2, 5, 6)
+    """
+
+    __slots__ = ("_a", "_b", "_c")
+
+    _a: int
+    _b: int
+    _c: int
+
+    def __init__(self, a: object, b: object, c: object) -> None:
+        object.__setattr__(self, "_a", int(as_int(a, "a")))
+        object.__setattr__(self, "_b", int(as_int(b, "b")))
+        object.__setattr__(self, "_c", int(as_int(c, "c")))
+
+    def __setattr__(self, name: str, value: object) -> None:
+        raise AttributeError("Form is immutable")
+
+    def __delattr__(self, name: str) -> None:
+        raise AttributeError("Form is immutable")
+
+    def __reduce__(self):
+        return (Form, (self._a, self._b, self._c))
+
+    # -- coefficients ---------------------------------------------------------
+    @property
+    def a(self) -> int:
+        """Coefficient of x²."""
+        return self._a
+
+    @property
+    def b(self) -> int:
+        """Coefficient of xy."""
+        return self._b
+
+    @property
+    def c(self) -> int:
+        """Coefficient of y²."""
+        return self._c
+
+    @property
+    def coefficients(self) -> tuple[int, int, int]:
+        """``(a, b, c)`` as a tuple."""
+        return (self._a, self._b, self._c)
+
+    def __iter__(self) -> Iterator[int]:
+        return iter((self._a, self._b, self._c))
+
+    def __eq__(self, other: object) -> bool:
+        if isinstance(other, Form):
+            return (self._a, self._b, self._c) == (other._a, other._b, other._c)
+        return NotImplemented
+
+    def __hash__(self) -> int:
+        return hash(("Form", self._a, self._b, self._c))
+
+    def __lt__(self, other: "Form") -> bool:
+        if not isinstance(other, Form):
+            return NotImplemented
+        return self.coefficients < other.coefficients
+
+    # -- invariants -----------------------------------------------------------
+    @property
+    def discriminant(self) -> int:
+        """``b² − 4ac``."""
+        return self._b * self._b - 4 * self._a * self._c
+
+    @property
+    def content(self) -> int:
+        """``gcd(a, b, c)`` (non-negative)."""
+        return int(gcd(self._a, self._b, self._c))
+
+    @property
+    def is_primitive(self) -> bool:
+        """True when ``gcd(a, b, c) = 1``."""
+        return self.content == 1
+
+    @property
+    def is_positive_definite(self) -> bool:
+        """True when ``D < 0`` and ``a > 0``."""
+        return self.discriminant < 0 and self._a > 0
+
+    @property
+    def is_negative_definite(self) -> bool:
+        """True when ``D < 0`` and ``a < 0``."""
+        return self.discriminant < 0 and self._a < 0
+
+    @property
+    def is_definite(self) -> bool:
+        """True when ``D < 0``."""
+        return self.discriminant < 0
+
+    @property
+    def is_indefinite(self) -> bool:
+        """True when ``D > 0`` and ``D`` is not a square."""
+        D = self.discriminant
+        return D > 0 and not is_square(D)
+
+    @property
+    def kind(self) -> str:
+        """One of ``'positive definite'``, ``'negative definite'``, ``'indefinite'``,
+        ``'degenerate'`` (square discriminant, including 0)."""
+        D = self.discriminant
+        if D < 0:
+            return "positive definite" if self._a > 0 else "negative definite"
+        if is_square(D):
+            return "degenerate"
+        return "indefinite"
+
+    # -- arithmetic -----------------------------------------------------------
+    def __call__(self, x: int, y: int) -> int:
+        """Evaluate ``Q(x, y)``."""
+        x = as_int(x, "x")
+        y = as_int(y, "y")
+        return self._a * x * x + self._b * x * y + self._c * y * y
+
+    def transform(self, matrix: object) -> "Form":
+        """``Q·M``: the form ``Q(px + qy, rx + sy)`` for ``M = [[p, q], [r, s]]``.
+
+        Any integral 2×2 matrix is accepted here (also singular ones); equivalence
+        checks use :func:`as_matrix`, which insists on determinant ±1.
+        """
+        try:
+            (p, q), (r, s) = matrix  # type: ignore[misc]
+        except (TypeError, ValueError) as exc:
+            raise MatrixError(f"matrix must be [[p, q], [r, s]], not {matrix!r}") from exc
+        p, q, r, s = (as_int(v, "matrix entry") for v in (p, q, r, s))
+        a, b, c = self._a, self._b, self._c
+        return Form(
+            a * p * p + b * p * r + c * r * r,
+            2 * a * p * q + b * (p * s + q * r) + 2 * c * r * s,
+            a * q * q + b * q * s + c * s * s,
+        )
+
+    __mul__ = transform
+
+    def __neg__(self) -> "Form":
+        return Form(-self._a, -self._b, -self._c)
+
+    def opposite(self) -> "Form":
+        """``(a, −b, c)``: the form ``Q·diag(1, −1)``, whose class is the inverse class."""
+        return Form(self._a, -self._b, self._c)
+
+    def primitive_part(self) -> "Form":
+        """The form divided by its content (the zero form stays zero)."""
+        g = self.content
+        if g <= 1:
+            return self
+        return Form(self._a // g, self._b // g, self._c // g)
+
+    def scaled(self, k: int) -> "Form":
+        """``k·Q``."""
+        k = as_int(k, "k")
+        return Form(k * self._a, k * self._b, k * self._c)
+
+    # -- constructors -----------------------------------------------------------
+    @classmethod
+    def principal(cls, D: object) -> "Form":
+        """The principal form of discriminant ``D``: ``x² + (D mod 2)xy + ((D mod 2) − D)/4 y²``.
+
+        Examples
+        --------
+        >>> Form.principal(-20), Form.principal(-23), Form.principal(13)
+        (Form(1, 0, 5), Form(1, 1, 6), Form(1, 1, -3))
+        """
+        from .discriminants import validate_discriminant
+
+        D = validate_discriminant(D)
+        k = D % 2
+        return cls(1, k, (k - D) // 4)
+
+    @classmethod
+    def prime_form(cls, D: object, p: object) -> "Form":
+        """The prime form of discriminant ``D`` at the prime ``p``: ``(p, b, (b² − D)/4p)``.
+
+        ``b`` is the least non-negative solution of ``b² ≡ D (mod 4p)`` with
+        ``0 ≤ b ≤ p`` (so the form is the one whose class is that of a prime ideal
+        above ``p``; its inverse is ``(p, −b, ·)``).  Needs ``χ_D(p) ≠ −1``.
+
+        Raises
+        ------
+        NotPrimeError
+            If ``p`` is not prime.
+        FormkitError
+            If ``χ_D(p) = −1`` (``p`` is inert: no form of leading coefficient p).
+
+        Examples
+        --------
+        >>> Form.prime_form(-23, 2), Form.prime_form(-23, 3), Form.prime_form(-20, 5)
+        (Form(2, 1, 3), Form(3, 1, 2), Form(5, 0, 1))
+        """
+        from .discriminants import validate_discriminant
+
+        D = validate_discriminant(D)
+        p = as_int(p, "p")
+        if not is_probable_prime(p):
+            raise NotPrimeError(f"prime form needs a prime p, not {p}")
+        if kronecker(D, p) == -1:
+            raise FormError(f"no prime form of discriminant {D} at p = {p}: χ_D(p) = −1 ({p} is inert)")
+        if p == 2:
+            # b² ≡ D (mod 8), 0 ≤ b ≤ 2
+            b = next(b for b in (0, 1, 2) if (b * b - D) % 8 == 0)
+        else:
+            r = int(sqrt_mod_prime(D, p))  # r ≤ p/2
+            # b ≡ D (mod 2) and b ≡ ±r (mod p), 0 ≤ b ≤ p
+            b = r if (r - D) % 2 == 0 else p - r
+        return cls(p, b, (b * b - D) // (4 * p))
+
+    @classmethod
+    def parse(cls, text: str) -> "Form":
+        """Read a form from text, without evaluating it.
+
+        Accepts ``a,b,c``, ``[a,b,c]``, ``(a,b,c)`` and polynomials in x and y such as
+        ``3x^2 + 7xy - 5y^2``, ``x**2+x*y+6*y**2`` or ``-x^2 + 13 y^2``.
+
+        Raises
+        ------
+        ParseError
+            If the text is not one of these notations.
+
+        Examples
+        --------
+        >>> Form.parse("3x^2 + 7xy - 5y^2")
+        Form(3, 7, -5)
+        >>> Form.parse("[1, 0, -7]")
+        Form(1, 0, -7)
+        """
+        from ._parse import parse_form_text
+
+        return cls(*parse_form_text(text))
+
+    # -- sympy -------------------------------------------------------------------
+    def to_sympy(self, x: "sympy.Symbol | None" = None, y: "sympy.Symbol | None" = None) -> "sympy.Poly":
+        """The form as a ``sympy.Poly`` in ``x, y`` (symbols created if not given)."""
+        import sympy
+
+        x = x if x is not None else sympy.Symbol("x")
+        y = y if y is not None else sympy.Symbol("y")
+        return sympy.Poly(self._a * x**2 + self._b * x * y + self._c * y**2, x, y)
+
+    @classmethod
+    def from_sympy(cls, poly: object, x: object = None, y: object = None) -> "Form":
+        """Build a form from a sympy expression or ``Poly`` homogeneous of degree 2 in x, y.
+
+        Raises
+        ------
+        FormError
+            If the polynomial is not a binary quadratic form with integer coefficients.
+        """
+        import sympy
+
+        try:
+            if isinstance(poly, sympy.Poly):
+                P = poly if x is None else sympy.Poly(poly.as_expr(), x, y)
+            else:
+                gens = [x, y] if x is not None else sorted(sympy.sympify(poly).free_symbols, key=str)
+                if len(gens) == 1:
+                    gens.append(sympy.Symbol("y") if str(gens[0]) != "y" else sympy.Symbol("x"))
+                P = sympy.Poly(poly, *gens)
+        except sympy.PolynomialError as exc:  # pragma: no cover - defensive
+            raise FormError(f"not a polynomial in two variables: {poly!r}") from exc
+        if len(P.gens) != 2:
+            raise FormError(f"a binary form needs exactly two variables, not {P.gens}")
+        coeffs = {m: cf for m, cf in P.terms()}
+        if any(sum(m) != 2 for m in coeffs):
+            raise FormError(f"not homogeneous of degree 2: {P.as_expr()}")
+        out = []
+        for mono in ((2, 0), (1, 1), (0, 2)):
+            cf = coeffs.get(mono, 0)
+            if not getattr(sympy.sympify(cf), "is_integer", False):
+                raise FormError(f"coefficient {cf} of {P.as_expr()} is not an integer")
+            out.append(int(cf))
+        return cls(*out)
+
+    # -- display -----------------------------------------------------------------
+    def __repr__(self) -> str:
+        return f"Form({self._a}, {self._b}, {self._c})"
+
+    def _poly_text(self, power: str, times: str) -> str:
+        terms: list[str] = []
+        for coeff, mono in ((self._a, f"x{power}"), (self._b, f"x{times}y"), (self._c, f"y{power}")):
+            if coeff == 0:
+                continue
+            sign = "-" if coeff < 0 else "+"
+            mag = abs(coeff)
+            body = mono if mag == 1 else f"{mag}{mono}"
+            terms.append((sign, body))  # type: ignore[arg-type]
+        if not terms:
+            return "0"
+        first_sign, first = terms[0]  # type: ignore[misc]
+        out = ("-" if first_sign == "-" else "") + first
+        for sign, body in terms[1:]:  # type: ignore[misc]
+            out += f" {sign} {body}"
+        return out
+
+    def __str__(self) -> str:
+        return self._poly_text("^2", "")
+
+    def _repr_latex_(self) -> str:
+        return "$" + self._poly_text("^{2}", " ").replace("x y", "xy") + "$"
+
+    def to_list(self) -> list[int]:
+        """``[a, b, c]`` (for JSON)."""
+        return [self._a, self._b, self._c]
+
+
+FormLike = Union[Form, Sequence[int], str]
+
+
+def as_form(value: object, *, name: str = "form") -> Form:
+    """Coerce a :class:`Form`, an ``(a, b, c)`` sequence or text into a :class:`Form`.
+
+    Examples
+    --------
+    >>> as_form((1, 1, 6)), as_form("x^2 + 5y^2")
+    (Form(1, 1, 6), Form(1, 0, 5))
+    """
+    if isinstance(value, Form):
+        return value
+    if isinstance(value, str):
+        return Form.parse(value)
+    try:
+        items = list(value)  # type: ignore[call-overload]
+    except TypeError as exc:
+        raise FormError(f"{name} must be a Form, (a, b, c) or text, not {value!r}") from exc
+    if len(items) != 3:
+        raise FormError(f"{name} must have three coefficients (a, b, c), not {len(items)}: {value!r}")
+    return Form(*items)
+
+
+def _require_nonsquare(form: Form, what: str) -> int:
+    D = form.discriminant
+    if D == 0 or is_square(D):
+        raise DiscriminantError(
+            f"{what} needs a non-square discriminant; {form!r} has discriminant {D}"
+            + (f" = {int(isqrt(D))}²" if D > 0 else "")
+        )
+    return D

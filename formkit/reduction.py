@@ -1,0 +1,386 @@
+"""Reduction of binary quadratic forms, definite and indefinite, with matrices and traces.
+
+*Definite forms.*  A positive definite form ``(a, b, c)`` is reduced when
+``|b| ≤ a ≤ c`` and ``b ≥ 0`` whenever ``|b| = a`` or ``a = c``; every positive
+definite form is properly equivalent to exactly one reduced form (Gauss; Lagrange's
+algorithm, Cohen GTM 138 Algorithm 5.4.2).  A negative definite form ``Q`` is reduced
+when ``−Q`` is, and is reduced through ``−Q``.
+
+*Indefinite forms* (non-square ``D > 0``).  ``(a, b, c)`` is reduced when
+``0 < b < √D`` and ``√D − b < 2|a| < √D + b`` (Gauss).  The reduction operator ρ maps
+``(a, b, c)`` to ``(c, b', (b'² − D)/4c)`` with ``b' ≡ −b (mod 2c)`` normalised into
+``(−|c|, |c|]`` when ``|c| > √D`` and into ``(√D − 2|c|, √D)`` otherwise; its matrix
+is ``[[0, −1], [1, t]]`` with ``b' = −b + 2ct``.  Iterating ρ reduces any form in a
+number of steps logarithmic in its coefficients, and permutes the reduced forms of a
+proper class in one cycle (Buchmann–Vollmer, *Binary Quadratic Forms*, §6.2–6.3,
+Algorithm 6.1; Cohen GTM 138 §5.6.1).
+
+All comparisons with √D are done exactly with ``s = ⌊√D⌋`` (√D is irrational).
+
+References
+----------
+.. [1] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138,
+       Springer 1993, Algorithm 5.4.2 and §5.6.
+.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, Ch. 5–6.
+.. [3] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Theorem 2.8.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Tuple
+
+from .arith import isqrt, mpz
+from .errors import FormError
+from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
+
+__all__ = [
+    "ReductionStep",
+    "ReductionResult",
+    "FormCycle",
+    "is_reduced",
+    "reduce_form",
+    "reduced",
+    "rho",
+    "reduced_cycle",
+]
+
+
+@dataclass(frozen=True)
+class ReductionStep:
+    """One step of a reduction: ``after = before · matrix``.
+
+    ``kind`` is ``'translate'`` (``[[1, k], [0, 1]]``, b changed modulo 2a),
+    ``'swap'`` (``[[0, −1], [1, 0]]``, a and c exchanged), or ``'rho'`` (the
+    indefinite reduction operator ``[[0, −1], [1, t]]``).
+    """
+
+    kind: str
+    before: Form
+    matrix: Matrix
+    after: Form
+
+
+@dataclass(frozen=True)
+class ReductionResult:
+    """The outcome of :func:`reduce_form`: ``reduced == form · matrix``, ``matrix ∈ SL2(Z)``."""
+
+    form: Form
+    reduced: Form
+    matrix: Matrix
+    steps: Tuple[ReductionStep, ...] = field(default=(), repr=False)
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary."""
+        return {
+            "form": self.form.to_list(),
+            "discriminant": self.form.discriminant,
+            "reduced": self.reduced.to_list(),
+            "matrix": [list(r) for r in self.matrix],
+        }
+
+
+@dataclass(frozen=True)
+class FormCycle:
+    """The cycle of reduced indefinite forms ``forms[0] → forms[1] → …`` under ρ.
+
+    ``matrices[i]`` takes ``forms[i]`` to ``forms[i+1]`` (indices modulo the length);
+    the product of all of them is an automorph of ``forms[0]``.
+    """
+
+    forms: Tuple[Form, ...]
+    matrices: Tuple[Matrix, ...] = field(repr=False)
+
+    def __len__(self) -> int:
+        return len(self.forms)
+
+    def __iter__(self):
+        return iter(self.forms)
+
+    def __contains__(self, f: object) -> bool:
+        return f in self.forms
+
+    @property
+    def length(self) -> int:
+        """Number of reduced forms in the cycle."""
+        return len(self.forms)
+
+
+# ---------------------------------------------------------------------------
+# raw integer cores (hot paths; callers pass mpz or int)
+
+
+def _is_reduced_definite_raw(a: int, b: int, c: int) -> bool:
+    if a < 0:
+        a, b, c = -a, -b, -c
+    return -a < b <= a <= c and not (a == c and b < 0)
+
+
+def _reduce_definite_raw(a: int, b: int, c: int) -> tuple[int, int, int]:
+    """Reduce a positive definite form (no matrix).  Cohen Algorithm 5.4.2."""
+    while True:
+        if not (-a < b <= a):
+            a2 = 2 * a
+            r = b % a2
+            if r > a:
+                r -= a2
+            # b -> r = b + 2ak with k = (r - b) / 2a
+            k = (r - b) // a2
+            c = a * k * k + b * k + c
+            b = r
+        if a > c:
+            a, b, c = c, -b, a
+            continue
+        if a == c and b < 0:
+            b = -b
+        return a, b, c
+
+
+def _is_reduced_indefinite_raw(a: int, b: int, sq: int) -> bool:
+    if b <= 0 or b > sq:
+        return False
+    a2 = 2 * abs(a)
+    return a2 + b > sq and a2 - b <= sq
+
+
+def _rho_indefinite_raw(a: int, b: int, c: int, D: int, sq: int):
+    """One step of ρ: returns ``(c, b', (b'² − D)/4c, t)`` with matrix ``[[0, −1], [1, t]]``."""
+    cc = abs(c)
+    c2 = 2 * cc
+    if cc > sq:
+        r = (-b) % c2
+        if r > cc:
+            r -= c2
+    else:
+        r = sq - ((sq + b) % c2)
+    t = (b + r) // (2 * c)
+    return c, r, (r * r - D) // (4 * c), t
+
+
+def _reduce_indefinite_raw(a: int, b: int, c: int, D: int, sq: int):
+    """Apply ρ until reduced; returns the reduced form (no matrix)."""
+    while not _is_reduced_indefinite_raw(a, b, sq):
+        a, b, c, _ = _rho_indefinite_raw(a, b, c, D, sq)
+    return a, b, c
+
+
+def _principal_reduced_indefinite(D: int) -> tuple[int, int, int]:
+    """A reduced form ``(1, b, (b² − D)/4)`` of discriminant ``D > 0`` (b the largest
+    integer < √D with b ≡ D mod 2)."""
+    sq = int(isqrt(D))
+    b = sq if (sq - D) % 2 == 0 else sq - 1
+    return 1, b, (b * b - D) // 4
+
+
+# ---------------------------------------------------------------------------
+# public API
+
+
+def is_reduced(form: FormLike) -> bool:
+    """True if ``form`` is reduced (definite or indefinite, as defined above).
+
+    Raises
+    ------
+    DiscriminantError
+        If the discriminant is a square (including 0).
+
+    Examples
+    --------
+    >>> is_reduced((2, 1, 3)), is_reduced((3, 1, 2)), is_reduced((1, 3, -1))
+    (True, False, True)
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "reduction")
+    if D < 0:
+        return _is_reduced_definite_raw(f.a, f.b, f.c)
+    return _is_reduced_indefinite_raw(f.a, f.b, int(isqrt(D)))
+
+
+def reduce_form(form: FormLike, *, steps: bool = False) -> ReductionResult:
+    """Reduce ``form`` and return the reduced form and the SL2(Z) matrix to it.
+
+    Parameters
+    ----------
+    form : FormLike
+        Any form of non-square discriminant (definite forms need not be primitive).
+    steps : bool
+        Record every step (kind, matrix, form after it) in ``result.steps``.
+
+    Returns
+    -------
+    ReductionResult
+        ``result.reduced == result.form.transform(result.matrix)``.  For definite forms
+        the reduced form is the unique reduced form of the class; for indefinite ones
+        it is the first reduced form reached (use :func:`reduced_cycle` for all).
+
+    Raises
+    ------
+    DiscriminantError
+        If the discriminant is a perfect square (the form factors over Q).
+
+    Examples
+    --------
+    >>> r = reduce_form((10, 37, 35))
+    >>> r.reduced, r.matrix
+    (Form(1, 1, 8), ((-2, 1), (1, -1)))
+    >>> Form(10, 37, 35).transform(r.matrix) == r.reduced
+    True
+    >>> reduce_form((1, 0, -7)).reduced
+    Form(1, 4, -3)
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "reduction")
+    if D < 0:
+        return _reduce_definite(f, steps)
+    return _reduce_indefinite(f, D, steps)
+
+
+def reduced(form: FormLike) -> Form:
+    """The reduced form of :func:`reduce_form`, without the matrix.
+
+    Examples
+    --------
+    >>> reduced("5x^2 + 8xy + 4y^2")
+    Form(1, 0, 4)
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "reduction")
+    if D < 0:
+        sign = 1 if f.a > 0 else -1
+        a, b, c = _reduce_definite_raw(mpz(sign * f.a), mpz(sign * f.b), mpz(sign * f.c))
+        return Form(sign * a, sign * b, sign * c)
+    sq = isqrt(D)
+    return Form(*_reduce_indefinite_raw(mpz(f.a), mpz(f.b), mpz(f.c), mpz(D), sq))
+
+
+def _reduce_definite(f: Form, record: bool) -> ReductionResult:
+    sign = 1 if f.a > 0 else -1
+    a, b, c = mpz(sign * f.a), mpz(sign * f.b), mpz(sign * f.c)
+    p, q, r, s = 1, 0, 0, 1
+    trace: list[ReductionStep] = []
+
+    def push(kind: str, m: Matrix, before: tuple, after: tuple) -> None:
+        trace.append(
+            ReductionStep(
+                kind,
+                Form(*(sign * int(v) for v in before)),
+                m,
+                Form(*(sign * int(v) for v in after)),
+            )
+        )
+
+    while True:
+        if not (-a < b <= a):
+            a2 = 2 * a
+            rr = b % a2
+            if rr > a:
+                rr -= a2
+            k = (rr - b) // a2
+            before = (a, b, c)
+            c = a * k * k + b * k + c
+            b = rr
+            # M <- M · [[1, k], [0, 1]]
+            q, s = p * k + q, r * k + s
+            if record:
+                push("translate", ((1, int(k)), (0, 1)), before, (a, b, c))
+        if a > c or (a == c and b < 0):
+            before = (a, b, c)
+            a, b, c = c, -b, a
+            # M <- M · [[0, -1], [1, 0]]
+            p, q, r, s = q, -p, s, -r
+            if record:
+                push("swap", ((0, -1), (1, 0)), before, (a, b, c))
+            continue
+        break
+    matrix = ((int(p), int(q)), (int(r), int(s)))
+    red = Form(sign * int(a), sign * int(b), sign * int(c))
+    return ReductionResult(f, red, matrix, tuple(trace))
+
+
+def _reduce_indefinite(f: Form, D: int, record: bool) -> ReductionResult:
+    sq = isqrt(D)
+    Dz = mpz(D)
+    a, b, c = mpz(f.a), mpz(f.b), mpz(f.c)
+    p, q, r, s = 1, 0, 0, 1
+    trace: list[ReductionStep] = []
+    while not _is_reduced_indefinite_raw(a, b, sq):
+        before = Form(int(a), int(b), int(c))
+        a, b, c, t = _rho_indefinite_raw(a, b, c, Dz, sq)
+        # M <- M · [[0, -1], [1, t]]
+        p, q, r, s = q, -p + t * q, s, -r + t * s
+        if record:
+            trace.append(ReductionStep("rho", before, ((0, -1), (1, int(t))), Form(int(a), int(b), int(c))))
+    matrix = ((int(p), int(q)), (int(r), int(s)))
+    return ReductionResult(f, Form(int(a), int(b), int(c)), matrix, tuple(trace))
+
+
+def rho(form: FormLike) -> tuple[Form, Matrix]:
+    """One application of the reduction operator ρ to an indefinite form.
+
+    Returns ``(ρ(form), M)`` with ``ρ(form) == form · M``.
+
+    Raises
+    ------
+    FormError
+        If the form is not indefinite.
+
+    Examples
+    --------
+    >>> rho((1, 4, -1))
+    (Form(-1, 4, 1), ((0, -1), (1, -4)))
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "the reduction operator")
+    if D < 0:
+        raise FormError(f"the reduction operator ρ is for indefinite forms; {f!r} has D = {D} < 0")
+    a, b, c, t = _rho_indefinite_raw(mpz(f.a), mpz(f.b), mpz(f.c), mpz(D), isqrt(D))
+    return Form(int(a), int(b), int(c)), ((0, -1), (1, int(t)))
+
+
+def reduced_cycle(form: FormLike, *, max_length: int | None = None) -> FormCycle:
+    """The cycle of reduced forms properly equivalent to the indefinite ``form``.
+
+    The form is reduced first; the cycle starts at that reduced form.  Every reduced
+    form of the proper class occurs exactly once.
+
+    Parameters
+    ----------
+    max_length : int, optional
+        Stop with :class:`FormError` if the cycle is longer (cycles of |D| ≈ 10^k can
+        have about 10^(k/2) forms).
+
+    Examples
+    --------
+    >>> cyc = reduced_cycle((1, 0, -7))
+    >>> cyc.forms
+    (Form(1, 4, -3), Form(-3, 2, 2), Form(2, 2, -3), Form(-3, 4, 1))
+    >>> len(cyc)
+    4
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "a cycle of reduced forms")
+    if D < 0:
+        raise FormError(f"cycles of reduced forms are for indefinite forms; {f!r} has D = {D} < 0")
+    start = _reduce_indefinite(f, D, False).reduced
+    sq = isqrt(D)
+    Dz = mpz(D)
+    forms = [start]
+    matrices: list[Matrix] = []
+    a, b, c = mpz(start.a), mpz(start.b), mpz(start.c)
+    while True:
+        a, b, c, t = _rho_indefinite_raw(a, b, c, Dz, sq)
+        matrices.append(((0, -1), (1, int(t))))
+        g = Form(int(a), int(b), int(c))
+        if g == start:
+            break
+        forms.append(g)
+        if max_length is not None and len(forms) > max_length:
+            raise FormError(f"cycle of {start!r} is longer than max_length = {max_length}")
+    return FormCycle(tuple(forms), tuple(matrices))
+
+
+def _cycle_product(cyc: FormCycle, upto: int | None = None) -> Matrix:
+    m = IDENTITY
+    for step in cyc.matrices[: upto if upto is not None else len(cyc.matrices)]:
+        m = mat_mul(m, step)
+    return m
