@@ -193,6 +193,27 @@ def as_int(value: object, name: str = "value") -> int:
     )
 
 
+_INT_TYPES = (int,) if mpz is int else (int, type(mpz(0)))
+
+
+def _int(value: object, name: str) -> int:
+    """``value`` unchanged when it is an int or mpz (hot path), else :func:`as_int`."""
+    if type(value) in _INT_TYPES:
+        return value  # type: ignore[return-value]
+    return as_int(value, name)
+
+
+def _int_from_digits(text: str) -> int:
+    """A Python int from a string of ASCII decimal digits (optionally signed), of any length.
+
+    Python refuses ``int(text)`` above 4300 digits unless the limit is lifted; gmpy2
+    has no such limit and converts in subquadratic time.
+    """
+    if len(text) <= 4000 or _g is None:
+        return int(text)
+    return int(_g.mpz(text))
+
+
 def isqrt(n: int) -> int:
     """Floor of the square root of ``n >= 0``.
 
@@ -201,6 +222,7 @@ def isqrt(n: int) -> int:
     >>> isqrt(10**40 + 1) == 10**20
     True
     """
+    n = _int(n, "n")
     if n < 0:
         raise FormkitError(f"isqrt needs a non-negative integer, not {n}")
     return _isqrt(n)
@@ -214,6 +236,7 @@ def isqrt_rem(n: int) -> tuple[int, int]:
     >>> tuple(int(v) for v in isqrt_rem(17))
     (4, 1)
     """
+    n = _int(n, "n")
     if n < 0:
         raise FormkitError(f"isqrt_rem needs a non-negative integer, not {n}")
     return _isqrt_rem(n)
@@ -227,6 +250,7 @@ def is_square(n: int) -> bool:
     >>> is_square(0), is_square(49), is_square(-4), is_square(50)
     (True, True, False, False)
     """
+    n = _int(n, "n")
     return n >= 0 and bool(_is_square(n))
 
 
@@ -242,7 +266,7 @@ def gcd(*values: int) -> int:
     """
     g = 0
     for v in values:
-        g = _gcd(g, v)
+        g = _gcd(g, _int(v, "gcd argument"))
     return int(g)
 
 
@@ -255,7 +279,7 @@ def xgcd(a: int, b: int) -> tuple[int, int, int]:
     >>> int(g), int(s * 240 + t * 46)
     (2, 2)
     """
-    return _gcdext(a, b)
+    return _gcdext(_int(a, "a"), _int(b, "b"))
 
 
 def lcm(a: int, b: int) -> int:
@@ -266,6 +290,7 @@ def lcm(a: int, b: int) -> int:
     >>> lcm(4, 6)
     12
     """
+    a, b = _int(a, "a"), _int(b, "b")
     if a == 0 or b == 0:
         return 0
     return int(abs(a // gcd(a, b) * b))
@@ -279,6 +304,7 @@ def invert(a: int, m: int) -> int:
     >>> int(invert(3, 7))
     5
     """
+    a, m = _int(a, "a"), _int(m, "modulus")
     if m == 0:
         raise FormkitError("invert: modulus must be non-zero")
     m = abs(m)
@@ -291,7 +317,23 @@ def invert(a: int, m: int) -> int:
 
 
 def powmod(a: int, e: int, m: int) -> int:
-    """``a**e mod m`` (``e`` may be negative when ``a`` is invertible)."""
+    """``a**e mod m`` for ``m >= 1`` (``e`` may be negative when ``a`` is invertible mod m).
+
+    Raises
+    ------
+    FormkitError
+        If ``m < 1``, or ``e < 0`` and ``a`` is not invertible modulo ``m``.
+
+    Examples
+    --------
+    >>> int(powmod(3, 200, 7)), int(powmod(3, -1, 7))
+    (2, 5)
+    """
+    a, e, m = _int(a, "a"), _int(e, "exponent"), _int(m, "modulus")
+    if m < 1:
+        raise FormkitError(f"powmod needs a modulus >= 1, not {m}")
+    if e < 0:
+        return _powmod(invert(a, m), -e, m)
     return _powmod(a, e, m)
 
 
@@ -305,7 +347,7 @@ def kronecker(a: int, n: int) -> int:
     >>> kronecker(5, -1), kronecker(-5, -1)
     (1, -1)
     """
-    return int(_kronecker(a, n))
+    return int(_kronecker(_int(a, "a"), _int(n, "n")))
 
 
 def is_probable_prime(n: int) -> bool:
@@ -316,6 +358,7 @@ def is_probable_prime(n: int) -> bool:
     >>> is_probable_prime(2**127 - 1), is_probable_prime(561), is_probable_prime(1)
     (True, False, False)
     """
+    n = _int(n, "n")
     if n < 2:
         return False
     return bool(_is_prime(n, 25))
@@ -329,6 +372,7 @@ def next_prime(n: int) -> int:
     >>> int(next_prime(100))
     101
     """
+    n = _int(n, "n")
     if n < 2:
         return 2
     return _next_prime(n)
@@ -393,6 +437,7 @@ def sqrt_mod_prime(a: int, p: int) -> int:
     >>> int(sqrt_mod_prime(0, 7))
     0
     """
+    a, p = _int(a, "a"), _int(p, "p")
     if not is_probable_prime(p):
         raise NotPrimeError(f"sqrt_mod_prime needs a prime modulus, not {p}")
     return _sqrt_mod_prime(mpz(a) % p, mpz(p))
@@ -440,7 +485,14 @@ def sqrt_mod_prime_power(a: int, p: int, k: int) -> list[int]:
     """All square roots of ``a`` modulo ``p**k`` (sorted; empty when there are none).
 
     Handles every case, including ``p = 2`` and ``p`` dividing ``a``; roots are lifted
-    from ``p`` by Hensel's lemma.
+    from ``p`` by Hensel's lemma (Cohen GTM 138, §1.5; number not recalled).
+
+    Raises
+    ------
+    NotPrimeError
+        If ``p`` is not a (probable) prime.
+    FormkitError
+        If ``k < 1``.
 
     Examples
     --------
@@ -451,9 +503,12 @@ def sqrt_mod_prime_power(a: int, p: int, k: int) -> list[int]:
     >>> sqrt_mod_prime_power(2, 3, 2)
     []
     """
+    a, p, k = as_int(a, "a"), as_int(p, "p"), as_int(k, "k")
     if k < 1:
         raise FormkitError(f"prime power exponent must be >= 1, not {k}")
-    return [int(r) for r in _sqrt_mod_prime_power(int(a), int(p), int(k))]
+    if not is_probable_prime(p):
+        raise NotPrimeError(f"sqrt_mod_prime_power needs a prime p, not {p}")
+    return [int(r) for r in _sqrt_mod_prime_power(a, p, k)]
 
 
 @lru_cache(maxsize=65536)
@@ -518,7 +573,16 @@ def _sqrt_unit_mod_prime_power(a: int, p: int, k: int) -> list[int]:
 def sqrt_mod(a: int, n: int, factors: dict[int, int] | None = None) -> list[int]:
     """All square roots of ``a`` modulo ``n >= 1``, sorted.
 
-    ``factors`` may give the factorisation of ``n`` to avoid refactoring.
+    ``factors`` may give the factorisation of ``n`` to avoid refactoring.  The roots
+    modulo each prime power (:func:`sqrt_mod_prime_power`) are combined by the
+    Chinese remainder theorem.
+
+    Raises
+    ------
+    NotAnIntegerError
+        If ``a`` or ``n`` is not an integer.
+    FormkitError
+        If ``n < 1``.
 
     Examples
     --------
@@ -527,7 +591,7 @@ def sqrt_mod(a: int, n: int, factors: dict[int, int] | None = None) -> list[int]
     >>> sqrt_mod(5, 1)
     [0]
     """
-    n = as_int(n, "n")
+    a, n = as_int(a, "a"), as_int(n, "n")
     if n < 1:
         raise FormkitError(f"modulus must be >= 1, not {n}")
     if n == 1:
@@ -573,7 +637,7 @@ def crt(residues: Iterable[int], moduli: Iterable[int]) -> tuple[int, int]:
     >>> crt([2, 3, 2], [3, 5, 7])
     (23, 105)
     """
-    residues = list(residues)
+    residues = [as_int(r, "residue") for r in residues]
     moduli = list(moduli)
     if len(residues) != len(moduli):
         raise FormkitError("crt needs as many residues as moduli")
