@@ -3,42 +3,50 @@
 Nothing here evaluates user text: it is split into tokens by a small scanner and
 checked against a fixed grammar.
 
-Grammar (white space is ignored between tokens)::
+Grammar (ASCII white space is ignored between tokens)::
 
     form     := triple | poly
-    triple   := ["[" | "("] int "," int "," int ["]" | ")"]
-    poly     := term (("+" | "-") term)*      with an optional leading sign
+    triple   := ["[" int "," int "," int "]"] | ["(" int "," int "," int ")"] | int "," int "," int
+    poly     := term (sign term)*      with an optional leading sign
     term     := [int ["*"]] mono | mono ["*" int]
-    mono     := var ["^" "2" | "**" "2"] [["*"] var ["^" "2" | "**" "2"]]
+    mono     := var [power] [["*"] var [power]]
+    power    := "^" int | "**" int | "²"          (the exponent must be 1 or 2)
     var      := "x" | "y"
+    sign     := "+" | "-" | "−" (U+2212, the minus sign of typeset text)
+    int      := ASCII digits 0-9 only
 
 A monomial must have degree exactly 2 (x², xy, yx, y²).  Repeated monomials add up.
+Anything else (other characters, other letters, Unicode digits, more or fewer than
+three coefficients, unbalanced brackets, text longer than :data:`MAX_TEXT`) raises
+:class:`~formkit.errors.ParseError`.
 """
 
 from __future__ import annotations
 
+import operator
 import re
 
+from .arith import _int_from_digits
 from .errors import ParseError
 
 __all__ = ["parse_form_text", "parse_integer"]
 
 MAX_TEXT = 1_000_000
 
-_INT_RE = re.compile(r"[+-]?\d+\Z")
+# re.ASCII: \d and \s match only ASCII digits and white space (no Unicode digits).
+_INT_RE = re.compile(r"[+-]?[0-9]+\Z", re.ASCII)
 _TRIPLE_RE = re.compile(
-    r"\s*[\[(]?\s*([+-]?\s*\d+)\s*,\s*([+-]?\s*\d+)\s*,\s*([+-]?\s*\d+)\s*[\])]?\s*\Z"
+    r"\s*[\[(]?\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*[\])]?\s*\Z",
+    re.ASCII,
 )
-_TOKEN_RE = re.compile(r"\s*(?:(\d+)|(\*\*)|([xy])|([-+*^]))")
+_POWER10_RE = re.compile(r"([+-]?)(?:([0-9]+)\s*\*\s*)?([0-9]+)\s*(?:\^|\*\*)\s*([0-9]+)", re.ASCII)
+_TOKEN_RE = re.compile(r"(?:([0-9]+)|(\*\*)|([xy])|([-+*^\u2212\u00b2]))", re.ASCII)
+_SPACE = " \t\n\r\f\v"
 
 
 def _digits_to_int(text: str) -> int:
-    # int() refuses > 4300 digits by default; gmpy2 has no such limit.
-    if len(text) > 4000:
-        import gmpy2
-
-        return int(gmpy2.mpz(text))
-    return int(text)
+    # int() refuses > 4300 digits by default; arith converts any length.
+    return _int_from_digits("".join(text.split()))
 
 
 def parse_integer(text: object, name: str = "integer") -> int:
@@ -58,22 +66,25 @@ def parse_integer(text: object, name: str = "integer") -> int:
     >>> parse_integer("-23"), parse_integer("10^6"), parse_integer("-3*10**4")
     (-23, 1000000, -30000)
     """
-    if isinstance(text, int) and not isinstance(text, bool):
-        return text
+    if not isinstance(text, (str, bool, float)):
+        try:
+            return operator.index(text)  # type: ignore[arg-type]
+        except TypeError:
+            pass
     if not isinstance(text, str):
         raise ParseError(f"{name} must be text or an integer, not {text!r}")
-    s = text.strip()
+    s = text.strip(_SPACE)
     if len(s) > MAX_TEXT:
         raise ParseError(f"{name} is too long ({len(s)} characters, at most {MAX_TEXT})")
     if _INT_RE.match(s):
         return _digits_to_int(s)
-    m = re.fullmatch(r"([+-]?)(?:(\d+)\s*\*\s*)?(\d+)\s*(?:\^|\*\*)\s*(\d+)", s)
+    m = _POWER10_RE.fullmatch(s)
     if m:
         sign, factor, base, exp = m.groups()
         e = int(exp) if len(exp) < 7 else None
         if e is None or e > 100_000:
             raise ParseError(f"{name}: exponent too large in {text!r}")
-        value = (int(factor) if factor else 1) * _digits_to_int(base) ** e
+        value = (_digits_to_int(factor) if factor else 1) * _digits_to_int(base) ** e
         return -value if sign == "-" else value
     raise ParseError(f"{name} must be an integer such as -23, 10^12 or 3*10^20, not {text!r}")
 
@@ -103,7 +114,7 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
         raise ParseError(f"a form must be given as text here, not {text!r}")
     if len(text) > MAX_TEXT:
         raise ParseError(f"form text is too long ({len(text)} characters, at most {MAX_TEXT})")
-    s = text.strip()
+    s = text.strip(_SPACE)
     if not s:
         raise ParseError("cannot read an empty text as a form")
     m = _TRIPLE_RE.match(s)
@@ -114,7 +125,13 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
             opening in pairs and pairs[opening] != closing
         ):
             raise ParseError(f"cannot read {text!r} as a form: unbalanced brackets")
-        return tuple(_digits_to_int(g.replace(" ", "")) for g in m.groups())  # type: ignore[return-value]
+        return tuple(_digits_to_int(g) for g in m.groups())  # type: ignore[return-value]
+    if "," in s:
+        parts = s.strip("[]()").split(",")
+        raise ParseError(
+            f"cannot read {text!r} as a form: expected exactly three integers a,b,c "
+            f"(optionally in [ ] or ( )), found {len(parts)} comma-separated parts"
+        )
     return _parse_poly(text)
 
 
@@ -129,22 +146,27 @@ def _tokenize(text: str) -> list[tuple[str, str, int]]:
     pos = 0
     n = len(text)
     while pos < n:
-        if text[pos].isspace():
+        if text[pos] in _SPACE:
             pos += 1
             continue
         m = _TOKEN_RE.match(text, pos)
         if not m:
             raise _fail(text, f"unexpected character {text[pos]!r} at position {pos}")
         num, pow_, var, op = m.groups()
-        start = m.start(m.lastindex or 0)
+        start = m.start()
         if num is not None:
             tokens.append(("int", num, start))
         elif pow_ is not None:
             tokens.append(("^", "**", start))
         elif var is not None:
             tokens.append(("var", var, start))
+        elif op == "\u00b2":  # superscript two: "^" "2"
+            tokens.append(("^", op, start))
+            tokens.append(("int", "2", start))
+        elif op == "\u2212":  # typeset minus sign
+            tokens.append(("-", op, start))
         else:
-            tokens.append((op if op != "^" else "^", op, start))
+            tokens.append((op, op, start))
         pos = m.end()
     return tokens
 
