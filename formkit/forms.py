@@ -21,7 +21,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
 
 from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker, sqrt_mod_prime
-from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, ParseError
+from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError, ParseError
 
 if TYPE_CHECKING:  # pragma: no cover
     import sympy
@@ -304,8 +304,11 @@ class Form:
         ------
         NotPrimeError
             If ``p`` is not prime.
-        FormkitError
+        FormError
             If ``χ_D(p) = −1`` (``p`` is inert: no form of leading coefficient p).
+        NotPrimitiveError
+            If ``p`` divides the conductor of ``D`` (every form ``(p, b, c)`` of
+            discriminant ``D`` then has content ``p``).
 
         Examples
         --------
@@ -320,6 +323,12 @@ class Form:
             raise NotPrimeError(f"prime form needs a prime p, not {p}")
         if kronecker(D, p) == -1:
             raise FormError(f"no prime form of discriminant {D} at p = {p}: χ_D(p) = −1 ({p} is inert)")
+        if D % (p * p) == 0 and (D // (p * p)) % 4 in (0, 1):
+            # p divides the conductor: every form (p, b, c) of discriminant D has p | b, c
+            raise NotPrimitiveError(
+                f"no primitive prime form of discriminant {D} at p = {p}: p divides the conductor "
+                f"({D} = {p}²·{D // (p * p)})"
+            )
         if p == 2:
             # b² ≡ D (mod 8), 0 ≤ b ≤ 2
             b = next(b for b in (0, 1, 2) if (b * b - D) % 8 == 0)
@@ -363,34 +372,88 @@ class Form:
 
     @classmethod
     def from_sympy(cls, poly: object, x: object = None, y: object = None) -> "Form":
-        """Build a form from a sympy expression or ``Poly`` homogeneous of degree 2 in x, y.
+        """Build a form from a sympy expression or ``Poly``, homogeneous of degree 2 in x, y.
+
+        Only sympy objects are accepted: text is never handed to sympy (use
+        :meth:`Form.parse` for text).  Without ``x`` and ``y`` the variables are the
+        generators of a ``Poly`` (first one is x), or the free symbols of an expression
+        sorted by name.
+
+        Parameters
+        ----------
+        poly : sympy.Expr or sympy.Poly
+            The polynomial ``a·x² + b·x·y + c·y²`` with integer coefficients.
+        x, y : sympy.Symbol, optional
+            The two variables (give both or neither).
+
+        Returns
+        -------
+        Form
 
         Raises
         ------
         FormError
-            If the polynomial is not a binary quadratic form with integer coefficients.
+            If ``poly`` is text or not a sympy object, or not a binary quadratic form
+            with integer coefficients.
+
+        Examples
+        --------
+        >>> import sympy
+        >>> X, Y = sympy.symbols("x y")
+        >>> Form.from_sympy(3*X**2 + 7*X*Y - 5*Y**2)
+        Form(3, 7, -5)
+        >>> Form.from_sympy(Form(1, 1, 6).to_sympy())
+        Form(1, 1, 6)
+        >>> Form.from_sympy("x**2 + y**2")
+        Traceback (most recent call last):
+        ...
+        formkit.errors.FormError: from_sympy takes a sympy expression or Poly, not the text 'x**2 + y**2'; use Form.parse for text
         """
         import sympy
+        from sympy.polys.polyerrors import PolynomialError, GeneratorsError
 
+        if isinstance(poly, str):
+            raise FormError(
+                f"from_sympy takes a sympy expression or Poly, not the text {poly!r}; use Form.parse for text"
+            )
+        if not isinstance(poly, sympy.Basic):
+            raise FormError(f"from_sympy takes a sympy expression or Poly, not {poly!r} ({type(poly).__name__})")
+        if (x is None) != (y is None):
+            raise FormError("from_sympy: give both variables x and y, or neither")
+        for v in (x, y):
+            if v is not None and not isinstance(v, sympy.Symbol):
+                raise FormError(f"from_sympy: the variables must be sympy Symbols, not {v!r}")
         try:
             if isinstance(poly, sympy.Poly):
                 P = poly if x is None else sympy.Poly(poly.as_expr(), x, y)
             else:
-                gens = [x, y] if x is not None else sorted(sympy.sympify(poly).free_symbols, key=str)
-                if len(gens) == 1:
-                    gens.append(sympy.Symbol("y") if str(gens[0]) != "y" else sympy.Symbol("x"))
+                if x is not None:
+                    gens = [x, y]
+                else:
+                    gens = sorted(poly.free_symbols, key=str)
+                    if len(gens) > 2:
+                        raise FormError(f"a binary form has two variables; {poly} has {len(gens)}")
+                    names = {str(g) for g in gens}
+                    for fill in ("x", "y", "_x", "_y"):
+                        if len(gens) == 2:
+                            break
+                        if fill not in names:
+                            gens.append(sympy.Symbol(fill))
+                            names.add(fill)
                 P = sympy.Poly(poly, *gens)
-        except sympy.PolynomialError as exc:  # pragma: no cover - defensive
+        except (PolynomialError, GeneratorsError) as exc:
             raise FormError(f"not a polynomial in two variables: {poly!r}") from exc
         if len(P.gens) != 2:
             raise FormError(f"a binary form needs exactly two variables, not {P.gens}")
+        if P.is_zero:
+            return cls(0, 0, 0)
         coeffs = {m: cf for m, cf in P.terms()}
         if any(sum(m) != 2 for m in coeffs):
             raise FormError(f"not homogeneous of degree 2: {P.as_expr()}")
         out = []
         for mono in ((2, 0), (1, 1), (0, 2)):
             cf = coeffs.get(mono, 0)
-            if not getattr(sympy.sympify(cf), "is_integer", False):
+            if not (isinstance(cf, int) or getattr(cf, "is_Integer", False)):
                 raise FormError(f"coefficient {cf} of {P.as_expr()} is not an integer")
             out.append(int(cf))
         return cls(*out)
