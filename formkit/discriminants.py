@@ -23,7 +23,7 @@ from functools import lru_cache
 from typing import Callable
 
 from .arith import as_int, factorint, is_square, isqrt, kronecker
-from .errors import DiscriminantError
+from .errors import DiscriminantError, FormkitError
 
 __all__ = [
     "validate_discriminant",
@@ -235,6 +235,9 @@ class QuadraticUnit:
 def _log_unit(D: int, t: int, u: int, digits: int):
     import mpmath
 
+    digits = as_int(digits, "digits")
+    if digits < 1:
+        raise FormkitError(f"digits must be >= 1, not {digits}")
     values = []
     for extra in (0, 20):
         with mpmath.workdps(digits + 10 + extra):

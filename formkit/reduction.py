@@ -304,12 +304,16 @@ def _reduce_indefinite(f: Form, D: int, record: bool) -> ReductionResult:
     p, q, r, s = 1, 0, 0, 1
     trace: list[ReductionStep] = []
     while not _is_reduced_indefinite_raw(a, b, sq):
-        before = Form(int(a), int(b), int(c))
+        before = (a, b, c)
         a, b, c, t = _rho_indefinite_raw(a, b, c, Dz, sq)
         # M <- M · [[0, -1], [1, t]]
         p, q, r, s = q, -p + t * q, s, -r + t * s
         if record:
-            trace.append(ReductionStep("rho", before, ((0, -1), (1, int(t))), Form(int(a), int(b), int(c))))
+            trace.append(
+                ReductionStep(
+                    "rho", Form(*before), ((0, -1), (1, int(t))), Form(int(a), int(b), int(c))
+                )
+            )
     matrix = ((int(p), int(q)), (int(r), int(s)))
     return ReductionResult(f, Form(int(a), int(b), int(c)), matrix, tuple(trace))
 
