@@ -24,7 +24,13 @@ from .reduction import *  # noqa: F401,F403,E402
 from .reduction import __all__ as _red_all  # noqa: E402
 from .equivalence import *  # noqa: F401,F403,E402
 from .equivalence import __all__ as _eq_all  # noqa: E402
+from .composition import *  # noqa: F401,F403,E402
+from .composition import __all__ as _comp_all  # noqa: E402
+from .enumeration import *  # noqa: F401,F403,E402
+from .enumeration import __all__ as _enum_all  # noqa: E402
+from .classgroup import *  # noqa: F401,F403,E402
+from .classgroup import __all__ as _cg_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, "__version__"]
+__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, "__version__"]

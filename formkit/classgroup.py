@@ -1,0 +1,685 @@
+"""The class group ``Cl(D)`` as an object: elements, composition, structure, provenance.
+
+``Cl(D)`` is the group of proper equivalence classes of primitive forms of discriminant
+``D`` (positive definite when ``D < 0``) under composition; for ``D > 0`` it is the
+*narrow* class group of the order of discriminant ``D``.  A :class:`ClassGroup` holds
+its structure: the invariant factors ``n1 | n2 | … | nk`` (so ``Cl(D) ≅ ⊕ Z/n_i``),
+generators of exactly those orders, and a discrete logarithm of every class on them.
+A :class:`ClassGroupElement` is a class, represented by its canonical reduced form; it
+knows its group and supports ``*``, ``**`` (any integer), :meth:`~ClassGroupElement.inverse`
+and :attr:`~ClassGroupElement.order`.
+
+*Structure from a table* (enumerated groups).  Starting from prime forms of small
+primes, then any class not yet reached, the group is built one generator at a time;
+the new generator ``g`` contributes the relation ``g^m = (a product of earlier
+generators)`` with ``m`` minimal.  These relations span the relation lattice ``L`` of
+the generators, and a Smith normal form ``U·R·V = diag(n_i)`` of the relation matrix
+``R`` (sympy's ``smith_normal_decomp``) changes to a basis in which
+``Z^k / L ≅ ⊕ Z/n_i`` (Cohen GTM 138, §2.4.3 on the Smith normal form and §5.5 on
+computing class group structure from relations).  Every result records how it was
+obtained in :attr:`ClassGroup.provenance`.
+
+References
+----------
+.. [1] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138,
+       Springer 1993, §2.4.3, §5.4, §5.5.
+.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, Ch. 9.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Callable, Dict, Iterator, Optional, Sequence, Tuple
+
+from .arith import as_int, isqrt, kronecker, lcm, mpz
+from .composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
+from .discriminants import discriminant_parts, fundamental_unit, validate_discriminant
+from .enumeration import _cycles_cached, _reduced_forms_cached
+from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
+from .forms import Form, FormLike, as_form
+from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
+
+__all__ = [
+    "Provenance",
+    "ClassGroup",
+    "ClassGroupElement",
+    "class_group",
+    "ENUMERATION_LIMIT",
+]
+
+#: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
+#: (about √|D| work); above it the baby-step giant-step path of
+#: :mod:`formkit.large_discriminants` is used when present.
+ENUMERATION_LIMIT = 10**11
+
+Triple = Tuple[int, int, int]
+
+
+@dataclass(frozen=True)
+class Provenance:
+    """How a class-group result was obtained.
+
+    ``method`` is ``"enumeration"`` or ``"bsgs"``; ``certified`` is true when the result
+    is unconditional; ``assumption`` names a hypothesis it rests on (``"GRH"``) and
+    ``bound`` the bound used with it (e.g. Bach's bound on the norms of the prime forms
+    taken as generators).
+    """
+
+    method: str
+    certified: bool
+    assumption: Optional[str] = None
+    bound: Optional[int] = None
+    detail: str = ""
+
+    def __str__(self) -> str:
+        if self.certified:
+            text = f"{self.method}, unconditional"
+        else:
+            text = f"{self.method}, conditional on {self.assumption}"
+            if self.bound is not None:
+                text += f" (bound {self.bound})"
+        return text + (f"; {self.detail}" if self.detail else "")
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary."""
+        return {
+            "method": self.method,
+            "certified": self.certified,
+            "assumption": self.assumption,
+            "bound": self.bound,
+            "detail": self.detail,
+        }
+
+
+ENUMERATED = Provenance("enumeration", True, None, None, "complete enumeration of reduced forms")
+
+
+class ClassGroupElement:
+    """A class of ``Cl(D)``, represented by its canonical reduced form.
+
+    Create elements through the group: ``G(form)``, ``G.identity``, ``G.prime_form(p)``,
+    iteration over ``G``.
+
+    Examples
+    --------
+    >>> G = class_group(-23)
+    >>> x = G((2, 1, 3))
+    >>> x * x, x ** 3 == G.identity, x.order
+    (ClassGroupElement(Form(2, -1, 3), D=-23), True, 3)
+    """
+
+    __slots__ = ("_group", "_form")
+
+    def __init__(self, group: "ClassGroup", form: Triple) -> None:
+        object.__setattr__(self, "_group", group)
+        object.__setattr__(self, "_form", form)
+
+    def __setattr__(self, name: str, value: object) -> None:
+        raise AttributeError("ClassGroupElement is immutable")
+
+    @property
+    def group(self) -> "ClassGroup":
+        """The class group this element belongs to."""
+        return self._group
+
+    @property
+    def form(self) -> Form:
+        """The canonical reduced form of the class."""
+        return Form(*self._form)
+
+    def _check(self, other: object) -> "ClassGroupElement":
+        if not isinstance(other, ClassGroupElement):
+            raise FormkitError(f"cannot compose a class with {other!r} (not a class group element)")
+        if other._group.discriminant != self._group.discriminant:
+            raise DiscriminantMismatchError(
+                f"classes of different discriminants cannot be composed: "
+                f"{self._group.discriminant} and {other._group.discriminant}"
+            )
+        return other
+
+    def __mul__(self, other: "ClassGroupElement") -> "ClassGroupElement":
+        other = self._check(other)
+        return ClassGroupElement(self._group, self._group._mul(self._form, other._form))
+
+    def __truediv__(self, other: "ClassGroupElement") -> "ClassGroupElement":
+        return self * self._check(other).inverse()
+
+    def inverse(self) -> "ClassGroupElement":
+        """The inverse class (that of ``(a, −b, c)``)."""
+        a, b, c = self._form
+        return ClassGroupElement(self._group, self._group._canon((a, -b, c)))
+
+    __invert__ = inverse
+
+    def __pow__(self, k: int) -> "ClassGroupElement":
+        k = as_int(k, "exponent")
+        if k < 0:
+            return self.inverse() ** (-k)
+        G = self._group
+        result = G._identity
+        base = self._form
+        while k:
+            if k & 1:
+                result = G._mul(result, base)
+            k >>= 1
+            if k:
+                base = G._sqr(base)
+        return ClassGroupElement(G, result)
+
+    @property
+    def order(self) -> int:
+        """The order of the class in the group (from its discrete logarithm)."""
+        e = self._group.discrete_log(self)
+        n = 1
+        for ei, ni in zip(e, self._group.invariants):
+            n = lcm(n, ni // _gcd(ei, ni))
+        return n
+
+    def is_identity(self) -> bool:
+        """True for the principal class."""
+        return self._form == self._group._identity
+
+    def __eq__(self, other: object) -> bool:
+        if isinstance(other, ClassGroupElement):
+            return self._group.discriminant == other._group.discriminant and self._form == other._form
+        return NotImplemented
+
+    def __hash__(self) -> int:
+        return hash((self._group.discriminant, self._form))
+
+    def __repr__(self) -> str:
+        return f"ClassGroupElement({self.form!r}, D={self._group.discriminant})"
+
+    def __str__(self) -> str:
+        return f"[{self.form}]"
+
+    def _repr_latex_(self) -> str:
+        return r"$\left[" + self.form._repr_latex_().strip("$") + r"\right]$"
+
+
+def _gcd(a: int, b: int) -> int:
+    from math import gcd
+
+    return gcd(a, b)
+
+
+class ClassGroup:
+    """The class group ``Cl(D)`` with its structure and how it was obtained.
+
+    Obtain one with :func:`class_group`.  ``len(G)`` and ``G.order`` are the class
+    number (narrow for ``D > 0``); ``G.invariants`` are ``n1 | n2 | …``;
+    ``G.generators`` have exactly those orders; ``G.discrete_log(x)`` gives the
+    exponents of ``x`` on them; ``G.provenance`` says how the result was obtained.
+
+    Examples
+    --------
+    >>> G = class_group(-4004)
+    >>> G.order, G.invariants, G.two_rank
+    (40, (2, 2, 10), 3)
+    >>> G.provenance.method, G.provenance.certified
+    ('enumeration', True)
+    >>> [g.order for g in G.generators]
+    [2, 2, 10]
+    """
+
+    def __init__(
+        self,
+        discriminant: int,
+        *,
+        invariants: Sequence[int],
+        generators: Sequence[Triple],
+        dlog: Callable[[Triple], Tuple[int, ...]],
+        canonical: Callable[[Triple], Triple],
+        provenance: Provenance,
+        forms: Optional[Sequence[Triple]] = None,
+    ) -> None:
+        self._D = discriminant
+        self._invariants = tuple(int(n) for n in invariants)
+        self._generators = tuple(generators)
+        self._dlog = dlog
+        self._canon = canonical
+        self._provenance = provenance
+        self._forms = tuple(forms) if forms is not None else None
+        self._identity = canonical(tuple(Form.principal(discriminant)))  # type: ignore[arg-type]
+        Dz = mpz(discriminant)
+        if discriminant < 0 and abs(discriminant) > 10**30:
+            L = _nucomp_bound(discriminant)
+            self._mul = lambda x, y: canonical(_nucomp_raw(*x, *y, Dz, L))  # type: ignore[assignment]
+            self._sqr = lambda x: canonical(_nudupl_raw(*x, Dz, L))  # type: ignore[assignment]
+        else:
+            D = discriminant
+            self._mul = lambda x, y: canonical(_compose_raw(*x, *y, D))  # type: ignore[assignment]
+            self._sqr = lambda x: canonical(_compose_raw(*x, *x, D))  # type: ignore[assignment]
+
+    # -- basic data ------------------------------------------------------------
+    @property
+    def discriminant(self) -> int:
+        """The discriminant D."""
+        return self._D
+
+    @property
+    def fundamental_discriminant(self) -> int:
+        """``d_K`` with ``D = f²·d_K``."""
+        return discriminant_parts(self._D)[0]
+
+    @property
+    def conductor(self) -> int:
+        """The conductor ``f`` of the order."""
+        return discriminant_parts(self._D)[1]
+
+    @property
+    def order(self) -> int:
+        """The class number (narrow for D > 0)."""
+        n = 1
+        for k in self._invariants:
+            n *= k
+        return n
+
+    class_number = order
+
+    def __len__(self) -> int:
+        return self.order
+
+    @property
+    def invariants(self) -> Tuple[int, ...]:
+        """Invariant factors ``(n1, n2, …)`` with ``n1 | n2 | …`` and every ``n_i > 1``."""
+        return self._invariants
+
+    @property
+    def generators(self) -> Tuple[ClassGroupElement, ...]:
+        """Generators of orders ``n1, n2, …`` (one per invariant factor)."""
+        return tuple(ClassGroupElement(self, g) for g in self._generators)
+
+    @property
+    def provenance(self) -> Provenance:
+        """How this group was computed (method, certified, assumption, bound)."""
+        return self._provenance
+
+    @property
+    def identity(self) -> ClassGroupElement:
+        """The principal class."""
+        return ClassGroupElement(self, self._identity)
+
+    @property
+    def exponent(self) -> int:
+        """The exponent of the group (the largest invariant factor, or 1)."""
+        return self._invariants[-1] if self._invariants else 1
+
+    @property
+    def two_rank(self) -> int:
+        """The 2-rank: the number of even invariant factors."""
+        return sum(1 for n in self._invariants if n % 2 == 0)
+
+    @property
+    def is_narrow(self) -> bool:
+        """True for D > 0, where this is the narrow (proper) class group."""
+        return self._D > 0
+
+    @property
+    def structure(self) -> str:
+        """The group as a product of cyclic groups, e.g. ``'C2 x C2 x C10'`` (``'C1'`` if trivial)."""
+        return " x ".join(f"C{n}" for n in self._invariants) or "C1"
+
+    # -- elements --------------------------------------------------------------
+    def __call__(self, form: FormLike) -> ClassGroupElement:
+        """The class of a primitive form of discriminant D (positive definite if D < 0)."""
+        f = as_form(form)
+        if f.discriminant != self._D:
+            raise DiscriminantMismatchError(
+                f"{f!r} has discriminant {f.discriminant}, not {self._D} as this class group"
+            )
+        if not f.is_primitive:
+            raise NotPrimitiveError(f"class groups consist of primitive forms; {f!r} has content {f.content}")
+        if self._D < 0 and f.a < 0:
+            raise FormError(f"Cl({self._D}) consists of positive definite forms; {f!r} is negative definite")
+        return ClassGroupElement(self, self._canon(f.coefficients))
+
+    def element(self, exponents: Sequence[int]) -> ClassGroupElement:
+        """The class ``∏ g_i^{e_i}`` on the generators (inverse of :meth:`discrete_log`)."""
+        exps = [as_int(e, "exponent") for e in exponents]
+        if len(exps) != len(self._invariants):
+            raise FormkitError(
+                f"need {len(self._invariants)} exponents (one per invariant factor), not {len(exps)}"
+            )
+        x = self.identity
+        for g, e in zip(self.generators, exps):
+            x = x * g ** e
+        return x
+
+    def discrete_log(self, x: "ClassGroupElement | FormLike") -> Tuple[int, ...]:
+        """Exponents ``(e_1, …)`` with ``x = ∏ g_i^{e_i}``, ``0 ≤ e_i < n_i``.
+
+        Examples
+        --------
+        >>> G = class_group(-4004)
+        >>> x = G.prime_form(3)
+        >>> G.element(G.discrete_log(x)) == x
+        True
+        """
+        if not isinstance(x, ClassGroupElement):
+            x = self(x)
+        elif x.group.discriminant != self._D:
+            raise DiscriminantMismatchError(f"{x!r} is not in Cl({self._D})")
+        e = self._dlog(x._form)
+        return tuple(int(ei) % ni for ei, ni in zip(e, self._invariants))
+
+    def prime_form(self, p: int) -> ClassGroupElement:
+        """The class of the prime form at ``p`` (needs ``χ_D(p) ≠ −1`` and a primitive form)."""
+        return self(Form.prime_form(self._D, p))
+
+    def elements(self) -> Iterator[ClassGroupElement]:
+        """All classes (in the order of the enumeration when there was one)."""
+        if self._forms is not None:
+            for f in self._forms:
+                yield ClassGroupElement(self, f)
+            return
+        yield from self._elements_from_structure()
+
+    def _elements_from_structure(self) -> Iterator[ClassGroupElement]:
+        def rec(i: int, x: ClassGroupElement) -> Iterator[ClassGroupElement]:
+            if i == len(self._invariants):
+                yield x
+                return
+            g = ClassGroupElement(self, self._generators[i])
+            y = x
+            for _ in range(self._invariants[i]):
+                yield from rec(i + 1, y)
+                y = y * g
+
+        yield from rec(0, self.identity)
+
+    def __iter__(self) -> Iterator[ClassGroupElement]:
+        return self.elements()
+
+    def __contains__(self, x: object) -> bool:
+        return isinstance(x, ClassGroupElement) and x.group.discriminant == self._D
+
+    def forms(self) -> list[Form]:
+        """The canonical reduced form of every class."""
+        return [x.form for x in self.elements()]
+
+    def ambiguous_classes(self) -> list[ClassGroupElement]:
+        """The classes of order ≤ 2 (there are ``2^two_rank`` of them)."""
+        halves = [
+            (ClassGroupElement(self, g) ** (n // 2)) for g, n in zip(self._generators, self._invariants) if n % 2 == 0
+        ]
+        out = [self.identity]
+        for h in halves:
+            out = out + [x * h for x in out]
+        return out
+
+    def sylow_subgroup(self, p: int) -> list[ClassGroupElement]:
+        """The elements of the p-Sylow subgroup (order a power of the prime ``p``)."""
+        from .arith import is_probable_prime
+
+        p = as_int(p, "p")
+        if not is_probable_prime(p):
+            from .errors import NotPrimeError
+
+            raise NotPrimeError(f"a Sylow subgroup needs a prime p, not {p}")
+        gens, orders = [], []
+        for g, n in zip(self._generators, self._invariants):
+            pk = 1
+            while n % (pk * p) == 0:
+                pk *= p
+            if pk > 1:
+                gens.append(ClassGroupElement(self, g) ** (n // pk))
+                orders.append(pk)
+        out = [self.identity]
+        for g, n in zip(gens, orders):
+            powers = [g ** j for j in range(n)]
+            out = [x * y for x in out for y in powers]
+        return out
+
+    def sylow_invariants(self, p: int) -> Tuple[int, ...]:
+        """Invariant factors of the p-Sylow subgroup."""
+        out = []
+        for n in self._invariants:
+            pk = 1
+            while n % (pk * p) == 0:
+                pk *= p
+            if pk > 1:
+                out.append(pk)
+        return tuple(out)
+
+    # -- real quadratic extras ---------------------------------------------------
+    @property
+    def class_number_wide(self) -> int:
+        """For D > 0: classes up to a unit of norm −1 (``h⁺`` if N(ε) = −1, else ``h⁺/2``);
+        for D < 0 the class number itself."""
+        if self._D < 0:
+            return self.order
+        return self.order if fundamental_unit(self._D).norm == -1 else self.order // 2
+
+    # -- output --------------------------------------------------------------------
+    def to_dict(self) -> dict:
+        """JSON-ready summary (keys as in ``formkit group D --json``)."""
+        d_K, f = discriminant_parts(self._D)
+        out: dict = {
+            "discriminant": self._D,
+            "fundamental_discriminant": d_K,
+            "conductor": f,
+            "class_number": self.order,
+            "invariants": list(self._invariants),
+            "generators": [list(g) for g in self._generators],
+            "forms": [list(g) for g in self._forms] if self._forms is not None else None,
+            "method": self._provenance.method,
+            "certified": self._provenance.certified,
+            "assumption": self._provenance.assumption,
+            "bound": self._provenance.bound,
+        }
+        if self._D > 0:
+            unit = fundamental_unit(self._D)
+            out["class_number_wide"] = self.class_number_wide
+            out["regulator"] = float(unit.regulator(20))
+            out["fundamental_unit"] = [unit.t, unit.u]
+            out["fundamental_unit_norm"] = unit.norm
+        return out
+
+    def __repr__(self) -> str:
+        kind = "narrow class group" if self._D > 0 else "class group"
+        return f"<{kind} Cl({self._D}) ≅ {self.structure}, h = {self.order}; {self._provenance}>"
+
+    def _repr_latex_(self) -> str:
+        parts = r" \times ".join(rf"\mathbb{{Z}}/{n}\mathbb{{Z}}" for n in self._invariants) or "1"
+        sup = "^{+}" if self._D > 0 else ""
+        return rf"$\mathrm{{Cl}}{sup}({self._D}) \cong {parts}$"
+
+    def __eq__(self, other: object) -> bool:
+        if isinstance(other, ClassGroup):
+            return self._D == other._D
+        return NotImplemented
+
+    def __hash__(self) -> int:
+        return hash(("ClassGroup", self._D))
+
+
+# ---------------------------------------------------------------------------
+# construction by enumeration
+
+
+def _canonical_function(D: int) -> Callable[[Triple], Triple]:
+    if D < 0:
+        def canon(x: Triple) -> Triple:
+            a, b, c = _reduce_definite_raw(*x)
+            return (int(a), int(b), int(c))
+        return canon
+    _reps, index = _cycles_cached(D)
+    sq = int(isqrt(D))
+
+    def canon_pos(x: Triple) -> Triple:
+        a, b, c = _reduce_indefinite_raw(*x, D, sq)
+        return index[(int(a), int(b), int(c))]
+
+    return canon_pos
+
+
+def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]) -> Iterator[Triple]:
+    from .arith import next_prime
+
+    p = 2
+    limit = 60
+    while p < limit:
+        if kronecker(D, p) != -1:
+            try:
+                f = Form.prime_form(D, p)
+            except FormkitError:  # p divides the conductor: no primitive prime form
+                f = None
+            if f is not None and f.is_primitive:
+                yield canon(f.coefficients)
+        p = int(next_prime(p))
+    yield from forms
+
+
+def _structure_from_table(
+    D: int, forms: Sequence[Triple], canon: Callable[[Triple], Triple], identity: Triple
+) -> tuple[tuple[int, ...], tuple[Triple, ...], Callable[[Triple], Tuple[int, ...]]]:
+    from sympy import Matrix
+    from sympy.matrices.normalforms import smith_normal_decomp
+
+    h = len(forms)
+
+    def mul(x: Triple, y: Triple) -> Triple:
+        return canon(_compose_raw(*x, *y, D))
+
+    table: Dict[Triple, Tuple[int, ...]] = {identity: ()}
+    gens: list[Triple] = []
+    rels: list[list[int]] = []
+    for g in _candidate_generators(D, canon, forms):
+        if len(table) >= h:
+            break
+        if g in table:
+            continue
+        powers = [identity, g]
+        x = g
+        while x not in table:
+            x = mul(x, g)
+            powers.append(x)
+        m = len(powers) - 1
+        vec = table[x]
+        rels = [r + [0] for r in rels]
+        rels.append([-v for v in vec] + [m])
+        gens.append(g)
+        new_table: Dict[Triple, Tuple[int, ...]] = {}
+        for y, v in table.items():
+            for j in range(m):
+                new_table[mul(y, powers[j]) if j else y] = v + (j,)
+        table = new_table
+    if len(table) != h:  # pragma: no cover - would mean the enumeration is wrong
+        raise ArithmeticError(f"structure of Cl({D}): reached {len(table)} of {h} classes")
+    k = len(gens)
+    if k == 0:
+        return (), (), lambda x: ()
+    R = Matrix(rels)
+    S, _U, V = smith_normal_decomp(R)
+    diag = [int(S[i, i]) for i in range(k)]
+    Vinv = V.inv()
+    keep = [i for i in range(k) if abs(diag[i]) > 1]
+    invariants = tuple(abs(diag[i]) for i in keep)
+
+    def power(x: Triple, e: int) -> Triple:
+        if e < 0:
+            a, b, c = x
+            x = canon((a, -b, c))
+            e = -e
+        result = identity
+        while e:
+            if e & 1:
+                result = mul(result, x)
+            e >>= 1
+            if e:
+                x = mul(x, x)
+        return result
+
+    new_gens = []
+    for j in keep:
+        y = identity
+        for i in range(k):
+            e = int(Vinv[j, i])
+            if e:
+                y = mul(y, power(gens[i], e))
+        new_gens.append(y)
+    Vint = [[int(V[i, j]) for j in range(k)] for i in range(k)]
+
+    def dlog(x: Triple) -> Tuple[int, ...]:
+        v = table[x]
+        return tuple(sum(v[i] * Vint[i][j] for i in range(k)) % invariants[t] for t, j in enumerate(keep))
+
+    return invariants, tuple(new_gens), dlog
+
+
+def _class_group_enumerated(D: int) -> ClassGroup:
+    if D < 0:
+        forms = list(_reduced_forms_cached(D))
+    else:
+        forms = list(_cycles_cached(D)[0])
+    canon = _canonical_function(D)
+    identity = canon(tuple(Form.principal(D)))  # type: ignore[arg-type]
+    invariants, gens, dlog = _structure_from_table(D, forms, canon, identity)
+    return ClassGroup(
+        D,
+        invariants=invariants,
+        generators=gens,
+        dlog=dlog,
+        canonical=canon,
+        provenance=ENUMERATED,
+        forms=forms,
+    )
+
+
+_GROUP_CACHE: Dict[int, ClassGroup] = {}
+
+
+def class_group(D: object, method: str = "auto") -> ClassGroup:
+    """The class group of discriminant ``D`` with its structure.
+
+    Parameters
+    ----------
+    D : int
+        A non-square discriminant (fundamental or not, negative or positive).
+    method : {"auto", "enumerate", "bsgs"}
+        ``"enumerate"`` lists every class (unconditional, about √|D| work);
+        ``"bsgs"`` uses baby-step giant-step under GRH (D < 0, see
+        :mod:`formkit.large_discriminants`); ``"auto"`` enumerates up to
+        :data:`ENUMERATION_LIMIT`.
+
+    Returns
+    -------
+    ClassGroup
+        With ``provenance`` saying how it was obtained.
+
+    Raises
+    ------
+    DiscriminantError
+        If ``D`` is not a discriminant.
+
+    Examples
+    --------
+    >>> G = class_group(-56)
+    >>> G.order, G.invariants, G.structure
+    (4, (4,), 'C4')
+    >>> H = class_group(4 * 79)
+    >>> H.order, H.class_number_wide, H.invariants
+    (6, 3, (6,))
+    """
+    D = validate_discriminant(D)
+    if method not in ("auto", "enumerate", "bsgs"):
+        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
+    if method == "bsgs" or (method == "auto" and D < 0 and -D > ENUMERATION_LIMIT):
+        try:
+            from .large_discriminants import class_group_bsgs
+        except ImportError as exc:  # pragma: no cover - until that module exists
+            raise FormkitError(
+                f"|D| = {abs(D)} exceeds the enumeration limit {ENUMERATION_LIMIT} and no "
+                "baby-step giant-step module is available"
+            ) from exc
+        return class_group_bsgs(D)
+    cached = _GROUP_CACHE.get(D)
+    if cached is None:
+        cached = _class_group_enumerated(D)
+        if len(_GROUP_CACHE) > 64:
+            _GROUP_CACHE.clear()
+        _GROUP_CACHE[D] = cached
+    return cached
+
+
