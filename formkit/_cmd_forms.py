@@ -4,9 +4,31 @@ from __future__ import annotations
 
 import argparse
 
+from .arith import isqrt, mpz
 from .equivalence import equivalence
-from .forms import as_form
-from .reduction import reduce_form, reduced_cycle
+from .forms import Form, as_form
+from .reduction import _rho_indefinite_raw, reduce_form
+
+#: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
+#: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
+CYCLE_LIMIT = 10_000
+
+
+def _cycle_prefix(start: Form, limit: int) -> tuple[list[Form], bool]:
+    """The ρ-cycle of the reduced indefinite ``start``: (forms, complete?), at most ``limit``
+    forms (``limit = 0``: no bound)."""
+    D = start.discriminant
+    sq, Dz = isqrt(D), mpz(D)
+    forms = [start]
+    a, b, c = mpz(start.a), mpz(start.b), mpz(start.c)
+    while True:
+        a, b, c, _ = _rho_indefinite_raw(a, b, c, Dz, sq)
+        g = Form(int(a), int(b), int(c))
+        if g == start:
+            return forms, True
+        if limit and len(forms) >= limit:
+            return forms, False
+        forms.append(g)
 
 
 def _matrix_text(m) -> str:
@@ -14,15 +36,20 @@ def _matrix_text(m) -> str:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .cli import CommandError, emit
 
     f = as_form(args.form)
     res = reduce_form(f, steps=args.steps)
     payload = res.to_dict()
     cyc = None
+    complete = True
     if f.is_indefinite:
-        cyc = reduced_cycle(res.reduced)
-        payload["cycle"] = [g.to_list() for g in cyc.forms]
+        limit = args.cycle_limit
+        if limit < 0:
+            raise CommandError(f"--cycle-limit must be >= 0 (0 = no limit), not {limit}")
+        cyc, complete = _cycle_prefix(res.reduced, limit)
+        payload["cycle"] = [g.to_list() for g in cyc]
+        payload["cycle_complete"] = complete
     if args.steps:
         payload["steps"] = [
             {"kind": s.kind, "matrix": [list(r) for r in s.matrix], "form": s.after.to_list()}
@@ -40,8 +67,11 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
         lines.append(f"reduced:       {res.reduced}   {res.reduced.to_list()}")
         lines.append(f"matrix:        {_matrix_text(res.matrix)}   (form · matrix = reduced)")
         if cyc is not None:
-            lines.append(f"cycle ({len(cyc)} reduced forms):")
-            lines.extend(f"  {g.to_list()}" for g in cyc.forms)
+            if complete:
+                lines.append(f"cycle ({len(cyc)} reduced forms):")
+            else:
+                lines.append(f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --cycle-limit):")
+            lines.extend(f"  {g.to_list()}" for g in cyc)
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -80,6 +110,14 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '3x^2+7xy-5y^2'")
     p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
+    p.add_argument(
+        "--cycle-limit",
+        type=int,
+        default=CYCLE_LIMIT,
+        metavar="N",
+        help=f"list at most N forms of the cycle of an indefinite form (default {CYCLE_LIMIT}; 0 = all); "
+        "the JSON key cycle_complete tells whether the whole cycle was listed",
+    )
     p.set_defaults(handler=_cmd_reduce)
 
     q = sub.add_parser(
