@@ -25,6 +25,7 @@ __all__ = ["main", "build_parser", "emit"]
 # Modules providing commands, in the order they appear in ``formkit --help``.
 COMMAND_MODULES = (
     "formkit._cmd_forms",
+    "formkit._cmd_groups",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")
