@@ -51,7 +51,7 @@ def coprime_representative(form: FormLike, m: int) -> tuple[Form, tuple]:
     Examples
     --------
     >>> coprime_representative((2, 0, 9), 2)[0]
-    Form(11, 4, 2)
+    Form(9, 0, 2)
     """
     f = as_form(form)
     if not f.is_primitive:
