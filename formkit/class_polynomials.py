@@ -62,6 +62,7 @@ import mpmath
 
 from .arith import as_int, gcd, is_probable_prime, kronecker, next_prime
 from .discriminants import discriminant_parts, validate_discriminant
+from .enumeration import _reduced_forms_cached
 from .errors import DiscriminantError, FormError, NotPrimeError
 from .forms import Form
 from .reduction import _reduce_definite_raw
@@ -182,24 +183,8 @@ def j_invariant(tau: object, *, digits: int = 30):
 
 
 def _reduced_forms(D: int) -> list[tuple[int, int, int]]:
-    """All primitive reduced forms (a, b, c) of discriminant D < 0, sorted."""
-    out = []
-    a = 1
-    while 3 * a * a <= -D:
-        for b in range(-a + 1, a + 1):
-            if (b - D) % 2:
-                continue
-            num = b * b - D
-            if num % (4 * a):
-                continue
-            c = num // (4 * a)
-            if c < a or (a == c and b < 0):
-                continue
-            if math.gcd(math.gcd(a, b), c) != 1:
-                continue
-            out.append((a, b, c))
-        a += 1
-    return out
+    """All primitive reduced forms (a, b, c) of discriminant D < 0 (one per class)."""
+    return [tuple(map(int, f)) for f in _reduced_forms_cached(D)]
 
 
 def _check_negative(D: object) -> int:
