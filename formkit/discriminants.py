@@ -315,11 +315,24 @@ def regulator(D: object, digits: int = 30):
     """The regulator ``R = log ε`` of the real order of discriminant ``D``.
 
     Returned as an mpmath number with ``digits`` significant digits; computed from the
-    exact fundamental unit and verified at higher precision.
+    exact fundamental unit and verified at higher precision (the value is computed at
+    ``digits + 10`` and ``digits + 30`` working digits and the two must agree to
+    ``digits`` digits, else ``ArithmeticError``).  ``print`` shows an mpmath number
+    at mpmath's global precision; use ``mpmath.nstr(R, digits)`` to see all digits.
+
+    Raises
+    ------
+    DiscriminantError
+        If ``D`` is not a positive discriminant.
+    FormkitError
+        If ``digits < 1``.
 
     Examples
     --------
     >>> print(regulator(5, digits=15))
     0.481211825059603
+    >>> import mpmath
+    >>> mpmath.nstr(regulator(5, digits=40), 40)
+    '0.4812118250596034474977589134243684231352'
     """
     return fundamental_unit(D).regulator(digits)
