@@ -1,0 +1,653 @@
+"""Representations of integers by binary quadratic forms: counts, all solutions, orbits.
+
+*The square-root method.*  Let ``Q`` be a primitive form of discriminant ``D`` and
+``m ≠ 0``.  A proper (primitive, ``gcd(x, y) = 1``) representation ``Q(x, y) = m``
+extends to a matrix ``M ∈ SL2(Z)`` with first column ``(x, y)``; then
+``Q·M = (m, b, c)`` and ``b`` is determined modulo ``2m``, with ``b² ≡ D (mod 4m)``.
+Conversely every such ``b`` whose form ``(m, b, (b² − D)/4m)`` is primitive and
+properly equivalent to ``Q`` gives representations: if ``Q·M = (m, b, c)`` the first
+column of ``M`` represents ``m``, and the matrices doing this are ``N·M`` for ``N`` in
+the proper automorphism group of ``Q``, so each such ``b`` accounts for exactly ``w``
+proper representations when ``D < 0`` (``w`` = 2, 4 or 6) and for one orbit under the
+(infinite) automorphism group when ``D > 0``.  All representations are the proper
+representations of ``n/g²`` scaled by ``g``, over ``g² | n``.  (Gauss, *Disquisitiones*
+art. 154–170; Cox, *Primes of the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer,
+*Binary Quadratic Forms*, §3.2 and §6.8 — numbers as recalled.)
+
+The roots ``b`` come from :func:`formkit.arith.sqrt_mod` with the factorisation of ``n``
+(sympy's ``factorint``, or given by the caller), so ``n`` of 60 digits and more is
+fine whenever it can be factored.
+
+*Sums over classes* (``D < 0``).  Summing over one primitive form per class,
+``Σ_Q r_Q(n) = w·Σ_{g²|n} N*(n/g²)`` for every ``n ≥ 1``, where ``N*(m)`` is the number
+of ``b mod 2m`` with ``b² ≡ D (mod 4m)`` and ``gcd(m, b, (b² − D)/4m) = 1``
+(:func:`total_representation_count`, no class group needed).  When ``n`` is prime to
+the conductor ``f`` of ``D`` (always, for fundamental ``D``) this equals Dirichlet's
+``w·Σ_{d|n} χ_D(d)`` (:func:`dirichlet_count`; Dirichlet, *Vorlesungen über
+Zahlentheorie* §§ 88–90; Cox Exercise 7.x / Zagier, *Zetafunktionen und quadratische
+Körper* §8 — numbers not recalled).  For ``D > 0`` the same sums count orbits.
+
+*Conventions.*  Negative definite forms are handled through ``−Q`` (``Q(x, y) = n`` iff
+``(−Q)(x, y) = −n``).  A form with content ``k > 1`` represents ``n`` only when
+``k | n``, and then exactly as ``Q/k`` represents ``n/k``: such forms are accepted and
+handled by their content.  ``n = 0`` has only the solution ``(0, 0)`` (non-square
+discriminant); it is counted once and is not primitive.
+
+References
+----------
+.. [1] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2.
+.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, Ch. 3, 6.
+.. [3] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138, §5.2–5.6.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Dict, Iterator, List, Optional, Tuple
+
+from .arith import as_int, factorint, gcd, is_probable_prime, isqrt, kronecker, mpz, sqrt_mod
+from .discriminants import discriminant_parts, unit_count, validate_discriminant
+from .equivalence import automorphism_group, fundamental_automorph
+from .errors import DiscriminantError, FormError, FormkitError
+from .forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw
+
+__all__ = [
+    "RepresentationResult",
+    "represent",
+    "representations",
+    "representation_count",
+    "primitive_representation_count",
+    "representation_orbits",
+    "orbit_representative",
+    "walk_orbit",
+    "total_representation_count",
+    "dirichlet_count",
+]
+
+Vector = Tuple[int, int]
+
+
+# ---------------------------------------------------------------------------
+# factorisations and roots
+
+
+def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
+    """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
+    n = abs(n)
+    if factors is None:
+        return factorint(n) if n > 1 else {}
+    fac: Dict[int, int] = {}
+    prod = 1
+    for p, e in dict(factors).items():
+        p = as_int(p, "prime factor")
+        e = as_int(e, "exponent")
+        if e < 0 or p < 2:
+            raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
+        if e == 0:
+            continue
+        if not is_probable_prime(p):
+            raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
+        fac[p] = fac.get(p, 0) + e
+        prod *= p**e
+    if prod != n:
+        raise FormkitError(f"the given factors multiply to {prod}, not to |n| = {n}")
+    return dict(sorted(fac.items()))
+
+
+def _square_divisors(fac: Dict[int, int]) -> List[Tuple[int, Dict[int, int]]]:
+    """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²``."""
+    out: List[Tuple[int, Dict[int, int]]] = [(1, dict(fac))]
+    for p, e in fac.items():
+        new = []
+        for g, rest in out:
+            for k in range(1, e // 2 + 1):
+                r = dict(rest)
+                r[p] = e - 2 * k
+                if r[p] == 0:
+                    del r[p]
+                new.append((g * p**k, r))
+        out.extend(new)
+    return out
+
+
+def _proper_roots(D: int, m: int, fac: Dict[int, int]) -> List[int]:
+    """The ``b`` in ``[0, 2|m|)`` with ``b² ≡ D (mod 4|m|)`` and ``(m, b, ·)`` primitive."""
+    am = abs(m)
+    fac4 = dict(fac)
+    fac4[2] = fac4.get(2, 0) + 2
+    roots = sqrt_mod(D, 4 * am, factors=fac4)
+    two_m = 2 * am
+    out = []
+    for b in roots:
+        if b >= two_m:
+            break
+        c = (b * b - D) // (4 * m)
+        if gcd(am, b, c) == 1:
+            out.append(int(b))
+    return out
+
+
+def _content_and_sign(form: FormLike, n: object) -> Tuple[Form, int, int, int, int]:
+    """Return ``(Q, D, k, sign, n)``; ``Q`` the original form, ``k`` its content and
+    ``sign = −1`` for negative definite forms."""
+    Q = as_form(form)
+    D = _require_nonsquare(Q, "representations")
+    n = as_int(n, "n")
+    sign = -1 if (D < 0 and Q.a < 0) else 1
+    return Q, D, Q.content, sign, n
+
+
+def _primitive_target(Q: Form, k: int, sign: int, n: int) -> Tuple[Optional[Form], int]:
+    """The primitive positive-or-indefinite form and the value it must take, or ``None``
+    when no representation is possible (content does not divide n)."""
+    if n % k:
+        return None, 0
+    P = Form(sign * Q.a // k, sign * Q.b // k, sign * Q.c // k)
+    return P, sign * n // k
+
+
+# ---------------------------------------------------------------------------
+# definite forms
+
+
+def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorphs) -> List[Vector]:
+    """All proper representations of m > 0 by the primitive positive definite P."""
+    D = P.discriminant
+    red_P = _reduce_definite(P, False)
+    target = red_P.reduced
+    out: List[Vector] = []
+    for b in _proper_roots(D, m, fac):
+        F = Form(m, b, (b * b - D) // (4 * m))
+        rf = _reduce_definite(F, False)
+        if rf.reduced != target:
+            continue
+        M = mat_mul(red_P.matrix, mat_inverse(rf.matrix))  # P·M = F
+        x, y = M[0][0], M[1][0]
+        for N in automorphs:
+            out.append((N[0][0] * x + N[0][1] * y, N[1][0] * x + N[1][1] * y))
+    return out
+
+
+def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> int:
+    from .reduction import _reduce_definite_raw
+
+    D = P.discriminant
+    target = _reduce_definite(P, False).reduced.coefficients
+    count = 0
+    for b in _proper_roots(D, m, fac):
+        a2, b2, c2 = _reduce_definite_raw(mpz(m), mpz(b), mpz((b * b - D) // (4 * m)))
+        if (a2, b2, c2) == target:
+            count += w
+    return count
+
+
+def _definite_solutions(P: Form, m: int, fac: Dict[int, int], primitive: bool) -> List[Vector]:
+    automorphs = list(automorphism_group(P).elements())
+    if primitive:
+        return _definite_primitive_solutions(P, m, fac, automorphs)
+    out: List[Vector] = []
+    for g, rest in _square_divisors(fac):
+        for x, y in _definite_primitive_solutions(P, m // (g * g), rest, automorphs):
+            out.append((g * x, g * y))
+    return out
+
+
+@dataclass(frozen=True)
+class RepresentationResult:
+    """How a form represents ``n``.
+
+    For definite forms ``count`` and ``primitive_count`` are the numbers of all and of
+    primitive solutions and ``solutions`` lists them (all, or only the primitive ones
+    when asked; at most ``limit`` of them when a limit was given — ``truncated`` says
+    so).  For indefinite forms ``count`` is ``None`` (infinitely many solutions unless
+    ``n = 0``), ``orbits`` holds one representative per orbit under the proper
+    automorphs (the smallest, see :func:`orbit_representative`) and ``orbit_count``
+    their number; ``primitive_orbit_count`` counts the orbits of primitive solutions.
+    """
+
+    form: Form
+    n: int
+    definite: bool
+    count: Optional[int]
+    primitive_count: Optional[int]
+    solutions: Tuple[Vector, ...]
+    orbits: Tuple[Vector, ...] = ()
+    orbit_count: Optional[int] = None
+    primitive_orbit_count: Optional[int] = None
+    primitive_only: bool = False
+    truncated: bool = False
+
+    @property
+    def represented(self) -> bool:
+        """True when ``Q(x, y) = n`` has a solution."""
+        return bool(self.solutions) or bool(self.orbits) or bool(self.count)
+
+    def to_dict(self) -> dict:
+        """The JSON shape of ``formkit represent``."""
+        d: dict = {"form": self.form.to_list(), "n": self.n, "count": self.count,
+                   "primitive_count": self.primitive_count}
+        if self.definite:
+            d["solutions"] = [list(v) for v in self.solutions]
+        else:
+            d["orbits"] = [list(v) for v in self.orbits]
+            d["orbit_count"] = self.orbit_count
+            d["primitive_orbit_count"] = self.primitive_orbit_count
+        d["primitive_only"] = self.primitive_only
+        d["truncated"] = self.truncated
+        return d
+
+
+def represent(
+    form: FormLike,
+    n: object,
+    *,
+    primitive: bool = False,
+    limit: Optional[int] = None,
+    factors: Optional[Dict[int, int]] = None,
+) -> RepresentationResult:
+    """All solutions of ``Q(x, y) = n`` (definite ``Q``) or their orbits (indefinite ``Q``).
+
+    Parameters
+    ----------
+    form : FormLike
+        Any form of non-square discriminant (non-primitive and negative definite forms
+        are handled, see the module docstring).
+    n : int
+        The number to represent (any sign, any size that can be factored).
+    primitive : bool
+        List only primitive solutions (``gcd(x, y) = 1``); the counts are always both given.
+    limit : int, optional
+        List at most this many solutions / orbit representatives (counts stay exact).
+    factors : dict, optional
+        The factorisation ``{p: e}`` of ``|n|`` if known (checked), to skip factoring.
+
+    Returns
+    -------
+    RepresentationResult
+
+    Raises
+    ------
+    DiscriminantError
+        If the discriminant of the form is a perfect square.
+    NotAnIntegerError
+        If ``n`` is not an integer.
+
+    Examples
+    --------
+    >>> r = represent((1, 0, 1), 25)
+    >>> r.count, r.primitive_count, r.solutions[:4]
+    (12, 8, ((-5, 0), (-4, -3), (-4, 3), (-3, -4)))
+    >>> r = represent((1, 0, -2), 7)
+    >>> r.count, r.orbits, r.orbit_count
+    (None, ((3, 1), (3, -1)), 2)
+    """
+    Q, D, k, sign, n = _content_and_sign(form, n)
+    if limit is not None:
+        limit = as_int(limit, "limit")
+        if limit < 0:
+            raise FormkitError(f"limit must be ≥ 0, not {limit}")
+    if D < 0:
+        sols = _all_definite(Q, D, k, sign, n, factors, primitive=False)
+        prim = [v for v in sols if gcd(v[0], v[1]) == 1]
+        listed = prim if primitive else sols
+        truncated = limit is not None and len(listed) > limit
+        if truncated:
+            listed = listed[:limit]
+        return RepresentationResult(Q, n, True, len(sols), len(prim), tuple(listed),
+                                    primitive_only=primitive, truncated=truncated)
+    orbs, prim_count = _all_orbits(Q, D, k, n, factors)
+    listed = [v for v in orbs if gcd(v[0], v[1]) == 1] if primitive else orbs
+    truncated = limit is not None and len(listed) > limit
+    if truncated:
+        listed = listed[:limit]
+    return RepresentationResult(Q, n, False, None, None, (), tuple(listed), len(orbs), prim_count,
+                                primitive_only=primitive, truncated=truncated)
+
+
+def _all_definite(Q, D, k, sign, n, factors, primitive: bool) -> List[Vector]:
+    if n == 0:
+        return [] if primitive else [(0, 0)]
+    P, m = _primitive_target(Q, k, sign, n)
+    if P is None or m < 0:
+        return []
+    fac = _factor_abs(m, _scaled_factors(factors, n, m))
+    return sorted(_definite_solutions(P, m, fac, primitive))
+
+
+def _scaled_factors(factors, n: int, m: int):
+    """Factorisation of |m| from one of |n| (m = n/k), or None."""
+    if factors is None:
+        return None
+    fac = _factor_abs(n, factors)
+    q = abs(n) // abs(m)
+    for p in factorint(q) if q > 1 else {}:
+        while q % p == 0:
+            fac[p] -= 1
+            q //= p
+    return {p: e for p, e in fac.items() if e}
+
+
+def representations(
+    form: FormLike, n: object, *, primitive: bool = False, factors: Optional[Dict[int, int]] = None
+) -> Tuple[Vector, ...]:
+    """All ``(x, y)`` with ``Q(x, y) = n`` for a definite form ``Q``, sorted.
+
+    Parameters
+    ----------
+    primitive : bool
+        Only the solutions with ``gcd(x, y) = 1``.
+    factors : dict, optional
+        Known factorisation of ``|n|`` (checked).
+
+    Raises
+    ------
+    FormError
+        If ``Q`` is indefinite (infinitely many solutions: use
+        :func:`representation_orbits`).
+
+    Examples
+    --------
+    >>> representations((1, 1, 1), 7)
+    ((-3, 1), (-3, 2), (-2, -1), (-2, 3), (-1, -2), (-1, 3), (1, -3), (1, 2), (2, -3), (2, 1), (3, -2), (3, -1))
+    >>> representations((2, 1, 3), 5)
+    ()
+    >>> representations((1, 0, 1), 0), representations((1, 0, 1), -5)
+    (((0, 0),), ())
+    """
+    Q, D, k, sign, n = _content_and_sign(form, n)
+    if D > 0:
+        raise FormError(
+            f"{Q!r} is indefinite: Q(x, y) = {n} has infinitely many solutions or none; "
+            "use representation_orbits for one solution per orbit"
+        )
+    return tuple(_all_definite(Q, D, k, sign, n, factors, primitive))
+
+
+def representation_count(form: FormLike, n: object, *, factors: Optional[Dict[int, int]] = None) -> int:
+    """``r_Q(n)``: the number of all ``(x, y) ∈ Z²`` with ``Q(x, y) = n`` (definite ``Q``).
+
+    Counted without listing the solutions: ``w`` times the number of roots ``b`` whose
+    form is equivalent to ``Q``, summed over ``g² | n``.
+
+    Examples
+    --------
+    >>> [representation_count((1, 0, 1), n) for n in range(11)]
+    [1, 4, 4, 0, 4, 8, 0, 0, 4, 4, 8]
+    >>> representation_count((1, 0, 1), 5**40 * 13**10)   # Jacobi: 4·41·11
+    1804
+    """
+    return _count(form, n, factors, primitive=False)
+
+
+def primitive_representation_count(
+    form: FormLike, n: object, *, factors: Optional[Dict[int, int]] = None
+) -> int:
+    """The number of ``(x, y)`` with ``gcd(x, y) = 1`` and ``Q(x, y) = n`` (definite ``Q``).
+
+    Examples
+    --------
+    >>> primitive_representation_count((1, 0, 1), 25), primitive_representation_count((1, 0, 1), 9)
+    (8, 0)
+    """
+    return _count(form, n, factors, primitive=True)
+
+
+def _count(form, n, factors, primitive: bool) -> int:
+    Q, D, k, sign, n = _content_and_sign(form, n)
+    if D > 0:
+        raise FormError(f"{Q!r} is indefinite: solutions are infinite in number; count orbits instead")
+    if n == 0:
+        return 0 if primitive else 1
+    P, m = _primitive_target(Q, k, sign, n)
+    if P is None or m < 0:
+        return 0
+    fac = _factor_abs(m, _scaled_factors(factors, n, m))
+    w = unit_count(P.discriminant)
+    if primitive:
+        return _definite_primitive_count(P, m, fac, w)
+    return sum(_definite_primitive_count(P, m // (g * g), rest, w) for g, rest in _square_divisors(fac))
+
+
+# ---------------------------------------------------------------------------
+# indefinite forms
+
+
+class _CycleIndex:
+    """The cycle of reduced forms of an indefinite form with matrices from the form."""
+
+    def __init__(self, P: Form) -> None:
+        D = P.discriminant
+        self.D = D
+        self.sq = isqrt(D)
+        start = _reduce_indefinite(P, D, False)
+        self.to_start = start.matrix  # P · to_start = start
+        self.index: Dict[Tuple[int, int, int], Matrix] = {}
+        a, b, c = mpz(start.reduced.a), mpz(start.reduced.b), mpz(start.reduced.c)
+        M: Matrix = ((1, 0), (0, 1))
+        first = (int(a), int(b), int(c))
+        while True:
+            a, b, c, t = _rho_indefinite_raw(a, b, c, mpz(D), self.sq)
+            M = mat_mul(M, ((0, -1), (1, int(t))))
+            key = (int(a), int(b), int(c))
+            if key == first:
+                break
+            self.index[key] = mat_mul(self.to_start, M)
+        self.index[first] = self.to_start
+
+    def matrix_to(self, F: Form) -> Optional[Matrix]:
+        """``M ∈ SL2(Z)`` with ``P·M = F`` or ``None``."""
+        rf = _reduce_indefinite(F, self.D, False)
+        N = self.index.get(rf.reduced.coefficients)
+        if N is None:
+            return None
+        return mat_mul(N, mat_inverse(rf.matrix))
+
+
+def _size(v: Vector) -> int:
+    return v[0] * v[0] + v[1] * v[1]
+
+
+def _apply(A: Matrix, v: Vector) -> Vector:
+    return (A[0][0] * v[0] + A[0][1] * v[1], A[1][0] * v[0] + A[1][1] * v[1])
+
+
+def _canonical(A: Matrix, Ainv: Matrix, v: Vector) -> Vector:
+    """The smallest element of the orbit ``{±A^k v}`` (ties broken as documented)."""
+    if v == (0, 0):
+        return v
+    while _size(_apply(A, v)) < _size(v):
+        v = _apply(A, v)
+    while _size(_apply(Ainv, v)) < _size(v):
+        v = _apply(Ainv, v)
+    cands = [v]
+    for w in (_apply(A, v), _apply(Ainv, v)):
+        if _size(w) == _size(v):
+            cands.append(w)
+    cands += [(-x, -y) for x, y in cands]
+    return min(cands, key=_orbit_key)
+
+
+def _orbit_key(v: Vector):
+    x, y = v
+    return (x * x + y * y, x < 0 or (x == 0 and y < 0), y < 0, abs(y), x)
+
+
+def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> Tuple[List[Vector], int]:
+    if n == 0:
+        return [(0, 0)], 0
+    P, m = _primitive_target(Q, k, 1, n)
+    if P is None:
+        return [], 0
+    fac = _factor_abs(m, _scaled_factors(factors, n, m))
+    D = P.discriminant
+    idx = _CycleIndex(P)
+    A = fundamental_automorph(P)
+    Ainv = mat_inverse(A)
+    reps: List[Vector] = []
+    prim = 0
+    for g, rest in _square_divisors(fac):
+        mm = m // (g * g)
+        for b in _proper_roots(D, mm, rest):
+            M = idx.matrix_to(Form(mm, b, (b * b - D) // (4 * mm)))
+            if M is None:
+                continue
+            v = _canonical(A, Ainv, (g * M[0][0], g * M[1][0]))
+            reps.append(v)
+            if g == 1:
+                prim += 1
+    reps.sort(key=_orbit_key)
+    return reps, prim
+
+
+def representation_orbits(
+    form: FormLike, n: object, *, primitive: bool = False, factors: Optional[Dict[int, int]] = None
+) -> Tuple[Vector, ...]:
+    """One solution of ``Q(x, y) = n`` per orbit of the proper automorphs (indefinite ``Q``).
+
+    The solutions of ``Q(x, y) = n ≠ 0`` fall into finitely many orbits
+    ``{±A^k v : k ∈ Z}`` under the proper automorphism group (``A`` the fundamental
+    automorph); each orbit is represented by its element of least ``x² + y²`` (ties:
+    ``x > 0`` first, then ``y ≥ 0``, then smaller ``|y|``).  Every solution of the
+    equation is ``±A^k`` times exactly one returned vector.
+
+    Parameters
+    ----------
+    primitive : bool
+        Only the orbits of primitive solutions.
+
+    Raises
+    ------
+    FormError
+        If ``Q`` is definite (use :func:`representations`).
+
+    Examples
+    --------
+    >>> representation_orbits((1, 1, -1), 11)      # x² + xy − y² = 11
+    ((3, 1), (3, 2))
+    >>> representation_orbits((1, 0, -3), 2)       # x² − 3y² = 2 has no solution
+    ()
+    """
+    Q, D, k, sign, n = _content_and_sign(form, n)
+    if D < 0:
+        raise FormError(f"{Q!r} is definite: use representations() for the full list of solutions")
+    reps, _ = _all_orbits(Q, D, k, n, factors)
+    if primitive:
+        reps = [v for v in reps if gcd(v[0], v[1]) == 1]
+    return tuple(reps)
+
+
+def _orbit_matrices(form: FormLike) -> Tuple[Form, Matrix, Matrix]:
+    Q = as_form(form)
+    D = _require_nonsquare(Q, "orbits of solutions")
+    if D < 0:
+        raise FormError(f"{Q!r} is definite: its solution sets are finite (use representations())")
+    A = fundamental_automorph(Q)
+    return Q, A, mat_inverse(A)
+
+
+def orbit_representative(form: FormLike, solution: Tuple[int, int]) -> Vector:
+    """The representative (least ``x² + y²``) of the orbit of ``solution`` under the proper
+    automorphs of the indefinite form ``Q`` — the vector :func:`representation_orbits` returns.
+
+    Examples
+    --------
+    >>> orbit_representative((1, 0, -2), (17, 12))   # 17² − 2·12² = 1
+    (1, 0)
+    """
+    Q, A, Ainv = _orbit_matrices(form)
+    x, y = (as_int(v, "solution entry") for v in solution)
+    return _canonical(A, Ainv, (x, y))
+
+
+def walk_orbit(form: FormLike, solution: Tuple[int, int]) -> Iterator[Vector]:
+    """Walk the orbit of ``solution`` under the proper automorphs of an indefinite form.
+
+    Yields ``v, −v, Av, −Av, A⁻¹v, −A⁻¹v, A²v, …`` without end (``A`` the fundamental
+    automorph): every solution in the orbit appears exactly once.  Take what you need
+    with :func:`itertools.islice`.
+
+    Examples
+    --------
+    >>> from itertools import islice
+    >>> list(islice(walk_orbit((1, 0, -2), (1, 0)), 6))
+    [(1, 0), (-1, 0), (3, 2), (-3, -2), (3, -2), (-3, 2)]
+    """
+    Q, A, Ainv = _orbit_matrices(form)
+    v0 = tuple(as_int(v, "solution entry") for v in solution)
+    if v0 == (0, 0):
+        yield (0, 0)
+        return
+    yield v0  # type: ignore[misc]
+    yield (-v0[0], -v0[1])
+    fwd = back = v0
+    while True:
+        fwd = _apply(A, fwd)
+        back = _apply(Ainv, back)
+        for v in (fwd, back):
+            yield v
+            yield (-v[0], -v[1])
+
+
+# ---------------------------------------------------------------------------
+# sums over classes
+
+
+def total_representation_count(D: object, n: object, *, factors: Optional[Dict[int, int]] = None) -> int:
+    """``Σ_Q r_Q(n)`` over one primitive form per class (``D < 0``), or ``Σ_Q`` of the number
+    of solution orbits (``D > 0``, narrow classes), for ``n ≥ 1``.
+
+    Computed without the class group as ``w·Σ_{g²|n} N*(n/g²)`` where ``N*(m)`` counts the
+    ``b mod 2m`` with ``b² ≡ D (mod 4m)`` and ``(m, b, (b² − D)/4m)`` primitive
+    (``w`` = 2, 4, 6 for ``D < 0`` and 1 for ``D > 0``).  This holds for every ``n ≥ 1``.
+
+    Examples
+    --------
+    >>> total_representation_count(-23, 6), total_representation_count(-20, 5)
+    (8, 2)
+    """
+    D = validate_discriminant(D)
+    n = as_int(n, "n")
+    if n < 1:
+        raise FormkitError(f"total_representation_count needs n ≥ 1, not {n}")
+    fac = _factor_abs(n, factors)
+    w = unit_count(D) if D < 0 else 1
+    return w * sum(len(_proper_roots(D, n // (g * g), rest)) for g, rest in _square_divisors(fac))
+
+
+def dirichlet_count(D: object, n: object) -> int:
+    """Dirichlet's formula ``w·Σ_{d|n} χ_D(d)`` for ``n ≥ 1`` prime to the conductor of ``D``.
+
+    Under that condition (automatic for fundamental ``D``) it equals
+    :func:`total_representation_count`: the sum over classes of ``r_Q(n)`` for ``D < 0``,
+    of the orbit counts for ``D > 0`` (then ``w = 1``).
+
+    Raises
+    ------
+    DiscriminantError
+        If ``n`` shares a prime with the conductor ``f`` (the formula then fails, e.g.
+        ``D = −36``, ``n = 9``); use :func:`total_representation_count`.
+
+    Examples
+    --------
+    >>> dirichlet_count(-4, 25), dirichlet_count(-23, 6), dirichlet_count(-3, 7)
+    (12, 8, 12)
+    """
+    D = validate_discriminant(D)
+    n = as_int(n, "n")
+    if n < 1:
+        raise FormkitError(f"dirichlet_count needs n ≥ 1, not {n}")
+    f = discriminant_parts(D)[1]
+    if gcd(n, f) != 1:
+        raise DiscriminantError(
+            f"Dirichlet's formula needs n prime to the conductor {f} of D = {D}; "
+            f"gcd({n}, {f}) = {gcd(n, f)} (use total_representation_count)"
+        )
+    w = unit_count(D) if D < 0 else 1
+    fac = factorint(n) if n > 1 else {}
+    # Σ_{d|n} χ(d) is multiplicative: Π_p (1 + χ(p) + … + χ(p)^e)
+    total = 1
+    for p, e in fac.items():
+        chi = kronecker(D, p)
+        total *= sum(chi**i for i in range(e + 1))
+    return w * total

@@ -1,0 +1,379 @@
+"""Tests of formkit.representations against classical theorems, sympy and brute force.
+
+Sources named beside each check: Jacobi's two-square theorem r(n) = 4(d₁(n) − d₃(n));
+the rule that n is a sum of two squares iff every prime ≡ 3 (mod 4) divides it to an
+even power (common knowledge of the trade); Dirichlet's formula
+Σ_Q r_Q(n) = w·Σ_{d|n} χ_D(d) (Dirichlet, Vorlesungen §§ 88–90; Zagier, Zetafunktionen
+§8 — from memory); sympy's ``diophantine`` as a general-purpose reference; brute force;
+hypothesis properties.
+"""
+
+from __future__ import annotations
+
+from itertools import islice
+from math import gcd, isqrt
+
+import pytest
+import sympy
+from hypothesis import given, strategies as st
+
+from formkit.arith import kronecker
+from formkit.discriminants import conductor, is_discriminant, is_fundamental_discriminant, unit_count
+from formkit.enumeration import class_representatives
+from formkit.equivalence import fundamental_automorph
+from formkit.errors import (
+    DiscriminantError,
+    FormError,
+    FormkitError,
+    NotAnIntegerError,
+    ParseError,
+)
+from formkit.forms import Form
+from formkit.representations import (
+    dirichlet_count,
+    orbit_representative,
+    primitive_representation_count,
+    represent,
+    representation_count,
+    representation_orbits,
+    representations,
+    total_representation_count,
+    walk_orbit,
+)
+
+
+# ---------------------------------------------------------------------------
+# brute force
+
+
+def brute_definite(f, n):
+    """All (x, y) with f(x, y) = n for positive definite f, by scanning the ellipse's box."""
+    a, b, c = f.a, f.b, f.c
+    D = -f.discriminant
+    if n < 0:
+        return []
+    ym = isqrt(4 * a * n // D) + 1
+    xm = isqrt(4 * c * n // D) + 1
+    return sorted((x, y) for x in range(-xm, xm + 1) for y in range(-ym, ym + 1) if f(x, y) == n)
+
+
+def jacobi(n):
+    # Jacobi's two-square theorem: r₂(n) = 4(d₁(n) − d₃(n)).
+    d1 = sum(1 for d in range(1, n + 1) if n % d == 0 and d % 4 == 1)
+    d3 = sum(1 for d in range(1, n + 1) if n % d == 0 and d % 4 == 3)
+    return 4 * (d1 - d3)
+
+
+NEG = [d for d in range(-3, -120, -1) if is_discriminant(d)]
+
+
+# ---------------------------------------------------------------------------
+# definite forms
+
+
+@pytest.mark.parametrize("D", NEG)
+def test_all_solutions_equal_brute_force(D):
+    for f in class_representatives(D):
+        for n in range(0, 45):
+            got = representations(f, n)
+            assert list(got) == brute_definite(f, n), (f, n)
+            assert representation_count(f, n) == len(got)
+            assert primitive_representation_count(f, n) == sum(1 for x, y in got if gcd(x, y) == 1)
+
+
+def test_non_reduced_and_transformed_forms():
+    # the method must not depend on the form being reduced: compare with brute force
+    for f in [Form(10, 37, 35), Form(7, 12, 6), Form(3, -10, 9), Form(29, 42, 16)]:
+        for n in range(1, 60):
+            assert list(representations(f, n)) == brute_definite(f, n), (f, n)
+
+
+@pytest.mark.parametrize("n", range(1, 400))
+def test_jacobi_two_squares(n):
+    # Source: Jacobi's two-square theorem.
+    assert representation_count((1, 0, 1), n) == jacobi(n)
+
+
+def test_sum_of_two_squares_rule():
+    # Source: n is a sum of two squares iff every prime ≡ 3 (mod 4) divides n to an even power.
+    for n in range(1, 1500):
+        rule = all(e % 2 == 0 for p, e in sympy.factorint(n).items() if p % 4 == 3)
+        assert (representation_count((1, 0, 1), n) > 0) == rule, n
+
+
+def test_jacobi_for_large_n():
+    # 60-digit n built from known primes ≡ 1 (mod 4) and ≡ 3 (mod 4): Jacobi's formula is
+    # 4·Π(e+1) over p ≡ 1 (4), times 0/1 by the parity of the exponents of p ≡ 3 (4).
+    primes = {1000000000000000000000000000057: 1, 1000000009: 2, 5: 3, 13: 2, 3: 2}
+    n = 1
+    for p, e in primes.items():
+        n *= p**e
+    assert all(sympy.isprime(p) for p in primes)
+    expect = 4
+    for p, e in primes.items():
+        if p % 4 == 1:
+            expect *= e + 1
+        elif e % 2:
+            expect = 0
+    assert 10**50 < n
+    sols = representations((1, 0, 1), n, factors=primes)
+    assert len(sols) == expect == representation_count((1, 0, 1), n, factors=primes)
+    assert all(x * x + y * y == n for x, y in sols)
+
+
+def test_dirichlet_formula_fundamental_all_n():
+    # Dirichlet: for fundamental D < 0, Σ_Q r_Q(n) = w Σ_{d|n} χ_D(d) for every n ≥ 1
+    # (n sharing factors with D included).
+    for D in [d for d in NEG if is_fundamental_discriminant(d)]:
+        forms = class_representatives(D)
+        for n in range(1, 80):
+            total = sum(representation_count(f, n) for f in forms)
+            assert total == unit_count(D) * sum(kronecker(D, d) for d in range(1, n + 1) if n % d == 0)
+            assert total == dirichlet_count(D, n) == total_representation_count(D, n)
+
+
+def test_dirichlet_formula_non_fundamental():
+    # For non-fundamental D the formula holds for n prime to the conductor f; for other n
+    # the count by roots b (total_representation_count) is the right statement.
+    for D in [d for d in NEG if not is_fundamental_discriminant(d)]:
+        forms = class_representatives(D)
+        f = conductor(D)
+        for n in range(1, 80):
+            total = sum(representation_count(g, n) for g in forms)
+            assert total == total_representation_count(D, n), (D, n)
+            if gcd(n, f) == 1:
+                assert total == dirichlet_count(D, n), (D, n)
+            else:
+                with pytest.raises(DiscriminantError, match="conductor"):
+                    dirichlet_count(D, n)
+    # the formula really fails there: D = −36, n = 9
+    forms = class_representatives(-36)
+    assert sum(representation_count(g, 9) for g in forms) != 2 * sum(
+        kronecker(-36, d) for d in (1, 3, 9)
+    )
+
+
+@given(
+    st.integers(min_value=1, max_value=40),
+    st.integers(min_value=-40, max_value=40),
+    st.integers(min_value=1, max_value=60),
+    st.lists(st.sampled_from([2, 3, 5, 7, 11, 13, 17, 29, 41, 97, 101, 10007]), max_size=6),
+)
+def test_properties_random_forms(a, b, c, plist):
+    # hypothesis: Q(x, y) = n for every returned pair; counts equal list lengths.
+    f = Form(a, b, c)
+    if f.discriminant >= 0:
+        return
+    n = 1
+    for p in plist:
+        n *= p
+    res = represent(f, n)
+    assert all(f(x, y) == n for x, y in res.solutions)
+    assert res.count == len(res.solutions) == len(set(res.solutions)) == representation_count(f, n)
+    assert res.primitive_count == sum(1 for x, y in res.solutions if gcd(x, y) == 1)
+    if n < 3000:
+        assert list(res.solutions) == brute_definite(f, n)
+
+
+def test_sympy_diophantine_reference():
+    # sympy's general Diophantine solver on sample equations Q(x, y) = n
+    x, y = sympy.symbols("x y", integer=True)
+    samples = [((1, 0, 5), 29), ((1, 0, 1), 325), ((2, 1, 3), 6), ((1, 1, 1), 49), ((3, 2, 7), 1155),
+               ((1, 0, 2), 2 * 3 * 11 * 17), ((5, 4, 7), 31 * 43), ((1, 0, 1), 3), ((4, 4, 5), 4 * 13)]
+    for (a, b, c), n in samples:
+        ref = sympy.diophantine(a * x**2 + b * x * y + c * y**2 - n, syms=(x, y))
+        ref = sorted((int(u), int(v)) for u, v in ref)
+        assert list(representations((a, b, c), n)) == ref, ((a, b, c), n)
+
+
+def test_zero_negative_and_sign_conventions():
+    assert representations((1, 0, 1), 0) == ((0, 0),)
+    assert representation_count((1, 0, 1), 0) == 1
+    assert primitive_representation_count((1, 0, 1), 0) == 0
+    assert representations((1, 0, 1), -5) == ()
+    assert representation_count((2, 1, 3), -10**30) == 0
+    # negative definite: Q(x, y) = n iff (−Q)(x, y) = −n
+    assert representations((-1, 0, -1), -25) == representations((1, 0, 1), 25)
+    assert representations((-1, 0, -1), 25) == ()
+    assert representation_count((-2, -1, -3), -6) == 2
+
+
+def test_non_primitive_forms_by_content():
+    # content k: Q represents n iff k | n and Q/k represents n/k; compared with brute force
+    f = Form(6, 0, 6)
+    for n in range(0, 120):
+        assert list(representations(f, n)) == brute_definite(f, n)
+    assert representation_count((2, 2, 2), 7) == 0
+    assert representation_count((3, 3, 3), 21) == representation_count((1, 1, 1), 7) == 12
+
+
+def test_primitive_and_limit_options():
+    r = represent((1, 0, 1), 5**4 * 13, primitive=True, limit=3)
+    assert r.primitive_only and r.truncated and len(r.solutions) == 3
+    assert r.count == jacobi(5**4 * 13) and all(gcd(x, y) == 1 for x, y in r.solutions)
+    full = represent((1, 0, 1), 5**4 * 13, primitive=True)
+    assert len(full.solutions) == full.primitive_count and not full.truncated
+    assert set(r.solutions) <= set(full.solutions)
+    d = full.to_dict()
+    assert d["form"] == [1, 0, 1] and d["count"] == r.count and len(d["solutions"]) == d["primitive_count"]
+
+
+def test_given_factorisation_is_checked():
+    with pytest.raises(FormkitError, match="multiply to"):
+        representations((1, 0, 1), 65, factors={5: 1, 11: 1})
+    with pytest.raises(FormkitError, match="not prime"):
+        representations((1, 0, 1), 65, factors={65: 1})
+    assert representations((1, 0, 1), 65, factors={5: 1, 13: 1}) == representations((1, 0, 1), 65)
+    # with a non-primitive form the factorisation of n is adjusted by the content
+    assert representations((3, 0, 3), 3 * 65, factors={3: 1, 5: 1, 13: 1}) == representations((1, 0, 1), 65)
+
+
+# ---------------------------------------------------------------------------
+# indefinite forms
+
+
+def in_orbit(f, rep, v, box):
+    """Is v = ±A^k rep for some k?  Walk the orbit until the entries leave the box."""
+    A = fundamental_automorph(f)
+    for w0 in (rep, (-rep[0], -rep[1])):
+        for M in (A, ((A[1][1], -A[0][1]), (-A[1][0], A[0][0]))):
+            w = w0
+            for _ in range(200):
+                if w == v:
+                    return True
+                w = (M[0][0] * w[0] + M[0][1] * w[1], M[1][0] * w[0] + M[1][1] * w[1])
+                if abs(w[0]) > 10 * box and abs(w[1]) > 10 * box:
+                    break
+    return False
+
+
+def box_solutions(f, n, B):
+    """All (x, y) with |x|, |y| ≤ B and f(x, y) = n: for each y solve the quadratic in x
+    exactly (a x² + b y x + c y² − n = 0)."""
+    a, b, c = f.a, f.b, f.c
+    out = []
+    for y in range(-B, B + 1):
+        if a == 0:
+            xs = [x for x in range(-B, B + 1) if f(x, y) == n]
+        else:
+            disc = (b * y) ** 2 - 4 * a * (c * y * y - n)
+            if disc < 0 or isqrt(disc) ** 2 != disc:
+                continue
+            s = isqrt(disc)
+            xs = {(-b * y + e) // (2 * a) for e in (s, -s) if (-b * y + e) % (2 * a) == 0}
+        out.extend((x, y) for x in xs if abs(x) <= B and f(x, y) == n)
+    return out
+
+
+INDEF = [Form(1, 0, -2), Form(1, 1, -1), Form(1, 0, -3), Form(-1, 0, 3), Form(2, 1, -4), Form(3, 4, -2),
+         Form(1, 0, -7), Form(5, 7, -3), Form(4, 2, -1), Form(2, 0, -6), Form(1, 5, -3), Form(7, 11, -5)]
+
+
+@pytest.mark.parametrize("f", INDEF)
+def test_indefinite_orbits_against_box(f):
+    # every solution in the box lies in exactly one returned orbit; the number of orbits
+    # met in a box containing all representatives equals the returned count.
+    for n in list(range(-30, 31)):
+        reps = representation_orbits(f, n)
+        assert all(f(x, y) == n for x, y in reps)
+        B = max([12] + [max(abs(x), abs(y)) for x, y in reps])
+        hit = set()
+        for x, y in box_solutions(f, n, B):
+            owners = [r for r in reps if in_orbit(f, r, (x, y), B)]
+            assert len(owners) == 1, (f, n, (x, y), owners)
+            hit.add(owners[0])
+            assert orbit_representative(f, (x, y)) == owners[0]
+        assert hit == set(reps), (f, n)
+        res = represent(f, n)
+        assert res.count is None and res.orbit_count == len(reps)
+        assert res.primitive_orbit_count == sum(1 for x, y in reps if gcd(x, y) == 1)
+
+
+def test_indefinite_dirichlet_orbit_count():
+    # For fundamental D > 0 and n ≥ 1: Σ over narrow classes of the number of orbits of
+    # solutions of Q = n is Σ_{d|n} χ_D(d) (Dirichlet; same correspondence with ideals).
+    for D in [5, 8, 12, 13, 17, 21, 24, 28, 29, 33, 40, 60, 65, 85, 136]:
+        if not is_fundamental_discriminant(D):
+            continue
+        forms = class_representatives(D)
+        for n in range(1, 60):
+            total = sum(len(representation_orbits(g, n)) for g in forms)
+            assert total == sum(kronecker(D, d) for d in range(1, n + 1) if n % d == 0) == dirichlet_count(D, n)
+            assert total == total_representation_count(D, n)
+
+
+def test_walk_orbit():
+    f = Form(1, 1, -1)
+    rep = representation_orbits(f, 11)[0]
+    walked = list(islice(walk_orbit(f, rep), 40))
+    assert len(set(walked)) == 40 and all(f(x, y) == 11 for x, y in walked)
+    assert all(orbit_representative(f, v) == rep for v in walked)
+    assert list(walk_orbit(f, (0, 0))) == [(0, 0)]
+
+
+def test_indefinite_large_n():
+    # x² − 2y² = n: with n = product of primes ≡ ±1 (mod 8) there are 2^k orbits of
+    # primitive solutions (h⁺(8) = 1; each split prime doubles them).
+    primes = [7, 17, 23, 31, 41, 47, 71, 73, 79, 89]
+    n = 1
+    for p in primes:
+        n *= p
+    reps = representation_orbits((1, 0, -2), n)
+    assert len(reps) == 2 ** len(primes)
+    assert all(x * x - 2 * y * y == n for x, y in reps)
+
+
+def test_indefinite_against_sympy():
+    # sympy's diophantine gives parametric families for x² − Dy² = n; their members must
+    # fall in our orbits and meet every orbit.
+    x, y, t = sympy.symbols("x y t", integer=True)
+    for (a, b, c), n in [((1, 0, -2), 7), ((1, 0, -3), 13), ((1, 0, -7), 9), ((1, 0, -2), 119)]:
+        fam = sympy.diophantine(a * x**2 + b * x * y + c * y**2 - n, syms=(x, y))
+        f = Form(a, b, c)
+        reps = set(representation_orbits(f, n))
+        seen = set()
+        for sol in fam:
+            for k in range(0, 3):
+                u, v = (int(sympy.nsimplify(sympy.expand(e.subs(t, k)))) for e in sol)
+                assert f(u, v) == n
+                seen.add(orbit_representative(f, (u, v)))
+        assert seen == reps, ((a, b, c), n)
+
+
+def test_indefinite_zero_and_non_primitive():
+    assert representation_orbits((1, 0, -2), 0) == ((0, 0),)
+    assert representation_orbits((2, 0, -4), 7) == ()
+    assert set(representation_orbits((2, 0, -4), 14)) == set(representation_orbits((1, 0, -2), 7))
+
+
+# ---------------------------------------------------------------------------
+# bad input
+
+
+def test_bad_input():
+    with pytest.raises(DiscriminantError):
+        representations((1, 2, 1), 4)
+    with pytest.raises(DiscriminantError):
+        represent((1, 0, -4), 4)
+    with pytest.raises(NotAnIntegerError):
+        representations((1, 0, 1), 2.5)
+    with pytest.raises(FormError, match="indefinite"):
+        representations((1, 0, -2), 7)
+    with pytest.raises(FormError, match="indefinite"):
+        representation_count((1, 0, -2), 7)
+    with pytest.raises(FormError, match="definite"):
+        representation_orbits((1, 0, 1), 5)
+    with pytest.raises(FormError, match="definite"):
+        orbit_representative((1, 0, 1), (1, 2))
+    with pytest.raises(FormError, match="definite"):
+        next(walk_orbit((1, 0, 1), (1, 2)))
+    with pytest.raises(FormkitError, match="limit"):
+        represent((1, 0, 1), 5, limit=-1)
+    with pytest.raises(FormkitError, match="n ≥ 1"):
+        total_representation_count(-4, 0)
+    with pytest.raises(FormkitError, match="n ≥ 1"):
+        dirichlet_count(-4, -3)
+    with pytest.raises(DiscriminantError):
+        dirichlet_count(-5, 3)
+    with pytest.raises(ParseError):
+        representations("x^2 + ", 5)
