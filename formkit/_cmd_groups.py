@@ -14,6 +14,10 @@ def _cmd_group(args: argparse.Namespace) -> int:
     from .cli import emit
 
     D = parse_integer(args.discriminant, "discriminant")
+    if args.max_rows < 0:
+        from .cli import CommandError
+
+        raise CommandError(f"--max-rows must be >= 0, not {args.max_rows}")
     G = class_group(D, method=args.method)
     payload = G.to_dict()
 
@@ -83,11 +87,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         epilog=(
             "examples:\n  formkit group -4004\n  formkit group 316 --json\n"
-            "  formkit group -10^30-3 --method bsgs"
+            "  formkit group -3*10^30 --method bsgs"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("discriminant", help="the discriminant D (negative or positive, e.g. -4004, 10^12+1)")
+    p.add_argument("discriminant", help="the discriminant D (negative or positive, e.g. -4004, 316, -4*10^9)")
     p.add_argument(
         "--method",
         choices=("auto", "enumerate", "bsgs"),
@@ -103,7 +107,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         parents=[parent],
         help="compose two primitive forms of one discriminant (reduced result)",
         description="Compose two primitive forms of the same discriminant and reduce. Python: formkit.compose(F, G).",
-        epilog="examples:\n  formkit compose 2,1,3 2,1,3\n  formkit compose 3,2,5 5,4,4 --method nucomp --json",
+        epilog="examples:\n  formkit compose 2,1,3 2,1,3\n  formkit compose 3,2,5 2,0,7 --method nucomp --json",
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     q.add_argument("first", metavar="F", help="first form")

@@ -197,6 +197,16 @@ class ClassGroupElement:
         return r"$\left[" + self.form._repr_latex_().strip("$") + r"\right]$"
 
 
+def _require_prime(p: object) -> int:
+    from .arith import is_probable_prime
+    from .errors import NotPrimeError
+
+    p = as_int(p, "p")
+    if not is_probable_prime(p):
+        raise NotPrimeError(f"a Sylow subgroup needs a prime p, not {p}")
+    return p
+
+
 def _gcd(a: int, b: int) -> int:
     from math import gcd
 
@@ -410,13 +420,7 @@ class ClassGroup:
 
     def sylow_subgroup(self, p: int) -> list[ClassGroupElement]:
         """The elements of the p-Sylow subgroup (order a power of the prime ``p``)."""
-        from .arith import is_probable_prime
-
-        p = as_int(p, "p")
-        if not is_probable_prime(p):
-            from .errors import NotPrimeError
-
-            raise NotPrimeError(f"a Sylow subgroup needs a prime p, not {p}")
+        p = _require_prime(p)
         gens, orders = [], []
         for g, n in zip(self._generators, self._invariants):
             pk = 1
@@ -433,6 +437,7 @@ class ClassGroup:
 
     def sylow_invariants(self, p: int) -> Tuple[int, ...]:
         """Invariant factors of the p-Sylow subgroup."""
+        p = _require_prime(p)
         out = []
         for n in self._invariants:
             pk = 1

@@ -24,10 +24,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .arith import factorint, invert, kronecker, xgcd
+from .arith import as_int, factorint, invert, kronecker, xgcd
 from .classgroup import ClassGroupElement, class_group
 from .discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
-from .errors import NotPrimitiveError
+from .errors import FormkitError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
 from .reduction import reduced
 
@@ -48,6 +48,13 @@ def coprime_representative(form: FormLike, m: int) -> tuple[Form, tuple]:
     represents integers prime to any given ``m`` (Cox, Lemma 2.25), found here by a
     search over small coprime ``(x, y)``.
 
+    Raises
+    ------
+    NotPrimitiveError
+        If ``form`` is not primitive.
+    NotAnIntegerError, FormkitError
+        If ``m`` is not a non-zero integer.
+
     Examples
     --------
     >>> coprime_representative((2, 0, 9), 2)[0]
@@ -56,7 +63,9 @@ def coprime_representative(form: FormLike, m: int) -> tuple[Form, tuple]:
     f = as_form(form)
     if not f.is_primitive:
         raise NotPrimitiveError(f"{f!r} is not primitive (content {f.content})")
-    m = abs(m)
+    m = abs(as_int(m, "m"))
+    if m == 0:
+        raise FormkitError(f"coprime_representative needs a non-zero modulus m, not {m}")
     from math import gcd
 
     bound = 1
