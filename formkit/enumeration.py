@@ -28,7 +28,7 @@ from __future__ import annotations
 from functools import lru_cache
 from math import gcd as _gcd
 
-from .arith import divisors, isqrt, sqrt_mod
+from .arith import _sqrt_mod_prime_power, divisors, isqrt
 from .discriminants import validate_discriminant
 from .forms import Form
 from .reduction import _rho_indefinite_raw
@@ -71,10 +71,29 @@ def _reduced_forms_negative(D: int) -> list[tuple[int, int, int]]:
     amax = int(isqrt(-D // 3))
     spf = _spf_sieve(max(amax, 2))
     out: list[tuple[int, int, int]] = []
+    # square roots of D modulo each prime power met (modulo 2^(e+2) for p = 2, since
+    # the modulus is 4a), computed once per prime power and combined by the CRT below
+    root_cache: dict[tuple[int, int], tuple[int, tuple[int, ...]]] = {}
     for a in range(1, amax + 1):
         fac = _factor_with(spf, a)
         fac[2] = fac.get(2, 0) + 2
-        roots = sqrt_mod(D, 4 * a, fac)
+        roots = [0]
+        m = 1
+        for p, e in fac.items():
+            entry = root_cache.get((p, e))
+            if entry is None:
+                entry = (p**e, tuple(int(r) for r in _sqrt_mod_prime_power(D, p, e)))
+                root_cache[(p, e)] = entry
+            mod, rs = entry
+            if not rs:
+                roots = []
+                break
+            if m == 1:
+                roots = list(rs)
+            else:
+                inv = pow(m, -1, mod)
+                roots = [x + m * (((r - x) * inv) % mod) for x in roots for r in rs]
+            m *= mod
         if not roots:
             continue
         two_a = 2 * a
