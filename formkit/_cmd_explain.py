@@ -1,0 +1,201 @@
+"""Command ``explain``: worked examples in Markdown or LaTeX (subcommands reduce, compose,
+represent, group)."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from ._parse import parse_integer
+from .forms import as_form
+
+_FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
+
+_JSON_NOTE = (
+    "With --json one object is printed: {\"kind\", \"format\", \"text\", \"data\"} where text is the "
+    "rendered document and data holds every recorded number (the same as "
+    "formkit.worked_<topic>(...).to_dict()[\"data\"] in Python)."
+)
+
+
+def _positive_int(text: str) -> int:
+    try:
+        v = parse_integer(text, "count")
+    except ValueError as exc:  # ParseError: reported by argparse as one line, exit 2
+        raise argparse.ArgumentTypeError(str(exc)) from None
+    if v < 1:
+        raise argparse.ArgumentTypeError(f"expected a positive integer, not {v}")
+    return v
+
+
+def _emit_example(args: argparse.Namespace, example) -> int:
+    from .cli import CommandError, emit
+
+    if args.fragment and args.format != "tex":
+        raise CommandError("--fragment applies to --format tex only")
+    text = example.render(args.format, fragment=args.fragment)
+    if args.output:
+        try:
+            with open(args.output, "w", encoding="utf-8") as fh:
+                fh.write(text)
+        except OSError as exc:
+            raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from None
+    payload = {"kind": example.kind, "format": args.format, "text": text, "data": example.data}
+    if args.output:
+        payload["output"] = args.output
+        human = f"wrote {example.kind} example ({args.format}, {text.count(chr(10))} lines) to {args.output}"
+    else:
+        human = text
+    emit(args, payload, human)
+    return 0
+
+
+def _cmd_reduce(args: argparse.Namespace) -> int:
+    from .worked_examples import worked_reduction
+
+    return _emit_example(args, worked_reduction(as_form(args.form)))
+
+
+def _cmd_compose(args: argparse.Namespace) -> int:
+    from .worked_examples import worked_composition
+
+    return _emit_example(args, worked_composition(as_form(args.first, name="F"), as_form(args.second, name="G")))
+
+
+def _cmd_represent(args: argparse.Namespace) -> int:
+    from .worked_examples import worked_representation
+
+    n = parse_integer(args.n, "n")
+    return _emit_example(args, worked_representation(as_form(args.form), n, max_detail=args.max_detail))
+
+
+def _cmd_group(args: argparse.Namespace) -> int:
+    from .worked_examples import worked_class_group
+
+    D = parse_integer(args.discriminant, "discriminant")
+    return _emit_example(args, worked_class_group(D, max_classes=args.max_classes))
+
+
+def _format_parent() -> argparse.ArgumentParser:
+    from .cli import _Parser
+
+    p = _Parser(add_help=False)
+    p.add_argument("--format", choices=("md", "tex"), default="md", help="Markdown (default) or LaTeX")
+    p.add_argument(
+        "--fragment",
+        action="store_true",
+        help="with --format tex: only the body, to paste into a document (default: a complete, "
+        "compilable article using amsmath and longtable)",
+    )
+    p.add_argument("-o", "--output", metavar="FILE", help="write the document to FILE instead of printing it")
+    return p
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``explain`` command and its subcommands."""
+    from .cli import _Parser
+
+    fmt = _format_parent()
+    raw = argparse.RawDescriptionHelpFormatter
+    # --json and --debug sit on each topic (a second copy here would be overwritten by
+    # the topic's defaults when argparse merges the namespaces)
+    p = sub.add_parser(
+        "explain",
+        help="worked examples, every step with its numbers, in Markdown or LaTeX",
+        description=(
+            "Write a worked example for a paper, thesis or lecture: every step of a reduction, a "
+            "composition, a representation or a class group computation, with its numbers, as "
+            "Markdown or as a LaTeX document (or fragment). " + _JSON_NOTE
+        ),
+        epilog=(
+            "examples:\n"
+            "  formkit explain reduce 10,37,35\n"
+            "  formkit explain compose 2,1,3 3,-1,2 --format tex -o composition.tex\n"
+            "  formkit explain represent '2x^2+xy+3y^2' 18\n"
+            "  formkit explain group -84 --format tex --fragment\n\n"
+            "run 'formkit explain TOPIC --help' for each topic"
+        ),
+        formatter_class=raw,
+    )
+    topics = p.add_subparsers(dest="topic", metavar="TOPIC", parser_class=_Parser)
+    topics.required = True
+
+    r = topics.add_parser(
+        "reduce",
+        parents=[parent, fmt],
+        help="the reduction of a form, step by step",
+        description=(
+            "Every reduction step (translation, swap, or the operator rho for indefinite forms) with its "
+            "matrix and the running product; for indefinite forms also the cycle of reduced forms. "
+            "Python: formkit.explain_reduction(form, format='md'). " + _JSON_NOTE
+        ),
+        epilog="examples:\n  formkit explain reduce 10,37,35\n  formkit explain reduce '-x^2 + 13y^2' --format tex",
+        formatter_class=raw,
+    )
+    r.add_argument("form", help=_FORM_HELP)
+    r.set_defaults(handler=_cmd_reduce)
+
+    c = topics.add_parser(
+        "compose",
+        parents=[parent, fmt],
+        help="Dirichlet composition of two forms, every intermediate value",
+        description=(
+            "Dirichlet composition (Cohen, GTM 138, Algorithm 5.4.7) with s, n, both extended-Euclid steps "
+            "and their Bezout coefficients, d1, v1, v2, r, the unreduced composite and its reduction. "
+            "Python: formkit.explain_composition(F, G, format='md'). " + _JSON_NOTE
+        ),
+        epilog="examples:\n  formkit explain compose 2,1,3 3,-1,2\n  formkit explain compose [3,2,5] [3,2,5] --format tex",
+        formatter_class=raw,
+    )
+    c.add_argument("first", metavar="F", help="first form; " + _FORM_HELP)
+    c.add_argument("second", metavar="G", help="second form (same discriminant)")
+    c.set_defaults(handler=_cmd_compose)
+
+    q = topics.add_parser(
+        "represent",
+        parents=[parent, fmt],
+        help="how Q(x, y) = N is solved: square roots modulo 4m and reductions",
+        description=(
+            "Solve Q(x, y) = N by the square-root method: for every g with g^2 | N, the roots b of "
+            "b^2 = D (mod 4m), m = N/g^2, the reduction of each (m, b, (b^2 - D)/4m), the comparison with "
+            "Q and the solution read off the matrix. "
+            "Python: formkit.explain_representation(form, n, format='md'). " + _JSON_NOTE
+        ),
+        epilog="examples:\n  formkit explain represent 2,1,3 18\n  formkit explain represent 'x^2-2y^2' 7 --format tex",
+        formatter_class=raw,
+    )
+    q.add_argument("form", help=_FORM_HELP)
+    q.add_argument("n", metavar="N", help="the integer to represent")
+    q.add_argument(
+        "--max-detail",
+        type=_positive_int,
+        default=32,
+        metavar="K",
+        help="show reduction steps for at most K roots (default 32; the tables are always complete)",
+    )
+    q.set_defaults(handler=_cmd_represent)
+
+    g = topics.add_parser(
+        "group",
+        parents=[parent, fmt],
+        help="the class group with its class table, orders and genus characters",
+        description=(
+            "The reduced forms, the structure and generators of Cl(D), and the class table with orders, "
+            "discrete logarithms and genus characters, followed by the checks of genus theory. "
+            "Python: formkit.explain_class_group(D, format='md'). " + _JSON_NOTE
+        ),
+        epilog="examples:\n  formkit explain group -84\n  formkit explain group -4004 --format tex -o cl4004.tex",
+        formatter_class=raw,
+    )
+    g.add_argument("discriminant", metavar="D", help="the discriminant (e.g. -84, 316)")
+    g.add_argument(
+        "--max-classes",
+        type=_positive_int,
+        default=500,
+        metavar="K",
+        help="list at most K classes (default 500)",
+    )
+    g.set_defaults(handler=_cmd_group)
+
+
+__all__ = ["register"]
