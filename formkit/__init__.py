@@ -34,7 +34,9 @@ from .orders import *  # noqa: F401,F403,E402
 from .orders import __all__ as _orders_all  # noqa: E402
 from .analytic import *  # noqa: F401,F403,E402
 from .analytic import __all__ as _analytic_all  # noqa: E402
+from .worked_examples import *  # noqa: F401,F403,E402
+from .worked_examples import __all__ as _worked_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, "__version__"]
+__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, "__version__"]

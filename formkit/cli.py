@@ -26,6 +26,7 @@ __all__ = ["main", "build_parser", "emit"]
 COMMAND_MODULES = (
     "formkit._cmd_forms",
     "formkit._cmd_groups",
+    "formkit._cmd_explain",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")
