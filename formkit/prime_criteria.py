@@ -63,10 +63,12 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
-from .arith import as_int, crt, factorint, kronecker, sqrt_mod
+from .arith import as_int, crt, factorint, isqrt, kronecker, sqrt_mod, sqrt_mod_prime
 from .classgroup import class_group
 from .errors import FormError, FormkitError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
+from .enumeration import _cycles_cached
+from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = [
     "PrimeCriterion",
@@ -154,6 +156,10 @@ class _Decider:
         self.G = G = class_group(D)
         self.C = G(Q)
         self.targets = {self.C, self.C.inverse()}
+        self.raw_targets = {t.form.coefficients for t in self.targets}
+        if D > 0:  # reduced form -> representative of its cycle (the canonical class form)
+            self.sqrt_D = isqrt(D)
+            self.cycle_of = _cycles_cached(D)[1]
         self.exceptions = tuple(p for p in sorted(factorint(abs(D))) if self._divisor_represented(p))
 
     def _divisor_represented(self, p: int) -> bool:
@@ -168,9 +174,28 @@ class _Decider:
         D = self.D
         if D % p == 0:
             return p in self.exceptions
-        if kronecker(D, p) != 1:
+        if p == 2:
+            if kronecker(D, p) != 1:
+                return False
+            return self.G(Form.prime_form(D, p)) in self.targets
+        # fast path for odd p: Euler's criterion, then the prime form (p, b, (b² − D)/4p)
+        # with b² ≡ D (mod p), b ≡ D (mod 2), reduced (Gauss) and compared with C, C⁻¹
+        d = D % p
+        if pow(d, (p - 1) >> 1, p) != 1:
             return False
-        return self.G(Form.prime_form(D, p)) in self.targets
+        if p & 3 == 3:
+            r = pow(d, (p + 1) >> 2, p)
+        elif p & 7 == 5:  # Atkin's square root for p ≡ 5 (mod 8)
+            v = pow(2 * d, (p - 5) >> 3, p)
+            r = d * v * (2 * d * v * v - 1) % p
+        else:
+            r = int(sqrt_mod_prime(d, p))
+        b = r if (r - D) % 2 == 0 else p - r
+        c = (b * b - D) // (4 * p)
+        if D < 0:
+            return _reduce_definite_raw(p, b, c) in self.raw_targets
+        red = _reduce_indefinite_raw(p, b, c, D, self.sqrt_D)
+        return self.cycle_of[(int(red[0]), int(red[1]), int(red[2]))] in self.raw_targets
 
 
 def represents_prime(form: FormLike, p: object) -> bool:
