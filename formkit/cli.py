@@ -27,6 +27,7 @@ COMMAND_MODULES = (
     "formkit._cmd_forms",
     "formkit._cmd_groups",
     "formkit._cmd_explain",
+    "formkit._cmd_primes",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")

@@ -1,0 +1,155 @@
+"""Commands ``primes`` and ``hilbert``: which primes a form represents; class polynomials."""
+
+from __future__ import annotations
+
+import argparse
+
+from .arith import as_int
+from .errors import ParseError
+from .forms import as_form
+
+_SHOWN = 60  # primes listed in the text output (all of them with --json)
+
+
+def _integer(text: str, name: str) -> int:
+    t = text.strip().replace("_", "")
+    if t.startswith("10^") and t[3:].isdigit():
+        return 10 ** int(t[3:])
+    try:
+        return as_int(int(t, 10), name)
+    except ValueError:
+        raise ParseError(f"{name} must be an integer (or 10^k), not {text!r}") from None
+
+
+def _cmd_primes(args: argparse.Namespace) -> int:
+    from .cli import emit
+    from .prime_criteria import PrimeCriterion, prime_criterion, primes_up_to, represented_primes
+
+    Q = as_form(args.form)
+    X = _integer(args.upto, "--upto")
+    crit: PrimeCriterion = prime_criterion(Q, polynomial=not args.no_polynomial)
+    primes = represented_primes(Q, X)
+    count_all = len(primes_up_to(X))
+    expected = float(crit.density) * count_all
+    payload = {
+        "form": crit.form.to_list(),
+        "discriminant": crit.discriminant,
+        "density": f"{crit.density.numerator}/{crit.density.denominator}",
+        "criterion": crit.criterion_dict(),
+        "exceptions": list(crit.exceptions),
+        "primes": primes,
+        "class_number": crit.class_number,
+        "class_order": crit.class_order,
+        "count": {"upto": X, "represented": len(primes), "primes": count_all, "expected": round(expected, 2)},
+    }
+
+    def human() -> str:
+        c = crit
+        lines = [
+            f"form:          {c.form}   {c.form.to_list()}",
+            f"discriminant:  {c.discriminant}   class number {c.class_number}"
+            + (" (narrow)" if c.discriminant > 0 else "")
+            + f", class of the form has order {c.class_order}",
+            f"density:       {c.density} of all primes "
+            + ("(1/(2h): class of order ≤ 2)" if c.class_order <= 2 else "(1/h: class of order > 2)"),
+        ]
+        if c.kind == "congruence":
+            lines.append(f"criterion:     congruence modulo {c.modulus}: residues {list(c.residues)}")
+        elif c.kind == "class_polynomial":
+            if c.polynomial:
+                deg = len(c.polynomial) - 1
+                head = ", ".join(map(str, c.polynomial[:4])) + (", …" if deg > 3 else "")
+                lines.append(f"criterion:     class polynomial of degree {deg}: [{head}]  (formkit hilbert {c.discriminant})")
+            else:
+                lines.append("criterion:     class of the prime ideal (class polynomial not computed)")
+        else:
+            lines.append("criterion:     narrow class of the prime ideal above p")
+        lines.append(f"exceptions:    {list(c.exceptions) or 'none'}  (primes dividing D that the form represents)")
+        lines.append("statement:     " + c.statement)
+        shown = ", ".join(map(str, primes[:_SHOWN])) + (", …" if len(primes) > _SHOWN else "")
+        lines.append(f"primes ≤ {X}:  {len(primes)} represented of {count_all} (predicted {expected:.1f})")
+        if primes:
+            lines.append(f"  {shown}")
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def _cmd_hilbert(args: argparse.Namespace) -> int:
+    from .class_polynomials import class_polynomial
+    from .cli import emit
+
+    D = _integer(args.discriminant, "D")
+    H = class_polynomial(D, verify=not args.no_verify)
+    payload = H.to_dict()
+
+    def human() -> str:
+        lines = [
+            f"discriminant:  {H.discriminant}   ({'Hilbert' if H.kind == 'Hilbert' else 'ring'} class polynomial, "
+            f"degree h = {H.degree})",
+            f"H(x) = {H}",
+        ]
+        v = H.verification
+        if v is None:
+            lines.append(f"computed with {H.working_digits} digits; not verified (--no-verify)")
+        else:
+            lines.append(
+                f"verified: recomputed with {v.recomputed_digits} digits (same integers), rounding residual "
+                f"< 10^{v.residual_exponent}, coefficients < 10^{v.bound_digits} (stated bound), root counts "
+                f"mod {list(v.primes_checked)} match the prime-form classes"
+            )
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``primes`` and ``hilbert`` commands."""
+    p = sub.add_parser(
+        "primes",
+        parents=[parent],
+        help="which primes a form represents: criterion, density, and the list up to a bound",
+        description=(
+            "Describe the primes represented by a primitive form: a congruence criterion modulo |D| "
+            "when the genus of the form has one class, else the class-polynomial criterion (D < 0) or "
+            "the ideal-class criterion (D > 0); the Chebotarev density (among all primes); the "
+            "primes dividing D that it represents; and every prime up to the bound that it represents. "
+            "Python: formkit.prime_criterion(form), formkit.represented_primes(form, upto)."
+        ),
+        epilog=(
+            "examples:\n  formkit primes 1,0,27 --upto 1000\n  formkit primes 'x^2 + 5y^2' --upto 10^6 --json\n"
+            "  formkit primes 1,0,-79 --upto 500"
+        ),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as 'x^2+27y^2'")
+    p.add_argument("--upto", default="1000", metavar="X", help="list the represented primes up to X (default 1000; at most 10^8)")
+    p.add_argument(
+        "--no-polynomial",
+        action="store_true",
+        help="do not compute the class polynomial (for discriminants of large class number)",
+    )
+    p.set_defaults(handler=_cmd_primes)
+
+    q = sub.add_parser(
+        "hilbert",
+        parents=[parent],
+        help="the Hilbert (or ring) class polynomial H_D(x) of a negative discriminant",
+        description=(
+            "Compute the class polynomial of a negative discriminant D from the j-invariants of the "
+            "reduced forms, rounded to integers and verified (second computation at higher precision, "
+            "rounding residuals, coefficient bound, roots modulo small primes). For fundamental D this "
+            "is the Hilbert class polynomial, otherwise the ring class polynomial of the order. "
+            "Python: formkit.class_polynomial(D)."
+        ),
+        epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json",
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    q.add_argument("discriminant", metavar="D", help="a negative discriminant, D ≡ 0 or 1 (mod 4)")
+    q.add_argument("--no-verify", action="store_true", help="skip the verification (faster)")
+    q.set_defaults(handler=_cmd_hilbert)
+
+
+__all__ = ["register"]
