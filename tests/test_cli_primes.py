@@ -1,0 +1,124 @@
+"""Tests for the ``primes`` and ``hilbert`` commands (in-process through formkit.cli.main)."""
+
+import json
+
+import pytest
+import sympy
+
+from formkit.cli import main
+
+
+def run(capsys, *argv):
+    code = main(list(argv))
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def run_json(capsys, *argv):
+    code, out, err = run(capsys, *argv, "--json")
+    assert code == 0, err
+    assert err == ""
+    return json.loads(out)
+
+
+def test_primes_congruence_json(capsys):
+    # Fermat/Euler (classical): p = x² + 5y² iff p = 5 or p ≡ 1, 9 (mod 20)
+    d = run_json(capsys, "primes", "x^2 + 5y^2", "--upto", "1000")
+    assert d["form"] == [1, 0, 5] and d["discriminant"] == -20 and d["density"] == "1/4"
+    assert d["criterion"]["kind"] == "congruence"
+    assert d["criterion"]["modulus"] == 20 and d["criterion"]["residues"] == [1, 9]
+    assert d["exceptions"] == [5]
+    expected = [5] + [p for p in sympy.primerange(2, 1001) if p % 20 in (1, 9)]
+    assert d["primes"] == expected
+
+
+def test_primes_class_polynomial_json(capsys):
+    # Gauss: p = x² + 27y² iff p ≡ 1 (mod 3) and 2 is a cubic residue mod p (Cox Thm 4.15, as recalled)
+    d = run_json(capsys, "primes", "1,0,27", "--upto", "3000")
+    assert d["criterion"]["kind"] == "class_polynomial"
+    assert len(d["criterion"]["polynomial"]) == 4 and d["criterion"]["polynomial"][0] == 1
+    assert d["density"] == "1/6"  # h(−108) = 3, principal class: 1/(2h)
+    assert d["exceptions"] == []
+    expected = [p for p in sympy.primerange(5, 3001) if p % 3 == 1 and pow(2, (p - 1) // 3, p) == 1]
+    assert d["primes"] == expected
+    assert d["count"]["represented"] == len(expected) and d["count"]["primes"] == 430  # π(3000) = 430
+
+
+def test_primes_nonprincipal_class(capsys):
+    d = run_json(capsys, "primes", "[2, 1, 3]", "--upto", "100")
+    assert d["density"] == "1/3"  # class of order 3 in Cl(−23) ≅ Z/3
+    assert d["criterion"]["kind"] == "class_polynomial" and d["criterion"]["principal"] is False
+    assert d["criterion"]["polynomial"] == [1, 3491750, -5151296875, 12771880859375]  # Cox §13 (from memory)
+    # brute force: values of 2x² + xy + 3y² below 100
+    vals = {2 * x * x + x * y + 3 * y * y for x in range(-10, 11) for y in range(-10, 11)}
+    assert d["primes"] == [p for p in sympy.primerange(2, 101) if p in vals]
+
+
+def test_primes_indefinite(capsys):
+    # x² − 2y²: p = 2 or p ≡ ±1 (mod 8) (classical)
+    d = run_json(capsys, "primes", "x^2 - 2y^2", "--upto", "500")
+    assert d["criterion"] == {**d["criterion"], "kind": "congruence", "modulus": 8, "residues": [1, 7]}
+    assert d["primes"] == [2] + [p for p in sympy.primerange(3, 501) if p % 8 in (1, 7)]
+
+
+def test_primes_text(capsys):
+    code, out, err = run(capsys, "primes", "1,0,14", "--upto", "200")
+    assert code == 0 and err == ""
+    assert "no congruence criterion" in out and "class polynomial of degree 4" in out
+    assert "density:       1/8" in out
+
+
+def test_primes_without_polynomial(capsys):
+    d = run_json(capsys, "primes", "1,0,14", "--upto", "50", "--no-polynomial")
+    assert d["criterion"]["polynomial"] == []
+    assert d["primes"] == [23]  # 23 = 3² + 14·1²; 15 = 1 + 14 is not prime
+
+
+def test_primes_default_bound_and_power_notation(capsys):
+    d = run_json(capsys, "primes", "1,1,1")
+    assert d["count"]["upto"] == 1000
+    d = run_json(capsys, "primes", "1,1,1", "--upto", "10^4")
+    assert d["count"]["upto"] == 10**4
+    # x² + xy + y²: p = 3 or p ≡ 1 (mod 3) (classical)
+    assert d["primes"] == [3] + [p for p in sympy.primerange(2, 10**4) if p % 3 == 1]
+
+
+def test_hilbert_json(capsys):
+    d = run_json(capsys, "hilbert", "-23")
+    assert d == {**d, "discriminant": -23, "degree": 3, "coefficients": [1, 3491750, -5151296875, 12771880859375]}
+    d = run_json(capsys, "hilbert", "-163")
+    assert d["coefficients"] == [1, 640320**3]  # j = −640320³ (classical)
+    d = run_json(capsys, "hilbert", "-16", "--no-verify")
+    assert d["coefficients"] == [1, -287496] and d["kind"] == "ring" and d["verification"] is None
+
+
+def test_hilbert_text(capsys):
+    code, out, err = run(capsys, "hilbert", "-15")
+    assert code == 0 and err == ""
+    assert "H(x) = x^2 + 191025x - 121287375" in out  # Cox §13 (from memory)
+    assert "verified" in out
+
+
+@pytest.mark.parametrize(
+    "argv,words",
+    [
+        (["primes", "2,2,2"], "content 2"),
+        (["primes", "-1,0,-5"], "negative definite"),
+        (["primes", "1,0,-1"], "square"),
+        (["primes", "1,0,5", "--upto", "-3"], "≥ 0"),
+        (["primes", "1,0,5", "--upto", "ten"], "--upto must be an integer"),
+        (["primes", "1,0,5", "--upto", "10^9"], "at most"),
+        (["primes", "1,2"], "three"),
+        (["hilbert", "5"], "negative discriminants"),
+        (["hilbert", "-22"], "-22"),
+        (["hilbert", "x"], "D must be an integer"),
+        (["hilbert"], "required"),
+    ],
+)
+def test_bad_input_one_line_exit_2(capsys, argv, words):
+    code, out, err = run(capsys, *argv)
+    assert code == 2
+    assert out == ""
+    assert err.startswith("formkit: error: ") and err.count("\n") == 1
+    assert words in err
+    assert "Traceback" not in err
