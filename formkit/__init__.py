@@ -40,7 +40,11 @@ from .class_polynomials import *  # noqa: F401,F403,E402
 from .class_polynomials import __all__ as _cpoly_all  # noqa: E402
 from .prime_criteria import *  # noqa: F401,F403,E402
 from .prime_criteria import __all__ as _pcrit_all  # noqa: E402
+from .tables import *  # noqa: F401,F403,E402
+from .tables import __all__ as _tables_all  # noqa: E402
+from .table_store import *  # noqa: F401,F403,E402
+from .table_store import __all__ as _store_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, "__version__"]
+__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, "__version__"]

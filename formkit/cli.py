@@ -28,6 +28,7 @@ COMMAND_MODULES = (
     "formkit._cmd_groups",
     "formkit._cmd_explain",
     "formkit._cmd_primes",
+    "formkit._cmd_table",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")

@@ -75,7 +75,6 @@ __all__ = [
     "TableRow",
     "class_numbers",
     "table_rows",
-    "ENGINES",
 ]
 
 #: Engines for the negative-discriminant sweep: ``"numpy"`` (vectorised periodic

@@ -1,0 +1,297 @@
+"""Command ``table``: class-number tables over ranges, resumable SQLite stores, queries."""
+
+from __future__ import annotations
+
+import argparse
+import csv
+import io
+import sys
+from typing import List, Sequence
+
+from ._parse import parse_integer
+from .tables import TableRow
+
+_FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_part")
+
+
+def _cmd_table(args: argparse.Namespace) -> int:
+    from .cli import CommandError
+    from .table_store import build_table, query_table, table_info
+
+    fmt = "json" if args.json else args.format
+    start = None if args.start is None else parse_integer(args.start, "--from")
+    stop = None if args.stop is None else parse_integer(args.stop, "--to")
+    filters_given = any(getattr(args, k) is not None for k in _FILTERS)
+
+    if args.info:
+        if args.db is None:
+            raise CommandError("--info needs --db FILE")
+        info = table_info(args.db)
+        _emit_info(args, info)
+        return 0
+
+    query = args.query or filters_given or (args.db is not None and start is None and stop is None)
+    if query:
+        if args.db is None:
+            raise CommandError("querying needs --db FILE (filters such as --class-number read a stored table)")
+        rows = query_table(
+            args.db,
+            start=start,
+            stop=stop,
+            class_number=None if args.class_number is None else parse_integer(args.class_number, "--class-number"),
+            invariants=args.invariants,
+            conductor=None if args.conductor is None else parse_integer(args.conductor, "--conductor"),
+            fundamental=args.fundamental,
+            fundamental_discriminant=None if args.fundamental_part is None
+            else parse_integer(args.fundamental_part, "--fundamental-part"),
+            genus_count=None if args.genera is None else parse_integer(args.genera, "--genera"),
+            limit=args.limit,
+        )
+        meta = table_info(args.db)["meta"]
+        _print_rows(rows, fmt, meta.get("invariants") == "1")
+        return 0
+
+    if start is None or stop is None:
+        raise CommandError("a table needs both --from A and --to B (or --db FILE with filters to query a stored one)")
+    if args.limit is not None:
+        raise CommandError("--limit applies to queries of a stored table (with --db and filters)")
+    invariants = not args.no_invariants
+    rows_out: List[TableRow] | None = None if args.db else []
+    try:
+        summary = build_table(
+            args.db,
+            start,
+            stop,
+            fundamental=args.fundamental,
+            invariants=invariants,
+            workers=args.workers,
+            cluster=args.cluster,
+            chunk_size=args.chunk_size,
+            engine=args.engine,
+            rows_out=rows_out,
+        )
+    except KeyboardInterrupt:
+        if args.db:
+            info = table_info(args.db)
+            sys.stderr.write(
+                f"formkit: {info['chunks']} finished chunks ({info['rows']} rows) are safe in {args.db}; "
+                "run the same command again to resume\n"
+            )
+        raise
+    if rows_out is not None:
+        rows_out.sort(key=lambda r: (abs(r.discriminant), r.discriminant))
+        _print_rows(rows_out, fmt, invariants)
+        return 0
+    payload = summary.to_dict()
+    payload.update(method="enumeration", certified=True)
+    if fmt == "json":
+        from .cli import emit
+
+        emit(args, payload, "")
+    else:
+        sys.stdout.write(
+            f"{summary.path}: D in [{summary.start}, {summary.stop}]: {summary.chunks_computed} chunks "
+            f"computed ({summary.rows_written} rows), {summary.chunks_already_done} already done; "
+            f"{summary.seconds:.2f} s on "
+            + (f"cluster {summary.cluster}" if summary.cluster else f"{summary.workers} worker(s)")
+            + "\n"
+        )
+    return 0
+
+
+# ---------------------------------------------------------------------------
+# output
+# ---------------------------------------------------------------------------
+
+def _inv_plain(inv) -> str:
+    if inv is None:
+        return ""
+    return ",".join(map(str, inv)) if inv else "1"
+
+
+def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> None:
+    out = sys.stdout
+    if fmt == "json":
+        import json
+
+        payload = {
+            "rows": [r.to_dict() for r in rows],
+            "count": len(rows),
+            "method": "enumeration",
+            "certified": True,
+            "invariants_computed": with_invariants,
+        }
+        out.write(json.dumps(payload) + "\n")
+        return
+    positive = any(r.discriminant > 0 for r in rows)
+    if fmt == "csv":
+        buf = io.StringIO()
+        w = csv.writer(buf, lineterminator="\n")
+        w.writerow(["discriminant", "fundamental_discriminant", "conductor", "class_number",
+                    "invariants", "genus_count", "class_number_wide", "regulator"])
+        for r in rows:
+            w.writerow([r.discriminant, r.fundamental_discriminant, r.conductor, r.class_number,
+                        _inv_plain(r.invariants), r.genus_count,
+                        "" if r.class_number_wide is None else r.class_number_wide,
+                        "" if r.regulator is None else repr(r.regulator)])
+        out.write(buf.getvalue())
+        return
+    if fmt == "tex":
+        out.write(_tex(rows, with_invariants, positive))
+        return
+    # text: aligned columns
+    head = ["D", "d_K", "f", "h"]
+    if with_invariants:
+        head.append("invariants")
+    head.append("genera")
+    if positive:
+        head += ["h_wide", "regulator"]
+    table = [head]
+    for r in rows:
+        line = [str(r.discriminant), str(r.fundamental_discriminant), str(r.conductor), str(r.class_number)]
+        if with_invariants:
+            line.append(_inv_plain(r.invariants))
+        line.append(str(r.genus_count))
+        if positive:
+            line.append("" if r.class_number_wide is None else str(r.class_number_wide))
+            line.append("" if r.regulator is None else f"{r.regulator:.12g}")
+        table.append(line)
+    widths = [max(len(row[i]) for row in table) for i in range(len(head))]
+    for row in table:
+        out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
+    out.write(f"({len(rows)} rows; class numbers by enumeration, unconditional"
+              + ("; h is the narrow class number for D > 0" if positive else "") + ")\n")
+
+
+def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str:
+    cols = "rrrr" + ("l" if with_invariants else "") + "r" + ("rr" if positive else "")
+    head = [r"$D$", r"$d_K$", r"$f$", r"$h$"]
+    if with_invariants:
+        head.append(r"$\mathrm{Cl}(D)$")
+    head.append("genera")
+    if positive:
+        head += [r"$h$ (wide)", r"$R$"]
+    lines = [
+        "% class-number table written by formkit (enumeration, unconditional)",
+        rf"\begin{{tabular}}{{{cols}}}",
+        r"\hline",
+        " & ".join(head) + r" \\",
+        r"\hline",
+    ]
+    for r in rows:
+        cells = [f"${r.discriminant}$", f"${r.fundamental_discriminant}$", f"${r.conductor}$", f"${r.class_number}$"]
+        if with_invariants:
+            inv = r.invariants or ()
+            cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "1") + "$")
+        cells.append(f"${r.genus_count}$")
+        if positive:
+            cells.append("" if r.class_number_wide is None else f"${r.class_number_wide}$")
+            cells.append("" if r.regulator is None else f"${r.regulator:.6f}$")
+        lines.append(" & ".join(cells) + r" \\")
+    lines += [r"\hline", r"\end{tabular}", ""]
+    return "\n".join(lines)
+
+
+def _emit_info(args: argparse.Namespace, info: dict) -> None:
+    from .cli import emit
+
+    def human() -> str:
+        m = info["meta"]
+        lines = [
+            f"table store {info['path']}: {info['rows']} rows in {info['chunks']} finished chunks",
+            "covered: " + (", ".join(f"[{lo}, {hi}]" for lo, hi in info["covered"]) or "nothing yet"),
+            f"options: invariants={'yes' if m.get('invariants') == '1' else 'no'}, "
+            f"fundamental only={'yes' if m.get('fundamental') == '1' else 'no'}",
+            f"method: {m.get('method')} (certified: {'yes' if m.get('certified') == '1' else 'no'}); "
+            f"formkit {m.get('formkit_version')}, created {m.get('created')}",
+        ]
+        return "\n".join(lines)
+
+    emit(args, info, human)
+
+
+# ---------------------------------------------------------------------------
+# registration
+# ---------------------------------------------------------------------------
+
+def _positive_int(text: str) -> int:
+    try:
+        value = parse_integer(text, "value")
+    except ValueError:
+        value = 0
+    if value < 1:
+        raise argparse.ArgumentTypeError(f"expected a positive integer, not {text!r}")
+    return value
+
+
+def _count(text: str) -> int:
+    try:
+        value = parse_integer(text, "value")
+    except ValueError:
+        value = -1
+    if value < 0:
+        raise argparse.ArgumentTypeError(f"expected a non-negative integer, not {text!r}")
+    return value
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``table`` command."""
+    p = sub.add_parser(
+        "table",
+        parents=[parent],
+        help="class-number tables over ranges of D (all cores, resumable SQLite file, Dask cluster)",
+        description=(
+            "Tabulate every discriminant D with A <= D <= B (non-discriminants and squares are "
+            "skipped): D, fundamental part d_K, conductor f, class number h (narrow when D > 0), "
+            "invariants of the class group, number of genera, and for D > 0 the wide class number "
+            "and the regulator. Negative ranges are swept all at once by counting reduced forms. "
+            "With --db FILE the rows go into an SQLite file one chunk per transaction: an "
+            "interrupted run (Ctrl-C, kill -9) keeps every finished chunk and the same command "
+            "resumes it; the run prints a summary, and the file is read back with filters "
+            "(--class-number, --invariants, ...). Without --db the rows are printed. "
+            "Python: formkit.table_rows, formkit.build_table, formkit.query_table."
+        ),
+        epilog=(
+            "examples:\n"
+            "  formkit table --from -200 --to -3\n"
+            "  formkit table --from 5 --to 200 --fundamental --format csv\n"
+            "  formkit table --from -1000000 --to -3 --no-invariants --db neg.db\n"
+            "  formkit table --db neg.db --class-number 7 --fundamental\n"
+            "  formkit table --from -20000 --to -3 --db groups.db --workers 8\n"
+            "  formkit table --db groups.db --invariants 2,2,4 --format tex\n"
+            "  formkit table --from -10000000 --to -3 --no-invariants --db big.db --cluster tcp://host:8786\n"
+            "  formkit table --db big.db --info"
+        ),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("--from", dest="start", metavar="A", help="first discriminant of the range (may be negative)")
+    p.add_argument("--to", dest="stop", metavar="B", help="last discriminant of the range (inclusive)")
+    p.add_argument("--fundamental", action="store_true",
+                   help="only fundamental discriminants (when building, or as a query filter)")
+    p.add_argument("--no-invariants", action="store_true",
+                   help="skip the group structure: class numbers only, far faster (the negative sweep)")
+    p.add_argument("--format", choices=("text", "csv", "json", "tex"), default="text",
+                   help="output: aligned text (default), CSV, one JSON object, or a LaTeX tabular")
+    p.add_argument("--db", metavar="FILE", help="SQLite file to build into (resumable) or to query")
+    p.add_argument("--workers", type=_positive_int, metavar="N",
+                   help="worker processes (default: all cores)")
+    p.add_argument("--cluster", metavar="ADDRESS",
+                   help="run the chunks on this Dask distributed scheduler (needs formkit[cluster])")
+    p.add_argument("--chunk-size", type=_positive_int, metavar="N",
+                   help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, "
+                        "1000 for D > 0)")
+    p.add_argument("--engine", choices=("auto", "numpy", "python"), default="auto",
+                   help="sweep for negative D (default numpy when installed)")
+    g = p.add_argument_group("querying a stored table (with --db)")
+    g.add_argument("--query", action="store_true", help="print stored rows (of --from/--to) instead of building")
+    g.add_argument("--class-number", metavar="H", help="rows with class number H")
+    g.add_argument("--invariants", metavar="N1,N2,...", help="rows with this group structure (1 = trivial)")
+    g.add_argument("--conductor", metavar="F", help="rows of conductor F")
+    g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")
+    g.add_argument("--genera", metavar="G", help="rows with G genera")
+    g.add_argument("--limit", type=_count, metavar="N", help="at most N rows")
+    g.add_argument("--info", action="store_true", help="describe the stored table: options, coverage, provenance")
+    p.set_defaults(handler=_cmd_table)
+
+
+__all__ = ["register"]
