@@ -1,0 +1,453 @@
+"""Pictures of the graphs of :mod:`formkit.graphs` (PNG, SVG) through matplotlib.
+
+matplotlib is an optional dependency (``pip install 'formkit[plot]'``); it is imported
+only when a picture is drawn.  The colour tables and the layout (:func:`graph_layout`)
+need no matplotlib, so the DOT export uses the same colours.
+
+Layout (chosen to stay legible up to a few hundred classes):
+
+* Cayley graphs: the class group is cut into the cosets of ``⟨[p₁]⟩`` for the prime
+  ``p₁`` of largest class order; each coset is a ring on which ``[p₁]`` steps one
+  place clockwise.  Rings are ordered breadth-first from the principal class along the
+  other primes, and each ring starts at ``(start of its parent ring)·[q]``, so the
+  other primes appear as parallel chords.  One ring: a circle; at most six large rings:
+  concentric shells; otherwise a grid of small rings.
+* Cycle graphs: one ring per ρ-cycle (= narrow class), in a grid, radius growing with
+  the cycle length.
+* Fibre graphs: the classes of ``Cl(d_K)`` in a row of squares on top, the fibre of
+  each one in a block of circles below it.
+
+Nodes are filled by genus (legend), edges coloured by prime (legend); node labels
+``[a,b,c]`` are drawn only for at most 40 nodes, and the principal class has a black
+rim.
+
+References
+----------
+.. [1] J. D. Hunter, "Matplotlib: A 2D graphics environment", Computing in Science &
+       Engineering 9 (2007) 90–95.
+.. [2] C. Brewer, colorbrewer2.org (the Set3 and Dark2 palettes used here).
+"""
+
+from __future__ import annotations
+
+import colorsys
+import math
+import os
+from typing import Dict, Hashable, List, Optional, Tuple, Union
+
+import networkx as nx
+
+from .errors import FormkitError
+
+__all__ = [
+    "genus_key",
+    "genus_colours",
+    "edge_colours",
+    "graph_layout",
+    "draw_graph",
+    "save_picture",
+    "PICTURE_FORMATS",
+]
+
+#: Picture formats written by :func:`save_picture`.
+PICTURE_FORMATS = ("png", "svg")
+
+# ColorBrewer Set3 (pastel fills for genera) and Dark2 (strong strokes for primes).
+_FILLS = ["#8dd3c7", "#ffffb3", "#bebada", "#fb8072", "#80b1d3", "#fdb462",
+          "#b3de69", "#fccde5", "#d9d9d9", "#bc80bd", "#ccebc5", "#ffed6f"]
+_STROKES = ["#1b9e77", "#d95f02", "#7570b3", "#e7298a", "#66a61e", "#e6ab02", "#a6761d", "#666666"]
+
+Point = Tuple[float, float]
+
+
+def _extra_colours(n: int, light: bool) -> List[str]:
+    out = []
+    for i in range(n):
+        h = (i * 0.618033988749895) % 1.0
+        r, g, b = colorsys.hls_to_rgb(h, 0.78 if light else 0.38, 0.65)
+        out.append("#%02x%02x%02x" % (round(r * 255), round(g * 255), round(b * 255)))
+    return out
+
+
+def _palette(base: List[str], n: int, light: bool) -> List[str]:
+    return base[:n] + (_extra_colours(n - len(base), light) if n > len(base) else [])
+
+
+def genus_key(C: nx.Graph, node: Hashable) -> str:
+    """The genus label of a node as used for colours: signs such as ``'+-'``; in a fibre
+    graph prefixed by the node's discriminant (``'-455 +--'``), the two groups having
+    different characters.
+
+    Examples
+    --------
+    >>> from formkit.graphs import fibre_graph
+    >>> F = fibre_graph(-23 * 9)
+    >>> genus_key(F, (1, 1, 6)), genus_key(F, (1, 1, 52))
+    ('-23 +', '-207 ++')
+    """
+    from .graphs import genus_label
+
+    d = C.nodes[node]
+    label = genus_label(d.get("genus"))
+    if C.graph.get("kind") == "fibres":
+        return f"{d.get('discriminant')} {label}"
+    return label
+
+
+def genus_colours(C: nx.Graph) -> Dict[str, str]:
+    """Fill colour (hex) per genus key (:func:`genus_key`), the principal genus first.
+
+    In a fibre graph each group has its own list, both starting at the first colour.
+
+    Examples
+    --------
+    >>> from formkit.graphs import cayley_graph
+    >>> genus_colours(cayley_graph(-84, [2, 3]))     # characters (n/3), (n/7), delta
+    {'+++': '#8dd3c7', '+--': '#ffffb3', '-+-': '#bebada', '--+': '#fb8072'}
+    """
+    groups: Dict[str, set] = {}
+    for v in C.nodes:
+        key = genus_key(C, v)
+        prefix, _, label = key.rpartition(" ")
+        groups.setdefault(prefix, set()).add(label)
+    out: Dict[str, str] = {}
+    for prefix in sorted(groups, key=lambda t: (len(t), t)):
+        ordered = sorted(groups[prefix], key=lambda s: (s.count("-"), s.count("?"), s))
+        for label, colour in zip(ordered, _palette(_FILLS, len(ordered), True)):
+            out[f"{prefix} {label}" if prefix else label] = colour
+    return out
+
+
+def edge_colours(C: nx.Graph) -> Dict[int, str]:
+    """Stroke colour (hex) per prime of a Cayley graph (empty for other graphs).
+
+    Examples
+    --------
+    >>> from formkit.graphs import cayley_graph
+    >>> edge_colours(cayley_graph(-71, [2, 3]))
+    {2: '#1b9e77', 3: '#d95f02'}
+    """
+    primes = list(C.graph.get("primes", []))
+    return dict(zip(primes, _palette(_STROKES, len(primes), False)))
+
+
+# ---------------------------------------------------------------------------
+# layout
+
+
+def _ring(m: int, centre: Point, r: float, phase: float = 0.0) -> List[Point]:
+    if m == 1:
+        return [centre]
+    return [
+        (centre[0] + r * math.sin(2 * math.pi * j / m + phase), centre[1] + r * math.cos(2 * math.pi * j / m + phase))
+        for j in range(m)
+    ]
+
+
+def _grid_centres(R: int) -> List[Point]:
+    cols = math.ceil(math.sqrt(R))
+    return [(float(k % cols), -float(k // cols)) for k in range(R)]
+
+
+def _ring_prime(C: nx.Graph) -> Optional[int]:
+    """The prime of largest class order (smallest such prime), None without primes."""
+    from .graphs import prime_orders
+
+    primes = list(C.graph.get("primes", []))
+    if not primes:
+        return None
+    orders = prime_orders(C)
+    return max(primes, key=lambda p: (orders[p], -p))
+
+
+def _cayley_rings(C: nx.Graph) -> List[List[Hashable]]:
+    primes = list(C.graph.get("primes", []))
+    nodes = list(C.nodes)
+    p1 = _ring_prime(C)
+    if p1 is None:
+        return [[n] for n in nodes]
+    step = {p: {} for p in primes}
+    for u, v, q in C.edges(data="prime"):
+        step[q][u] = v
+    ring_of: Dict[Hashable, int] = {}
+    rings: List[List[Hashable]] = []
+
+    def make_ring(base: Hashable) -> None:
+        ring, x = [base], step[p1][base]
+        while x != base:
+            ring.append(x)
+            x = step[p1][x]
+        for y in ring:
+            ring_of[y] = len(rings)
+        rings.append(ring)
+
+    starts = [tuple(C.graph["identity"])] + nodes
+    for s in starts:
+        if s in ring_of:
+            continue
+        make_ring(s)
+        queue = [len(rings) - 1]
+        while queue:
+            k = queue.pop(0)
+            base = rings[k][0]
+            for q in primes:
+                v = step[q][base]
+                if v not in ring_of:
+                    make_ring(v)
+                    queue.append(len(rings) - 1)
+    return rings
+
+
+def _place_rings(rings: List[List[Hashable]], scale_by_size: bool) -> Dict[Hashable, Point]:
+    pos: Dict[Hashable, Point] = {}
+    R = len(rings)
+    m = max(len(r) for r in rings)
+    if R == 1:
+        for n, p in zip(rings[0], _ring(len(rings[0]), (0.0, 0.0), 1.0)):
+            pos[n] = p
+    elif not scale_by_size and R <= 6 and m >= 8:
+        for k, ring in enumerate(rings):
+            r = 0.5 + 0.5 * k / (R - 1)
+            for n, p in zip(ring, _ring(len(ring), (0.0, 0.0), r)):
+                pos[n] = p
+    else:
+        for ring, c in zip(rings, _grid_centres(R)):
+            r = (0.38 if scale_by_size else 0.3) * (math.sqrt(len(ring) / m) if scale_by_size else 1.0)
+            for n, p in zip(ring, _ring(len(ring), c, max(r, 0.12), 0.0 if len(ring) > 2 else math.pi / 2)):
+                pos[n] = p
+    return pos
+
+
+def _cycle_rings(C: nx.Graph) -> List[List[Hashable]]:
+    rings = []
+    seen = set()
+    starts = sorted(C.nodes, key=lambda n: (tuple(C.nodes[n].get("class_form", n)) != tuple(n), n))
+    for s in starts:
+        if s in seen:
+            continue
+        ring, x = [s], next(iter(C.successors(s)))
+        seen.add(s)
+        while x != s:
+            ring.append(x)
+            seen.add(x)
+            x = next(iter(C.successors(x)))
+        rings.append(ring)
+    rings.sort(key=lambda r: -len(r))
+    return rings
+
+
+def _fibre_layout(C: nx.Graph) -> Dict[Hashable, Point]:
+    top = [n for n, s in C.nodes(data="bipartite") if s == 1]
+    pos: Dict[Hashable, Point] = {}
+    size = int(C.graph.get("fibre_size", 1))
+    cols = max(1, math.ceil(math.sqrt(size)))
+    rows = math.ceil(size / cols)
+    cell = 0.8 / max(cols, 1)
+    for i, y in enumerate(top):
+        pos[y] = (float(i), 0.6 + 0.15 * rows * cell)
+        fibre = sorted(C.predecessors(y))
+        for t, x in enumerate(fibre):
+            pos[x] = (i - 0.4 + cell * (t % cols + 0.5), -cell * (t // cols))
+    return pos
+
+
+def graph_layout(C: nx.Graph) -> Dict[Hashable, Point]:
+    """Node positions for a graph of :mod:`formkit.graphs` (see the module docstring).
+
+    Examples
+    --------
+    >>> from formkit.graphs import cayley_graph
+    >>> pos = graph_layout(cayley_graph(-23, [2]))
+    >>> [tuple(round(c, 3) for c in pos[n]) for n in [(1, 1, 6), (2, 1, 3), (2, -1, 3)]]
+    [(0.0, 1.0), (0.866, -0.5), (-0.866, -0.5)]
+    """
+    kind = C.graph.get("kind")
+    if C.number_of_nodes() == 0:
+        return {}
+    if kind == "cayley":
+        return _place_rings(_cayley_rings(C), False)
+    if kind == "cycles":
+        return _place_rings(_cycle_rings(C), True)
+    if kind == "fibres":
+        return _fibre_layout(C)
+    return {n: (float(x), float(y)) for n, (x, y) in nx.circular_layout(C).items()}
+
+
+# ---------------------------------------------------------------------------
+# drawing
+
+
+def _matplotlib():
+    try:
+        import matplotlib
+        from matplotlib.figure import Figure
+        from matplotlib.lines import Line2D
+    except ImportError as exc:
+        raise FormkitError(
+            "pictures need matplotlib, which is not installed: pip install 'formkit[plot]'"
+        ) from exc
+    return matplotlib, Figure, Line2D
+
+
+def draw_graph(C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[str] = None):
+    """Draw a graph of :mod:`formkit.graphs` on a new matplotlib ``Figure`` (no pyplot state).
+
+    Parameters
+    ----------
+    labels : bool, optional
+        Write ``[a,b,c]`` beside each node; default: when there are at most 40 nodes.
+    title : str, optional
+        Default :func:`formkit.graphs.graph_title`.
+
+    Returns
+    -------
+    matplotlib.figure.Figure
+
+    Raises
+    ------
+    FormkitError
+        If matplotlib is not installed.
+    """
+    from .graphs import graph_title, node_label
+
+    _mpl, Figure, Line2D = _matplotlib()
+    n = C.number_of_nodes()
+    kind = C.graph.get("kind")
+    pos = graph_layout(C)
+    if labels is None:
+        labels = n <= 40
+    side = 6.0 if n <= 12 else (8.0 if n <= 60 else 10.0)
+    if kind == "fibres":
+        xs = [p[0] for p in pos.values()] or [0.0]
+        width = max(6.0, min(16.0, 1.6 * (max(xs) - min(xs) + 1)))
+        fig = Figure(figsize=(width + 2.5, 6.0))
+    else:
+        fig = Figure(figsize=(side + 2.5, side))
+    ax = fig.add_axes((0.02, 0.02, side / (side + 2.5) - 0.02, 0.9) if kind != "fibres" else (0.02, 0.02, 0.78, 0.9))
+    ax.set_axis_off()
+    ax.set_aspect("equal" if kind != "fibres" else "auto")
+
+    gcol = genus_colours(C)
+    ecol = edge_colours(C)
+    node_size = 700 if n <= 8 else (420 if n <= 20 else (220 if n <= 40 else max(18, int(9000 / n))))
+    arrow = 14 if n <= 20 else (10 if n <= 60 else 6)
+    width = 1.6 if n <= 40 else (1.0 if n <= 120 else 0.6)
+
+    # edges
+    if kind == "cayley":
+        p1 = _ring_prime(C)
+        others = [p for p in C.graph["primes"] if p != p1]
+        big = n > 60
+        for i, p in enumerate(([p1] if p1 is not None else []) + others):
+            el = [(u, v) for u, v, q in C.edges(data="prime") if q == p]
+            rad = 0.06 if p == p1 else ((0.05 + 0.05 * i) if big else (0.1 + 0.1 * i))
+            nx.draw_networkx_edges(
+                C, pos, edgelist=el, ax=ax, edge_color=ecol[p], width=width, arrows=True,
+                arrowsize=arrow, node_size=node_size, connectionstyle=f"arc3,rad={rad:.2f}",
+                alpha=0.75 if big and p != p1 else 1.0,
+            )
+    else:
+        nx.draw_networkx_edges(
+            C, pos, ax=ax, edge_color="#555555", width=width, arrows=True, arrowsize=arrow,
+            node_size=node_size, connectionstyle="arc3,rad=0.08" if kind == "cycles" else "arc3,rad=0.0",
+        )
+
+    # nodes, by genus and (fibres) by side
+    identity = tuple(C.graph.get("identity", ())) or None
+    groups: Dict[Tuple[str, str], List] = {}
+    for v, d in C.nodes(data=True):
+        shape = "s" if d.get("bipartite") == 1 else "o"
+        groups.setdefault((genus_key(C, v), shape), []).append(v)
+    for (g, shape), nodes in groups.items():
+        nx.draw_networkx_nodes(
+            C, pos, nodelist=nodes, ax=ax, node_color=gcol[g], node_shape=shape,
+            node_size=node_size * (1.6 if shape == "s" else 1.0), edgecolors="#444444",
+            linewidths=0.6 if n > 40 else 0.9,
+        )
+    for e in (identity, tuple(C.graph.get("identity_maximal", ())) or None):
+        if e in pos:
+            big_e = C.nodes[e].get("bipartite") == 1
+            nx.draw_networkx_nodes(
+                C, pos, nodelist=[e], ax=ax, node_color=gcol[genus_key(C, e)], node_shape="s" if big_e else "o",
+                node_size=node_size * (1.6 if big_e else 1.0), edgecolors="black", linewidths=2.0 if n <= 40 else 1.2,
+            )
+    if labels:
+        fs = 9 if n <= 12 else (7 if n <= 24 else 6)
+        above = {v for v, s in C.nodes(data="bipartite") if s == 1}
+        dy = 0.09 if kind != "fibres" else 0.07
+        for part, sign, va in ((set(C.nodes) - above, -1, "top"), (above, 1, "bottom")):
+            if part:
+                text = {v: "[" + node_label(v) + "]" for v in part}
+                offset = {v: (pos[v][0], pos[v][1] + sign * dy) for v in part}
+                nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment=va)
+    elif kind == "cycles" and C.graph.get("class_number", 0) <= 60:
+        for ring in _cycle_rings(C):
+            cx = sum(pos[v][0] for v in ring) / len(ring)
+            cy = sum(pos[v][1] for v in ring) / len(ring)
+            ax.text(cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333")
+    xs = [p[0] for p in pos.values()] or [0.0]
+    ys = [p[1] for p in pos.values()] or [0.0]
+    pad = 0.25
+    ax.set_xlim(min(xs) - pad, max(xs) + pad)
+    ax.set_ylim(min(ys) - pad - (0.1 if labels else 0), max(ys) + pad + (0.1 if labels and kind == "fibres" else 0))
+
+    # legends
+    handles = []
+    genera = list(gcol.items())
+    shown = genera if len(genera) <= 16 else genera[:15]
+    for g, colour in shown:
+        prefix, _, label = g.rpartition(" ")
+        text = f"genus {label}" + (f" in Cl({prefix})" if prefix else "")
+        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor=colour,
+                              markeredgecolor="#444444", markersize=8, label=text))
+    if len(genera) > len(shown):
+        handles.append(Line2D([], [], linestyle="", label=f"… {len(genera)} genera in all"))
+    if kind == "cayley":
+        from .graphs import prime_orders
+
+        orders = prime_orders(C) if C.graph["primes"] else {}
+        for p, colour in ecol.items():
+            handles.append(Line2D([], [], color=colour, linewidth=2, label=f"·[{p}]  (order {orders[p]})"))
+    if kind == "fibres":
+        handles.append(Line2D([], [], marker="s", linestyle="", markerfacecolor="white", markeredgecolor="#444444",
+                              markersize=9, label=f"class of Cl({C.graph['fundamental_discriminant']})"))
+        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor="white", markeredgecolor="#444444",
+                              markersize=8, label=f"class of Cl({C.graph['discriminant']})"))
+    if identity in pos:
+        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor="white", markeredgecolor="black",
+                              markeredgewidth=2, markersize=8, label="principal class"))
+    fig.legend(handles=handles, loc="upper right", fontsize=8, frameon=False, borderaxespad=0.8)
+    fig.suptitle(title if title is not None else graph_title(C), fontsize=10, x=0.02, ha="left")
+    return fig
+
+
+def save_picture(
+    C: nx.Graph,
+    path: Union[str, "os.PathLike[str]"],
+    format: Optional[str] = None,
+    *,
+    labels: Optional[bool] = None,
+    dpi: int = 150,
+) -> str:
+    """Draw a graph and write it as PNG or SVG; returns the format written.
+
+    Parameters
+    ----------
+    path : str or path-like
+        The output file.
+    format : {"png", "svg"}, optional
+        Default: from the file suffix.
+
+    Raises
+    ------
+    FormkitError
+        If the format is neither png nor svg, or matplotlib is not installed.
+    """
+    fmt = format
+    if fmt is None:
+        fmt = os.path.splitext(os.fspath(path))[1].lstrip(".").lower()
+    if fmt not in PICTURE_FORMATS:
+        raise FormkitError(f"picture format must be one of {', '.join(PICTURE_FORMATS)}, not {fmt!r} (from {os.fspath(path)!r})")
+    fig = draw_graph(C, labels=labels)
+    fig.savefig(path, format=fmt, dpi=dpi)
+    return fmt
