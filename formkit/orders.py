@@ -27,6 +27,7 @@ from fractions import Fraction
 from .arith import as_int, factorint, invert, kronecker, xgcd
 from .classgroup import ClassGroupElement, class_group
 from .discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from .enumeration import class_number
 from .errors import FormkitError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
 from .reduction import reduced
@@ -178,8 +179,10 @@ def class_number_order_formula(D: object) -> int:
     """
     D = validate_discriminant(D)
     d_K, f = discriminant_parts(D)
-    G = class_group(d_K)
-    hK = G.class_number_wide if d_K > 0 else G.order
+    # h(d_K) by enumeration (no group structure needed); wide sense for d_K > 0
+    hK = class_number(d_K)
+    if d_K > 0 and fundamental_unit(d_K).norm == 1:
+        hK //= 2
     value = Fraction(hK * f, unit_index(D))
     for p in factorint(f):
         value *= 1 - Fraction(kronecker(d_K, p), p)
