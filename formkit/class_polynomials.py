@@ -14,9 +14,12 @@ Theorem 11.1 and Proposition 13.2; numbers as recalled).
 
 *Computation.*  ``j(τ)`` is evaluated from the eta quotient
 ``t = Δ(2τ)/Δ(τ) = q·(P(q²)/P(q))²⁴`` with ``P(q) = ∏(1 − qⁿ) = Σ_k (−1)^k q^{k(3k−1)/2}``
-(Euler's pentagonal number theorem) and ``j = (1 + 256 t)³ / t``.  Complex conjugate
-roots (the forms ``(a, ±b, c)``) are paired into real quadratic factors, so the whole
-product is carried out over the reals.
+(Euler's pentagonal number theorem) and ``j = (1 + 256 t)³ / t``; the pentagonal series
+is summed in fixed-point integer arithmetic (all its terms have modulus < 1).  Complex
+conjugate roots (the forms ``(a, ±b, c)``) are paired into real quadratic factors
+``x² − 2Re(j)x + |j|²``, and the product of the factors is formed over the reals in
+fixed point with ``⌈digits·log₂10⌉ + 8`` fractional bits, which gives the same absolute
+accuracy ``≈ 10^(B − digits)`` as floating point at ``digits`` significant digits.
 
 *Precision.*  For ``τ`` in the closure of the standard fundamental domain,
 ``|j(τ) − 1/q| ≤ 2079`` (A. Enge, "The complexity of class polynomial computation via
@@ -60,7 +63,7 @@ from typing import Sequence
 
 import mpmath
 
-from .arith import as_int, gcd, is_probable_prime, kronecker, next_prime
+from .arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
 from .discriminants import discriminant_parts, validate_discriminant
 from .enumeration import _reduced_forms_cached
 from .errors import DiscriminantError, FormError, NotPrimeError
@@ -85,30 +88,52 @@ _RESIDUAL_LIMIT = mpmath.mpf(10) ** -10
 # the j-function
 
 
+def _fixed(x, bits: int) -> int:
+    """``round(x·2^bits)`` for an mpf ``x``, as an integer."""
+    return int(mpmath.nint(mpmath.ldexp(x, bits)))
+
+
 def _euler_product(q):
-    """``∏(1 − qⁿ)`` by Euler's pentagonal series, at the current mpmath precision."""
-    s = mpmath.mpc(1)
-    eps = mpmath.ldexp(1, -mpmath.mp.prec - 10)
+    """``∏(1 − qⁿ)`` for ``|q| < 1`` by Euler's pentagonal series ``Σ (−1)^k q^{k(3k∓1)/2}``.
+
+    The series is summed in fixed point (integers scaled by ``2^P`` with ``P`` twenty
+    bits beyond the current mpmath precision; every term has modulus < 1, so absolute
+    accuracy is what matters) and returned as an mpc.  Summation stops when the next
+    term is below ``2^{−P+2}``.
+    """
+    P = mpmath.mp.prec + 20
+    qr, qi = _fixed(q.real, P), _fixed(q.imag, P)
+    qr, qi = mpz(qr), mpz(qi)
+
+    def mul(ar, ai, br, bi):
+        return (ar * br - ai * bi) >> P, (ar * bi + ai * br) >> P
+
+    sr, si = mpz(1) << P, mpz(0)
+    kr, ki = qr, qi  # q^k
+    cr, ci = qr, qi  # q^{k(3k−1)/2}
     k = 1
-    qk = q  # q^k
-    cur = q  # q^{k(3k−1)/2}
-    while True:
-        t2 = cur * qk  # q^{k(3k+1)/2}
-        if k % 2:
-            s -= cur + t2
+    while abs(cr) + abs(ci) > 4:
+        tr, ti = mul(cr, ci, kr, ki)  # q^{k(3k+1)/2}
+        if k & 1:
+            sr -= cr + tr
+            si -= ci + ti
         else:
-            s += cur + t2
-        if abs(cur) < eps:
-            return s
-        qk1 = qk * q
-        cur = t2 * qk * qk1  # exponent grows by 2k + 1
-        qk = qk1
+            sr += cr + tr
+            si += ci + ti
+        k1r, k1i = mul(kr, ki, qr, qi)
+        cr, ci = mul(*mul(tr, ti, kr, ki), k1r, k1i)  # exponent grows by 2k + 1
+        kr, ki = k1r, k1i
         k += 1
+    return mpmath.mpc(mpmath.ldexp(mpmath.mpf(int(sr)), -P), mpmath.ldexp(mpmath.mpf(int(si)), -P))
 
 
 def _j_from_q(q):
-    t = q * (_euler_product(q * q) / _euler_product(q)) ** 24
-    return (1 + 256 * t) ** 3 / t
+    u = _euler_product(q * q) / _euler_product(q)
+    u2 = u * u
+    u8 = (u2 * u2) ** 2
+    t = q * u8 * u8 * u8  # q·u²⁴
+    v = 1 + 256 * t
+    return v * v * v / t
 
 
 def _j_of_form(a: int, b: int, D: int):
@@ -346,31 +371,42 @@ class ClassPolynomial:
 
 
 def _product(D: int, forms: Sequence[tuple[int, int, int]], digits: int):
-    """Coefficients (leading first, as mpf) of ∏(x − j(τ_Q)) at ``digits`` digits."""
+    """Integer coefficients (leading first) of ∏(x − j(τ_Q)) and the largest rounding residual.
+
+    The j-values are computed with ``digits`` significant digits; the product is then
+    formed in fixed point with ``P = ⌈digits·log₂10⌉`` fractional bits (exact integer
+    arithmetic apart from one truncation per step), which keeps the same absolute
+    accuracy ``≈ 10^{B − digits}`` as a floating-point product at ``digits`` digits.
+    """
+    P = math.ceil(digits * math.log2(10)) + 8
+    one = mpz(1) << P
+    poly = [one]  # leading first, fixed point
     with mpmath.workdps(digits):
-        poly = [mpmath.mpf(1)]  # leading first
         for a, b, c in forms:
             if b < 0:
                 continue  # paired with (a, −b, c)
             j = _j_of_form(a, b, D)
-            if b == 0 or b == a or a == c:
-                s = -j.real  # real root: factor x − j
-                new = poly + [mpmath.mpf(0)]
+            if b == 0 or b == a or a == c:  # real root: factor x − j
+                s = mpz(_fixed(-j.real, P))
+                new = poly + [mpz(0)]
                 for i in range(1, len(new)):
-                    new[i] += s * poly[i - 1]
-            else:
-                s = -2 * j.real
-                t = j.real * j.real + j.imag * j.imag
-                new = poly + [mpmath.mpf(0), mpmath.mpf(0)]
-                for i in range(1, len(new)):
-                    if i - 1 < len(poly):
-                        new[i] += s * poly[i - 1]
-                    if 1 <= i - 1 <= len(poly):
-                        new[i] += t * poly[i - 2]
+                    new[i] += (s * poly[i - 1]) >> P
+            else:  # conjugate pair: x² − 2 Re(j) x + |j|²
+                s = mpz(_fixed(-2 * j.real, P))
+                t = mpz(_fixed(j.real * j.real + j.imag * j.imag, P))
+                n = len(poly)
+                new = poly + [mpz(0), mpz(0)]
+                for i in range(1, n + 2):
+                    if i - 1 < n:
+                        new[i] += (s * poly[i - 1]) >> P
+                    if i >= 2:
+                        new[i] += (t * poly[i - 2]) >> P
             poly = new
-        rounded = [int(mpmath.nint(x)) for x in poly]
-        residual = max(abs(x - r) for x, r in zip(poly, rounded))
-        return rounded, residual
+    half = one >> 1
+    rounded = [int((x + half) >> P) for x in poly]
+    worst = max(abs(x - (r << P)) for x, r in zip(poly, rounded))
+    residual = mpmath.ldexp(mpmath.mpf(int(worst)), -P)
+    return rounded, residual
 
 
 def _working_digits(bound: float, h: int) -> int:
