@@ -52,16 +52,14 @@ References
 from __future__ import annotations
 
 import json
-from math import gcd as _gcd
 from typing import Dict, Iterable, List, Optional, Sequence, Set, Tuple
 
 import networkx as nx
 
-from .arith import as_int, invert, is_probable_prime, isqrt, kronecker, mpz, next_prime, xgcd
+from .arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
 from .classgroup import ClassGroup, ClassGroupElement, class_group
 from .discriminants import discriminant_parts, validate_discriminant
-from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError, NotPrimitiveError
-from .forms import Form
+from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
 
 __all__ = [
     "usable_primes",
@@ -377,47 +375,6 @@ def cycle_graph(D: object) -> nx.DiGraph:
     return Y
 
 
-def _proper_value_prime_to(f: Form, m: int) -> Tuple[int, int]:
-    """Coprime ``(x, y)`` with ``gcd(f(x, y), m) = 1``; exists for primitive ``f``
-    (Cox, Lemma 2.25), so the search over growing boxes ends."""
-    r = 1
-    while True:
-        for x in range(-r, r + 1):
-            for y in (-r, r) if abs(x) < r else range(-r, r + 1):
-                if (x or y) and _gcd(x, y) == 1:
-                    v = f(x, y)
-                    if v and _gcd(v, m) == 1:
-                        return x, y
-        r += 1
-
-
-def _project_form(f: Form, d_K: int, cond: int) -> Form:
-    """A form of discriminant ``d_K`` in the image of the class of ``f`` (``D = cond²·d_K``).
-
-    Move to an equivalent form ``(a, b, c)`` with ``gcd(a, cond) = 1``; its ideal
-    ``aZ + ((−b + √D)/2)Z`` is prime to the conductor and extends to
-    ``aO_K = aZ + ((−b' + √d_K)/2)Z`` with ``cond·b' ≡ b (mod 2a)``
-    (Cox §7.A, Proposition 7.20 — number as recalled).
-    """
-    x, y = _proper_value_prime_to(f, cond)
-    _, u, v = (int(t) for t in xgcd(x, y))  # u·x + v·y = 1
-    s, r = u, -v  # x·s − r·y = 1
-    g = f.transform(((x, r), (y, s)))
-    a, b = g.a, g.b
-    m = abs(a)
-    if a % 2 == 0:
-        bp = (b * int(invert(cond, 2 * m))) % (2 * m)
-    else:
-        bp = (b * int(invert(cond, m))) % m
-        if (bp - d_K) % 2:
-            bp += m
-    num = bp * bp - d_K
-    if num % (4 * a):  # pragma: no cover - excluded by the argument above
-        raise ArithmeticError(f"projection of {f!r}: {bp}² ≢ {d_K} (mod {4 * a})")
-    return Form(a, bp, num // (4 * a))
-
-
-
 def fibre_graph(D: object) -> nx.DiGraph:
     """The map ``Cl(D) → Cl(d_K)`` of an order of conductor ``f > 1``, as a graph of fibres.
 
@@ -428,9 +385,11 @@ def fibre_graph(D: object) -> nx.DiGraph:
         discriminants differ, so the keys do not collide), with ``form``, ``order``,
         ``genus``, ``discriminant`` and ``bipartite`` (0 for ``Cl(D)``, 1 for
         ``Cl(d_K)``); the ``Cl(d_K)`` nodes also carry ``fibre_size``.  One edge from
-        each class of ``D`` to its image.  Graph attributes: ``kind = "fibres"``,
+        each class of ``D`` to its image (:func:`formkit.orders.project_to_maximal_order`).
+        Graph attributes: ``kind = "fibres"``,
         ``discriminant``, ``fundamental_discriminant``, ``conductor``,
-        ``class_number``, ``class_number_maximal``, ``fibre_size``.
+        ``class_number``, ``class_number_maximal``, ``fibre_size``, ``identity`` and
+        ``identity_maximal`` (the principal classes).
 
     Raises
     ------
@@ -446,12 +405,14 @@ def fibre_graph(D: object) -> nx.DiGraph:
     >>> sorted(F.out_degree(x) for x, s in F.nodes(data="bipartite") if s == 0)
     [1, 1, 1, 1, 1, 1]
     """
+    from .orders import project_to_maximal_order
+
     G = _group_for(D)
     D = G.discriminant
     d_K, cond = discriminant_parts(D)
     if cond == 1:
         raise DiscriminantError(
-            f"{D} is a fundamental discriminant (conductor 1): Cl({D}) → Cl(d_K) is the identity; "
+            f"{D} is a fundamental discriminant (conductor 1): the map to Cl(d_K) = Cl({D}) is the identity; "
             f"give the discriminant of a non-maximal order, e.g. {D * 4}"
         )
     GK = class_group(d_K)
@@ -475,7 +436,7 @@ def fibre_graph(D: object) -> nx.DiGraph:
         F.add_node(tuple(y.form), **_node_attributes(y, genus_of), discriminant=d_K, bipartite=1, fibre_size=0)
     for x in G:
         F.add_node(tuple(x.form), **_node_attributes(x, genus_of), discriminant=D, bipartite=0)
-        image = tuple(GK(_project_form(x.form, d_K, cond)).form)
+        image = tuple(GK(project_to_maximal_order(x.form)).form)
         F.add_edge(tuple(x.form), image)
         F.nodes[image]["fibre_size"] += 1
     return F
