@@ -44,7 +44,9 @@ from .tables import *  # noqa: F401,F403,E402
 from .tables import __all__ as _tables_all  # noqa: E402
 from .table_store import *  # noqa: F401,F403,E402
 from .table_store import __all__ as _store_all  # noqa: E402
+from .graphs import *  # noqa: F401,F403,E402
+from .graphs import __all__ as _graphs_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, "__version__"]
+__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, "__version__"]

@@ -29,6 +29,7 @@ COMMAND_MODULES = (
     "formkit._cmd_explain",
     "formkit._cmd_primes",
     "formkit._cmd_table",
+    "formkit._cmd_graph",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")
