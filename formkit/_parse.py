@@ -39,7 +39,9 @@ _TRIPLE_RE = re.compile(
     r"\s*[\[(]?\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*[\])]?\s*\Z",
     re.ASCII,
 )
-_POWER10_RE = re.compile(r"([+-]?)(?:([0-9]+)\s*\*\s*)?([0-9]+)\s*(?:\^|\*\*)\s*([0-9]+)", re.ASCII)
+_POWER10_RE = re.compile(
+    r"([+-]?)(?:([0-9]+)\s*\*\s*)?([0-9]+)\s*(?:\^|\*\*)\s*([0-9]+)(?:\s*([+-])\s*([0-9]+))?", re.ASCII
+)
 _TOKEN_RE = re.compile(r"(?:([0-9]+)|(\*\*)|([xy])|([-+*^\u2212\u00b2]))", re.ASCII)
 _SPACE = " \t\n\r\f\v"
 
@@ -53,8 +55,8 @@ def parse_integer(text: object, name: str = "integer") -> int:
     """Parse a decimal integer (optionally signed, underscores or spaces not allowed).
 
     Also accepts ``10^k`` and ``10**k`` forms of powers of ten with an optional
-    leading factor, e.g. ``3*10^20`` and ``-10**12``, because users write large
-    discriminants that way.
+    leading factor and an optional offset, e.g. ``3*10^20``, ``-10**12`` and
+    ``-10^30-3``, because users write large discriminants that way.
 
     Raises
     ------
@@ -65,6 +67,8 @@ def parse_integer(text: object, name: str = "integer") -> int:
     --------
     >>> parse_integer("-23"), parse_integer("10^6"), parse_integer("-3*10**4")
     (-23, 1000000, -30000)
+    >>> parse_integer("-10^12-3"), parse_integer("10^6+1")
+    (-1000000000003, 1000001)
     """
     if not isinstance(text, (str, bool, float)):
         try:
@@ -80,12 +84,15 @@ def parse_integer(text: object, name: str = "integer") -> int:
         return _digits_to_int(s)
     m = _POWER10_RE.fullmatch(s)
     if m:
-        sign, factor, base, exp = m.groups()
+        sign, factor, base, exp, off_sign, offset = m.groups()
         e = int(exp) if len(exp) < 7 else None
         if e is None or e > 100_000:
             raise ParseError(f"{name}: exponent too large in {text!r}")
         value = (_digits_to_int(factor) if factor else 1) * _digits_to_int(base) ** e
-        return -value if sign == "-" else value
+        value = -value if sign == "-" else value
+        if offset:
+            value += -_digits_to_int(offset) if off_sign == "-" else _digits_to_int(offset)
+        return value
     raise ParseError(f"{name} must be an integer such as -23, 10^12 or 3*10^20, not {text!r}")
 
 
