@@ -204,17 +204,30 @@ class AutomorphismGroup:
         return self.order is not None
 
     def elements(self) -> Iterator[Matrix]:
-        """All elements (definite forms) or ``I, −I, A, −A, A², −A², …`` (indefinite)."""
+        """All elements: the ``order`` powers of the generator (definite forms), or for
+        indefinite forms the endless sequence ``I, −I, A, −A, A⁻¹, −A⁻¹, A², −A², A⁻², …``
+        in which every automorph ``±Aⁿ`` (n ∈ Z) occurs exactly once."""
+
+        def neg(m: Matrix) -> Matrix:
+            return ((-m[0][0], -m[0][1]), (-m[1][0], -m[1][1]))
+
         m = IDENTITY
         if self.order is not None:
             for _ in range(self.order):
                 yield m
                 m = mat_mul(m, self.generator)
             return
+        yield m
+        yield neg(m)
+        inv = mat_inverse(self.generator)
+        up, down = IDENTITY, IDENTITY
         while True:
-            yield m
-            yield ((-m[0][0], -m[0][1]), (-m[1][0], -m[1][1]))
-            m = mat_mul(m, self.generator)
+            up = mat_mul(up, self.generator)
+            down = mat_mul(down, inv)
+            yield up
+            yield neg(up)
+            yield down
+            yield neg(down)
 
     def __contains__(self, M: object) -> bool:
         from .forms import as_matrix
