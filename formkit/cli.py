@@ -113,7 +113,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         parser = build_parser()
         args = parser.parse_args(_protect_negative_arguments(argv))
         if not getattr(args, "command", None):
-            parser.print_help()
+            sys.stderr.write("formkit: error: a command is required (formkit --help lists them)\n")
             return 2
         return int(args.handler(args) or 0)
     except SystemExit as exc:  # argparse exits (help, errors)
