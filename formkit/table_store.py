@@ -117,7 +117,7 @@ def parse_invariants(value: object) -> Tuple[int, ...]:
     formkit.errors.FormkitError: invariants must form a chain n1 | n2 | …, not 2,3 (2 does not divide 3)
     """
     if isinstance(value, str):
-        text = value.strip().strip("[]()").replace(",", " ").replace("x", " ").replace("×", " ")
+        text = value.strip().strip("[]()").replace(",", " ")
         parts = text.split()
         nums = []
         for p in parts:
@@ -260,7 +260,11 @@ def _watch_parent(parent: int) -> None:  # pragma: no cover - runs in pool worke
 
 
 def _worker_init(parent: int) -> None:  # pragma: no cover - runs in pool workers
-    # a worker whose parent was killed (kill -9) stops instead of lingering
+    # Ctrl-C is the parent's business (it stops the pool); a worker whose parent was
+    # killed (kill -9) stops instead of lingering
+    import signal
+
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
     threading.Thread(target=_watch_parent, args=(parent,), daemon=True).start()
 
 
@@ -292,7 +296,7 @@ def _run_on_cluster(specs: List[ChunkSpec], cluster, sink: Callable, bar) -> Non
         ) from None
     own = isinstance(cluster, str)
     try:
-        client = Client(cluster, timeout="20s") if own else cluster
+        client = Client(cluster) if own else cluster
     except (OSError, TimeoutError, ValueError) as exc:
         raise FormkitError(f"could not connect to the Dask scheduler at {cluster!r}: {exc}") from None
     try:
