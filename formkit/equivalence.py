@@ -25,11 +25,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterator, Optional, Tuple
 
-from .arith import isqrt, mpz
+from .arith import isqrt
 from .discriminants import fundamental_unit
 from .errors import DiscriminantMismatchError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw
+from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw, _to_work
 
 __all__ = [
     "EquivalenceResult",
@@ -118,9 +118,7 @@ def _find_in_cycle(start: Form, target: Form, D: int) -> Optional[Matrix]:
     """Walk the ρ-cycle of the reduced form ``start``; matrix taking it to ``target``."""
     if start == target:
         return IDENTITY
-    sq = isqrt(D)
-    Dz = mpz(D)
-    a, b, c = mpz(start.a), mpz(start.b), mpz(start.c)
+    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
     p, q, r, s = 1, 0, 0, 1
     ta, tb, tc = target.a, target.b, target.c
     while True:

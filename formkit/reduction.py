@@ -109,6 +109,21 @@ class FormCycle:
 # ---------------------------------------------------------------------------
 # raw integer cores (hot paths; callers pass mpz or int)
 
+#: Coefficients of at least this many bits are reduced with gmpy2 ``mpz``; smaller ones
+#: with plain Python ints, which are faster there (no conversions, no object overhead).
+#: Chosen from ``benchmarks/bench_reduction.py`` (docs/performance.md, section
+#: "Reduction and the integer backend"): Python ints win at |D| ≈ 10^40, mpz from
+#: coefficients of a few hundred digits on.
+MPZ_THRESHOLD_BITS = 512
+
+
+def _to_work(*values):
+    """``values`` as the integer type that is fastest for their size (see above)."""
+    if mpz is not int and max(abs(v) for v in values).bit_length() >= MPZ_THRESHOLD_BITS:
+        return tuple(mpz(v) for v in values)
+    return tuple(int(v) for v in values)
+
+
 
 def _is_reduced_definite_raw(a: int, b: int, c: int) -> bool:
     if a < 0:
@@ -247,15 +262,15 @@ def reduced(form: FormLike) -> Form:
     D = _require_nonsquare(f, "reduction")
     if D < 0:
         sign = 1 if f.a > 0 else -1
-        a, b, c = _reduce_definite_raw(mpz(sign * f.a), mpz(sign * f.b), mpz(sign * f.c))
+        a, b, c = _reduce_definite_raw(*_to_work(sign * f.a, sign * f.b, sign * f.c))
         return Form(sign * a, sign * b, sign * c)
     sq = isqrt(D)
-    return Form(*_reduce_indefinite_raw(mpz(f.a), mpz(f.b), mpz(f.c), mpz(D), sq))
+    return Form(*(int(v) for v in _reduce_indefinite_raw(*_to_work(f.a, f.b, f.c, D, sq))))
 
 
 def _reduce_definite(f: Form, record: bool) -> ReductionResult:
     sign = 1 if f.a > 0 else -1
-    a, b, c = mpz(sign * f.a), mpz(sign * f.b), mpz(sign * f.c)
+    a, b, c = _to_work(sign * f.a, sign * f.b, sign * f.c)
     p, q, r, s = 1, 0, 0, 1
     trace: list[ReductionStep] = []
 
@@ -298,9 +313,7 @@ def _reduce_definite(f: Form, record: bool) -> ReductionResult:
 
 
 def _reduce_indefinite(f: Form, D: int, record: bool) -> ReductionResult:
-    sq = isqrt(D)
-    Dz = mpz(D)
-    a, b, c = mpz(f.a), mpz(f.b), mpz(f.c)
+    a, b, c, Dz, sq = _to_work(f.a, f.b, f.c, D, isqrt(D))
     p, q, r, s = 1, 0, 0, 1
     trace: list[ReductionStep] = []
     while not _is_reduced_indefinite_raw(a, b, sq):
@@ -337,7 +350,7 @@ def rho(form: FormLike) -> tuple[Form, Matrix]:
     D = _require_nonsquare(f, "the reduction operator")
     if D < 0:
         raise FormError(f"the reduction operator ρ is for indefinite forms; {f!r} has D = {D} < 0")
-    a, b, c, t = _rho_indefinite_raw(mpz(f.a), mpz(f.b), mpz(f.c), mpz(D), isqrt(D))
+    a, b, c, t = _rho_indefinite_raw(*_to_work(f.a, f.b, f.c, D, isqrt(D)))
     return Form(int(a), int(b), int(c)), ((0, -1), (1, int(t)))
 
 
@@ -366,11 +379,9 @@ def reduced_cycle(form: FormLike, *, max_length: int | None = None) -> FormCycle
     if D < 0:
         raise FormError(f"cycles of reduced forms are for indefinite forms; {f!r} has D = {D} < 0")
     start = _reduce_indefinite(f, D, False).reduced
-    sq = isqrt(D)
-    Dz = mpz(D)
     forms = [start]
     matrices: list[Matrix] = []
-    a, b, c = mpz(start.a), mpz(start.b), mpz(start.c)
+    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
     while True:
         a, b, c, t = _rho_indefinite_raw(a, b, c, Dz, sq)
         matrices.append(((0, -1), (1, int(t))))

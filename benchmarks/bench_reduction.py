@@ -1,0 +1,138 @@
+"""Benchmark: reductions per second, and what the gmpy2 integer backend buys.
+
+For discriminants with |D| about 10^6, 10^40 and 10^200, definite and indefinite, the
+script makes non-reduced forms by applying random SL2(Z) matrices (entries of about 30
+digits) to reduced forms of D, then times ``formkit.reduce_form`` (reduced form *and*
+the transforming matrix) and ``formkit.reduced`` (reduced form only).
+
+The integer backend is fixed when formkit is imported (``FORMKIT_INTEGER_BACKEND``),
+so each measurement runs in a child process of this script; the two backends are
+measured side by side, alternating gmpy2 / python children in every repeat, and the
+medians over the repeats are printed with their ratio.
+
+Usage::
+
+    python benchmarks/bench_reduction.py [--repeats 5] [--json]
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import platform
+import statistics
+import subprocess
+import sys
+import time
+from datetime import date
+
+HERE = os.path.dirname(os.path.abspath(__file__))
+ROOT = os.path.dirname(HERE)
+
+# (label, D, number of forms); D ≡ 1 (mod 4) and not a square
+CASES = [
+    ("definite   |D|~1e6", -(10**6) - 3, 400),
+    ("indefinite  D~1e6", 10**6 + 5, 400),
+    ("definite   |D|~1e40", -(10**40) - 3, 300),
+    ("indefinite  D~1e40", 10**40 + 1, 300),
+    ("definite   |D|~1e200", -(10**200) - 3, 150),
+    ("indefinite  D~1e200", 10**200 + 1, 150),
+]
+MATRIX_DIGITS = 30
+SEED = 20240601
+
+
+def _inputs(D: int, count: int, seed: int):
+    """Deterministic non-reduced forms of discriminant D (the same in every process)."""
+    import random
+
+    from formkit import Form, reduced
+
+    rng = random.Random(seed)
+    base = reduced(Form(1, 1, (1 - D) // 4))  # the principal form of D, reduced
+    out = []
+    for _ in range(count):
+        # a random SL2(Z) matrix: product of [[k, -1], [1, 0]] = T^k·S until large enough
+        p, q, r, s = 1, 0, 0, 1
+        while max(abs(p), abs(q), abs(r), abs(s)) < 10**MATRIX_DIGITS:
+            k = rng.randint(1, 10**4) * rng.choice((1, -1))
+            p, q, r, s = p * k + q, -p, r * k + s, -r
+        out.append(base.transform(((p, q), (r, s))))
+    return out
+
+
+def _child() -> dict:
+    """Time every case once in this process; seconds per reduction."""
+    from formkit import arith, reduce_form, reduced
+
+    results = {"backend": arith.BACKEND}
+    for i, (label, D, count) in enumerate(CASES):
+        forms = _inputs(D, count, SEED + i)
+        for f in forms[:5]:  # warm-up
+            reduce_form(f)
+        t0 = time.perf_counter()
+        for f in forms:
+            reduce_form(f)
+        t1 = time.perf_counter()
+        for f in forms:
+            reduced(f)
+        t2 = time.perf_counter()
+        results[label] = {"with_matrix": (t1 - t0) / count, "form_only": (t2 - t1) / count}
+    return results
+
+
+def _run_child(backend: str) -> dict:
+    env = dict(os.environ, FORMKIT_INTEGER_BACKEND=backend, PYTHONPATH=ROOT)
+    proc = subprocess.run(
+        [sys.executable, os.path.abspath(__file__), "--child"],
+        env=env,
+        capture_output=True,
+        text=True,
+        check=True,
+    )
+    return json.loads(proc.stdout)
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--repeats", type=int, default=5)
+    parser.add_argument("--json", action="store_true")
+    parser.add_argument("--child", action="store_true", help=argparse.SUPPRESS)
+    args = parser.parse_args()
+    if args.child:
+        sys.stdout.write(json.dumps(_child()))
+        return
+
+    runs: dict[str, list[dict]] = {"gmpy2": [], "python": []}
+    for _ in range(args.repeats):
+        for backend in ("gmpy2", "python"):  # side by side, alternating
+            runs[backend].append(_run_child(backend))
+    summary = {}
+    for label, _, _ in CASES:
+        row = {}
+        for backend in ("gmpy2", "python"):
+            for kind in ("with_matrix", "form_only"):
+                row[f"{backend}_{kind}"] = statistics.median(r[label][kind] for r in runs[backend])
+        summary[label] = row
+    if args.json:
+        print(json.dumps(summary, indent=2))
+        return
+    print(
+        f"formkit reduction benchmark — {date.today()}, {platform.python_implementation()} "
+        f"{platform.python_version()}, {os.cpu_count()} cores, median of {args.repeats} repeats"
+    )
+    print(f"inputs: reduced forms moved by random SL2(Z) matrices with ~{MATRIX_DIGITS}-digit entries\n")
+    head = f"{'case':22s} {'gmpy2 red/s':>12s} {'python red/s':>13s} {'gmpy2/python':>13s}   {'gmpy2 form-only red/s':>22s} {'ratio':>6s}"
+    print(head)
+    print("-" * len(head))
+    for label, row in summary.items():
+        g, p = row["gmpy2_with_matrix"], row["python_with_matrix"]
+        go, po = row["gmpy2_form_only"], row["python_form_only"]
+        print(f"{label:22s} {1 / g:12,.0f} {1 / p:13,.0f} {p / g:12.2f}x   {1 / go:22,.0f} {po / go:5.2f}x")
+    print("\nred/s = reductions per second (reduce_form: form and matrix; form-only: reduced());")
+    print("gmpy2/python = speed with gmpy2 divided by speed with plain Python ints (>1: gmpy2 faster)")
+
+
+if __name__ == "__main__":
+    main()
