@@ -207,3 +207,18 @@ def test_negative_forms_are_not_options(path, sp):
         for a in _positionals(sp):
             if a.dest in FORM_DESTS:
                 assert Form.parse(getattr(ns, a.dest)) == Form.parse(text)
+
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("path,sp", LEAVES, ids=IDS)
+def test_every_help_example_runs(path, sp, capsys, monkeypatch, tmp_path):
+    """Every example printed by --help runs and exits 0, in order in one directory
+    (later examples may query a file an earlier one wrote).  Slow: some build large
+    tables.  Examples needing a cluster address are left out (no network here)."""
+    monkeypatch.chdir(tmp_path)  # examples may write files (-o, --db, --output)
+    for argv in _examples(sp, path):
+        if "--cluster" in argv:
+            continue
+        code, out, err = _run(argv, capsys)
+        assert code == 0, (argv, err)
