@@ -60,7 +60,6 @@ CREATE TABLE IF NOT EXISTS rows (
     invariants TEXT,
     genus_count INTEGER NOT NULL,
     regulator REAL);
-CREATE INDEX IF NOT EXISTS rows_class_number ON rows (class_number);
 """
 
 #: Default chunk widths (numbers of consecutive integers D per chunk).
@@ -236,7 +235,8 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
         conn.executemany(
             "INSERT INTO rows (discriminant, fundamental_discriminant, conductor, class_number, "
             "class_number_wide, invariants, genus_count, regulator) VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
-            ((D, dk, f, h, hw, _inv_text(inv), g, reg) for (D, dk, f, h, hw, inv, g, reg) in rows),
+            # ascending keys append to the B-tree: the cheapest insertion order
+            ((D, dk, f, h, hw, _inv_text(inv), g, reg) for (D, dk, f, h, hw, inv, g, reg) in sorted(rows)),
         )
         conn.execute(
             "INSERT INTO chunks (lo, hi, row_count, seconds, finished) VALUES (?, ?, ?, ?, ?)",
