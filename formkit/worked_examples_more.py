@@ -120,7 +120,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             + text(f" for integers x, y; the form has discriminant @D = {D}@.")
         ),
         para(
-            "Method (Gauss; Cox, Primes of the Form x^2 + ny^2, Lemma 2.5): a proper solution (@gcd(x, y) = 1@) "
+            "Method (Gauss; Cox, Primes of the Form @x^2 + ny^2@, Lemma 2.5): a proper solution (@gcd(x, y) = 1@) "
             "of @Q(x, y) = m@ is the first column of a matrix M of determinant 1 with @Q·M = (m, b, c)@, where "
             "b is determined modulo 2m and @b^2 ≡ D (mod 4m)@. So we list those b, reduce each form "
             "@(m, b, (b^2 - D)/4m)@ and keep the ones properly equivalent to Q; the matrix of the equivalence "
@@ -440,7 +440,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     if chars:
         blocks.append(
             para(
-                f"The assigned characters of D (Cox, Primes of the Form x^2 + ny^2, Section 3) are evaluated at a "
+                f"The assigned characters of D (Cox, Primes of the Form @x^2 + ny^2@, Section 3) are evaluated at a "
                 f"value m of the form prime to D; with @mu = {mu}@ characters there are "
                 f"@2^{{mu - 1}} = {expected}@ genera."
             )

@@ -104,6 +104,7 @@ _TEX_RULES = (
     (re.compile(r">="), r"\\ge "),
     (re.compile(r"!="), r"\\ne "),
     (re.compile(r"->"), r"\\to "),
+    (re.compile(r"\(mod ([^()]*)\)"), r"\\pmod{\1}"),
     (re.compile(r"\bmod\b"), r"\\bmod "),
     (re.compile(r"\bgcd\b"), r"\\gcd"),
     (re.compile(r"\brho\b"), r"\\rho"),
