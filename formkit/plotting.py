@@ -14,8 +14,8 @@ Layout (chosen to stay legible up to a few hundred classes):
   concentric shells; otherwise a grid of small rings.
 * Cycle graphs: one ring per ρ-cycle (= narrow class), in a grid, radius growing with
   the cycle length.
-* Fibre graphs: the classes of ``Cl(d_K)`` in a row of squares on top, the fibre of
-  each one in a block of circles below it.
+* Fibre graphs: the classes of ``Cl(d_K)`` as squares in a grid, each in the middle of
+  a ring of circles, its fibre (so the edges are spokes and never cross).
 
 Nodes are filled by genus (legend), edges coloured by prime (legend); node labels
 ``[a,b,c]`` are drawn only for at most 40 nodes, and the principal class has a black
@@ -239,15 +239,14 @@ def _cycle_rings(C: nx.Graph) -> List[List[Hashable]]:
 def _fibre_layout(C: nx.Graph) -> Dict[Hashable, Point]:
     top = [n for n, s in C.nodes(data="bipartite") if s == 1]
     pos: Dict[Hashable, Point] = {}
-    size = int(C.graph.get("fibre_size", 1))
-    cols = max(1, math.ceil(math.sqrt(size)))
-    rows = math.ceil(size / cols)
-    cell = 0.8 / max(cols, 1)
-    for i, y in enumerate(top):
-        pos[y] = (float(i), 0.6 + 0.15 * rows * cell)
+    for y, c in zip(top, _grid_centres(len(top))):
+        pos[y] = c
         fibre = sorted(C.predecessors(y))
-        for t, x in enumerate(fibre):
-            pos[x] = (i - 0.4 + cell * (t % cols + 0.5), -cell * (t // cols))
+        if len(fibre) == 1:
+            pos[fibre[0]] = (c[0], c[1] - 0.3)
+            continue
+        for x, p in zip(fibre, _ring(len(fibre), c, 0.34, math.pi / 2 if len(fibre) == 2 else 0.0)):
+            pos[x] = p
     return pos
 
 
@@ -289,6 +288,32 @@ def _matplotlib():
     return matplotlib, Figure, Line2D
 
 
+def _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale) -> None:
+    """Straight arrows as one matplotlib ``quiver`` (one artist instead of one patch per
+    edge), shortened to stop at the node rims; used for large graphs."""
+    if not el:
+        return
+    rim = (math.sqrt(node_size) / 2 + 1.5)  # points
+    X, Y, U, V = [], [], [], []
+    for u, v in el:
+        (x0, y0), (x1, y1) = pos[u], pos[v]
+        dx, dy = x1 - x0, y1 - y0
+        length_pts = math.hypot(dx * scale[0], dy * scale[1])
+        if length_pts <= 2 * rim:
+            continue  # self-loop or touching nodes: nothing visible to draw
+        t = rim / length_pts
+        X.append(x0 + t * dx)
+        Y.append(y0 + t * dy)
+        U.append(dx * (1 - 2 * t))
+        V.append(dy * (1 - 2 * t))
+    if X:
+        ax.quiver(
+            X, Y, U, V, angles="xy", scale_units="xy", scale=1, color=colour, alpha=alpha,
+            units="inches", width=max(0.6, width) / 72, headwidth=4.5, headlength=5.5, headaxislength=5,
+            zorder=1,
+        )
+
+
 def draw_graph(C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[str] = None):
     """Draw a graph of :mod:`formkit.graphs` on a new matplotlib ``Figure`` (no pyplot state).
 
@@ -317,40 +342,48 @@ def draw_graph(C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[st
     if labels is None:
         labels = n <= 40
     side = 6.0 if n <= 12 else (8.0 if n <= 60 else 10.0)
-    if kind == "fibres":
-        xs = [p[0] for p in pos.values()] or [0.0]
-        width = max(6.0, min(16.0, 1.6 * (max(xs) - min(xs) + 1)))
-        fig = Figure(figsize=(width + 2.5, 6.0))
-    else:
-        fig = Figure(figsize=(side + 2.5, side))
-    ax = fig.add_axes((0.02, 0.02, side / (side + 2.5) - 0.02, 0.9) if kind != "fibres" else (0.02, 0.02, 0.78, 0.9))
+    fig = Figure(figsize=(side + 2.5, side))
+    box = (0.02, 0.02, side / (side + 2.5) - 0.02, 0.9)
+    ax = fig.add_axes(box)
     ax.set_axis_off()
-    ax.set_aspect("equal" if kind != "fibres" else "auto")
+    ax.set_aspect("equal")
+    xs = [p[0] for p in pos.values()] or [0.0]
+    ys = [p[1] for p in pos.values()] or [0.0]
+    pad = 0.25
+    xlim = (min(xs) - pad, max(xs) + pad)
+    ylim = (min(ys) - pad - (0.1 if labels else 0), max(ys) + pad)
+    ax.set_xlim(*xlim)
+    ax.set_ylim(*ylim)
 
     gcol = genus_colours(C)
     ecol = edge_colours(C)
     node_size = 700 if n <= 8 else (420 if n <= 20 else (220 if n <= 40 else max(18, int(9000 / n))))
     arrow = 14 if n <= 20 else (10 if n <= 60 else 6)
     width = 1.6 if n <= 40 else (1.0 if n <= 120 else 0.6)
+    # points per data unit (for the fast arrows, which must stop at the node rims)
+    fw, fh = fig.get_size_inches()
+    sx = box[2] * fw * 72 / (xlim[1] - xlim[0])
+    sy = box[3] * fh * 72 / (ylim[1] - ylim[0])
+    scale = (min(sx, sy), min(sx, sy))
+    fast = n > 60
 
-    # edges
+    def edges(el, colour, rad, alpha=1.0):
+        if fast:
+            _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale)
+        else:
+            nx.draw_networkx_edges(
+                C, pos, edgelist=el, ax=ax, edge_color=colour, width=width, arrows=True, arrowsize=arrow,
+                node_size=node_size, connectionstyle=f"arc3,rad={rad:.2f}", alpha=alpha,
+            )
+
     if kind == "cayley":
         p1 = _ring_prime(C)
         others = [p for p in C.graph["primes"] if p != p1]
-        big = n > 60
         for i, p in enumerate(([p1] if p1 is not None else []) + others):
             el = [(u, v) for u, v, q in C.edges(data="prime") if q == p]
-            rad = 0.06 if p == p1 else ((0.05 + 0.05 * i) if big else (0.1 + 0.1 * i))
-            nx.draw_networkx_edges(
-                C, pos, edgelist=el, ax=ax, edge_color=ecol[p], width=width, arrows=True,
-                arrowsize=arrow, node_size=node_size, connectionstyle=f"arc3,rad={rad:.2f}",
-                alpha=0.75 if big and p != p1 else 1.0,
-            )
+            edges(el, ecol[p], 0.06 if p == p1 else 0.1 + 0.1 * i, 0.75 if fast and p != p1 else 1.0)
     else:
-        nx.draw_networkx_edges(
-            C, pos, ax=ax, edge_color="#555555", width=width, arrows=True, arrowsize=arrow,
-            node_size=node_size, connectionstyle="arc3,rad=0.08" if kind == "cycles" else "arc3,rad=0.0",
-        )
+        edges(list(C.edges()), "#555555", 0.08 if kind == "cycles" else 0.0)
 
     # nodes, by genus and (fibres) by side
     identity = tuple(C.graph.get("identity", ())) or None
@@ -373,23 +406,14 @@ def draw_graph(C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[st
             )
     if labels:
         fs = 9 if n <= 12 else (7 if n <= 24 else 6)
-        above = {v for v, s in C.nodes(data="bipartite") if s == 1}
-        dy = 0.09 if kind != "fibres" else 0.07
-        for part, sign, va in ((set(C.nodes) - above, -1, "top"), (above, 1, "bottom")):
-            if part:
-                text = {v: "[" + node_label(v) + "]" for v in part}
-                offset = {v: (pos[v][0], pos[v][1] + sign * dy) for v in part}
-                nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment=va)
+        text = {v: "[" + node_label(v) + "]" for v in C.nodes}
+        offset = {v: (x, y - 0.09) for v, (x, y) in pos.items()}
+        nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment="top")
     elif kind == "cycles" and C.graph.get("class_number", 0) <= 60:
         for ring in _cycle_rings(C):
             cx = sum(pos[v][0] for v in ring) / len(ring)
             cy = sum(pos[v][1] for v in ring) / len(ring)
             ax.text(cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333")
-    xs = [p[0] for p in pos.values()] or [0.0]
-    ys = [p[1] for p in pos.values()] or [0.0]
-    pad = 0.25
-    ax.set_xlim(min(xs) - pad, max(xs) + pad)
-    ax.set_ylim(min(ys) - pad - (0.1 if labels else 0), max(ys) + pad + (0.1 if labels and kind == "fibres" else 0))
 
     # legends
     handles = []

@@ -1,0 +1,161 @@
+"""Tests of ``formkit graph`` (issue 7): formats, output files, options, bad input.
+
+References: networkx's readers (``node_link_graph``, ``read_graphml``) parse what the
+command writes; sympy's Kronecker symbol gives the primes of ``--bound``; the PNG
+signature is from the PNG specification (RFC 2083, §3.1); class numbers from memory
+(h(−23) = 3, h(−47) = 5, h⁺(316) = 6 for Q(√79)).
+"""
+
+from __future__ import annotations
+
+import io
+import json
+
+import networkx as nx
+import pytest
+from sympy import kronecker_symbol, primerange
+
+import formkit.cli as cli
+
+
+def run(argv, capsys):
+    code = cli.main(argv)
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def test_default_is_node_link_json_on_stdout(capsys):
+    code, out, err = run(["graph", "-47"], capsys)
+    assert code == 0 and err == ""
+    G = nx.node_link_graph(json.loads(out), edges="edges")
+    assert G.number_of_nodes() == 5  # h(-47) = 5
+    # one generator of order 5: the directed 5-cycle (networkx.cycle_graph as reference)
+    assert nx.is_isomorphic(G, nx.cycle_graph(5, create_using=nx.DiGraph))
+
+
+def test_primes_option_out_degree(capsys):
+    code, out, _ = run(["graph", "-23", "--primes", "2,3"], capsys)
+    assert code == 0
+    G = nx.node_link_graph(json.loads(out), edges="edges")
+    assert G.graph["primes"] == [2, 3]
+    assert all(d == 2 for _, d in G.out_degree())
+
+
+def test_bound_option_uses_every_non_inert_prime(capsys):
+    code, out, _ = run(["graph", "-23", "--bound", "30"], capsys)
+    assert code == 0
+    G = nx.node_link_graph(json.loads(out), edges="edges")
+    # D = -23 is fundamental: every p with (D/p) != -1 (sympy.kronecker_symbol)
+    assert G.graph["primes"] == [p for p in primerange(2, 31) if kronecker_symbol(-23, p) != -1]
+
+
+def test_dot_to_stdout(capsys):
+    code, out, _ = run(["graph", "-23", "--primes", "2", "--format", "dot"], capsys)
+    assert code == 0
+    assert out.startswith('digraph "Cl(-23)" {') and out.rstrip().endswith("}")
+    assert out.count(" -> ") == 3
+
+
+def test_graphml_to_stdout(capsys):
+    code, out, _ = run(["graph", "316", "--kind", "cycles", "--format", "graphml"], capsys)
+    assert code == 0
+    G = nx.read_graphml(io.BytesIO(out.encode()))
+    assert nx.number_weakly_connected_components(G) == 6  # h⁺(316) = 6
+
+
+def test_fibres_kind(capsys):
+    code, out, _ = run(["graph", "-207", "--kind", "fibres"], capsys)
+    assert code == 0
+    G = nx.node_link_graph(json.loads(out), edges="edges")
+    bottom = [n for n, s in G.nodes(data="bipartite") if s == 0]
+    top = [n for n, s in G.nodes(data="bipartite") if s == 1]
+    assert len(top) == 3 and len(bottom) == 6
+    assert sorted(G.in_degree(n) for n in top) == [2, 2, 2]
+
+
+@pytest.mark.parametrize("fmt,ext", [("json", "json"), ("graphml", "graphml"), ("dot", "dot"), ("dot", "gv")])
+def test_output_file_and_format_from_suffix(fmt, ext, tmp_path, capsys):
+    path = tmp_path / f"g.{ext}"
+    code, out, err = run(["graph", "-455", "--output", str(path)], capsys)
+    assert code == 0 and err == ""
+    assert out.startswith(f"wrote {fmt}:") and str(path) in out
+    text = path.read_text()
+    if fmt == "json":
+        assert nx.node_link_graph(json.loads(text), edges="edges").number_of_nodes() == 20
+    elif fmt == "graphml":
+        assert nx.read_graphml(str(path)).number_of_nodes() == 20
+    else:
+        assert text.startswith("digraph")
+
+
+def test_json_summary_with_output(tmp_path, capsys):
+    path = tmp_path / "g.dot"
+    code, out, _ = run(["graph", "-455", "-o", str(path), "--json"], capsys)
+    assert code == 0
+    payload = json.loads(out)
+    assert payload["format"] == "dot" and payload["output"] == str(path)
+    assert payload["nodes"] == 20 and payload["edges"] == 20 * len(payload["primes"])
+
+
+def test_json_flag_to_stdout_is_one_object(capsys):
+    code, out, _ = run(["graph", "-23", "--format", "dot", "--json"], capsys)
+    assert code == 0 and out.count("\n") == 1
+    payload = json.loads(out)
+    assert payload["text"].startswith("digraph")
+    code, out, _ = run(["graph", "-23", "--json"], capsys)
+    assert json.loads(out)["graph"]["directed"] is True
+
+
+@pytest.mark.parametrize("ext", ["png", "svg"])
+def test_picture_output(ext, tmp_path, capsys):
+    pytest.importorskip("matplotlib")
+    path = tmp_path / f"g.{ext}"
+    code, out, err = run(["graph", "-4620", "--output", str(path)], capsys)
+    assert code == 0, err
+    data = path.read_bytes()
+    if ext == "png":
+        assert data[:8] == b"\x89PNG\r\n\x1a\n" and len(data) > 20_000
+    else:
+        assert b"<svg" in data[:2000]
+
+
+@pytest.mark.parametrize(
+    "argv,needle",
+    [
+        (["graph", "-23", "--format", "png"], "--output"),
+        (["graph", "-23", "--format", "svg"], "--output"),
+        (["graph", "-23", "--format", "xml"], "invalid choice"),
+        (["graph", "-23", "--primes", "4"], "4 is not prime"),
+        (["graph", "-23", "--primes", "5"], "inert"),
+        (["graph", "-36", "--primes", "3"], "conductor"),
+        (["graph", "-23", "--primes", "2,x"], "'x'"),
+        (["graph", "-23", "--primes", "2,,3"], "comma-separated"),
+        (["graph", "-23", "--primes", ""], "comma-separated"),
+        (["graph", "-23", "--bound", "1"], "at least 2"),
+        (["graph", "-23", "--bound", "ten"], "'ten'"),
+        (["graph", "-23", "--primes", "2", "--bound", "5"], "not allowed"),
+        (["graph", "-22"], "mod 4"),
+        (["graph", "16"], "square"),
+        (["graph", "abc"], "'abc'"),
+        (["graph", "-23", "--kind", "cycles"], "positive discriminant"),
+        (["graph", "-23", "--kind", "fibres"], "fundamental"),
+        (["graph", "-207", "--kind", "fibres", "--primes", "2"], "--kind cayley"),
+        (["graph", "-23", "--kind", "tree"], "invalid choice"),
+        (["graph", "-23", "--output", "x.txt"], "cannot tell the format"),
+        (["graph", "-23", "--output", "/nonexistent-dir/x.json"], "cannot write"),
+    ],
+)
+def test_bad_input_one_line_exit_2(argv, needle, capsys):
+    code, out, err = run(argv, capsys)
+    assert code == 2 and out == ""
+    lines = err.splitlines()
+    assert len(lines) == 1 and lines[0].startswith("formkit: error: ") and "Traceback" not in err
+    assert needle in lines[0]
+
+
+def test_picture_without_matplotlib_is_a_clean_error(monkeypatch, tmp_path, capsys):
+    import sys
+
+    monkeypatch.setitem(sys.modules, "matplotlib", None)
+    code, out, err = run(["graph", "-23", "--output", str(tmp_path / "x.png")], capsys)
+    assert code == 2 and "formkit[plot]" in err and len(err.splitlines()) == 1
