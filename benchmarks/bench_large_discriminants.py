@@ -1,0 +1,90 @@
+"""Benchmark: class groups of large discriminants by baby-step giant-step.
+
+Prints, for random fundamental D < 0 of each size, the median wall-clock and CPU time
+of ``class_group_bsgs(D)``, the median number of group operations (compositions and
+squarings), and that number against the |D|^(1/4) and |D|^(1/5) rules of thumb; then
+enumeration against baby-step giant-step side by side around the
+``ENUMERATION_LIMIT`` threshold, and the D > 0 method.
+
+Usage:  python3 benchmarks/bench_large_discriminants.py [--sizes 15,20,25,30] [--count 5]
+"""
+
+from __future__ import annotations
+
+import argparse
+import random
+import statistics
+import time
+
+from formkit.classgroup import class_group
+from formkit.discriminants import is_fundamental_discriminant
+from formkit.large_discriminants import class_group_bsgs, last_statistics, real_class_number
+
+
+def random_fundamental(rng: random.Random, digits: int, sign: int = -1) -> int:
+    while True:
+        D = sign * rng.randrange(10**digits, 2 * 10**digits)
+        if is_fundamental_discriminant(D):
+            return D
+
+
+def timed(fn, *args):
+    w, c = time.perf_counter(), time.process_time()
+    out = fn(*args)
+    return out, time.perf_counter() - w, time.process_time() - c
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--sizes", default="15,20,25,30")
+    ap.add_argument("--count", type=int, default=5)
+    ap.add_argument("--seed", type=int, default=2026)
+    ap.add_argument("--skip-threshold", action="store_true")
+    args = ap.parse_args()
+    rng = random.Random(args.seed)
+    class_group_bsgs(-10**6 - 3)  # warm up imports (numpy, sympy) outside the timings
+
+    print("D < 0, baby-step giant-step (GRH, Bach bound), random fundamental D in [10^k, 2·10^k)")
+    print(f"{'k':>3} {'n':>2} {'wall s':>8} {'cpu s':>8} {'ops':>9} {'ops/|D|^.25':>12} {'ops/|D|^.2':>11}"
+          f" {'bsgs steps':>10} {'gens':>5}")
+    for k in [int(s) for s in args.sizes.split(",")]:
+        walls, cpus, ops, steps, gens = [], [], [], [], []
+        for _ in range(args.count):
+            D = random_fundamental(rng, k)
+            G, w, c = timed(class_group_bsgs, D)
+            st = last_statistics()
+            walls.append(w)
+            cpus.append(c)
+            ops.append(st.operations)
+            steps.append(st.baby_steps + st.giant_steps)
+            gens.append(st.generators_used)
+            print(f"    D = {D}: {G.structure}, {w:.2f} s wall, {c:.2f} s cpu, {st.operations} ops", flush=True)
+        Dabs = 1.5 * 10**k
+        mo = statistics.median(ops)
+        print(f"{k:>3} {args.count:>2} {statistics.median(walls):>8.2f} {statistics.median(cpus):>8.2f} {mo:>9.0f}"
+              f" {mo / Dabs**0.25:>12.3f} {mo / Dabs**0.2:>11.3f} {statistics.median(steps):>10.0f}"
+              f" {statistics.median(gens):>5.0f}", flush=True)
+
+    if not args.skip_threshold:
+        print("\nenumeration (unconditional) against baby-step giant-step (GRH), same D, cpu seconds")
+        print(f"{'k':>3} {'enumerate':>10} {'bsgs':>8} {'ratio':>7}")
+        for k in (8, 9, 10, 11, 12):
+            D = random_fundamental(rng, k)
+            _, _, ce = timed(class_group, D, "enumerate")
+            _, _, cb = timed(class_group_bsgs, D)
+            print(f"{k:>3} {ce:>10.3f} {cb:>8.3f} {ce / cb:>7.1f}", flush=True)
+
+    print("\nD > 0: real_class_number (infrastructure regulator + analytic class number)")
+    print(f"{'k':>3} {'cpu s':>8} {'reduction steps':>16}")
+    for k in (8, 10, 12, 14, 16):
+        cs, ss = [], []
+        for _ in range(args.count):
+            D = random_fundamental(rng, k, sign=1)
+            r, _, c = timed(real_class_number, D)
+            cs.append(c)
+            ss.append(r.statistics.baby_steps + r.statistics.giant_steps)
+        print(f"{k:>3} {statistics.median(cs):>8.3f} {statistics.median(ss):>16.0f}", flush=True)
+
+
+if __name__ == "__main__":
+    main()
