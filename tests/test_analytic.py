@@ -51,9 +51,9 @@ def test_positive_against_brute_force():
 
 
 def test_positive_against_enumeration_random_sample():
-    # source: complete enumeration (narrow) and the unit norm, 10 random D up to 5000
+    # source: complete enumeration (narrow) and the unit norm, 6 random D up to 5000
     rng = random.Random(12)
-    for D in rng.sample(discriminants(300, 5000), 10):
+    for D in rng.sample(discriminants(300, 5000), 6):
         assert class_number_dirichlet(D) == class_group(D).class_number_wide, D
 
 

@@ -15,7 +15,6 @@ References (named beside each check):
 from __future__ import annotations
 
 import math
-import random
 from functools import reduce
 
 import pytest
@@ -42,10 +41,8 @@ from formkit import (
 
 from _classgroup_reference import (
     BruteGroup,
-    brute_class_number,
     class_key,
     class_product,
-    fundamental_part,
     has_unit_of_norm_minus_one,
     prime_factors,
     wide_class_number,
@@ -320,7 +317,7 @@ def test_real_quadratic_class_numbers(d):
 def test_narrow_wide_relation_many_discriminants():
     # source: brute force (orbits of cycles under (a,b,c) -> (−a,b,−c)), and the theorem
     # h⁺ = h·[2 if N(ε) = +1]; includes non-fundamental discriminants
-    for D in discriminants(5, 900):
+    for D in discriminants(5, 600):
         G = class_group(D)
         assert G.class_number_wide == wide_class_number(D), D
         n = has_unit_of_norm_minus_one(D)
@@ -347,6 +344,7 @@ def test_provenance_enumeration():
 
 
 def test_group_basic_data():
+    assert isinstance(class_group(-23), ClassGroup)
     G = class_group(-4 * 27)  # −108 = 6²·(−3): conductor 6 over Q(√−3)
     assert (G.discriminant, G.fundamental_discriminant, G.conductor) == (-108, -3, 6)
     assert G.structure == "C3" and class_group(-4).structure == "C1"
