@@ -34,9 +34,10 @@ forms) and gives at most ``log₂ h`` primes, so the picture stays readable.
 Reading structure back: :func:`generated_subgroup` (the classes reachable from the
 identity) and :func:`prime_orders` / :func:`cycle_lengths` (cycles of one prime).
 
-Export: :func:`graph_to_json` (networkx node-link data), :func:`graph_from_json`,
-:func:`graph_to_graphml`, :func:`graph_to_dot` (DOT text written here, no Graphviz
-needed).  Pictures are in :mod:`formkit.plotting` (optional extra ``formkit[plot]``).
+Export (in :mod:`formkit.graph_export`, re-exported here): :func:`graph_to_json`
+(networkx node-link data), :func:`graph_from_json`, :func:`graph_to_graphml`,
+:func:`graph_to_dot` (DOT text written there, no Graphviz needed).  Pictures are in
+:mod:`formkit.plotting` (optional extra ``formkit[plot]``).
 
 References
 ----------
@@ -51,8 +52,7 @@ References
 
 from __future__ import annotations
 
-import json
-from typing import Dict, Iterable, List, Optional, Sequence, Set, Tuple
+from typing import Dict, Iterable, List, Optional, Set, Tuple
 
 import networkx as nx
 
@@ -60,6 +60,15 @@ from .arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
 from .classgroup import ClassGroup, ClassGroupElement, class_group
 from .discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
+from .graph_export import (
+    genus_label,
+    graph_from_json,
+    graph_title,
+    graph_to_dot,
+    graph_to_graphml,
+    graph_to_json,
+    node_label,
+)
 
 __all__ = [
     "usable_primes",
@@ -88,30 +97,6 @@ GRAPH_KINDS = ("cayley", "cycles", "fibres")
 
 # ---------------------------------------------------------------------------
 # helpers
-
-
-def node_label(node: Sequence[int]) -> str:
-    """The text key of a node ``(a, b, c)`` in exported graphs: ``"a,b,c"``.
-
-    Examples
-    --------
-    >>> node_label((2, -1, 3))
-    '2,-1,3'
-    """
-    return ",".join(str(int(v)) for v in node)
-
-
-def genus_label(symbol: Optional[Sequence[int]]) -> str:
-    """A genus symbol ``(±1, …)`` as a short string of signs, ``'?'`` if unknown.
-
-    Examples
-    --------
-    >>> genus_label((1, -1, -1)), genus_label(None)
-    ('+--', '?')
-    """
-    if symbol is None:
-        return "?"
-    return "".join("+" if s > 0 else "-" for s in symbol)
 
 
 def _genus_function():
@@ -525,203 +510,3 @@ def prime_orders(C: nx.MultiDiGraph) -> Dict[int, int]:
             x, n = step[x], n + 1
         out[p] = n
     return out
-
-
-# ---------------------------------------------------------------------------
-# export
-
-
-def _jsonable(v: object) -> object:
-    if isinstance(v, tuple):
-        return [_jsonable(t) for t in v]
-    if isinstance(v, list):
-        return [_jsonable(t) for t in v]
-    return v
-
-
-def _relabelled(C: nx.Graph) -> nx.Graph:
-    """A copy with text node keys ``"a,b,c"`` and JSON-ready attributes."""
-    H = C.__class__()
-    H.graph.update({k: _jsonable(v) for k, v in C.graph.items()})
-    for n, d in C.nodes(data=True):
-        H.add_node(node_label(n), **{k: _jsonable(v) for k, v in d.items()})
-    if C.is_multigraph():
-        for u, v, k, d in C.edges(keys=True, data=True):
-            H.add_edge(node_label(u), node_label(v), key=k, **{a: _jsonable(b) for a, b in d.items()})
-    else:
-        for u, v, d in C.edges(data=True):
-            H.add_edge(node_label(u), node_label(v), **{a: _jsonable(b) for a, b in d.items()})
-    return H
-
-
-def graph_to_json(C: nx.Graph, indent: Optional[int] = None) -> str:
-    """The graph as networkx node-link JSON, nodes keyed ``"a,b,c"`` (edges under ``"edges"``).
-
-    ``networkx.node_link_graph(json.loads(text))`` reads it back (with text keys);
-    :func:`graph_from_json` restores the tuple keys.
-
-    Examples
-    --------
-    >>> data = json.loads(graph_to_json(cayley_graph(-23, [2])))
-    >>> data["directed"], data["multigraph"], len(data["nodes"]), data["nodes"][0]["id"]
-    (True, True, 3, '1,1,6')
-    """
-    return json.dumps(nx.node_link_data(_relabelled(C), edges="edges"), indent=indent)
-
-
-def _key(text: str) -> Triple:
-    try:
-        a, b, c = (int(t) for t in text.split(","))
-    except ValueError as exc:
-        raise FormkitError(f"node key must be 'a,b,c', not {text!r}") from exc
-    return (a, b, c)
-
-
-def graph_from_json(text: str) -> nx.Graph:
-    """Read a graph written by :func:`graph_to_json`, with tuple node keys again.
-
-    Raises
-    ------
-    FormkitError
-        If the text is not node-link JSON with ``"a,b,c"`` node keys.
-
-    Examples
-    --------
-    >>> C = cayley_graph(-47, [2])
-    >>> B = graph_from_json(graph_to_json(C))
-    >>> sorted(B.nodes) == sorted(C.nodes), B.graph["identity"]
-    (True, (1, 1, 12))
-    """
-    try:
-        data = json.loads(text)
-        H = nx.node_link_graph(data, edges="edges")
-    except (ValueError, KeyError, TypeError) as exc:
-        raise FormkitError(f"not a node-link JSON graph: {exc}") from exc
-    mapping = {n: _key(n) for n in H.nodes}
-    H = nx.relabel_nodes(H, mapping)
-    for k in ("identity", "identity_maximal"):
-        if k in H.graph:
-            H.graph[k] = tuple(H.graph[k])
-    for _, d in H.nodes(data=True):
-        if isinstance(d.get("genus"), list):
-            d["genus"] = tuple(d["genus"])
-    return H
-
-
-def _scalar(v: object) -> object:
-    if v is None:
-        return ""
-    if isinstance(v, (list, tuple)):
-        return json.dumps(_jsonable(v), separators=(",", ":"))
-    if isinstance(v, bool):
-        return v
-    if isinstance(v, int):
-        return int(v)
-    return v
-
-
-def graph_to_graphml(C: nx.Graph) -> str:
-    """The graph as GraphML text.
-
-    Node ids are ``"a,b,c"``; list-valued attributes (``form``, ``matrix``,
-    ``genus`` …) become JSON text such as ``"[2,1,3]"``; ``genus_label`` adds the
-    symbol as signs.  ``networkx.read_graphml`` reads it back.
-
-    Examples
-    --------
-    >>> text = graph_to_graphml(cayley_graph(-23, [2]))
-    >>> text.count("<node "), text.count("<edge ")
-    (3, 3)
-    """
-    H = _relabelled(C)
-    for _, d in H.nodes(data=True):
-        if "genus" in d:
-            d["genus_label"] = genus_label(d["genus"])
-        for k in list(d):
-            d[k] = _scalar(d[k])
-    for *_, d in H.edges(data=True):
-        for k in list(d):
-            d[k] = _scalar(d[k])
-    for k in list(H.graph):
-        H.graph[k] = _scalar(H.graph[k])
-    return "\n".join(nx.generate_graphml(H)) + "\n"
-
-
-def _dot_quote(v: object) -> str:
-    s = str(v)
-    s = s.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n")
-    return f'"{s}"'
-
-
-def _dot_attrs(d: dict) -> str:
-    return "[" + ", ".join(f"{k}={_dot_quote(v)}" for k, v in d.items()) + "]"
-
-
-def graph_title(C: nx.Graph) -> str:
-    """A one-line description of a graph built here."""
-    g = C.graph
-    kind = g.get("kind")
-    D = g.get("discriminant")
-    if kind == "cayley":
-        ps = ", ".join(str(p) for p in g["primes"]) or "none"
-        cl = "Cl+" if D > 0 else "Cl"
-        return f"Cayley graph of {cl}({D}) = {g['structure']}, h = {g['class_number']}, primes {ps}"
-    if kind == "cycles":
-        return f"cycles of reduced forms of D = {D} under rho, {g['class_number']} narrow classes"
-    if kind == "fibres":
-        return (
-            f"Cl({D}) -> Cl({g['fundamental_discriminant']}), conductor {g['conductor']}, "
-            f"h = {g['class_number']} -> {g['class_number_maximal']}, fibres of {g['fibre_size']}"
-        )
-    return f"graph of {C.number_of_nodes()} nodes"
-
-
-def graph_to_dot(C: nx.Graph) -> str:
-    """The graph as Graphviz DOT text (written here; Graphviz is not needed).
-
-    Every id and value is double-quoted with ``\\`` and ``"`` escaped.  Nodes are
-    labelled ``[a,b,c]`` and filled by genus; edges are labelled and coloured by prime
-    (Cayley graphs) or by ``t`` of the matrix (cycle graphs).
-
-    Examples
-    --------
-    >>> print(graph_to_dot(cayley_graph(-23, [2])))  # doctest: +ELLIPSIS
-    digraph "Cl(-23)" {
-      graph [label="Cayley graph of Cl(-23) = C3, h = 3, primes 2", ...];
-      node [style="filled", fontsize="10"];
-      "1,1,6" [label="[1,1,6]", order="1", genus="+", fillcolor="#8dd3c7"];
-    ...
-      "1,1,6" -> "2,1,3" [label="2", prime="2", color="#1b9e77"];
-    ...
-    }
-    """
-    from .plotting import edge_colours, genus_colours, genus_key
-
-    D = C.graph.get("discriminant")
-    gcol = genus_colours(C)
-    ecol = edge_colours(C)
-    arrow = "->" if C.is_directed() else "--"
-    lines = [
-        f"{'digraph' if C.is_directed() else 'graph'} {_dot_quote(f'Cl({D})')} {{",
-        f"  graph {_dot_attrs({'label': graph_title(C), 'labelloc': 't'})};",
-        f"  node {_dot_attrs({'style': 'filled', 'fontsize': 10})};",
-    ]
-    for n, d in C.nodes(data=True):
-        attrs = {"label": "[" + node_label(n) + "]", "order": d.get("order")}
-        attrs["genus"] = genus_label(d.get("genus"))
-        if "bipartite" in d:
-            attrs["discriminant"] = d["discriminant"]
-            attrs["shape"] = "box" if d["bipartite"] == 1 else "ellipse"
-        attrs["fillcolor"] = gcol.get(genus_key(C, n), "#dddddd")
-        lines.append(f"  {_dot_quote(node_label(n))} {_dot_attrs(attrs)};")
-    for u, v, d in C.edges(data=True):
-        attrs: dict = {}
-        if "prime" in d:
-            attrs = {"label": d["prime"], "prime": d["prime"], "color": ecol.get(d["prime"], "#333333")}
-        elif "matrix" in d:
-            m = d["matrix"]
-            attrs = {"label": f"t={m[1][1]}", "matrix": json.dumps(m, separators=(",", ":"))}
-        lines.append(f"  {_dot_quote(node_label(u))} {arrow} {_dot_quote(node_label(v))} {_dot_attrs(attrs)};")
-    lines.append("}")
-    return "\n".join(lines) + "\n"
-

@@ -10,7 +10,8 @@ Layout (chosen to stay legible up to a few hundred classes):
   ``p₁`` of largest class order; each coset is a ring on which ``[p₁]`` steps one
   place clockwise.  Rings are ordered breadth-first from the principal class along the
   other primes, and each ring starts at ``(start of its parent ring)·[q]``, so the
-  other primes appear as parallel chords.  One ring: a circle; at most six large rings:
+  other primes appear as parallel chords.  One ring: a circle; at most six large rings
+  (or at most three rings of three or more classes):
   concentric shells; otherwise a grid of small rings.
 * Cycle graphs: one ring per ρ-cycle (= narrow class), in a grid, radius growing with
   the cycle length.
@@ -205,7 +206,7 @@ def _place_rings(rings: List[List[Hashable]], scale_by_size: bool) -> Dict[Hasha
     if R == 1:
         for n, p in zip(rings[0], _ring(len(rings[0]), (0.0, 0.0), 1.0)):
             pos[n] = p
-    elif not scale_by_size and R <= 6 and m >= 8:
+    elif not scale_by_size and R <= 6 and m >= 3 and (m >= 8 or R <= 3):
         for k, ring in enumerate(rings):
             r = 0.5 + 0.5 * k / (R - 1)
             for n, p in zip(ring, _ring(len(ring), (0.0, 0.0), r)):
@@ -213,7 +214,7 @@ def _place_rings(rings: List[List[Hashable]], scale_by_size: bool) -> Dict[Hasha
     else:
         for ring, c in zip(rings, _grid_centres(R)):
             r = (0.38 if scale_by_size else 0.3) * (math.sqrt(len(ring) / m) if scale_by_size else 1.0)
-            for n, p in zip(ring, _ring(len(ring), c, max(r, 0.12), 0.0 if len(ring) > 2 else math.pi / 2)):
+            for n, p in zip(ring, _ring(len(ring), c, max(r, 0.16), 0.0 if len(ring) > 2 else math.pi / 2)):
                 pos[n] = p
     return pos
 
@@ -413,6 +414,8 @@ def draw_graph(C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[st
         for ring in _cycle_rings(C):
             cx = sum(pos[v][0] for v in ring) / len(ring)
             cy = sum(pos[v][1] for v in ring) / len(ring)
+            if len(ring) <= 2:  # no room inside: write the class below the pair
+                cy = min(pos[v][1] for v in ring) - 0.08
             ax.text(cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333")
 
     # legends

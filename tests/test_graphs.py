@@ -37,8 +37,8 @@ from formkit.errors import (
 )
 from formkit.forms import Form
 from formkit.genus import genus_symbol
+from formkit.graph_export import _dot_quote
 from formkit.graphs import (
-    _dot_quote,
     cayley_graph,
     cycle_graph,
     cycle_lengths,
