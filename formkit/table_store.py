@@ -341,6 +341,8 @@ def _plan(start: int, stop: int, missing: Iterable[Tuple[int, int]], fundamental
             size = CHUNK_NEGATIVE_PYTHON if engine == "python" else CHUNK_NEGATIVE_FAST
         for a, b in split_range(lo, hi, size):
             specs.append(ChunkSpec(a, b, fundamental, invariants, engine))
+    # costliest (largest |D|) first: the workers then finish close together
+    specs.sort(key=lambda s: -max(abs(s.lo), abs(s.hi)))
     return specs
 
 

@@ -31,7 +31,7 @@ from formkit import (
 from formkit.arith import kronecker
 from formkit.genus import genus_count
 from formkit.table_store import parse_invariants
-from formkit.tables import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
+from formkit.table_sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
 
 ROOT = Path(__file__).resolve().parents[1]
 
