@@ -1,9 +1,10 @@
 """Benchmark: reductions per second, and what the gmpy2 integer backend buys.
 
-For discriminants with |D| about 10^6, 10^40 and 10^200, definite and indefinite, the
+For discriminants with |D| about 10^6, 10^40, 10^200 (and 10^1000), definite and indefinite, the
 script makes non-reduced forms by applying random SL2(Z) matrices (entries of about 30
 digits) to reduced forms of D, then times ``formkit.reduce_form`` (reduced form *and*
-the transforming matrix) and ``formkit.reduced`` (reduced form only).
+the transforming matrix) and ``formkit.reduced`` (reduced form only).  It also times
+the exact fundamental unit of D = 4·10000141, which has 2456 digits.
 
 The integer backend is fixed when formkit is imported (``FORMKIT_INTEGER_BACKEND``),
 so each measurement runs in a child process of this script; the two backends are
@@ -38,7 +39,12 @@ CASES = [
     ("indefinite  D~1e40", 10**40 + 1, 300),
     ("definite   |D|~1e200", -(10**200) - 3, 150),
     ("indefinite  D~1e200", 10**200 + 1, 150),
+    ("definite   |D|~1e1000", -(10**1000) - 3, 40),
+    ("indefinite  D~1e1000", 10**1000 + 1, 40),
 ]
+# an exact fundamental unit with 2456 digits (Z[√10000141], norm −1): long products
+UNIT_D = 4 * 10000141
+UNIT_LABEL = "fundamental unit D=4*10000141 (2456 digits)"
 MATRIX_DIGITS = 30
 SEED = 20240601
 
@@ -79,6 +85,15 @@ def _child() -> dict:
             reduced(f)
         t2 = time.perf_counter()
         results[label] = {"with_matrix": (t1 - t0) / count, "form_only": (t2 - t1) / count}
+    from formkit.discriminants import _fundamental_unit
+
+    compute = _fundamental_unit.__wrapped__  # bypass the cache
+    compute(UNIT_D)
+    t0 = time.perf_counter()
+    for _ in range(5):
+        compute(UNIT_D)
+    t1 = time.perf_counter()
+    results[UNIT_LABEL] = {"with_matrix": (t1 - t0) / 5, "form_only": (t1 - t0) / 5}
     return results
 
 
@@ -104,12 +119,13 @@ def main() -> None:
         sys.stdout.write(json.dumps(_child()))
         return
 
+    load_before = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
     runs: dict[str, list[dict]] = {"gmpy2": [], "python": []}
     for _ in range(args.repeats):
         for backend in ("gmpy2", "python"):  # side by side, alternating
             runs[backend].append(_run_child(backend))
     summary = {}
-    for label, _, _ in CASES:
+    for label in [c[0] for c in CASES] + [UNIT_LABEL]:
         row = {}
         for backend in ("gmpy2", "python"):
             for kind in ("with_matrix", "form_only"):
@@ -122,16 +138,22 @@ def main() -> None:
         f"formkit reduction benchmark — {date.today()}, {platform.python_implementation()} "
         f"{platform.python_version()}, {os.cpu_count()} cores, median of {args.repeats} repeats"
     )
-    print(f"inputs: reduced forms moved by random SL2(Z) matrices with ~{MATRIX_DIGITS}-digit entries\n")
+    load_after = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
+    print(f"inputs: reduced forms moved by random SL2(Z) matrices with ~{MATRIX_DIGITS}-digit entries")
+    print(f"machine load average (1 min) before/after: {load_before:.1f} / {load_after:.1f}\n")
     head = f"{'case':22s} {'gmpy2 red/s':>12s} {'python red/s':>13s} {'gmpy2/python':>13s}   {'gmpy2 form-only red/s':>22s} {'ratio':>6s}"
     print(head)
     print("-" * len(head))
     for label, row in summary.items():
         g, p = row["gmpy2_with_matrix"], row["python_with_matrix"]
         go, po = row["gmpy2_form_only"], row["python_form_only"]
+        if label == UNIT_LABEL:
+            print(f"\n{label}: {1 / g:,.1f}/s with gmpy2, {1 / p:,.1f}/s with Python ints, ratio {p / g:.2f}x")
+            continue
         print(f"{label:22s} {1 / g:12,.0f} {1 / p:13,.0f} {p / g:12.2f}x   {1 / go:22,.0f} {po / go:5.2f}x")
     print("\nred/s = reductions per second (reduce_form: form and matrix; form-only: reduced());")
-    print("gmpy2/python = speed with gmpy2 divided by speed with plain Python ints (>1: gmpy2 faster)")
+    print("gmpy2/python = speed with gmpy2 divided by speed with plain Python ints (>1: gmpy2 faster);")
+    print("with gmpy2, coefficients below MPZ_THRESHOLD_BITS bits are still reduced with Python ints")
 
 
 if __name__ == "__main__":

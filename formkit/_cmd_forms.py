@@ -12,6 +12,8 @@ from .reduction import _rho_indefinite_raw, reduce_form
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
 CYCLE_LIMIT = 10_000
+#: Default bound on the cycle walk of ``formkit equivalent`` (about a second of work).
+MAX_CYCLE_STEPS = 1_000_000
 
 
 def _cycle_prefix(start: Form, limit: int) -> tuple[list[Form], bool]:
@@ -79,10 +81,12 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
 
 
 def _cmd_equivalent(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .cli import CommandError, emit
 
     F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
-    res = equivalence(F, G)
+    if args.max_steps < 1:
+        raise CommandError(f"--max-steps must be >= 1, not {args.max_steps}")
+    res = equivalence(F, G, max_steps=args.max_steps)
 
     def human() -> str:
         if not res.equivalent:
@@ -134,6 +138,13 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     q.add_argument("first", metavar="F", help="first form")
     q.add_argument("second", metavar="G", help="second form")
+    q.add_argument(
+        "--max-steps",
+        type=int,
+        default=MAX_CYCLE_STEPS,
+        metavar="N",
+        help=f"indefinite forms: give up after N steps along a cycle (default {MAX_CYCLE_STEPS:,})",
+    )
     q.set_defaults(handler=_cmd_equivalent)
 
 

@@ -27,7 +27,7 @@ from typing import Iterator, Optional, Tuple
 
 from .arith import isqrt
 from .discriminants import fundamental_unit
-from .errors import DiscriminantMismatchError
+from .errors import DiscriminantMismatchError, FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw, _to_work
 
@@ -78,11 +78,22 @@ def _check_pair(F: Form, G: Form) -> int:
     return D
 
 
-def proper_equivalence(F: FormLike, G: FormLike) -> Optional[Matrix]:
+def proper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> Optional[Matrix]:
     """A matrix ``M ∈ SL2(Z)`` with ``F·M = G``, or ``None`` if there is none.
+
+    Parameters
+    ----------
+    F, G : FormLike
+        Two forms of the same non-square discriminant.
+    max_steps : int, optional
+        For indefinite forms: give up (:class:`~formkit.errors.FormError`) after this
+        many steps along the cycle of ``F`` (cycles of D ≈ 10^k can have about
+        10^(k/2) forms, so the walk may otherwise run for a very long time).
 
     Raises
     ------
+    FormError
+        If ``max_steps`` is exceeded.
     DiscriminantError
         If the discriminant is a square.
     DiscriminantMismatchError
@@ -108,30 +119,50 @@ def proper_equivalence(F: FormLike, G: FormLike) -> Optional[Matrix]:
         return mat_mul(rf.matrix, mat_inverse(rg.matrix))
     rf = _reduce_indefinite(F, D, False)
     rg = _reduce_indefinite(G, D, False)
-    P = _find_in_cycle(rf.reduced, rg.reduced, D)
+    P = _find_in_cycle(rf.reduced, rg.reduced, D, max_steps)
     if P is None:
         return None
     return mat_mul(mat_mul(rf.matrix, P), mat_inverse(rg.matrix))
 
 
-def _find_in_cycle(start: Form, target: Form, D: int) -> Optional[Matrix]:
-    """Walk the ρ-cycle of the reduced form ``start``; matrix taking it to ``target``."""
+def _find_in_cycle(start: Form, target: Form, D: int, max_steps: Optional[int] = None) -> Optional[Matrix]:
+    """Walk the ρ-cycle of the reduced form ``start``; matrix taking it to ``target``.
+
+    The first pass only looks for ``target`` (no matrices: the product of the step
+    matrices grows like the units of the order, so carrying it along a long cycle that
+    may not contain ``target`` would cost time quadratic in the cycle length); the
+    second pass multiplies the step matrices up to the position found.
+    """
     if start == target:
         return IDENTITY
-    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
-    p, q, r, s = 1, 0, 0, 1
+    a0, b0, c0, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
     ta, tb, tc = target.a, target.b, target.c
+    a, b, c = a0, b0, c0
+    steps = 0
     while True:
+        steps += 1
+        if max_steps is not None and steps > max_steps:
+            raise FormError(
+                f"gave up after max_steps = {max_steps} steps along the cycle of {start!r} "
+                f"(discriminant {D} has long cycles); equivalence not decided"
+            )
+        a, b, c, _ = _rho_indefinite_raw(a, b, c, Dz, sq)
+        if a == ta and b == tb and c == tc:
+            break
+        if a == a0 and b == b0 and c == c0:
+            return None
+    a, b, c = a0, b0, c0
+    p, q, r, s = 1, 0, 0, 1
+    for _ in range(steps):
         a, b, c, t = _rho_indefinite_raw(a, b, c, Dz, sq)
         p, q, r, s = q, -p + t * q, s, -r + t * s
-        if a == ta and b == tb and c == tc:
-            return ((int(p), int(q)), (int(r), int(s)))
-        if a == start.a and b == start.b and c == start.c:
-            return None
+    return ((int(p), int(q)), (int(r), int(s)))
 
 
-def improper_equivalence(F: FormLike, G: FormLike) -> Optional[Matrix]:
+def improper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> Optional[Matrix]:
     """A matrix ``M`` of determinant −1 with ``F·M = G``, or ``None``.
+
+    ``max_steps`` is as for :func:`proper_equivalence`.
 
     Examples
     --------
@@ -141,14 +172,16 @@ def improper_equivalence(F: FormLike, G: FormLike) -> Optional[Matrix]:
     """
     F, G = as_form(F, name="F"), as_form(G, name="G")
     _check_pair(F, G)
-    M = proper_equivalence(F, G.opposite())
+    M = proper_equivalence(F, G.opposite(), max_steps=max_steps)
     if M is None:
         return None
     return mat_mul(M, _FLIP)
 
 
-def equivalence(F: FormLike, G: FormLike) -> EquivalenceResult:
+def equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> EquivalenceResult:
     """Decide whether ``F`` and ``G`` are equivalent, preferring a proper equivalence.
+
+    ``max_steps`` is as for :func:`proper_equivalence`.
 
     Examples
     --------
@@ -158,10 +191,10 @@ def equivalence(F: FormLike, G: FormLike) -> EquivalenceResult:
     >>> r.equivalent, r.properly
     (True, False)
     """
-    M = proper_equivalence(F, G)
+    M = proper_equivalence(F, G, max_steps=max_steps)
     if M is not None:
         return EquivalenceResult(True, True, M)
-    M = improper_equivalence(F, G)
+    M = improper_equivalence(F, G, max_steps=max_steps)
     if M is not None:
         return EquivalenceResult(True, False, M)
     return EquivalenceResult(False, False, None)

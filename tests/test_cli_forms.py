@@ -227,3 +227,14 @@ def test_real_subprocess():
     assert proc.returncode == 2 and proc.stdout == ""
     assert len(proc.stderr.splitlines()) == 1 and proc.stderr.startswith("formkit: error: ")
     assert "Traceback" not in proc.stderr
+
+
+def test_equivalent_max_steps(capsys):
+    code, out, err = run(
+        capsys, "equivalent", "1,1,-250000000000000000000003", "-1,1,250000000000000000000003", "--max-steps", "1000"
+    )
+    assert_usage_error(code, out, err)
+    assert "not decided" in err
+    assert_usage_error(*run(capsys, "equivalent", "1,0,-7", "-3,2,2", "--max-steps", "0"))
+    d = run_json(capsys, "equivalent", "1,0,-7", "-3,2,2", "--max-steps", "10")
+    assert d["equivalent"] is True

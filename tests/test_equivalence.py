@@ -285,3 +285,17 @@ def test_automorphism_bad_input(fn, bad, err):
 def test_fundamental_automorph_needs_indefinite():
     with pytest.raises(FormError, match="definite"):
         fundamental_automorph((1, 0, 1))
+
+
+def test_max_steps_bounds_the_cycle_walk():
+    # D = 10^24 + 13 has long cycles: the walk gives up with an honest error
+    F, G = (1, 1, -250000000000000000000003), (-1, 1, 250000000000000000000003)
+    with pytest.raises(FormError, match="max_steps = 1000"):
+        proper_equivalence(F, G, max_steps=1000)
+    with pytest.raises(FormError, match="not decided"):
+        equivalence(F, G, max_steps=1000)
+    # a bound that is large enough changes nothing
+    cyc = reduced_cycle((1, 0, -61))
+    g = cyc.forms[-1]
+    M = proper_equivalence((1, 0, -61), g, max_steps=len(cyc) + 1)
+    assert M is not None and act((1, 0, -61), M) == g.coefficients
