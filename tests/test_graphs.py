@@ -419,6 +419,16 @@ def test_png_picture_is_a_valid_image(C, tmp_path):
     assert img[..., :3].std() > 0.05  # not a blank canvas
 
 
+def test_straight_edges_picture(tmp_path):
+    pytest.importorskip("matplotlib")
+    import matplotlib.image
+
+    path = tmp_path / "s.png"
+    save_picture(cayley_graph(-4620), path, edges="straight")
+    assert path.read_bytes()[:8] == PNG_SIGNATURE
+    assert matplotlib.image.imread(str(path))[..., :3].std() > 0.05
+
+
 def test_svg_picture(tmp_path):
     pytest.importorskip("matplotlib")
     path = tmp_path / "g.svg"
@@ -444,6 +454,8 @@ def test_picture_without_matplotlib(monkeypatch, tmp_path):
 def test_picture_bad_format(tmp_path):
     with pytest.raises(FormkitError, match="png, svg"):
         save_picture(cayley_graph(-23), tmp_path / "x.pdf")
+    with pytest.raises(FormkitError, match="curved"):
+        save_picture(cayley_graph(-23), tmp_path / "x.png", edges="wavy")
 
 
 # ---------------------------------------------------------------------------
