@@ -50,7 +50,7 @@ __all__ = [
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
 #: (about √|D| work); above it the baby-step giant-step path of
 #: :mod:`formkit.large_discriminants` is used when present.
-ENUMERATION_LIMIT = 10**11
+ENUMERATION_LIMIT = 10**11  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
 
 Triple = Tuple[int, int, int]
 
