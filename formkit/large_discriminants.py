@@ -70,6 +70,8 @@ __all__ = [
     "order_of_class",
     "BSGSStatistics",
     "last_statistics",
+    "real_class_number",
+    "RealClassNumber",
 ]
 
 Triple = Tuple[int, int, int]
