@@ -286,13 +286,14 @@ def fundamental_unit(D: object) -> QuadraticUnit:
 
 @lru_cache(maxsize=256)
 def _fundamental_unit(D: int) -> tuple[int, int]:
-    from .reduction import _rho_indefinite_raw, _principal_reduced_indefinite
+    from .reduction import _principal_reduced_indefinite, _rho_indefinite_raw, _to_work
 
     a0, b0, c0 = _principal_reduced_indefinite(D)
+    # the forms stay small (|a|, |c| < √D): plain ints unless D itself is large
+    a0, b0, c0, D, sq = _to_work(a0, b0, c0, D, isqrt(D))
     a, b, c = a0, b0, c0
     # accumulated matrix P (det 1): form0 · P = current form
     p, q, r, s = 1, 0, 0, 1
-    sq = isqrt(D)
     while True:
         a, b, c, tt = _rho_indefinite_raw(a, b, c, D, sq)
         # step matrix [[0, -1], [1, tt]]
