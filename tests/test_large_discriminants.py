@@ -256,3 +256,20 @@ def test_real_against_enumeration_large():
         r = real_class_number(D)
         E = class_group(D, method="enumerate")
         assert (r.class_number, r.class_number_wide) == (E.order, E.class_number_wide), D
+
+
+@pytest.mark.parametrize("D", [-12, -16, -27, -48, -64, -75, -4 * 49, -3 * 121, -3 * 4 * 25])
+def test_orders_of_the_units_fields(D):
+    # d_K = −3, −4 have extra units: [O_K*:O*] = 3 or 2 in the class number formula for orders
+    _check_against_enumeration(D, random.Random(-D))
+
+
+def test_non_fundamental_with_field_beyond_enumeration_limit(monkeypatch):
+    import formkit.large_discriminants as ld
+
+    monkeypatch.setattr(ld, "FIELD_ENUMERATION_LIMIT", 10**4)
+    d = -(10**6) - 3  # 10^6 + 3 is prime, ≡ 3 mod 4: fundamental
+    assert is_fundamental_discriminant(d)
+    G = class_group_bsgs(25 * d)
+    assert G.provenance.assumption == "GRH" and not G.provenance.certified
+    assert G.invariants == class_group(25 * d, method="enumerate").invariants
