@@ -91,6 +91,8 @@ def _child() -> dict:
             best["with_matrix"] = min(best["with_matrix"], (t1 - t0) / count)
             best["form_only"] = min(best["form_only"], (t2 - t1) / count)
         results[label] = best
+        if arith.BACKEND == "gmpy2":
+            results["raw " + label] = _raw_core(D, forms)
     from formkit.discriminants import _fundamental_unit
 
     compute = _fundamental_unit.__wrapped__  # bypass the cache
@@ -101,6 +103,30 @@ def _child() -> dict:
     t1 = _clock()
     results[UNIT_LABEL] = {"with_matrix": (t1 - t0) / 5, "form_only": (t1 - t0) / 5}
     return results
+
+
+def _raw_core(D: int, forms) -> dict:
+    """Seconds per reduction of the bare reduction loop (no matrix, no validation) on
+    Python ints and on gmpy2 mpz: what the integer type alone costs."""
+    from formkit.arith import isqrt, mpz
+    from formkit.reduction import _reduce_definite_raw, _reduce_indefinite_raw
+
+    out = {}
+    for kind, conv in (("int", int), ("mpz", mpz)):
+        data = [(conv(f.a), conv(f.b), conv(f.c)) for f in forms]
+        Dc, sq = conv(D), conv(int(isqrt(abs(D))))
+        best = float("inf")
+        for _ in range(2):
+            t0 = _clock()
+            if D < 0:
+                for a, b, c in data:
+                    _reduce_definite_raw(a, b, c)
+            else:
+                for a, b, c in data:
+                    _reduce_indefinite_raw(a, b, c, Dc, sq)
+            best = min(best, (_clock() - t0) / len(data))
+        out[kind] = best
+    return out
 
 
 def _run_child(backend: str) -> dict:
@@ -157,6 +183,12 @@ def main() -> None:
             print(f"\n{label}: {1 / g:,.1f}/s with gmpy2, {1 / p:,.1f}/s with Python ints, ratio {p / g:.2f}x")
             continue
         print(f"{label:22s} {1 / g:12,.0f} {1 / p:13,.0f} {p / g:12.2f}x   {1 / go:22,.0f} {po / go:5.2f}x")
+    print("\nbare reduction loop (no matrix, no validation), gmpy2 run: Python ints vs mpz")
+    print(f"{'case':22s} {'int red/s':>12s} {'mpz red/s':>12s} {'mpz/int':>8s}")
+    for label, _, _ in CASES:
+        i = statistics.median(r["raw " + label]["int"] for r in runs["gmpy2"])
+        m = statistics.median(r["raw " + label]["mpz"] for r in runs["gmpy2"])
+        print(f"{label:22s} {1 / i:12,.0f} {1 / m:12,.0f} {i / m:7.2f}x")
     print("\nred/s = reductions per second (reduce_form: form and matrix; form-only: reduced());")
     print("gmpy2/python = speed with gmpy2 divided by speed with plain Python ints (>1: gmpy2 faster);")
     print("with gmpy2, coefficients below MPZ_THRESHOLD_BITS bits are still reduced with Python ints")
