@@ -6,6 +6,7 @@ import argparse
 import csv
 import io
 import sys
+import textwrap
 from typing import List, Sequence
 
 from ._parse import parse_integer
@@ -240,7 +241,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         "table",
         parents=[parent],
         help="class-number tables over ranges of D (all cores, resumable SQLite file, Dask cluster)",
-        description=(
+        description=textwrap.fill(
             "Tabulate every discriminant D with A <= D <= B (non-discriminants and squares are "
             "skipped): D, fundamental part d_K, conductor f, class number h (narrow when D > 0), "
             "invariants of the class group, number of genera, and for D > 0 the wide class number "
@@ -249,7 +250,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "interrupted run (Ctrl-C, kill -9) keeps every finished chunk and the same command "
             "resumes it; the run prints a summary, and the file is read back with filters "
             "(--class-number, --invariants, ...). Without --db the rows are printed. "
-            "Python: formkit.table_rows, formkit.build_table, formkit.query_table."
+            "Python: formkit.table_rows, formkit.build_table, formkit.query_table.",
+            width=88,
         ),
         epilog=(
             "examples:\n"
@@ -276,7 +278,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument("--workers", type=_positive_int, metavar="N",
                    help="worker processes (default: all cores)")
     p.add_argument("--cluster", metavar="ADDRESS",
-                   help="run the chunks on this Dask distributed scheduler (needs formkit[cluster])")
+                   help="run the chunks on this Dask distributed scheduler instead of local processes "
+                        "(needs formkit[cluster]; formkit must be importable on the workers)")
     p.add_argument("--chunk-size", type=_positive_int, metavar="N",
                    help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, "
                         "1000 for D > 0)")
