@@ -30,6 +30,7 @@ COMMAND_MODULES = (
     "formkit._cmd_primes",
     "formkit._cmd_table",
     "formkit._cmd_graph",
+    "formkit._cmd_represent",
 )
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")

@@ -76,6 +76,8 @@ def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
     """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
     n = abs(n)
     if factors is None:
+        if n > 1 and is_probable_prime(n):
+            return {n: 1}  # skip sympy's trial division on large primes
         return factorint(n) if n > 1 else {}
     fac: Dict[int, int] = {}
     prod = 1

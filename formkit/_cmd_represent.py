@@ -1,0 +1,138 @@
+"""Commands ``represent`` and ``genera``: solutions of Q(x, y) = N, and genus theory."""
+
+from __future__ import annotations
+
+import argparse
+
+from ._parse import parse_integer
+from .forms import as_form
+
+
+def _nonnegative_int(text: str) -> int:
+    from .cli import CommandError
+
+    try:
+        value = parse_integer(text, "--limit")
+    except Exception as exc:  # ParseError: re-raised with the option's name
+        raise CommandError(f"--limit must be a non-negative integer, not {text!r}") from exc
+    if value < 0:
+        raise CommandError(f"--limit must be a non-negative integer, not {value}")
+    return value
+
+
+def _cmd_represent(args: argparse.Namespace) -> int:
+    from .cli import emit
+    from .equivalence import fundamental_automorph
+    from .representations import represent
+
+    Q = as_form(args.form)
+    n = parse_integer(args.n, "N")
+    limit = _nonnegative_int(args.limit) if args.limit is not None else None
+    res = represent(Q, n, primitive=args.primitive, limit=limit)
+    payload = res.to_dict()
+
+    def human() -> str:
+        D = Q.discriminant
+        lines = [f"form: {Q}   {Q.to_list()}   (D = {D}, {Q.kind})", f"N = {n}"]
+        which = "primitive solutions" if args.primitive else "solutions"
+        if res.definite:
+            lines.append(
+                f"{res.count} solution{'s' if res.count != 1 else ''} in all, "
+                f"{res.primitive_count} primitive (gcd(x, y) = 1)"
+            )
+            if res.solutions:
+                lines.append(f"{which}{' (first ' + str(len(res.solutions)) + ')' if res.truncated else ''}:")
+                lines.extend(f"  ({x}, {y})" for x, y in res.solutions)
+            return "\n".join(lines)
+        if n == 0:
+            lines.append("only the solution (0, 0) (the discriminant is not a square)")
+            return "\n".join(lines)
+        if not res.orbit_count:
+            lines.append("no solutions")
+            return "\n".join(lines)
+        A = fundamental_automorph(Q)
+        lines.append(
+            f"infinitely many solutions in {res.orbit_count} orbit{'s' if res.orbit_count != 1 else ''} "
+            f"({res.primitive_orbit_count} of primitive solutions) under ±A^k, "
+            f"A = [[{A[0][0]}, {A[0][1]}], [{A[1][0]}, {A[1][1]}]]"
+        )
+        lines.append(
+            f"one {which[:-1]} per orbit (least x^2 + y^2){' (first ' + str(len(res.orbits)) + ')' if res.truncated else ''}:"
+        )
+        lines.extend(f"  ({x}, {y})" for x, y in res.orbits)
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def _cmd_genera(args: argparse.Namespace) -> int:
+    from .cli import emit
+    from .genus import genera
+
+    D = parse_integer(args.discriminant, "discriminant")
+    P = genera(D)
+    payload = P.to_dict()
+
+    def human() -> str:
+        lines = [
+            f"discriminant {D}: {P.class_number} {'narrow ' if D > 0 else ''}classes in {P.count} genera "
+            f"(2^(mu-1) with mu = {len(P.characters)} assigned characters)",
+            "characters: " + (", ".join(f"{c.name} = {c.formula}" for c in P.characters) or "none"),
+        ]
+        for g in P:
+            sym = " ".join("+" if s > 0 else "-" for s in g.symbol) or "(empty)"
+            label = "principal genus" if g.is_principal else "genus"
+            lines.append(f"{label} [{sym}]: " + ", ".join(str(f.to_list()) for f in g.forms))
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``represent`` and ``genera`` commands."""
+    raw = argparse.RawDescriptionHelpFormatter
+    p = sub.add_parser(
+        "represent",
+        parents=[parent],
+        help="all solutions of Q(x, y) = N (definite Q) or one per orbit (indefinite Q)",
+        description=(
+            "Solve Q(x, y) = N by the square-root method (roots of b^2 = D mod 4N, reduction of "
+            "(N, b, (b^2 - D)/4N), the equivalence matrix giving (x, y)). For definite forms: the number "
+            "of all and of primitive solutions and the list; for indefinite forms the solutions form "
+            "infinitely many orbits under the automorphs: one solution per orbit (the smallest) is "
+            "listed and count is null. N may be a large integer; it must be factorable. "
+            "Python: formkit.represent(form, N, primitive=..., limit=...)."
+        ),
+        epilog=(
+            "examples:\n  formkit represent 'x^2+y^2' 325\n  formkit represent 2,1,3 18 --json\n"
+            "  formkit represent 'x^2-2y^2' 119 --primitive\n"
+            "  formkit represent 1,0,1 10^40 --limit 5"
+        ),
+        formatter_class=raw,
+    )
+    p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '2x^2+xy+3y^2'")
+    p.add_argument("n", metavar="N", help="the integer to represent: digits of any length, or a power of ten such as 3*10^20")
+    p.add_argument("--primitive", action="store_true", help="list only primitive solutions (gcd(x, y) = 1)")
+    p.add_argument("--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)")
+    p.set_defaults(handler=_cmd_represent)
+
+    g = sub.add_parser(
+        "genera",
+        parents=[parent],
+        help="the assigned characters of D and its classes sorted into genera",
+        description=(
+            "Genus theory of discriminant D: the assigned characters (odd primes dividing D, and delta, "
+            "epsilon or delta*epsilon at 2 as D mod 32 calls for), the genus symbol of every class and the "
+            "partition into 2^(mu-1) genera, principal genus first. For D > 0 the classes are narrow "
+            "classes. Python: formkit.genera(D)."
+        ),
+        epilog="examples:\n  formkit genera -84\n  formkit genera -4620 --json\n  formkit genera 316",
+        formatter_class=raw,
+    )
+    g.add_argument("discriminant", metavar="D", help="the discriminant (e.g. -84, 316)")
+    g.set_defaults(handler=_cmd_genera)
+
+
+__all__ = ["register"]
