@@ -31,6 +31,7 @@ from formkit import (
 from formkit.arith import kronecker
 from formkit.genus import genus_count
 from formkit.table_store import parse_invariants
+from formkit.tables import ChunkSpec, compute_chunk, split_range
 from formkit.table_sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -246,6 +247,12 @@ def test_bad_input(tmp_path):
         parse_invariants("2,x")
     with pytest.raises(FormkitError, match="positive integers"):
         parse_invariants([0, 2])
+    with pytest.raises(FormkitError, match="no table store"):
+        table_info(str(tmp_path / "missing.db"))
+    with pytest.raises(FormkitError, match="chunk size"):
+        list(split_range(-10, -3, 0))
+    with pytest.raises(FormkitError, match="must not contain 0"):
+        compute_chunk(ChunkSpec(-5, 5))
     assert class_numbers(5, 10) == {} and class_numbers(-2, -1) == {}
     assert table_rows(-2, 4) == []  # no discriminant in range (0, 1, 4 are squares)
     assert issubclass(DiscriminantError, FormkitError)
@@ -329,6 +336,8 @@ def _table_cmd(db, *extra):
 
 
 def _chunk_count(db):
+    if not os.path.exists(db):  # do not create the file before the build does
+        return 0
     try:
         with sqlite3.connect(db, timeout=5) as c:
             return c.execute("SELECT count(*) FROM chunks").fetchone()[0]
