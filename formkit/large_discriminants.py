@@ -769,7 +769,9 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics) -> Tuple[float, int
         return na, nb, nc, math.log(abs((b + sD) / (2 * a))), (1 if (a > 0) == (c > 0) else -1)
 
     est = class_number_estimate(D)
-    target = max(20.0, math.sqrt(est.upper) * 2.0)  # baby range T ≈ 2·√(h·R)
+    # baby range T ≈ 2·√(h·R); at least 4·log D + 20 so that a giant step (T/2 plus the
+    # distance moved by reducing a composite, at most about ½·log D) never skips the range
+    target = max(4 * math.log(D) + 20.0, math.sqrt(est.upper) * 2.0)
     baby: Dict[Tuple[int, int], Tuple[float, int]] = {(1, b0): (0.0, 1)}
     a, b, c = a0, b0, c0
     dist, sign = 0.0, 1
