@@ -628,6 +628,14 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
         number is fixed by ``h(d_K)``: unconditional when ``|d_K|`` ≤
         :data:`FIELD_ENUMERATION_LIMIT` (``d_K`` enumerated), else conditional on GRH.
 
+    Notes
+    -----
+    ``G.discrete_log(x)`` (and so ``x.order``) projects ``x`` to each Sylow subgroup
+    and solves there (Pohlig–Hellman); for a prime ``ℓ`` dividing ``h`` once, that is a
+    baby-step giant-step of about ``√ℓ`` operations, so when ``h`` has a prime factor
+    near ``h`` itself a discrete logarithm costs about ``|D|^(1/4)`` operations and
+    memory (refused beyond ``2^24`` stored steps).  Building the group does not need it.
+
     Raises
     ------
     DiscriminantError
