@@ -110,7 +110,7 @@ def test_json_flag_to_stdout_is_one_object(capsys):
 def test_picture_output(ext, tmp_path, capsys):
     pytest.importorskip("matplotlib")
     path = tmp_path / f"g.{ext}"
-    code, out, err = run(["graph", "-4620", "--output", str(path)], capsys)
+    code, out, err = run(["graph", "-455", "--output", str(path)], capsys)
     assert code == 0, err
     data = path.read_bytes()
     if ext == "png":
