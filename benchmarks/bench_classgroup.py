@@ -30,7 +30,9 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
+from formkit import arith as arith_module  # noqa: E402
 from formkit import classgroup as cg_module  # noqa: E402
+from formkit import discriminants as disc_module  # noqa: E402
 from formkit import enumeration as enum_module  # noqa: E402
 from formkit.arith import isqrt, kronecker, mpz, next_prime, sqrt_mod_prime  # noqa: E402
 from formkit.classgroup import class_group  # noqa: E402
@@ -47,8 +49,13 @@ from formkit.reduction import _reduce_definite_raw  # noqa: E402
 
 
 def clear_caches() -> None:
-    enum_module._reduced_forms_cached.cache_clear()
-    enum_module._cycles_cached.cache_clear()
+    """Empty every memo the computation could reuse (lists of forms, groups, and the
+    factorisations / square roots memoised in formkit.arith), so each timing is cold."""
+    for module in (arith_module, enum_module, cg_module, disc_module):
+        for name in dir(module):
+            clear = getattr(getattr(module, name), "cache_clear", None)
+            if callable(clear):
+                clear()
     cg_module._GROUP_CACHE.clear()
 
 
@@ -78,6 +85,9 @@ def bench_enumeration(rng: random.Random, repeat: int, quick: bool) -> None:
         reps = max(3, repeat if exponent < 10 else repeat // 2 + 1)
         t_enum, t_struct, hs = [], [], []
         example = None
+        # warm-up on another D of this size (sympy extends its prime sieve lazily, once)
+        clear_caches()
+        class_number(random_discriminant(rng, exponent, sign))
         for _ in range(reps):
             D = random_discriminant(rng, exponent, sign)
             clear_caches()
