@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import argparse
 
-from .arith import isqrt, mpz
+from .arith import isqrt
 from .equivalence import equivalence
 from .forms import Form, as_form
-from .reduction import _rho_indefinite_raw, reduce_form
+from .reduction import _rho_indefinite_raw, _to_work, reduce_form
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -20,9 +20,8 @@ def _cycle_prefix(start: Form, limit: int) -> tuple[list[Form], bool]:
     """The ρ-cycle of the reduced indefinite ``start``: (forms, complete?), at most ``limit``
     forms (``limit = 0``: no bound)."""
     D = start.discriminant
-    sq, Dz = isqrt(D), mpz(D)
     forms = [start]
-    a, b, c = mpz(start.a), mpz(start.b), mpz(start.c)
+    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
     while True:
         a, b, c, _ = _rho_indefinite_raw(a, b, c, Dz, sq)
         g = Form(int(a), int(b), int(c))
