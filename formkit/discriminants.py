@@ -212,6 +212,17 @@ class QuadraticUnit:
     t: int
     u: int
 
+    def __post_init__(self) -> None:
+        D = validate_discriminant(self.discriminant)
+        t, u = as_int(self.t, "t"), as_int(self.u, "u")
+        if D < 0:
+            raise DiscriminantError(f"QuadraticUnit needs a positive discriminant, not {D}")
+        if t * t - D * u * u not in (4, -4):
+            raise FormkitError(f"(t + u√D)/2 with t = {t}, u = {u}, D = {D} is not a unit: t² − D·u² ≠ ±4")
+        object.__setattr__(self, "discriminant", D)
+        object.__setattr__(self, "t", t)
+        object.__setattr__(self, "u", u)
+
     @property
     def norm(self) -> int:
         """The norm ``(t² − D u²)/4``, which is ``+1`` or ``−1``."""

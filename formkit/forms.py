@@ -68,22 +68,46 @@ def as_matrix(value: object, *, name: str = "matrix") -> Matrix:
     return m
 
 
+def _entries(m: object, name: str = "matrix") -> tuple[int, int, int, int]:
+    """``(p, q, r, s)`` of ``[[p, q], [r, s]]``; MatrixError / NotAnIntegerError otherwise."""
+    try:
+        (p, q), (r, s) = m  # type: ignore[misc]
+    except (TypeError, ValueError) as exc:
+        raise MatrixError(f"{name} must be [[p, q], [r, s]], not {m!r}") from exc
+    if type(p) is int and type(q) is int and type(r) is int and type(s) is int:
+        return p, q, r, s
+    return tuple(as_int(v, name + " entry") for v in (p, q, r, s))  # type: ignore[return-value]
+
+
 def mat_mul(m: Matrix, n: Matrix) -> Matrix:
-    """Product ``m·n`` of two 2×2 matrices.
+    """Product ``m·n`` of two 2×2 integer matrices.
+
+    Raises
+    ------
+    MatrixError
+        If an argument is not of the shape ``[[p, q], [r, s]]``.
+    NotAnIntegerError
+        If an entry is not an integer.
 
     Examples
     --------
     >>> mat_mul(((1, 1), (0, 1)), ((1, 0), (1, 1)))
     ((2, 1), (1, 1))
     """
-    (p, q), (r, s) = m
-    (e, f), (g, h) = n
+    p, q, r, s = _entries(m)
+    e, f, g, h = _entries(n)
     return ((p * e + q * g, p * f + q * h), (r * e + s * g, r * f + s * h))
 
 
 def mat_det(m: Matrix) -> int:
-    """Determinant of a 2×2 matrix."""
-    (p, q), (r, s) = m
+    """Determinant of a 2×2 integer matrix.
+
+    Examples
+    --------
+    >>> mat_det(((2, 1), (1, 1)))
+    1
+    """
+    p, q, r, s = _entries(m)
     return p * s - q * r
 
 
@@ -95,7 +119,7 @@ def mat_inverse(m: Matrix) -> Matrix:
     >>> mat_inverse(((2, 1), (1, 1)))
     ((1, -1), (-1, 2))
     """
-    (p, q), (r, s) = m
+    p, q, r, s = _entries(m)
     d = p * s - q * r
     if d not in (1, -1):
         raise MatrixError(f"matrix {m} has determinant {d}, so no integral inverse")

@@ -346,3 +346,18 @@ def test_unit_value_type():
     assert "\\sqrt{13}" in e._repr_latex_()
     with pytest.raises(AttributeError):
         e.t = 5  # frozen
+
+
+@pytest.mark.parametrize(
+    "args, err",
+    [
+        ((5, 2, 1), FormkitError),  # 4 − 5 = −1: t² − D u² must be ±4
+        ((-3, 1, 1), DiscriminantError),
+        ((7, 1, 1), DiscriminantError),
+        ((5, 1.0, 1), NotAnIntegerError),
+        ((5, 1, "1"), NotAnIntegerError),
+    ],
+)
+def test_unit_value_type_bad_input(args, err):
+    with pytest.raises(err):
+        QuadraticUnit(*args)

@@ -341,3 +341,18 @@ def test_from_sympy_bad_variables():
         Form.from_sympy(X**2, X)
     with pytest.raises(FormError, match="Symbols"):
         Form.from_sympy(X**2, "x", "y")
+
+
+@pytest.mark.parametrize("fn", [mat_det, mat_inverse, lambda m: mat_mul(m, IDENTITY), lambda m: mat_mul(IDENTITY, m)])
+@pytest.mark.parametrize(
+    "bad, err",
+    [(None, MatrixError), ([1, 2, 3, 4], MatrixError), ([[1, 2], [3]], MatrixError), ([[1.0, 0], [0, 1]], NotAnIntegerError)],
+)
+def test_matrix_helpers_bad_input(fn, bad, err):
+    with pytest.raises(err):
+        fn(bad)
+
+
+def test_scaled_bad_input():
+    with pytest.raises(NotAnIntegerError):
+        Form(1, 2, 3).scaled(1.5)
