@@ -47,10 +47,18 @@ from typing import List, Tuple
 
 from .errors import FormkitError
 
-try:  # numpy is a dependency; the pure-Python engine keeps working without it
-    import numpy as _np
-except ImportError:  # pragma: no cover - exercised only where numpy is absent
-    _np = None
+_NUMPY: list = []
+
+
+def _numpy():
+    """numpy, imported on first use (keeps ``import formkit`` fast), or None if absent."""
+    if not _NUMPY:
+        try:  # numpy is a dependency; the pure-Python engine keeps working without it
+            import numpy
+        except ImportError:  # pragma: no cover - exercised only where numpy is absent
+            numpy = None
+        _NUMPY.append(numpy)
+    return _NUMPY[0]
 
 __all__: list = []  # private helpers of formkit.tables
 
@@ -116,13 +124,13 @@ def _genus_count_from_parts(D: int, r: int) -> int:
 # ---------------------------------------------------------------------------
 
 def _need_numpy() -> None:
-    if _np is None:  # pragma: no cover
+    if _numpy() is None:  # pragma: no cover
         raise FormkitError("engine 'numpy' needs numpy (pip install numpy), or use engine='python'")
 
 
 def _count_all_reduced_np(L: int, H: int):
     """r(n) for n in [L, H]: the number of reduced forms (any content) of disc −n."""
-    np = _np
+    np = _numpy()
     r = np.zeros(H - L + 1, dtype=np.int32)
     for t in (0, 3):  # n ≡ 0 or 3 (mod 4); r vanishes on the other classes
         kL, kH = -(-(L - t) // 4), (H - t) // 4
@@ -135,7 +143,7 @@ def _count_all_reduced_np(L: int, H: int):
 def _form_starts(a: int, t: int):
     """For first coefficient a and n ≡ t (mod 4): b's residue class of k mod a and the
     first k = (n − t)/4 at which (a, b, c) is reduced (c = a, or c = a + 1 when b < 0)."""
-    np = _np
+    np = _numpy()
     lo_b = -a + 1 if (-a + 1 - t) % 2 == 0 else -a + 2  # b ≡ t (mod 2), b in (−a, a]
     bs = np.arange(lo_b, a + 1, 2, dtype=np.int64)
     q = (bs * bs + t) // 4  # n = 4ac − b² = 4k + t  <=>  k = a·c − q
@@ -145,7 +153,7 @@ def _form_starts(a: int, t: int):
 @lru_cache(maxsize=4096)
 def _periodic_plan(a: int, t: int):
     """(first k of the band, first k of the periodic part, widened pattern, its period)."""
-    np = _np
+    np = _numpy()
     res, start = _form_starts(a, t)
     pat = np.bincount(res, minlength=a).astype(np.int32)
     reps = max(1, -(-256 // a))
@@ -155,7 +163,7 @@ def _periodic_plan(a: int, t: int):
 
 def _count_class_np(kL: int, kH: int, t: int):
     """r(4k + t) for k in [kL, kH]: for fixed a the count is periodic in k with period a."""
-    np = _np
+    np = _numpy()
     W = kH - kL + 1
     r = np.zeros(W, dtype=np.int32)
     H = 4 * kH + t
@@ -200,7 +208,7 @@ def _small_r(upto: int):
     """r(0..cap) with cap ≥ upto, cached per process (grows by doubling)."""
     if _SMALL_R["cap"] < upto:
         cap = max(1 << 12, 2 * _SMALL_R["cap"], upto)
-        r = _np.zeros(cap + 1, dtype=_np.int32)
+        r = _numpy().zeros(cap + 1, dtype=_numpy().int32)
         r[3:] = _count_all_reduced_np(3, cap)
         _SMALL_R["cap"], _SMALL_R["r"] = cap, r
     return _SMALL_R["r"]
@@ -208,7 +216,7 @@ def _small_r(upto: int):
 
 def _class_numbers_np(L: int, H: int):
     """h(−n) for n in [L, H] (0 where −n is not a discriminant), via Möbius inversion."""
-    np = _np
+    np = _numpy()
     W = H - L + 1
     h = np.zeros(W, dtype=np.int64)
     gmax = math.isqrt(H // 3)
@@ -236,7 +244,7 @@ def _class_numbers_np(L: int, H: int):
 
 def _chunk_arith_np(L: int, H: int):
     """Fundamental part, conductor and genus count of D = −n for n in [L, H] (sieves)."""
-    np = _np
+    np = _numpy()
     W = H - L + 1
     n = np.arange(L, H + 1, dtype=np.int64)
     # largest g with g² | n

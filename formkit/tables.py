@@ -47,7 +47,7 @@ from .table_sweep import (
     _class_numbers_np,
     _class_numbers_py,
     _need_numpy,
-    _np,
+    _numpy,
 )
 
 __all__ = [
@@ -115,7 +115,7 @@ class TableRow:
 
 def _check_engine(engine: str) -> str:
     if engine == "auto":
-        return "numpy" if _np is not None else "python"
+        return "numpy" if _numpy() is not None else "python"
     if engine not in ENGINES:
         raise FormkitError(f"engine must be 'auto', 'numpy' or 'python', not {engine!r}")
     if engine == "numpy":
