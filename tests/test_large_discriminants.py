@@ -273,3 +273,30 @@ def test_non_fundamental_with_field_beyond_enumeration_limit(monkeypatch):
     G = class_group_bsgs(25 * d)
     assert G.provenance.assumption == "GRH" and not G.provenance.certified
     assert G.invariants == class_group(25 * d, method="enumerate").invariants
+
+
+# Euler's 65 idoneal numbers (from memory; Cox, Primes of the form x² + ny², §3.C): n is
+# idoneal iff every genus of forms of discriminant −4n is a single class, i.e. iff Cl(−4n)
+# has exponent ≤ 2.  Complete below 10^4 at least (any further one would be far larger).
+IDONEAL = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 13, 15, 16, 18, 21, 22, 24, 25, 28, 30, 33, 37,
+           40, 42, 45, 48, 57, 58, 60, 70, 72, 78, 85, 88, 93, 102, 105, 112, 120, 130, 133, 165,
+           168, 177, 190, 210, 232, 240, 253, 273, 280, 312, 330, 345, 357, 385, 408, 462, 520,
+           760, 840, 1320, 1365, 1848]
+
+
+def test_idoneal_numbers():
+    assert len(IDONEAL) == 65
+    for n in IDONEAL:
+        G = class_group_bsgs(-4 * n)
+        assert G.exponent <= 2, n
+        assert G.order == genus_count(-4 * n)
+    assert class_group_bsgs(-4 * 1848).invariants == (2, 2, 2, 2)
+    rng = random.Random(1848)
+    for n in rng.sample([m for m in range(1, 2000) if m not in IDONEAL], 15):
+        assert class_group_bsgs(-4 * n).exponent > 2, n
+
+
+@pytest.mark.slow
+def test_idoneal_numbers_complete_below_3000():
+    found = [n for n in range(1, 3000) if class_group_bsgs(-4 * n).exponent <= 2]
+    assert found == IDONEAL
