@@ -20,7 +20,8 @@ alone — which happens for every ``Q`` exactly when ``Cl(D)`` has exponent ≤ 
 one class per genus, since the principal genus is ``Cl(D)²`` — a prime ``p ∤ D`` is
 represented by ``Q`` iff ``p mod |D|`` lies in that coset.  When the genus has several
 classes the congruence class of ``p`` only tells the genus, and no congruence
-criterion is offered.
+criterion is offered.  The modulus ``|D|`` always suffices: for ``x² + ny²`` it is
+already ``4n``, and the characters at 2 have period dividing ``|D|`` (below).
 
 The coset is computed locally, without trusting a table of characters: by the Chinese
 remainder theorem the unit values of ``Q`` modulo ``|D| = ∏ q^e`` are the products of
