@@ -6,7 +6,8 @@ checked against a fixed grammar.
 Grammar (ASCII white space is ignored between tokens)::
 
     form     := triple | poly
-    triple   := ["[" int "," int "," int "]"] | ["(" int "," int "," int ")"] | int "," int "," int
+    triple   := "[" ints "]" | "(" ints ")" | ints
+    ints     := [sign] int "," [sign] int "," [sign] int
     poly     := term (sign term)*      with an optional leading sign
     term     := [int ["*"]] mono | mono ["*" int]
     mono     := var [power] [["*"] var [power]]
