@@ -101,7 +101,8 @@ def _check_form(form: FormLike) -> Form:
     if not Q.is_primitive:
         raise NotPrimitiveError(
             f"prime criteria are for primitive forms; {Q!r} has content {Q.content} "
-            f"(it represents a prime p only if p = {Q.content} and {Q.primitive_part()!r} represents 1)"
+            f"(its values are multiples of {Q.content}, so it represents no prime unless {Q.content} is "
+            f"prime and {Q.primitive_part()!r} represents 1)"
         )
     if Q.discriminant < 0 and Q.a < 0:
         raise FormError(
