@@ -125,7 +125,7 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
     s = text.strip(_SPACE)
     if not s:
         raise ParseError("cannot read an empty text as a form")
-    m = _TRIPLE_RE.match(s)
+    m = _TRIPLE_RE.match(s.replace("\u2212", "-"))
     if m:
         opening, closing = s[0], s[-1]
         pairs = {"[": "]", "(": ")"}
