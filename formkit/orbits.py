@@ -1,0 +1,230 @@
+"""Solutions of Q(x, y) = n for indefinite forms: orbits under the proper automorphs.
+
+For an indefinite form ``Q`` of non-square discriminant ``D > 0`` the proper
+automorphism group is ``{±A^k : k ∈ Z}`` with ``A`` the fundamental automorph
+(:func:`formkit.equivalence.fundamental_automorph`), and the solutions of
+``Q(x, y) = n ≠ 0`` fall into finitely many orbits ``{±A^k v}``.  By the square-root
+correspondence of :mod:`formkit.representations`, the orbits of proper solutions of
+``Q = m`` correspond one-to-one to the roots ``b mod 2|m|`` of ``b² ≡ D (mod 4|m|)``
+whose form ``(m, b, (b² − D)/4m)`` is primitive and properly equivalent to ``Q``:
+``b`` is an invariant of the orbit, and the solutions attached to one ``b`` are the
+first columns of ``N·M`` for ``N`` in the automorphism group (none of which fixes a
+non-zero vector, since ``t = 2`` forces ``u = 0`` in ``t² − Du² = 4``).  Equivalence is
+decided by looking the reduced form of ``(m, b, ·)`` up in the cycle of reduced forms
+of ``Q`` (Gauss; Buchmann–Vollmer, *Binary Quadratic Forms*, §6.8–6.10 — numbers as
+recalled).  All solutions are ``g·v`` with ``v`` a proper solution of ``Q = n/g²``.
+
+Each orbit is represented by its element of least ``x² + y²``: along an orbit
+``k ↦ |A^k v|²`` is a sum of two exponentials in ``k`` plus a constant (``A`` has
+positive eigenvalues ``ε², ε⁻²``), hence convex, so descending from any element reaches
+the minimum; ties (at most two ``k`` and two signs) are broken by preferring ``x > 0``,
+then ``y ≥ 0``, then smaller ``|y|``.
+
+References
+----------
+.. [1] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, Ch. 6.
+.. [2] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2.
+.. [3] C. F. Gauss, *Disquisitiones Arithmeticae*, art. 168–170 (numbers as recalled).
+"""
+
+from __future__ import annotations
+
+from typing import Dict, Iterator, List, Optional, Tuple
+
+from .arith import as_int, gcd, isqrt, mpz
+from .equivalence import fundamental_automorph
+from .errors import FormError
+from .forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .reduction import _reduce_indefinite, _rho_indefinite_raw
+from .representations import (
+    _content_and_sign,
+    _factor_abs,
+    _primitive_target,
+    _proper_roots,
+    _scaled_factors,
+    _square_divisors,
+)
+
+__all__ = [
+    "representation_orbits",
+    "orbit_representative",
+    "walk_orbit",
+]
+
+Vector = Tuple[int, int]
+
+
+class _CycleIndex:
+    """The cycle of reduced forms of an indefinite form with matrices from the form."""
+
+    def __init__(self, P: Form) -> None:
+        D = P.discriminant
+        self.D = D
+        self.sq = isqrt(D)
+        start = _reduce_indefinite(P, D, False)
+        self.to_start = start.matrix  # P · to_start = start
+        self.index: Dict[Tuple[int, int, int], Matrix] = {}
+        a, b, c = mpz(start.reduced.a), mpz(start.reduced.b), mpz(start.reduced.c)
+        M: Matrix = ((1, 0), (0, 1))
+        first = (int(a), int(b), int(c))
+        while True:
+            a, b, c, t = _rho_indefinite_raw(a, b, c, mpz(D), self.sq)
+            M = mat_mul(M, ((0, -1), (1, int(t))))
+            key = (int(a), int(b), int(c))
+            if key == first:
+                break
+            self.index[key] = mat_mul(self.to_start, M)
+        self.index[first] = self.to_start
+
+    def matrix_to(self, F: Form) -> Optional[Matrix]:
+        """``M ∈ SL2(Z)`` with ``P·M = F`` or ``None``."""
+        rf = _reduce_indefinite(F, self.D, False)
+        N = self.index.get(rf.reduced.coefficients)
+        if N is None:
+            return None
+        return mat_mul(N, mat_inverse(rf.matrix))
+
+
+def _size(v: Vector) -> int:
+    return v[0] * v[0] + v[1] * v[1]
+
+
+def _apply(A: Matrix, v: Vector) -> Vector:
+    return (A[0][0] * v[0] + A[0][1] * v[1], A[1][0] * v[0] + A[1][1] * v[1])
+
+
+def _canonical(A: Matrix, Ainv: Matrix, v: Vector) -> Vector:
+    """The smallest element of the orbit ``{±A^k v}`` (ties broken as documented)."""
+    if v == (0, 0):
+        return v
+    while _size(_apply(A, v)) < _size(v):
+        v = _apply(A, v)
+    while _size(_apply(Ainv, v)) < _size(v):
+        v = _apply(Ainv, v)
+    cands = [v]
+    for w in (_apply(A, v), _apply(Ainv, v)):
+        if _size(w) == _size(v):
+            cands.append(w)
+    cands += [(-x, -y) for x, y in cands]
+    return min(cands, key=_orbit_key)
+
+
+def _orbit_key(v: Vector):
+    x, y = v
+    return (x * x + y * y, x < 0 or (x == 0 and y < 0), y < 0, abs(y), x)
+
+
+def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> Tuple[List[Vector], int]:
+    if n == 0:
+        return [(0, 0)], 0
+    P, m = _primitive_target(Q, k, 1, n)
+    if P is None:
+        return [], 0
+    fac = _factor_abs(m, _scaled_factors(factors, n, m))
+    D = P.discriminant
+    idx = _CycleIndex(P)
+    A = fundamental_automorph(P)
+    Ainv = mat_inverse(A)
+    reps: List[Vector] = []
+    prim = 0
+    for g, rest in _square_divisors(fac):
+        mm = m // (g * g)
+        for b in _proper_roots(D, mm, rest):
+            M = idx.matrix_to(Form(mm, b, (b * b - D) // (4 * mm)))
+            if M is None:
+                continue
+            v = _canonical(A, Ainv, (g * M[0][0], g * M[1][0]))
+            reps.append(v)
+            if g == 1:
+                prim += 1
+    reps.sort(key=_orbit_key)
+    return reps, prim
+
+
+def representation_orbits(
+    form: FormLike, n: object, *, primitive: bool = False, factors: Optional[Dict[int, int]] = None
+) -> Tuple[Vector, ...]:
+    """One solution of ``Q(x, y) = n`` per orbit of the proper automorphs (indefinite ``Q``).
+
+    The solutions of ``Q(x, y) = n ≠ 0`` fall into finitely many orbits
+    ``{±A^k v : k ∈ Z}`` under the proper automorphism group (``A`` the fundamental
+    automorph); each orbit is represented by its element of least ``x² + y²`` (ties:
+    ``x > 0`` first, then ``y ≥ 0``, then smaller ``|y|``).  Every solution of the
+    equation is ``±A^k`` times exactly one returned vector.
+
+    Parameters
+    ----------
+    primitive : bool
+        Only the orbits of primitive solutions.
+
+    Raises
+    ------
+    FormError
+        If ``Q`` is definite (use :func:`representations`).
+
+    Examples
+    --------
+    >>> representation_orbits((1, 1, -1), 11)      # x² + xy − y² = 11
+    ((3, 1), (3, 2))
+    >>> representation_orbits((1, 0, -3), 2)       # x² − 3y² = 2 has no solution
+    ()
+    """
+    Q, D, k, sign, n = _content_and_sign(form, n)
+    if D < 0:
+        raise FormError(f"{Q!r} is definite: use representations() for the full list of solutions")
+    reps, _ = _all_orbits(Q, D, k, n, factors)
+    if primitive:
+        reps = [v for v in reps if gcd(v[0], v[1]) == 1]
+    return tuple(reps)
+
+
+def _orbit_matrices(form: FormLike) -> Tuple[Form, Matrix, Matrix]:
+    Q = as_form(form)
+    D = _require_nonsquare(Q, "orbits of solutions")
+    if D < 0:
+        raise FormError(f"{Q!r} is definite: its solution sets are finite (use representations())")
+    A = fundamental_automorph(Q)
+    return Q, A, mat_inverse(A)
+
+
+def orbit_representative(form: FormLike, solution: Tuple[int, int]) -> Vector:
+    """The representative (least ``x² + y²``) of the orbit of ``solution`` under the proper
+    automorphs of the indefinite form ``Q`` — the vector :func:`representation_orbits` returns.
+
+    Examples
+    --------
+    >>> orbit_representative((1, 0, -2), (17, 12))   # 17² − 2·12² = 1
+    (1, 0)
+    """
+    Q, A, Ainv = _orbit_matrices(form)
+    x, y = (as_int(v, "solution entry") for v in solution)
+    return _canonical(A, Ainv, (x, y))
+
+
+def walk_orbit(form: FormLike, solution: Tuple[int, int]) -> Iterator[Vector]:
+    """Walk the orbit of ``solution`` under the proper automorphs of an indefinite form.
+
+    Yields ``v, −v, Av, −Av, A⁻¹v, −A⁻¹v, A²v, …`` without end (``A`` the fundamental
+    automorph): every solution in the orbit appears exactly once.  Take what you need
+    with :func:`itertools.islice`.
+
+    Examples
+    --------
+    >>> from itertools import islice
+    >>> list(islice(walk_orbit((1, 0, -2), (1, 0)), 6))
+    [(1, 0), (-1, 0), (3, 2), (-3, -2), (3, -2), (-3, 2)]
+    """
+    Q, A, Ainv = _orbit_matrices(form)
+    v0 = tuple(as_int(v, "solution entry") for v in solution)
+    if v0 == (0, 0):
+        yield (0, 0)
+        return
+    yield v0  # type: ignore[misc]
+    yield (-v0[0], -v0[1])
+    fwd = back = v0
+    while True:
+        fwd = _apply(A, fwd)
+        back = _apply(Ainv, back)
+        for v in (fwd, back):
+            yield v
+            yield (-v[0], -v[1])
