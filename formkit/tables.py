@@ -191,7 +191,50 @@ class ChunkSpec:
     engine: str = "auto"
 
 
-def _invariants_of(D: int, h: int) -> Tuple[int, ...]:
+def _invariants_from_order(h: int, genera: int) -> Optional[Tuple[int, ...]]:
+    """The invariants when ``h`` and the 2-rank alone decide them, else ``None``.
+
+    A Sylow subgroup of prime order is cyclic, so a square-free odd part of ``h`` gives
+    a cyclic odd part.  The 2-rank of the (narrow) class group is ``μ − 1`` where
+    ``2^(μ−1)`` is the number of genera (Gauss: the genera are the cosets of the
+    squares, Cox Theorem 3.15 and Proposition 3.11), so the 2-Sylow subgroup has
+    ``r = log2(genera)`` cyclic factors whose exponents sum to ``v = v_2(h)``; the
+    exponents are forced when ``r ≤ 1`` or ``v ≤ r + 1``.
+
+    Examples
+    --------
+    >>> _invariants_from_order(8, 4), _invariants_from_order(12, 4), _invariants_from_order(12, 2)
+    ((2, 4), (2, 6), (12,))
+    >>> _invariants_from_order(9, 1), _invariants_from_order(16, 4)   # 3² | h; 2-part C2×C8 or C4×C4
+    (None, None)
+    """
+    r = genera.bit_length() - 1
+    v, odd = 0, h
+    while odd % 2 == 0:
+        odd //= 2
+        v += 1
+    if r > v or (r == 0 and v > 0) or (r > 1 and v > r + 1):
+        return None
+    m, p = odd, 3
+    while p * p <= m:  # the odd part must be square-free
+        if m % p == 0:
+            m //= p
+            if m % p == 0:
+                return None
+        p += 2
+    twos = [2] * r
+    if v > r:
+        twos[-1] = 2 ** (v - r + 1)
+    if not twos:
+        return (odd,) if odd > 1 else ()
+    twos[-1] *= odd
+    return tuple(twos)
+
+
+def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
+    quick = _invariants_from_order(h, genera)
+    if quick is not None:
+        return quick
     from .classgroup import class_group
 
     G = class_group(D)
@@ -223,14 +266,13 @@ def _negative_rows(spec: ChunkSpec) -> List[RawRow]:
         if spec.fundamental and f[i] != 1:
             continue
         D = -n
-        inv = _invariants_of(D, h[i]) if spec.invariants else None
+        inv = _invariants_of(D, h[i], gen[i]) if spec.invariants else None
         rows.append((D, dK[i], f[i], h[i], None, inv, gen[i], None))
     return rows
 
 
 def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
     from .arith import is_square
-    from .classgroup import class_group
     from .discriminants import discriminant_parts, fundamental_unit
     from .enumeration import class_number
     from .genus import genus_count
@@ -242,16 +284,13 @@ def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
         dK, f = discriminant_parts(D)
         if spec.fundamental and f != 1:
             continue
-        if spec.invariants:
-            G = class_group(D)
-            h = G.order
-            inv: Optional[Tuple[int, ...]] = _invariants_of(D, h)
-        else:
-            h, inv = class_number(D), None
+        h = class_number(D)
+        genera = genus_count(D)
+        inv = _invariants_of(D, h, genera) if spec.invariants else None
         unit = fundamental_unit(D)
         hw = h if unit.norm == -1 else h // 2
         reg = float(unit.regulator(20))
-        rows.append((D, dK, f, h, hw, inv, genus_count(D), reg))
+        rows.append((D, dK, f, h, hw, inv, genera, reg))
     return rows
 
 

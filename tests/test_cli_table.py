@@ -156,5 +156,5 @@ def test_pipe_is_quiet_subprocess(tmp_path):
          "--db", db, "--workers", "2", "--chunk-size", "5000"],
         capture_output=True, text=True, env=env, timeout=300,
     )
-    assert proc.returncode == 0 and proc.stderr == ""  # no progress bar into a pipe
-    assert "4 chunks computed (10000 rows)" in proc.stdout
+    assert proc.returncode == 0 and proc.stderr == "", proc.stderr  # no progress bar into a pipe
+    assert "4 chunks computed (10000 rows)" in proc.stdout, proc.stdout

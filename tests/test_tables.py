@@ -429,3 +429,21 @@ def test_cluster_unreachable_is_a_clean_error(tmp_path):
     with dask.config.set({"distributed.comm.timeouts.connect": "1s"}):
         with pytest.raises(FormkitError, match="could not connect"):
             build_table(None, -100, -3, cluster="tcp://127.0.0.1:1", invariants=False)
+
+
+def test_invariants_shortcut_agrees_with_class_group():
+    # invariants decided by h and the 2-rank (number of genera) alone must be the group's
+    from formkit import class_group
+    from formkit.tables import _invariants_from_order
+
+    decided = 0
+    for D in [d for d in range(-3, -3001, -1) if d % 4 in (0, 1)] + [d for d in range(5, 1500) if d % 4 in (0, 1)]:
+        try:
+            G = class_group(D)
+        except DiscriminantError:  # squares
+            continue
+        quick = _invariants_from_order(G.order, genus_count(D))
+        if quick is not None:
+            assert quick == G.invariants, D
+            decided += 1
+    assert decided > 1800  # about 90% of these D need no group computation
