@@ -198,7 +198,8 @@ def _check_or_record_meta(conn: sqlite3.Connection, path: str, fundamental: bool
         "certified": "1",
         "assumption": "none",
         "description": "class numbers by counting reduced forms (Gauss; Cohen GTM 138 Alg. 5.3.5); "
-        "invariants by formkit.class_group (complete enumeration); genera 2^(mu-1) (Cox Thm 3.15)",
+        "invariants from h and the 2-rank where these decide them, else by formkit.class_group "
+        "(complete enumeration); genera 2^(mu-1) (Cox Prop 3.11, Thm 3.15)",
         "formkit_version": __version__,
         "created": time.strftime("%Y-%m-%dT%H:%M:%S"),
     }
