@@ -57,9 +57,19 @@ def test_as_int_accepts_integer_types():
     assert as_int(7) == 7 and type(as_int(7)) is int
     assert as_int(mpz(10) ** 50) == 10**50 and type(as_int(mpz(3))) is int
     assert as_int(sympy.Integer(-12)) == -12
-    import numpy
 
+    class Indexable:  # any object with __index__ is an integer (PEP 357)
+        def __index__(self):
+            return 5
+
+    assert as_int(Indexable()) == 5
+
+
+def test_as_int_accepts_numpy_integers():
+    numpy = pytest.importorskip("numpy")
     assert as_int(numpy.int64(5)) == 5
+    with pytest.raises(NotAnIntegerError):
+        as_int(numpy.float64(5.0))
 
 
 @pytest.mark.parametrize(
