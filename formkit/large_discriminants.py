@@ -561,7 +561,11 @@ class _Structure:
         return tuple(out)
 
 
-def _build(D: int, ops: _Ops, forms, center: int, spread: float, U: int, target: Optional[int]) -> _Structure:
+def _build(
+    D: int, ops: _Ops, forms, center: int, spread: float, U: int, target: Optional[int], divisor: int = 1
+) -> _Structure:
+    # ``divisor`` is a known divisor of h (the number of genera): the first search runs on
+    # g^divisor, whose order divides h/divisor, over a range ``divisor`` times shorter.
     stats = ops.stats
     syl: Dict[int, _Sylow] = {}
     n = 1
@@ -569,7 +573,9 @@ def _build(D: int, ops: _Ops, forms, center: int, spread: float, U: int, target:
     for _p, g in forms:
         stats.generators_used += 1
         if n == 1:
-            k = _order_multiple(ops, g, center, spread, U)
+            k = divisor * _order_multiple(
+                ops, ops.pow(g, divisor), max(1, round(center / divisor)), spread / divisor, U // divisor + 1
+            )
             o, fac = _order_from_multiple(ops, g, k)
             for ell, v in fac.items():
                 syl.setdefault(ell, _Sylow(ops, ell)).add(ops.pow(g, o // ell**v))
@@ -684,7 +690,9 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
         forms = _prime_forms(D, f, 2, max(B, 10**7))
     else:
         forms = _prime_forms(D, f, 2, B)
-    S = _build(D, ops, forms, center, spread, U, target)
+    from .genus import genus_count
+
+    S = _build(D, ops, forms, center, spread, U, target, genus_count(D))
     if target is not None and S.order != target:
         raise ArithmeticError(f"prime forms reached {S.order} classes, expected h(D) = {target}")
     if target is not None:
