@@ -246,28 +246,62 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
     return inv
 
 
-def _negative_rows(spec: ChunkSpec) -> List[RawRow]:
+class RowColumns:
+    """The rows of a negative chunk as columns (numpy arrays pickle as plain memory, so
+    workers hand results to the parent cheaply); iterating yields row tuples."""
+
+    __slots__ = ("D", "dK", "f", "h", "genera", "inv")
+
+    def __init__(self, D, dK, f, h, genera, inv) -> None:
+        self.D, self.dK, self.f, self.h, self.genera, self.inv = D, dK, f, h, genera, inv
+
+    def __getstate__(self):
+        return (self.D, self.dK, self.f, self.h, self.genera, self.inv)
+
+    def __setstate__(self, state) -> None:
+        self.D, self.dK, self.f, self.h, self.genera, self.inv = state
+
+    def __len__(self) -> int:
+        return len(self.D)
+
+    def __iter__(self) -> Iterator[RawRow]:
+        from itertools import repeat
+
+        return zip(self.D.tolist(), self.dK.tolist(), self.f.tolist(), self.h.tolist(), repeat(None),
+                   repeat(None) if self.inv is None else iter(self.inv), self.genera.tolist(), repeat(None))
+
+
+def _negative_rows(spec: ChunkSpec):
     L, H = -spec.hi, -spec.lo
     L = max(L, 3)
     if L > H:
         return []
     engine = _check_engine(spec.engine)
     if engine == "numpy":
-        h = _class_numbers_np(L, H).tolist()
-        dK, f, gen = (x.tolist() for x in _chunk_arith_np(L, H))
-    else:
-        h = _class_numbers_py(L, H)
-        dK, f, gen = _chunk_arith_py(L, H)
+        np = _numpy()
+        h = _class_numbers_np(L, H)
+        dK, f, gen = _chunk_arith_np(L, H)
+        n = np.arange(L, H + 1, dtype=np.int64)
+        keep = (n % 4 == 0) | (n % 4 == 3)
+        if spec.fundamental:
+            keep &= f == 1
+        cols = RowColumns(-n[keep], dK[keep], f[keep], h[keep], gen[keep], None)
+        if spec.invariants:
+            cols.inv = [_invariants_of(D, hD, g) for D, hD, g in
+                        zip(cols.D.tolist(), cols.h.tolist(), cols.genera.tolist())]
+        return cols
+    h_list = _class_numbers_py(L, H)
+    dK_list, f_list, gen_list = _chunk_arith_py(L, H)
     rows: List[RawRow] = []
     for i in range(H - L + 1):
-        n = L + i
-        if n % 4 not in (0, 3):
+        n_i = L + i
+        if n_i % 4 not in (0, 3):
             continue
-        if spec.fundamental and f[i] != 1:
+        if spec.fundamental and f_list[i] != 1:
             continue
-        D = -n
-        inv = _invariants_of(D, h[i], gen[i]) if spec.invariants else None
-        rows.append((D, dK[i], f[i], h[i], None, inv, gen[i], None))
+        D = -n_i
+        inv = _invariants_of(D, h_list[i], gen_list[i]) if spec.invariants else None
+        rows.append((D, dK_list[i], f_list[i], h_list[i], None, inv, gen_list[i], None))
     return rows
 
 
@@ -294,8 +328,10 @@ def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
     return rows
 
 
-def compute_chunk(spec: ChunkSpec) -> Tuple[ChunkSpec, List[RawRow], float]:
+def compute_chunk(spec: ChunkSpec) -> Tuple[ChunkSpec, Sequence[RawRow], float]:
     """Compute the rows of one chunk; returns ``(spec, rows, seconds)``.
+
+    ``rows`` is a list of row tuples or a :class:`RowColumns` (iterating gives tuples).
 
     Top-level so that process pools and Dask workers can import it.
     """
