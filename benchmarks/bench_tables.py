@@ -60,6 +60,33 @@ def measure(label: str, fn, repeat: int) -> dict:
     return out
 
 
+def _spin(n: int) -> float:
+    t = time.process_time()
+    s = 0
+    for i in range(n):
+        s += i
+    return time.process_time() - t
+
+
+def calibrate() -> float:
+    """Wall time of 2 processes spinning in parallel over 1 process doing the same.
+
+    About 1.0 on an idle 2-core machine; about 2.0 when the machine is so busy that a
+    second process of this session gains no CPU (then no 2-worker speed-up can show).
+    """
+    import multiprocessing as mp
+
+    n = 10**7
+    t0 = time.perf_counter()
+    _spin(n)
+    one = time.perf_counter() - t0
+    with mp.Pool(2) as pool:
+        t0 = time.perf_counter()
+        pool.map(_spin, [n, n])
+        two = time.perf_counter() - t0
+    return two / one
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--repeat", type=int, default=3)
@@ -70,6 +97,9 @@ def main() -> None:
     N = 10**6
     print(f"formkit table benchmark; cores: {os.cpu_count()}; python {sys.version.split()[0]}")
     print(f"load average at start: {os.getloadavg()}")
+    cal = calibrate()
+    print(f"calibration: 2 parallel spinning processes take {cal:.2f}x the wall time of one "
+          "(1.0 = two free cores, 2.0 = no parallelism available)")
     res = {}
     common = dict(invariants=False, progress=False)
     res["np1"] = measure(f"numpy,  [-10^6, -3], 1 worker", lambda: build_table(None, -N, -3, workers=1, **common), args.repeat)
@@ -98,6 +128,7 @@ def main() -> None:
         w1, w2 = res[f"{key}1"]["wall"], res[f"{key}2"]["wall"]
         print(f"  {key:6s} throughput per worker: 1 worker {nD / w1:12.0f} D/s, "
               f"2 workers {nD / w2 / 2:12.0f} D/s per worker; speed-up 2 vs 1: {w1 / w2:.2f}x")
+    print(f"  calibration at start: {cal:.2f}x; at end: {calibrate():.2f}x (see above)")
     print(f"  goal [-10^6, -3] <= 30 s on 2 cores: {res['np2']['wall']:.2f} s "
           f"({'met' if res['np2']['wall'] <= 30 else 'NOT met'})")
     print(f"  SQLite store overhead (2 workers): {res['db2']['wall'] / res['np2']['wall']:.2f}x the in-memory run")
