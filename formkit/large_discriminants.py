@@ -59,7 +59,6 @@ from typing import Callable, Dict, List, Optional, Sequence, Tuple
 
 from .arith import crt, factorint, invert, kronecker, next_prime
 from .classgroup import ClassGroup, Provenance
-from .composition import _compose_raw, _nucomp_raw, _nudupl_raw
 from .discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from .lseries import class_number_estimate, class_number_upper_bound
@@ -146,8 +145,8 @@ class _Ops:
                 b = -b
             return a, b, c
 
-    def _partial(self, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
-        # NUCOMP partial reduction with d1 = 1 (see formkit.composition._partial_reduce)
+    def _partial(self, d1: int, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
+        # NUCOMP partial reduction (the formulas of formkit.composition._partial_reduce)
         bound = self.L if v1 == v2 else isqrt(v1 * self.L2 // v2)
         Rp, Rc = v1, r
         Cp, Cc = 0, -1
@@ -157,13 +156,22 @@ class _Ops:
             Rp, Rc = Rc, rem
             Cp, Cc = Cc, Cp - q * Cc
             odd = not odd
-        a3 = (v2 * Rc * Rc - b2 * Rc * Cc + c2 * Cc * Cc) // v1
-        b3 = (2 * v2 * Rc * Rp - b2 * (Rc * Cp + Rp * Cc) + 2 * c2 * Cc * Cp) // v1
+        dc = d1 * c2
+        a3 = (v2 * Rc * Rc - b2 * Rc * Cc + dc * Cc * Cc) // v1
+        b3 = (2 * v2 * Rc * Rp - b2 * (Rc * Cp + Rp * Cc) + 2 * dc * Cc * Cp) // v1
         if odd:
             b3 = -b3
         return self.reduce(a3, b3, (b3 * b3 - self.D) // (4 * a3))
 
+    def _finish(self, d1: int, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
+        if self.nucomp:
+            return self._partial(d1, v1, v2, r, b2, c2)
+        a3 = v1 * v2
+        b3 = b2 + 2 * v2 * r
+        return self.reduce(a3, b3, (b3 * b3 - self.D) // (4 * a3))
+
     def mul(self, x: Triple, y: Triple) -> Triple:
+        """Product of reduced forms (Cohen Algorithm 5.4.7 for d1, v1, v2, r; then NUCOMP)."""
         self.stats.operations += 1
         a1, b1, c1 = x
         a2, b2, c2 = y
@@ -171,29 +179,33 @@ class _Ops:
             a1, b1, c1, a2, b2, c2 = a2, b2, c2, a1, b1, c1
         if a2 == 1:
             return (a1, b1, c1)
-        if gcd(a1, a2) != 1:
-            a, b, c = _nucomp_raw(a1, b1, c1, a2, b2, c2, self.D, self.L)
-            return (int(a), int(b), int(c))
-        k = ((b1 - b2) // 2 * pow(a2, -1, a1)) % a1
-        if self.nucomp:
-            return self._partial(a1, a2, k, b2, c2)
-        a3 = a1 * a2
-        b3 = b2 + 2 * a2 * k
-        return self.reduce(a3, b3, (b3 * b3 - self.D) // (4 * a3))
+        d = gcd(a1, a2)
+        if d == 1:
+            return self._finish(1, a1, a2, ((b1 - b2) // 2 * pow(a2, -1, a1)) % a1, b2, c2)
+        s = (b1 + b2) // 2
+        A1 = a1 // d
+        y1 = pow(a2 // d, -1, A1) if A1 > 1 else 0  # y1·a2 ≡ d (mod a1)
+        if s % d == 0:
+            d1, x2, y2 = d, 0, -1
+        else:
+            d1 = gcd(s, d)
+            dd = d // d1
+            x2 = pow(s // d1, -1, dd) if dd > 1 else 0  # x2·s ≡ d1 (mod d)
+            y2 = -((d1 - x2 * s) // d)
+        v1 = a1 // d1
+        r = (y1 * y2 * (b2 - s) - x2 * c2) % v1
+        return self._finish(d1, v1, a2 // d1, r, b2, c2)
 
     def sqr(self, x: Triple) -> Triple:
+        """Square of a reduced form (NUDUPL, Cohen Algorithm 5.4.8)."""
         self.stats.operations += 1
         a, b, c = x
         if a == 1:
             return x
-        if gcd(a, b) != 1:
-            a3, b3, c3 = _nudupl_raw(a, b, c, self.D, self.L)
-            return (int(a3), int(b3), int(c3))
-        r = (-c * pow(b, -1, a)) % a
-        if self.nucomp:
-            return self._partial(a, a, r, b, c)
-        a3, b3, c3 = _compose_raw(a, b, c, a, b, c, self.D)
-        return self.reduce(int(a3), int(b3), int(c3))
+        d1 = gcd(a, b)
+        v1 = a // d1
+        u = pow(b // d1, -1, v1) if v1 > 1 else 0  # u·b ≡ d1 (mod a)
+        return self._finish(d1, v1, v1, (-u * c) % v1, b, c)
 
     @staticmethod
     def inv(x: Triple) -> Triple:

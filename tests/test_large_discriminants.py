@@ -300,3 +300,31 @@ def test_idoneal_numbers():
 def test_idoneal_numbers_complete_below_3000():
     found = [n for n in range(1, 3000) if class_group_bsgs(-4 * n).exponent <= 2]
     assert found == IDONEAL
+
+
+def test_group_operations_match_formkit_composition():
+    # the inlined NUCOMP/NUDUPL (all gcd cases) against formkit.composition.compose/square
+    from formkit.composition import compose, square
+    from formkit.large_discriminants import BSGSStatistics, _Ops
+
+    rng = random.Random(17)
+    for D in (-3, -4, -23, -4 * 3 * 5 * 7 * 11, -(10**9) - 7, -4 * (10**19 + 1), -(10**31) - 3 * 9, -(3**40) * 4):
+        if not is_discriminant(D):
+            continue
+        ops = _Ops(D, BSGSStatistics())
+        G = class_group_bsgs(D) if abs(D) < 10**12 else None
+        gens = []
+        for p in range(2, 200):
+            try:
+                f = Form.prime_form(D, p)
+            except FormkitError:
+                continue
+            gens.append(_Ops.reduce(f.a, f.b, f.c))
+        elts = list(gens)
+        for _ in range(60):
+            x, y = rng.choice(elts), rng.choice(gens + elts)
+            assert ops.mul(x, y) == compose(x, y).coefficients
+            assert ops.sqr(x) == square(x).coefficients
+            elts.append(ops.mul(x, y))
+        if G is not None:
+            assert all((G(x) ** G.exponent).is_identity() for x in elts[:10])
