@@ -219,12 +219,38 @@ class _Ops:
             x, e = self.inv(x), -e
         if e == 0:
             return self.one
-        result = x
-        for bit in bin(e)[3:]:
-            result = self.sqr(result)
-            if bit == "1":
-                result = self.mul(result, x)
-        return result
+        bits = bin(e)[2:]
+        if len(bits) <= 16:
+            result = x
+            for bit in bits[1:]:
+                result = self.sqr(result)
+                if bit == "1":
+                    result = self.mul(result, x)
+            return result
+        # left-to-right sliding window of width 3 (odd powers x, x^3, x^5, x^7)
+        x2 = self.sqr(x)
+        odd = [x]
+        for _ in range(3):
+            odd.append(self.mul(odd[-1], x2))
+        result = None
+        i, n = 0, len(bits)
+        while i < n:
+            if bits[i] == "0":
+                result = self.sqr(result)  # type: ignore[arg-type]
+                i += 1
+                continue
+            j = min(i + 3, n)
+            while bits[j - 1] == "0":
+                j -= 1
+            w = odd[int(bits[i:j], 2) >> 1]
+            if result is None:
+                result = w
+            else:
+                for _ in range(j - i):
+                    result = self.sqr(result)
+                result = self.mul(result, w)
+            i = j
+        return result  # type: ignore[return-value]
 
 
 # ---------------------------------------------------------------------------
