@@ -13,8 +13,10 @@ is computed from the prime forms of small norm:
    :func:`formkit.lseries.class_number_estimate` (the estimate only decides where to
    look first; the search is exhaustive, so a poor estimate costs time, not
    correctness).  Baby steps are stored by ``(a, |b|)``, which ``x^j`` and ``x^{-j}``
-   share, so each giant step covers ``2s + 1`` exponents.  A multiple ``k`` with
-   ``x^k = 1`` is turned into the exact order by factoring ``k``.
+   share, so each giant step covers ``2s + 1`` exponents.  The number of genera ``2^t``
+   divides ``h`` (genus theory), so the search runs on ``x^(2^t)`` over a range ``2^t``
+   times shorter.  A multiple ``k`` with ``x^k = 1`` is turned into the exact order by
+   factoring ``k``.
 3. *Structure.*  The subgroup ``H`` generated so far is kept as its Sylow subgroups,
    each with a basis ``b_1, …, b_r`` of orders ``ℓ^{c_1} ≤ … ≤ ℓ^{c_r}``.  A new
    generator's ℓ-part ``z`` contributes the relation ``z^{ℓ^j} = ∏ b_i^{d_i}`` with
@@ -35,8 +37,9 @@ is computed from the prime forms of small norm:
    prime forms of ``D`` are added until ``|H| = h(D)``, which proves ``H = Cl(D)``.
 
 Group operations are Shanks' NUCOMP/NUDUPL (Cohen Algorithms 5.4.8, 5.4.9; the same
-formulas as :mod:`formkit.composition`, here on plain integers with the coprime case
-inlined) for ``|D| ≥ 10^18`` and Dirichlet composition followed by reduction below.
+formulas as :mod:`formkit.composition`, inlined here on plain Python integers, with
+modular inverses from ``pow(x, -1, m)``) for ``|D| ≥ 10^18`` and Dirichlet composition
+followed by reduction below; powers use a width-3 sliding window.
 
 References
 ----------
