@@ -40,7 +40,6 @@ from typing import Iterator, List, Optional, Sequence, Tuple
 
 from .arith import as_int
 from .errors import FormkitError
-
 from .table_sweep import (
     _chunk_arith_np,
     _chunk_arith_py,
@@ -89,11 +88,6 @@ class TableRow:
     def _from_raw(cls, raw: Sequence) -> "TableRow":
         D, dk, f, h, hw, inv, g, reg = raw
         return cls(D, dk, f, h, None if inv is None else tuple(inv), g, hw, reg)
-
-    def _raw(self) -> RawRow:
-        return (self.discriminant, self.fundamental_discriminant, self.conductor,
-                self.class_number, self.class_number_wide, self.invariants,
-                self.genus_count, self.regulator)
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary (the keys are the column names)."""
