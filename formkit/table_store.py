@@ -301,6 +301,13 @@ def _run_on_cluster(specs: List[ChunkSpec], cluster, sink: Callable, bar) -> Non
     except (OSError, TimeoutError, ValueError) as exc:
         raise FormkitError(f"could not connect to the Dask scheduler at {cluster!r}: {exc}") from None
     try:
+        try:  # the scheduler and every worker must be able to import formkit
+            client.submit(_cluster_probe, pure=False).result()
+        except Exception as exc:
+            raise FormkitError(
+                f"the Dask cluster at {cluster!r} cannot run formkit tasks ({type(exc).__name__}: "
+                f"{' '.join(str(exc).split())[:200]}); install formkit on the scheduler and every worker"
+            ) from None
         futures = client.map(compute_chunk, specs, pure=False)
         for fut in as_completed(futures):
             sink(*fut.result())
@@ -308,6 +315,12 @@ def _run_on_cluster(specs: List[ChunkSpec], cluster, sink: Callable, bar) -> Non
     finally:
         if own:
             client.close()
+
+
+def _cluster_probe() -> str:  # runs on a Dask worker
+    from . import __version__
+
+    return __version__
 
 
 class _NoBar:
