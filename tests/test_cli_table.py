@@ -158,3 +158,28 @@ def test_pipe_is_quiet_subprocess(tmp_path):
     )
     assert proc.returncode == 0 and proc.stderr == "", proc.stderr  # no progress bar into a pipe
     assert "4 chunks computed (10000 rows)" in proc.stdout, proc.stdout
+
+
+def test_cluster_option_and_probe(tmp_path, capsys, monkeypatch):
+    distributed = pytest.importorskip("distributed")
+    import formkit.table_store as store
+
+    db = str(tmp_path / "c.db")
+    with distributed.LocalCluster(n_workers=1, threads_per_worker=2, processes=False,
+                                  dashboard_address="127.0.0.1:0") as cluster:
+        addr = cluster.scheduler_address
+        code, out, err = run(["table", "--from", "-5000", "--to", "-3", "--no-invariants", "--db", db,
+                              "--cluster", addr, "--chunk-size", "1000", "--json"], capsys)
+        assert code == 0, err
+        s = json.loads(out)
+        assert s["cluster"] == addr and s["chunks_computed"] == 5 and s["rows_written"] == 2500
+        # h = 2: 18 fundamental discriminants, the largest |d_K| is 427 (Watkins 2004, from memory)
+        code, out, _ = run(["table", "--db", db, "--class-number", "2", "--fundamental", "--json"], capsys)
+        assert json.loads(out)["count"] == 18
+
+        def broken():
+            raise ImportError("No module named 'formkit'")
+
+        monkeypatch.setattr(store, "_cluster_probe", broken)
+        code, out, err = run(["table", "--from", "-100", "--to", "-3", "--cluster", addr], capsys)
+        assert code == 2 and len(err.splitlines()) == 1 and "install formkit on the scheduler" in err
