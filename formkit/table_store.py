@@ -549,6 +549,8 @@ def query_table(
     >>> [r.discriminant for r in query_table(db, class_number=1, fundamental=True)]
     [-3, -4, -7, -8, -11, -19, -43, -67, -163]
     """
+    if start is not None and stop is not None:
+        _check_range(start, stop)
     conn = _connect(path, create=False)
     try:
         meta = _meta(conn)

@@ -304,6 +304,10 @@ def test_store_resume_and_queries(tmp_path):
         build_table(db, -1200, -3, fundamental=True, workers=1)
     with pytest.raises(FormkitError, match="at least 1"):
         query_table(db, class_number=0)
+    with pytest.raises(FormkitError, match="start must not exceed"):
+        query_table(db, start=-3, stop=-30)
+    with pytest.raises(FormkitError, match="chain"):
+        query_table(db, invariants="4,2")
 
 
 def test_store_without_invariants_refuses_structure_queries(tmp_path):
