@@ -44,8 +44,15 @@ from .tables import *  # noqa: F401,F403,E402
 from .tables import __all__ as _tables_all  # noqa: E402
 from .table_store import *  # noqa: F401,F403,E402
 from .table_store import __all__ as _store_all  # noqa: E402
-from .graphs import *  # noqa: F401,F403,E402
-from .graphs import __all__ as _graphs_all  # noqa: E402
+# The graph module needs networkx, which takes a noticeable time to import; its names
+# are loaded on first use (PEP 562) so that `import formkit` and the CLI stay quick.
+# tests/test_package.py checks that this list equals formkit.graphs.__all__.
+_graphs_all = [
+    "usable_primes", "generating_primes", "cayley_graph", "cycle_graph", "fibre_graph",
+    "generated_subgroup", "cycle_lengths", "prime_orders", "genus_label", "node_label",
+    "graph_to_json", "graph_from_json", "graph_to_graphml", "graph_to_dot", "graph_title",
+    "GRAPH_KINDS",
+]
 from .genus import *  # noqa: F401,F403,E402
 from .genus import __all__ as _genus_all  # noqa: E402
 from .representations import *  # noqa: F401,F403,E402
@@ -64,3 +71,17 @@ from .large_discriminants import __all__ as _large_all  # noqa: E402
 __version__ = "0.1.0"
 
 __all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_avg_all, *_lseries_all, *_large_all, "__version__"]
+
+
+def __getattr__(name: str):
+    if name in _graphs_all:
+        from . import graphs
+
+        value = getattr(graphs, name)
+        globals()[name] = value
+        return value
+    raise AttributeError(f"module 'formkit' has no attribute {name!r}")
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(_graphs_all))
