@@ -88,13 +88,13 @@ def parse_integer(text: object, name: str = "integer") -> int:
         sign, factor, base, exp, off_sign, offset = m.groups()
         e = int(exp) if len(exp) < 7 else None
         if e is None or e > 100_000:
-            raise ParseError(f"{name}: exponent too large in {text!r}")
+            raise ParseError(f"{name}: exponent too large in {s!r}")
         value = (_digits_to_int(factor) if factor else 1) * _digits_to_int(base) ** e
         value = -value if sign == "-" else value
         if offset:
             value += -_digits_to_int(offset) if off_sign == "-" else _digits_to_int(offset)
         return value
-    raise ParseError(f"{name} must be an integer such as -23, 10^12 or 3*10^20, not {text!r}")
+    raise ParseError(f"{name} must be an integer such as -23, 10^12 or 3*10^20, not {s!r}")
 
 
 def parse_form_text(text: object) -> tuple[int, int, int]:
@@ -132,15 +132,16 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
         if (opening in pairs) != (closing in pairs.values()) or (
             opening in pairs and pairs[opening] != closing
         ):
-            raise ParseError(f"cannot read {text!r} as a form: unbalanced brackets")
+            raise ParseError(f"cannot read {s!r} as a form: unbalanced brackets")
         return tuple(_digits_to_int(g) for g in m.groups())  # type: ignore[return-value]
     if "," in s:
         parts = s.strip("[]()").split(",")
         raise ParseError(
-            f"cannot read {text!r} as a form: expected exactly three integers a,b,c "
+            f"cannot read {s!r} as a form: expected exactly three integers a,b,c "
             f"(optionally in [ ] or ( )), found {len(parts)} comma-separated parts"
         )
-    return _parse_poly(text)
+    # positions in error messages count from the first non-blank character
+    return _parse_poly(s)
 
 
 def _fail(text: str, why: str) -> ParseError:
