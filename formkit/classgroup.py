@@ -31,13 +31,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable, Dict, Iterator, Optional, Sequence, Tuple
 
-from .arith import as_int, isqrt, kronecker, lcm, mpz
+from .arith import as_int, lcm, mpz
 from .composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
 from .discriminants import discriminant_parts, fundamental_unit, validate_discriminant
-from .enumeration import _cycles_cached, _reduced_forms_cached
 from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 from .forms import Form, FormLike, as_form
-from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = [
     "Provenance",
@@ -499,139 +497,6 @@ class ClassGroup:
         return hash(("ClassGroup", self._D))
 
 
-# ---------------------------------------------------------------------------
-# construction by enumeration
-
-
-def _canonical_function(D: int) -> Callable[[Triple], Triple]:
-    if D < 0:
-        def canon(x: Triple) -> Triple:
-            a, b, c = _reduce_definite_raw(*x)
-            return (int(a), int(b), int(c))
-        return canon
-    _reps, index = _cycles_cached(D)
-    sq = int(isqrt(D))
-
-    def canon_pos(x: Triple) -> Triple:
-        a, b, c = _reduce_indefinite_raw(*x, D, sq)
-        return index[(int(a), int(b), int(c))]
-
-    return canon_pos
-
-
-def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]) -> Iterator[Triple]:
-    from .arith import next_prime
-
-    p = 2
-    limit = 60
-    while p < limit:
-        if kronecker(D, p) != -1:
-            try:
-                f = Form.prime_form(D, p)
-            except FormkitError:  # p divides the conductor: no primitive prime form
-                f = None
-            if f is not None and f.is_primitive:
-                yield canon(f.coefficients)
-        p = int(next_prime(p))
-    yield from forms
-
-
-def _structure_from_table(
-    D: int, forms: Sequence[Triple], canon: Callable[[Triple], Triple], identity: Triple
-) -> tuple[tuple[int, ...], tuple[Triple, ...], Callable[[Triple], Tuple[int, ...]]]:
-    from sympy import Matrix
-    from sympy.matrices.normalforms import smith_normal_decomp
-
-    h = len(forms)
-
-    def mul(x: Triple, y: Triple) -> Triple:
-        return canon(_compose_raw(*x, *y, D))
-
-    table: Dict[Triple, Tuple[int, ...]] = {identity: ()}
-    gens: list[Triple] = []
-    rels: list[list[int]] = []
-    for g in _candidate_generators(D, canon, forms):
-        if len(table) >= h:
-            break
-        if g in table:
-            continue
-        powers = [identity, g]
-        x = g
-        while x not in table:
-            x = mul(x, g)
-            powers.append(x)
-        m = len(powers) - 1
-        vec = table[x]
-        rels = [r + [0] for r in rels]
-        rels.append([-v for v in vec] + [m])
-        gens.append(g)
-        new_table: Dict[Triple, Tuple[int, ...]] = {}
-        for y, v in table.items():
-            for j in range(m):
-                new_table[mul(y, powers[j]) if j else y] = v + (j,)
-        table = new_table
-    if len(table) != h:  # pragma: no cover - would mean the enumeration is wrong
-        raise ArithmeticError(f"structure of Cl({D}): reached {len(table)} of {h} classes")
-    k = len(gens)
-    if k == 0:
-        return (), (), lambda x: ()
-    R = Matrix(rels)
-    S, _U, V = smith_normal_decomp(R)
-    diag = [int(S[i, i]) for i in range(k)]
-    Vinv = V.inv()
-    keep = [i for i in range(k) if abs(diag[i]) > 1]
-    invariants = tuple(abs(diag[i]) for i in keep)
-
-    def power(x: Triple, e: int) -> Triple:
-        if e < 0:
-            a, b, c = x
-            x = canon((a, -b, c))
-            e = -e
-        result = identity
-        while e:
-            if e & 1:
-                result = mul(result, x)
-            e >>= 1
-            if e:
-                x = mul(x, x)
-        return result
-
-    new_gens = []
-    for j in keep:
-        y = identity
-        for i in range(k):
-            e = int(Vinv[j, i])
-            if e:
-                y = mul(y, power(gens[i], e))
-        new_gens.append(y)
-    Vint = [[int(V[i, j]) for j in range(k)] for i in range(k)]
-
-    def dlog(x: Triple) -> Tuple[int, ...]:
-        v = table[x]
-        return tuple(sum(v[i] * Vint[i][j] for i in range(k)) % invariants[t] for t, j in enumerate(keep))
-
-    return invariants, tuple(new_gens), dlog
-
-
-def _class_group_enumerated(D: int) -> ClassGroup:
-    if D < 0:
-        forms = list(_reduced_forms_cached(D))
-    else:
-        forms = list(_cycles_cached(D)[0])
-    canon = _canonical_function(D)
-    identity = canon(tuple(Form.principal(D)))  # type: ignore[arg-type]
-    invariants, gens, dlog = _structure_from_table(D, forms, canon, identity)
-    return ClassGroup(
-        D,
-        invariants=invariants,
-        generators=gens,
-        dlog=dlog,
-        canonical=canon,
-        provenance=ENUMERATED,
-        forms=forms,
-    )
-
-
 _GROUP_CACHE: Dict[int, ClassGroup] = {}
 
 
@@ -681,7 +546,9 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
         return class_group_bsgs(D)
     cached = _GROUP_CACHE.get(D)
     if cached is None:
-        cached = _class_group_enumerated(D)
+        from ._structure import class_group_enumerated
+
+        cached = class_group_enumerated(D)
         if len(_GROUP_CACHE) > 64:
             _GROUP_CACHE.clear()
         _GROUP_CACHE[D] = cached

@@ -39,6 +39,8 @@ References
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 from .arith import as_int, isqrt, mpz, xgcd
 from .errors import DiscriminantMismatchError, FormError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
@@ -135,9 +137,10 @@ def _nudupl_raw(a, b, c, D, L):
     return _reduce_definite_raw(a3, b3, c3)
 
 
+@lru_cache(maxsize=256)
 def _nucomp_bound(D) -> int:
-    """``L = ⌊|D/4|^(1/4)⌋``."""
-    return int(isqrt(isqrt(abs(D) // 4)))
+    """``L = ⌊|D/4|^(1/4)⌋`` (memoised: the public calls ask for it on every composition)."""
+    return int(isqrt(isqrt(abs(int(D)) // 4)))
 
 
 # ---------------------------------------------------------------------------
