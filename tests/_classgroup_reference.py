@@ -23,6 +23,8 @@ from __future__ import annotations
 import math
 from functools import lru_cache
 
+import _foundation_strategies as _fs
+
 
 # ---------------------------------------------------------------------------
 # number theory helpers (plain Python)
@@ -92,20 +94,7 @@ def legendre_kronecker(d: int, n: int) -> int:
 
 def brute_reduced_definite(D: int) -> list[tuple[int, int, int]]:
     """All primitive reduced positive definite forms of D < 0 by scanning every b."""
-    out = []
-    a = 1
-    while 3 * a * a <= -D:
-        for b in range(-a + 1, a + 1):
-            if (b * b - D) % (4 * a):
-                continue
-            c = (b * b - D) // (4 * a)
-            if c < a or (b < 0 and a == c):
-                continue
-            if math.gcd(math.gcd(a, b), c) != 1:
-                continue
-            out.append((a, b, c))
-        a += 1
-    return sorted(out)
+    return _fs.brute_reduced_definite(D, primitive=True)
 
 
 def is_reduced_indefinite(a: int, b: int, D: int) -> bool:
@@ -116,21 +105,7 @@ def is_reduced_indefinite(a: int, b: int, D: int) -> bool:
 
 def brute_reduced_indefinite(D: int) -> list[tuple[int, int, int]]:
     """All primitive reduced indefinite forms of D > 0 by scanning b and a."""
-    s = math.isqrt(D)
-    out = []
-    for b in range(1, s + 1):
-        if (b - D) % 2:
-            continue
-        for A in range(1, s + 1):
-            if not (2 * A + b > s and 2 * A - b <= s):
-                continue
-            for a in (A, -A):
-                if (b * b - D) % (4 * a):
-                    continue
-                c = (b * b - D) // (4 * a)
-                if math.gcd(math.gcd(a, b), c) == 1:
-                    out.append((a, b, c))
-    return sorted(out)
+    return _fs.brute_reduced_indefinite(D, primitive=True)
 
 
 def rho(f: tuple[int, int, int], D: int) -> tuple[int, int, int]:

@@ -124,12 +124,16 @@ def brute_reduced_definite(D: int, primitive: bool = False) -> list[tuple[int, i
 
 
 def brute_reduced_indefinite(D: int, primitive: bool = False) -> list[tuple[int, int, int]]:
-    """All reduced indefinite forms of non-square D > 0: 0 < b < √D, √D − b < 2|a| < √D + b."""
-    r = math.sqrt(D)
+    """All reduced indefinite forms of non-square D > 0: 0 < b < √D, √D − b < 2|a| < √D + b.
+
+    The inequalities are tested exactly with s = ⌊√D⌋ (√D is irrational): b ≤ s,
+    2|a| + b > s and 2|a| − b ≤ s.
+    """
+    s = math.isqrt(D)
     out = []
-    for b in range(1, math.isqrt(D) + 1):
-        for a_abs in range(1, math.isqrt(D) + 1):
-            if not (r - b < 2 * a_abs < r + b):
+    for b in range(1, s + 1):
+        for a_abs in range(1, s + 1):
+            if not (2 * a_abs + b > s and 2 * a_abs - b <= s):
                 continue
             for a in (a_abs, -a_abs):
                 num = b * b - D

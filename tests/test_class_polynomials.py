@@ -6,6 +6,8 @@ import mpmath
 import pytest
 import sympy
 from hypothesis import given, strategies as st
+
+from _foundation_strategies import brute_reduced_definite
 from sympy.polys.domains import ZZ
 from sympy.polys.galoistools import gf_factor_sqf, gf_from_int_poly, gf_gcd, gf_pow_mod, gf_sub
 
@@ -47,16 +49,7 @@ COX_POLYNOMIALS = {
 
 def _brute_reduced_count(D):
     """Count primitive reduced forms of discriminant D < 0 by a plain double loop."""
-    n = 0
-    for a in range(1, math.isqrt(-D // 3) + 1):
-        for b in range(-a + 1, a + 1):
-            if (b * b - D) % (4 * a):
-                continue
-            c = (b * b - D) // (4 * a)
-            if c < a or (c == a and b < 0) or math.gcd(math.gcd(a, b), c) != 1:
-                continue
-            n += 1
-    return n
+    return len(brute_reduced_definite(D, primitive=True))
 
 
 def _represented_brute(form, n):

@@ -14,6 +14,8 @@ from math import gcd
 import pytest
 from hypothesis import given, strategies as st
 
+from _foundation_strategies import brute_reduced_definite
+
 from formkit.arith import kronecker
 from formkit.classgroup import class_group
 from formkit.discriminants import is_discriminant
@@ -46,18 +48,7 @@ from formkit.reduction import reduced, reduced_cycle
 def brute_classes_negative(D):
     """All primitive reduced positive definite forms of discriminant D (Gauss's bounds
     |b| ≤ a ≤ c, a ≤ √(|D|/3)); a plain scan."""
-    out = []
-    a = 1
-    while 3 * a * a <= -D:
-        for b in range(-a + 1, a + 1):
-            if (b * b - D) % (4 * a):
-                continue
-            c = (b * b - D) // (4 * a)
-            if c < a or (c == a and b < 0) or gcd(gcd(a, b), c) != 1:
-                continue
-            out.append(Form(a, b, c))
-        a += 1
-    return out
+    return [Form(*f) for f in brute_reduced_definite(D, primitive=True)]
 
 
 def brute_classes_positive(D):

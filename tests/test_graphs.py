@@ -19,12 +19,14 @@ import io
 import json
 import re
 import sys
-from math import gcd, isqrt
+from math import isqrt
 
 import networkx as nx
 import pytest
 from hypothesis import given, strategies as st
 from sympy import factorint, kronecker_symbol
+
+from _foundation_strategies import brute_reduced_indefinite as _brute_reduced_indefinite
 
 from formkit.classgroup import class_group
 from formkit.errors import (
@@ -215,18 +217,7 @@ def test_bound_takes_every_usable_prime_and_duplicates_are_dropped():
 def brute_reduced_indefinite(D):
     """Primitive reduced forms of D > 0 by exhaustive search: 0 < b < √D and
     √D − b < 2|a| < √D + b (Buchmann–Vollmer, Def. 6.2.2 — number as recalled)."""
-    out = set()
-    r = D ** 0.5
-    for b in range(1, isqrt(D) + 1):
-        if (b * b - D) % 4:
-            continue
-        for a in range(-isqrt(D) - 1, isqrt(D) + 2):
-            if a == 0 or (b * b - D) % (4 * a):
-                continue
-            c = (b * b - D) // (4 * a)
-            if r - b < 2 * abs(a) < r + b and b < r and gcd(gcd(a, b), c) == 1:
-                out.add((a, b, c))
-    return out
+    return set(_brute_reduced_indefinite(D, primitive=True))
 
 
 @pytest.mark.parametrize("D,hplus", [(5, 1), (8, 1), (12, 2), (28, 2), (136, 4), (316, 6), (4 * 223, 6)])

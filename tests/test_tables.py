@@ -15,6 +15,8 @@ from pathlib import Path
 import pytest
 from hypothesis import given, strategies as st
 
+from _foundation_strategies import brute_reduced_definite
+
 from formkit import (
     DiscriminantError,
     FormkitError,
@@ -43,20 +45,7 @@ ROOT = Path(__file__).resolve().parents[1]
 
 def brute_reduced(D: int) -> list[tuple[int, int, int]]:
     """All primitive reduced forms of D < 0: |b| <= a <= c, b >= 0 if |b| = a or a = c."""
-    out = []
-    a = 1
-    while 3 * a * a <= -D:
-        for b in range(-a + 1, a + 1):
-            num = b * b - D
-            if num % (4 * a):
-                continue
-            c = num // (4 * a)
-            if c < a or (c == a and b < 0):
-                continue
-            if math.gcd(math.gcd(a, b), c) == 1:
-                out.append((a, b, c))
-        a += 1
-    return out
+    return brute_reduced_definite(D, primitive=True)
 
 
 # ---------------------------------------------------------------------------
