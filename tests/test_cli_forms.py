@@ -16,24 +16,11 @@ import pytest
 
 from _foundation_strategies import act, brute_reduced_indefinite, det
 
-from formkit.cli import main
+
+from _cli import run, run_json
 
 REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix"}
 EQUIVALENT_KEYS = {"equivalent", "properly", "matrix"}
-
-
-def run(capsys, *argv):
-    code = main(list(argv))
-    out, err = capsys.readouterr()
-    return code, out, err
-
-
-def run_json(capsys, *argv):
-    code, out, err = run(capsys, *argv, "--json")
-    assert code == 0, err
-    assert err == ""
-    assert out.count("\n") == 1  # one JSON object on one line
-    return json.loads(out)
 
 
 def assert_usage_error(code, out, err):

@@ -1,24 +1,11 @@
 """Tests for the ``primes`` and ``hilbert`` commands (in-process through formkit.cli.main)."""
 
-import json
 
 import pytest
 import sympy
 
-from formkit.cli import main
 
-
-def run(capsys, *argv):
-    code = main(list(argv))
-    out, err = capsys.readouterr()
-    return code, out, err
-
-
-def run_json(capsys, *argv):
-    code, out, err = run(capsys, *argv, "--json")
-    assert code == 0, err
-    assert err == ""
-    return json.loads(out)
+from _cli import run, run_json
 
 
 def test_primes_congruence_json(capsys):

@@ -7,26 +7,13 @@ in the library tests; here the JSON shape and the error conventions are checked.
 
 from __future__ import annotations
 
-import json
 from math import gcd
 
 import pytest
 import sympy
 
-from formkit.cli import main
 
-
-def run(capsys, *argv):
-    code = main(list(argv))
-    out, err = capsys.readouterr()
-    return code, out, err
-
-
-def run_json(capsys, *argv):
-    code, out, err = run(capsys, *argv, "--json")
-    assert code == 0, err
-    assert out.count("\n") == 1
-    return json.loads(out)
+from _cli import run, run_json
 
 
 def test_represent_definite_json(capsys):
