@@ -58,13 +58,14 @@ from __future__ import annotations
 
 import math
 from math import gcd, isqrt
-from typing import Callable, Dict, List, Optional, Sequence, Tuple
+from typing import Dict, List, Optional, Tuple
 
 from .arith import crt, factorint, invert, kronecker, next_prime
 from .classgroup import ClassGroup, Provenance
 from .discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from .lseries import class_number_estimate, class_number_upper_bound
+from .reduction import _reduce_definite_raw
 
 __all__ = [
     "bach_bound",
@@ -129,24 +130,9 @@ class _Ops:
         self.one: Triple = (1, k, (k - D) // 4)
         self.nucomp = -D >= 10**18
 
-    @staticmethod
-    def reduce(a: int, b: int, c: int) -> Triple:
-        """Gauss reduction of a positive definite form (Cohen Algorithm 5.4.2)."""
-        while True:
-            if not (-a < b <= a):
-                a2 = a + a
-                r = b % a2
-                if r > a:
-                    r -= a2
-                k = (r - b) // a2
-                c += (a * k + b) * k
-                b = r
-            if a > c:
-                a, b, c = c, -b, a
-                continue
-            if a == c and b < 0:
-                b = -b
-            return a, b, c
+    #: Gauss reduction of a positive definite form (Cohen Algorithm 5.4.2), shared
+    #: with formkit.reduction.
+    reduce = staticmethod(_reduce_definite_raw)
 
     def _partial(self, d1: int, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
         # NUCOMP partial reduction (the formulas of formkit.composition._partial_reduce)

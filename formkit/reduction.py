@@ -135,13 +135,13 @@ def _reduce_definite_raw(a: int, b: int, c: int) -> tuple[int, int, int]:
     """Reduce a positive definite form (no matrix).  Cohen Algorithm 5.4.2."""
     while True:
         if not (-a < b <= a):
-            a2 = 2 * a
+            a2 = a + a
             r = b % a2
             if r > a:
                 r -= a2
             # b -> r = b + 2ak with k = (r - b) / 2a
             k = (r - b) // a2
-            c = a * k * k + b * k + c
+            c += (a * k + b) * k
             b = r
         if a > c:
             a, b, c = c, -b, a
