@@ -4,7 +4,6 @@ represent, group)."""
 from __future__ import annotations
 
 import argparse
-import sys
 
 from ._parse import parse_integer
 from .forms import as_form

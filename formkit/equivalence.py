@@ -23,7 +23,7 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Iterator, Optional, Tuple
+from typing import Iterator, Optional
 
 from .arith import isqrt
 from .discriminants import fundamental_unit

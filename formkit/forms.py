@@ -21,7 +21,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
 
 from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker, sqrt_mod_prime
-from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError, ParseError
+from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 
 if TYPE_CHECKING:  # pragma: no cover
     import sympy

@@ -264,7 +264,7 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
     D = _check(F, G)
     swapped = F.a > G.a
     P1, P2 = (G, F) if swapped else (F, G)
-    a1, b1, _c1 = P1.a, P1.b, P1.c
+    a1, b1 = P1.a, P1.b
     a2, b2, c2 = P2.a, P2.b, P2.c
     s = (b1 + b2) // 2
     n = b2 - s
