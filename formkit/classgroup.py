@@ -240,8 +240,10 @@ class ClassGroup:
         canonical: Callable[[Triple], Triple],
         provenance: Provenance,
         forms: Optional[Sequence[Triple]] = None,
+        units: Optional[Tuple[float, int]] = None,
     ) -> None:
         self._D = discriminant
+        self._units = units  # (regulator, N(ε)) when D > 0 and the unit itself is not computed
         self._invariants = tuple(int(n) for n in invariants)
         self._generators = tuple(generators)
         self._dlog = dlog
@@ -452,7 +454,8 @@ class ClassGroup:
         for D < 0 the class number itself."""
         if self._D < 0:
             return self.order
-        return self.order if fundamental_unit(self._D).norm == -1 else self.order // 2
+        norm = self._units[1] if self._units is not None else fundamental_unit(self._D).norm
+        return self.order if norm == -1 else self.order // 2
 
     # -- output --------------------------------------------------------------------
     def to_dict(self) -> dict:
@@ -471,7 +474,12 @@ class ClassGroup:
             "assumption": self._provenance.assumption,
             "bound": self._provenance.bound,
         }
-        if self._D > 0:
+        if self._D > 0 and self._units is not None:  # the unit may have billions of digits
+            out["class_number_wide"] = self.class_number_wide
+            out["regulator"] = self._units[0]
+            out["fundamental_unit"] = None
+            out["fundamental_unit_norm"] = self._units[1]
+        elif self._D > 0:
             unit = fundamental_unit(self._D)
             out["class_number_wide"] = self.class_number_wide
             out["regulator"] = float(unit.regulator(20))

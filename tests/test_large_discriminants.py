@@ -26,8 +26,8 @@ from formkit.large_discriminants import (
     class_group_bsgs,
     last_statistics,
     order_of_class,
-    real_class_number,
 )
+from formkit.infrastructure import real_class_number
 
 
 def _random_discriminants(rng, count, top, negative=True, nonfundamental_share=0.3):
