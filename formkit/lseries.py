@@ -30,8 +30,8 @@ zeros ``ρ = ½ + iγ``.  For every ``σ ≥ 1`` the Hadamard product gives, und
 (``a = 0`` for ``D > 0``, ``1`` for ``D < 0``; ``ψ`` the digamma function), and
 ``L'/L(σ, χ) = −Σ χ(n)Λ(n)n^(−σ)`` is bounded above by its partial sum over
 ``n ≤ P`` plus ``∫_P^∞ log t·t^(−σ) dt``.  We take the smallest ``Z`` over
-``σ ∈ {1.25, 1.5, 1.75, 2, 2.5, 3}``.  Roughly the radius is ``5.4·log q/(√x log x)``:
-0.5 % of ``L`` at ``q = 10^20`` and ``P = 2·10^7``.  The argument is the classical
+``σ ∈ {1.25, 1.5, 1.75, 2, 2.5, 3}``.  For large ``q`` the radius is about
+``4·log q/(√x log x)``: 0.4 % of ``L`` at ``q = 4·10^20`` and ``P = 2·10^7``.  The argument is the classical
 contour shift of the explicit formula (Davenport, *Multiplicative Number Theory*,
 Ch. 12 and 19) with the weight above, the weight used by Bach ("Improved approximations
 for Euler products", 1995) for the same purpose; the constants are our own and are
