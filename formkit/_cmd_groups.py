@@ -1,11 +1,11 @@
-"""Commands ``group``, ``compose`` and ``power``: class groups and composition."""
+"""Commands ``group``, ``class-number``, ``compose`` and ``power``: class groups and composition."""
 
 from __future__ import annotations
 
 import argparse
 
 from ._parse import parse_integer
-from .classgroup import class_group
+from .classgroup import class_group, class_numbers
 from .composition import compose, power
 from .forms import as_form
 
@@ -31,10 +31,17 @@ def _cmd_group(args: argparse.Namespace) -> int:
         ]
         if G.discriminant > 0:
             lines.append(f"class number, wide sense: {payload['class_number_wide']}")
-            t, u = payload["fundamental_unit"]
-            lines.append(
-                f"fundamental unit: ({t} + {u}*sqrt({G.discriminant}))/2, norm {payload['fundamental_unit_norm']:+d}"
-            )
+            if payload["fundamental_unit"] is None:
+                lines.append(
+                    f"fundamental unit: norm {payload['fundamental_unit_norm']:+d}, not written out "
+                    f"(about {payload['regulator'] / 2.302585092994046:.3g} digits)"
+                )
+            else:
+                t, u = payload["fundamental_unit"]
+                lines.append(
+                    f"fundamental unit: ({t} + {u}*sqrt({G.discriminant}))/2, "
+                    f"norm {payload['fundamental_unit_norm']:+d}"
+                )
             lines.append(f"regulator: {payload['regulator']:.15g}")
         lines.append("generators: " + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants)) if G.invariants else "generators: none (trivial group)")
         lines.append(f"method: {prov}")
@@ -48,6 +55,35 @@ def _cmd_group(args: argparse.Namespace) -> int:
                 lines.append(f"{str(f):>24}  {x.order:>6}  {list(G.discrete_log(x))}")
             if len(rows) > len(shown):
                 lines.append(f"... {len(rows) - len(shown)} more classes (use --max-rows or --json)")
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def _cmd_class_number(args: argparse.Namespace) -> int:
+    from .cli import emit
+
+    D = parse_integer(args.discriminant, "discriminant")
+    payload = class_numbers(D, method=args.method)
+
+    def human() -> str:
+        lines = [f"discriminant {payload['discriminant']}"]
+        if payload["discriminant"] > 0:
+            lines += [
+                f"narrow class number h+: {payload['class_number']}",
+                f"class number h (wide sense): {payload['class_number_wide']}",
+                f"regulator: {payload['regulator']:.15g}",
+                f"norm of the fundamental unit: {payload['fundamental_unit_norm']:+d}",
+            ]
+        else:
+            lines.append(f"class number: {payload['class_number']}")
+        how = "unconditional" if payload["certified"] else f"conditional on {payload['assumption']}"
+        if payload["bound"] is not None and not payload["certified"]:
+            how += f" (bound {payload['bound']})"
+        lines.append(f"method: {payload['method']}, {how}")
+        if payload["detail"]:
+            lines.append(f"how: {payload['detail']}")
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -74,7 +110,7 @@ def _cmd_power(args: argparse.Namespace) -> int:
 
 
 def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
-    """Add the ``group``, ``compose`` and ``power`` commands."""
+    """Add the ``group``, ``class-number``, ``compose`` and ``power`` commands."""
     p = sub.add_parser(
         "group",
         parents=[parent],
@@ -101,6 +137,32 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     p.add_argument("--max-rows", type=int, default=200, help="classes listed in the text table (default 200)")
     p.set_defaults(handler=_cmd_group)
+
+    c = sub.add_parser(
+        "class-number",
+        parents=[parent],
+        help="class number(s) of a discriminant, and the regulator when D > 0, without the structure",
+        description=(
+            "The class number h(D); for D > 0 also the wide class number, the regulator and the "
+            "norm of the fundamental unit. Reaches further than 'group' for D > 0, where the "
+            "structure needs short cycles of reduced forms. Says how the result was obtained. "
+            "Python: formkit.class_numbers(D)."
+        ),
+        epilog=(
+            "examples:\n  formkit class-number 10^12+1\n  formkit class-number 10^20+1 --json\n"
+            "  formkit class-number -4*10^25-4 --method bsgs"
+        ),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    c.add_argument("discriminant", help="the discriminant D (negative or positive)")
+    c.add_argument(
+        "--method",
+        choices=("auto", "enumerate", "bsgs"),
+        default="auto",
+        help="enumerate (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
+        "infrastructure and the analytic interval for D > 0), or auto",
+    )
+    c.set_defaults(handler=_cmd_class_number)
 
     q = sub.add_parser(
         "compose",

@@ -42,13 +42,18 @@ __all__ = [
     "ClassGroup",
     "ClassGroupElement",
     "class_group",
+    "class_numbers",
     "ENUMERATION_LIMIT",
+    "REAL_ENUMERATION_LIMIT",
 ]
 
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
 #: (about √|D| work); above it the baby-step giant-step path of
 #: :mod:`formkit.large_discriminants` is used when present.
 ENUMERATION_LIMIT = 10**11  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
+#: For D > 0, ``method="auto"`` enumerates up to this D (about 2 s here at 10^9, 10 s at
+#: 10^10, 3 min at 10^12) and uses :func:`formkit.infrastructure.real_class_group` above.
+REAL_ENUMERATION_LIMIT = 10**9
 
 Triple = Tuple[int, int, int]
 
@@ -474,7 +479,7 @@ class ClassGroup:
             "assumption": self._provenance.assumption,
             "bound": self._provenance.bound,
         }
-        if self._D > 0 and self._units is not None:  # the unit may have billions of digits
+        if self._D > 0 and self._units is not None and self._units[0] > 2000:  # the unit has > 860 digits
             out["class_number_wide"] = self.class_number_wide
             out["regulator"] = self._units[0]
             out["fundamental_unit"] = None
@@ -517,9 +522,10 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
         A non-square discriminant (fundamental or not, negative or positive).
     method : {"auto", "enumerate", "bsgs"}
         ``"enumerate"`` lists every class (unconditional, about √|D| work);
-        ``"bsgs"`` uses baby-step giant-step under GRH (D < 0, see
-        :mod:`formkit.large_discriminants`); ``"auto"`` enumerates up to
-        :data:`ENUMERATION_LIMIT`.
+        ``"bsgs"`` uses baby-step giant-step under GRH (D < 0: see
+        :mod:`formkit.large_discriminants`; D > 0: the infrastructure and class orders of
+        :mod:`formkit.infrastructure`); ``"auto"`` enumerates up to
+        :data:`ENUMERATION_LIMIT` for D < 0 and :data:`REAL_ENUMERATION_LIMIT` for D > 0.
 
     Returns
     -------
@@ -543,6 +549,10 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     D = validate_discriminant(D)
     if method not in ("auto", "enumerate", "bsgs"):
         raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
+    if D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT)):
+        from .infrastructure import real_class_group
+
+        return real_class_group(D)
     if method == "bsgs" or (method == "auto" and D < 0 and -D > ENUMERATION_LIMIT):
         try:
             from .large_discriminants import class_group_bsgs
@@ -563,3 +573,61 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     return cached
 
 
+
+
+def class_numbers(D: object, method: str = "auto") -> dict:
+    """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
+
+    For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
+    :func:`formkit.infrastructure.real_class_number`, which needs no cycle walk beyond
+    ``√(h·R)`` steps and so reaches much further than :func:`class_group`.
+
+    Parameters
+    ----------
+    D : int
+        A non-square discriminant.
+    method : {"auto", "enumerate", "bsgs"}
+        As for :func:`class_group`.
+
+    Returns
+    -------
+    dict
+        ``discriminant``, ``class_number`` (narrow for ``D > 0``) and, for ``D > 0``,
+        ``class_number_wide``, ``regulator`` (float) and ``fundamental_unit_norm``; then
+        ``method``, ``certified``, ``assumption``, ``bound`` and ``detail`` saying how
+        the result was obtained.
+
+    Raises
+    ------
+    DiscriminantError
+        If ``D`` is not a non-square discriminant.
+    FormkitError
+        If ``method`` is unknown, or (D > 0) the class number is not determined.
+
+    Examples
+    --------
+    >>> r = class_numbers(4 * 79)
+    >>> r["class_number"], r["class_number_wide"], r["fundamental_unit_norm"], r["method"]
+    (6, 3, 1, 'enumeration')
+    >>> class_numbers(-23)["class_number"]
+    3
+    """
+    D = validate_discriminant(D)
+    if method not in ("auto", "enumerate", "bsgs"):
+        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
+    if D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT)):
+        from .infrastructure import real_class_number
+
+        r = real_class_number(D)
+        out = {"discriminant": D, "class_number": r.class_number, "class_number_wide": r.class_number_wide,
+               "regulator": r.regulator, "fundamental_unit_norm": r.unit_norm}
+        out.update(r.provenance.to_dict())
+        return out
+    G = class_group(D, method)
+    out = {"discriminant": D, "class_number": G.order}
+    if D > 0:
+        full = G.to_dict()
+        out.update(class_number_wide=full["class_number_wide"], regulator=full["regulator"],
+                   fundamental_unit_norm=full["fundamental_unit_norm"])
+    out.update(G.provenance.to_dict())
+    return out

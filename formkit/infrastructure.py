@@ -346,7 +346,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
         A positive non-square discriminant (fundamental or not).
     prime_bound : int, optional
         First truncation point of the Euler product (default: the larger of
-        :func:`formkit.lseries.default_prime_bound` and ``2·10^6``); it is lengthened
+        :func:`formkit.lseries.default_prime_bound` and ``min(2·10^6, D)``); it is lengthened
         tenfold, up to ``2·10^8``, while several class numbers remain possible.
 
     Returns
@@ -384,7 +384,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
         raise DiscriminantError(f"real_class_number needs a positive discriminant, not {D}")
     d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
-    P = max(default_prime_bound(D), 2 * 10**6) if prime_bound is None else prime_bound
+    P = max(default_prime_bound(D), min(2 * 10**6, D)) if prime_bound is None else prime_bound
     est = class_number_estimate(D, P)
     R, norm = _regulator_infrastructure(D, stats, est.upper)
     e = 1 if norm == -1 else 2

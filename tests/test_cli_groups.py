@@ -224,3 +224,50 @@ def test_real_subprocess():
     assert bad.returncode == 2 and bad.stdout == ""
     assert bad.stderr.startswith("formkit: error: ") and bad.stderr.count("\n") == 1
     assert "-5" in bad.stderr and "Traceback" not in bad.stderr
+
+
+# ---------------------------------------------------------------------------
+# D > 0 beyond enumeration, and class-number
+
+
+def test_group_positive_bsgs_json(capsys):
+    # C2 × C3336: formkit's enumeration of 10^10+1 (10 s) gives the same invariants
+    d = run_json(["group", "10^10+1", "--method", "bsgs"], capsys)
+    assert set(d) <= ISSUE_KEYS | REAL_KEYS | EXTRA_KEYS
+    assert d["invariants"] == [2, 3336] and d["class_number"] == 6672
+    assert d["method"] == "bsgs" and d["certified"] is False and d["assumption"] == "GRH"
+    assert d["forms"] is None and d["fundamental_unit"] == [200000, 2]
+
+
+def test_group_positive_huge_unit_not_written(capsys):
+    code, out, err = run(["group", "10^12+29"], capsys)  # auto: above the enumeration limit
+    assert code == 0 and err == ""
+    assert "C2 x C2   (order 4)" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
+    assert "not written out" in out and "conditional on GRH" in out
+
+
+def test_class_number_json_and_text(capsys):
+    d = run_json(["class-number", "10^12+1"], capsys)
+    # 50280: formkit's enumeration of all reduced forms of 10^12+1 (3 minutes) agrees
+    assert (d["class_number"], d["class_number_wide"], d["fundamental_unit_norm"]) == (50280, 50280, -1)
+    assert d["assumption"] == "GRH" and not d["certified"]
+    assert abs(d["regulator"] - math.log(10**6 + math.sqrt(10**12 + 1))) < 1e-9  # unit 10^6 + √D
+    code, out, err = run(["class-number", "-23"], capsys)
+    assert code == 0 and "class number: 3" in out and "unconditional" in out
+    code, out, err = run(["class-number", "316", "--method", "bsgs"], capsys)
+    assert "narrow class number h+: 6" in out and "(wide sense): 3" in out and "GRH" in out
+
+
+@pytest.mark.parametrize(
+    "argv, needle",
+    [
+        (["class-number", "17^2"], "289"),
+        (["class-number", "-5"], "-5"),
+        (["class-number", "x1"], "x1"),
+        (["class-number", "13", "--method", "magic"], "magic"),
+    ],
+)
+def test_class_number_bad_input(argv, needle, capsys):
+    code, out, err = run(argv, capsys)
+    assert code == 2 and out == ""
+    assert err.startswith("formkit: error: ") and err.count("\n") == 1 and needle in err
