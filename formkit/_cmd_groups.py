@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 
 from ._parse import parse_integer
-from .classgroup import class_group, class_numbers
+from .classgroup import class_group, class_number_summary
 from .composition import compose, power
 from .forms import as_form
 
@@ -65,7 +65,7 @@ def _cmd_class_number(args: argparse.Namespace) -> int:
     from .cli import emit
 
     D = parse_integer(args.discriminant, "discriminant")
-    payload = class_numbers(D, method=args.method)
+    payload = class_number_summary(D, method=args.method)
 
     def human() -> str:
         lines = [f"discriminant {payload['discriminant']}"]
@@ -146,7 +146,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "The class number h(D); for D > 0 also the wide class number, the regulator and the "
             "norm of the fundamental unit. Reaches further than 'group' for D > 0, where the "
             "structure needs short cycles of reduced forms. Says how the result was obtained. "
-            "Python: formkit.class_numbers(D)."
+            "Python: formkit.class_number_summary(D)."
         ),
         epilog=(
             "examples:\n  formkit class-number 10^12+1\n  formkit class-number 10^20+1 --json\n"

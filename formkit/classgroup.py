@@ -42,7 +42,7 @@ __all__ = [
     "ClassGroup",
     "ClassGroupElement",
     "class_group",
-    "class_numbers",
+    "class_number_summary",
     "ENUMERATION_LIMIT",
     "REAL_ENUMERATION_LIMIT",
 ]
@@ -575,7 +575,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
 
 
 
-def class_numbers(D: object, method: str = "auto") -> dict:
+def class_number_summary(D: object, method: str = "auto") -> dict:
     """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
 
     For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
@@ -606,10 +606,10 @@ def class_numbers(D: object, method: str = "auto") -> dict:
 
     Examples
     --------
-    >>> r = class_numbers(4 * 79)
+    >>> r = class_number_summary(4 * 79)
     >>> r["class_number"], r["class_number_wide"], r["fundamental_unit_norm"], r["method"]
     (6, 3, 1, 'enumeration')
-    >>> class_numbers(-23)["class_number"]
+    >>> class_number_summary(-23)["class_number"]
     3
     """
     D = validate_discriminant(D)

@@ -47,7 +47,7 @@ from .arith import kronecker, next_prime
 from .classgroup import ClassGroup, Provenance
 from .discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
-from .large_discriminants import BSGSStatistics
+from ._sylow import BSGSStatistics
 from .lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
@@ -204,7 +204,7 @@ class _NarrowOps:
 
 
 class _CanonicalOps:
-    """The interface of :mod:`formkit.large_discriminants`' Sylow code, on canonical forms."""
+    """The interface of the Sylow code (:mod:`formkit._sylow`), on canonical forms."""
 
     def __init__(self, ops: _NarrowOps) -> None:
         self.raw, self.stats = ops, ops.stats
@@ -485,7 +485,7 @@ def _genus_structure(D: int, f: int, rank: int):
 def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     """Invariants, generators, discrete log and a note, from prime forms until ``h⁺`` is reached."""
     from .arith import factorint
-    from .large_discriminants import _order_from_multiple, _Structure, _Sylow
+    from ._sylow import _order_from_multiple, _Structure, _Sylow
 
     cops = _CanonicalOps(ops)
     fac = factorint(narrow) if narrow > 1 else {}
@@ -522,7 +522,7 @@ def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
     Prime forms of increasing norm are then added one by one: the order of each divides
     ``h⁺`` and is found by factoring ``h⁺``; its Sylow parts enlarge the subgroup
     found so far (the ℓ-adic discrete logarithms and Smith normal form of
-    :mod:`formkit.large_discriminants`).  When the subgroup has ``h⁺`` classes it is the
+    :mod:`formkit._sylow`, shared with :mod:`formkit.large_discriminants`).  When the subgroup has ``h⁺`` classes it is the
     whole group: the classes of prime forms generate ``Cl⁺(D)``, so this ends.  Classes
     are compared through their canonical forms, found by walking their cycles of reduced
     forms, so the cycles (about ``R/1.19`` forms) must be shorter than

@@ -18,7 +18,7 @@ from hypothesis import given, settings, strategies as st
 import formkit.infrastructure as infra
 from formkit.analytic import class_number_dirichlet
 from formkit.arith import factorint
-from formkit.classgroup import class_group, class_numbers
+from formkit.classgroup import class_group, class_number_summary
 from formkit.discriminants import fundamental_unit, is_discriminant, regulator
 from formkit.errors import DiscriminantError, FormkitError
 from formkit.genus import genus_count
@@ -200,14 +200,14 @@ def test_class_group_dispatch_and_units():
     assert big.to_dict()["regulator"] == pytest.approx(math.log(10**10 + math.sqrt(10**20 + 1)))
 
 
-def test_class_numbers_function():
-    a = class_numbers(10**12 + 1)
+def test_class_number_summary_function():
+    a = class_number_summary(10**12 + 1)
     assert a["class_number"] == 50280  # enumeration (3 min, see the slow test) gives 50280
     assert a["assumption"] == "GRH" and a["method"] == "infrastructure+analytic"
-    b = class_numbers(316, method="enumerate")
+    b = class_number_summary(316, method="enumerate")
     assert (b["class_number"], b["class_number_wide"], b["certified"]) == (6, 3, True)
     with pytest.raises(FormkitError, match="method"):
-        class_numbers(316, method="fast")
+        class_number_summary(316, method="fast")
 
 
 @pytest.mark.slow

@@ -37,3 +37,19 @@ def test_unknown_attribute_is_an_attribute_error():
         assert "no_such_name" in str(exc)
     else:  # pragma: no cover
         raise AssertionError("expected AttributeError")
+
+
+def test_no_two_modules_export_one_name_for_different_objects():
+    # a star import would silently let the later module win (this caught a clash once)
+    owners = {}
+    for path in sorted(pathlib.Path(formkit.__file__).parent.glob("*.py")):
+        if path.stem.startswith("_") or path.stem == "cli":
+            continue
+        module = importlib.import_module(f"formkit.{path.stem}")
+        for name in getattr(module, "__all__", ()):
+            obj = getattr(module, name)
+            if name in owners:
+                other_module, other_obj = owners[name]
+                assert other_obj is obj, f"{name} exported by {other_module} and {path.stem}"
+            else:
+                owners[name] = (path.stem, obj)
