@@ -1,4 +1,4 @@
-"""Real quadratic orders beyond enumeration: regulator, narrow and wide class number.
+"""Real quadratic orders beyond enumeration: regulator, class numbers, narrow class group.
 
 For a positive non-square discriminant ``D`` the classes cannot be listed once ``D`` has
 more than about 12 digits, and walking the principal cycle costs ``R`` steps.  This
@@ -21,7 +21,13 @@ module finds, for the order of discriminant ``D``,
    cycle theorem; Buchmann–Vollmer Ch. 6; Cohen §5.6), which is tested by walking the
    cycle.  This is cheap exactly when it is needed: a large ``h`` means a small ``R``
    and so short cycles.  Then the Euler product is taken ten times further, and the
-   classes tried again.
+   classes tried again;
+4. the narrow class group ``Cl⁺(D)`` (:func:`real_class_group`): prime forms are added
+   until the subgroup they generate has ``h⁺`` classes, with the Sylow code of
+   :mod:`formkit._sylow`; classes are compared through canonical representatives found
+   by walking their cycles, which is practical while cycles are shorter than
+   :data:`CYCLE_LIMIT` (``R`` up to about ``2·10^6``).  When every genus is a single
+   class the group is ``C2^r`` and is read off the genus characters.
 
 Every result says which of these steps fixed ``h`` (``provenance.detail``); all are
 conditional on GRH through step 2 (``provenance.assumption == "GRH"``,
