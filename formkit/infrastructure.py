@@ -317,6 +317,11 @@ class RealClassNumber:
         out.update(self.provenance.to_dict())
         return out
 
+    def _repr_latex_(self) -> str:
+        D = self.discriminant
+        return (rf"$h^{{+}}({D}) = {self.class_number},\ h({D}) = {self.class_number_wide},\ "
+                rf"R({D}) \approx {self.regulator:.10g},\ N(\varepsilon) = {self.unit_norm:+d}$")
+
     def __repr__(self) -> str:
         return (f"RealClassNumber(D={self.discriminant}, narrow={self.class_number}, "
                 f"wide={self.class_number_wide}, regulator={self.regulator:.10g}, "

@@ -102,3 +102,16 @@ def test_examples_reject_nothing_silently():
         env={**os.environ, "PYTHONPATH": str(ROOT)},
     )
     assert proc.returncode != 0
+
+
+def test_real_fields_beyond_enumeration():
+    out = run_example("real_fields_beyond_enumeration.py")
+    assert "DISAGREE" not in out
+    # Biró (2003), Chowla's conjecture (from memory): h(4m²+1) = 1 only for m = 1, 2, 3, 5, 7, 13
+    assert "Biro's theorem: h = 1 for m in [1, 2, 3, 5, 7, 13]: agrees" in out
+    # every m = 10^k row: R = log(2m + √D) exactly and N(ε) = −1 (the unit 2m + √D)
+    rows = [ln for ln in out.splitlines() if ln.strip().endswith("agrees") and ln.strip()[:2].strip().isdigit()]
+    assert len(rows) >= 6
+    # enumeration and the infrastructure give the same group at D = 4·10^8 + 1
+    assert "D = 400000001: enumeration C1584, infrastructure C1584: agrees" in out
+    assert "conditional on GRH" in out
