@@ -65,7 +65,7 @@ def _cmd_class_number(args: argparse.Namespace) -> int:
     from .cli import emit
 
     D = parse_integer(args.discriminant, "discriminant")
-    payload = class_number_summary(D, method=args.method)
+    payload = class_number_summary(D, method=args.method, interval=args.interval)
 
     def human() -> str:
         lines = [f"discriminant {payload['discriminant']}"]
@@ -84,6 +84,12 @@ def _cmd_class_number(args: argparse.Namespace) -> int:
         lines.append(f"method: {payload['method']}, {how}")
         if payload["detail"]:
             lines.append(f"how: {payload['detail']}")
+        iv = payload.get("analytic_interval")
+        if iv:
+            lines.append(
+                f"analytic interval for {iv['of']} (holds under {iv['assumption']}; Euler product to "
+                f"{iv['prime_bound']}): [{iv['lower']:.10g}, {iv['upper']:.10g}]"
+            )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -150,6 +156,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         epilog=(
             "examples:\n  formkit class-number 10^12+1\n  formkit class-number 10^20+1 --json\n"
+            "  formkit class-number -10^9-7 --interval\n"
             "  formkit class-number -4*10^25-4 --method bsgs"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
@@ -161,6 +168,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         default="auto",
         help="enumerate (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
         "infrastructure and the analytic interval for D > 0), or auto",
+    )
+    c.add_argument(
+        "--interval",
+        action="store_true",
+        help="also print the interval for h (D < 0) or h*R (D > 0) that L(1, chi_D) gives under GRH",
     )
     c.set_defaults(handler=_cmd_class_number)
 

@@ -575,7 +575,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
 
 
 
-def class_number_summary(D: object, method: str = "auto") -> dict:
+def class_number_summary(D: object, method: str = "auto", *, interval: bool = False) -> dict:
     """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
 
     For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
@@ -588,6 +588,10 @@ def class_number_summary(D: object, method: str = "auto") -> dict:
         A non-square discriminant.
     method : {"auto", "enumerate", "bsgs"}
         As for :func:`class_group`.
+    interval : bool
+        Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
+        (``D > 0``) from :func:`formkit.lseries.class_number_estimate` (primes up to
+        ``min(2·10^6, |D|)`` or the default bound if larger), which holds under GRH.
 
     Returns
     -------
@@ -622,12 +626,20 @@ def class_number_summary(D: object, method: str = "auto") -> dict:
         out = {"discriminant": D, "class_number": r.class_number, "class_number_wide": r.class_number_wide,
                "regulator": r.regulator, "fundamental_unit_norm": r.unit_norm}
         out.update(r.provenance.to_dict())
-        return out
-    G = class_group(D, method)
-    out = {"discriminant": D, "class_number": G.order}
-    if D > 0:
-        full = G.to_dict()
-        out.update(class_number_wide=full["class_number_wide"], regulator=full["regulator"],
-                   fundamental_unit_norm=full["fundamental_unit_norm"])
-    out.update(G.provenance.to_dict())
+    else:
+        G = class_group(D, method)
+        out = {"discriminant": D, "class_number": G.order}
+        if D > 0:
+            full = G.to_dict()
+            out.update(class_number_wide=full["class_number_wide"], regulator=full["regulator"],
+                       fundamental_unit_norm=full["fundamental_unit_norm"])
+        out.update(G.provenance.to_dict())
+    if interval:
+        from .lseries import class_number_estimate, default_prime_bound
+
+        est = class_number_estimate(D, max(default_prime_bound(D), min(2 * 10**6, abs(D))))
+        out["analytic_interval"] = {
+            "of": "h" if D < 0 else "h*R", "lower": est.lower, "upper": est.upper,
+            "estimate": est.estimate, "prime_bound": est.l_value.prime_bound, "assumption": est.assumption,
+        }
     return out

@@ -588,7 +588,8 @@ def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
         raise FormkitError(
             f"the cycles of reduced forms of D = {D} are longer than {CYCLE_LIMIT} forms "
             f"(regulator {r.regulator:.6g}), too long for the class group structure here; "
-            f"h⁺ = {narrow}, h = {r.class_number_wide} and the regulator come from real_class_number"
+            f"h⁺ = {narrow}, h = {r.class_number_wide} and R come from real_class_number "
+            f"('formkit class-number {D}')"
         ) from None
 
     def canonical(x: Triple) -> Triple:

@@ -271,3 +271,15 @@ def test_class_number_bad_input(argv, needle, capsys):
     code, out, err = run(argv, capsys)
     assert code == 2 and out == ""
     assert err.startswith("formkit: error: ") and err.count("\n") == 1 and needle in err
+
+
+def test_class_number_interval(capsys):
+    # h(−10^9−7) = 26629 by enumeration (unconditional) must lie in the GRH interval
+    d = run_json(["class-number", "-10^9-7", "--interval"], capsys)
+    iv = d["analytic_interval"]
+    assert d["certified"] and iv["of"] == "h" and iv["assumption"] == "GRH"
+    assert iv["lower"] <= d["class_number"] <= iv["upper"]
+    # D > 0: the interval is for h·R (wide h)
+    d = run_json(["class-number", "316", "--interval"], capsys)
+    iv = d["analytic_interval"]
+    assert iv["of"] == "h*R" and iv["lower"] <= d["class_number_wide"] * d["regulator"] <= iv["upper"]
