@@ -231,7 +231,7 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
         return quick
     from .classgroup import class_group
 
-    G = class_group(D)
+    G = class_group(D, method="enumerate")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range
         raise FormkitError(f"class group of {D} is not certified ({G.provenance}); tables store only certified rows")
     inv = tuple(int(x) for x in G.invariants)
