@@ -573,8 +573,6 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     return cached
 
 
-
-
 def class_number_summary(D: object, method: str = "auto", *, interval: bool = False) -> dict:
     """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
 

@@ -13,8 +13,9 @@ is computed from the prime forms of small norm:
    :func:`formkit.lseries.class_number_estimate` (the estimate only decides where to
    look first; the search is exhaustive, so a poor estimate costs time, not
    correctness).  The class number found is then checked against the interval that
-   holds under GRH (:func:`formkit.lseries.l_value_estimate`).  Baby steps are stored by ``(a, |b|)``, which ``x^j`` and ``x^{-j}``
-   share, so each giant step covers ``2s + 1`` exponents.  The number of genera ``2^t``
+   holds under GRH (:func:`formkit.lseries.l_value_estimate`).  Baby steps are stored
+   by ``(a, |b|)``, which ``x^j`` and ``x^{-j}`` share, so each giant step covers
+   ``2s + 1`` exponents.  The number of genera ``2^t``
    divides ``h`` (genus theory), so the search runs on ``x^(2^t)`` over a range ``2^t``
    times shorter.  A multiple ``k`` with ``x^k = 1`` is turned into the exact order by
    factoring ``k``.
@@ -79,8 +80,6 @@ __all__ = [
 ]
 
 Triple = Tuple[int, int, int]
-
-
 
 
 _LAST: Dict[str, BSGSStatistics] = {}
