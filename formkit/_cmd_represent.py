@@ -20,6 +20,23 @@ def _nonnegative_int(text: str) -> int:
     return value
 
 
+def _parse_factors(text: str) -> dict:
+    """``'3^2*5*7^3'`` (or separated by spaces or commas) -> ``{3: 2, 5: 1, 7: 3}``; no evaluation."""
+    from .cli import CommandError
+
+    tokens = [t for t in text.replace("*", " ").replace(",", " ").split() if t]
+    if not tokens:
+        raise CommandError(f"--factors must look like 3^2*5*7, not {text!r}")
+    out: dict = {}
+    for tok in tokens:
+        base, _, exp = tok.partition("^")
+        if not base.isdigit() or (exp and not exp.isdigit()):
+            raise CommandError(f"--factors must look like 3^2*5*7 (primes and exponents in digits), not {tok!r}")
+        p, e = int(base), int(exp) if exp else 1
+        out[p] = out.get(p, 0) + e
+    return out
+
+
 def _cmd_represent(args: argparse.Namespace) -> int:
     from .cli import emit
     from .equivalence import fundamental_automorph
@@ -28,7 +45,8 @@ def _cmd_represent(args: argparse.Namespace) -> int:
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")
     limit = _nonnegative_int(args.limit) if args.limit is not None else None
-    res = represent(Q, n, primitive=args.primitive, limit=limit)
+    factors = _parse_factors(args.factors) if args.factors is not None else None
+    res = represent(Q, n, primitive=args.primitive, limit=limit, factors=factors)
     payload = res.to_dict()
 
     def human() -> str:
@@ -103,12 +121,13 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "of all and of primitive solutions and the list; for indefinite forms the solutions form "
             "infinitely many orbits under the automorphs: one solution per orbit (the smallest) is "
             "listed and count is null. N may be a large integer; it must be factorable. "
-            "Python: formkit.represent(form, N, primitive=..., limit=...)."
+            "Python: formkit.represent(form, N, primitive=..., limit=..., factors=...)."
         ),
         epilog=(
             "examples:\n  formkit represent 'x^2+y^2' 325\n  formkit represent 2,1,3 18 --json\n"
             "  formkit represent 'x^2-2y^2' 119 --primitive\n"
-            "  formkit represent 1,0,1 10^40 --limit 5"
+            "  formkit represent 1,0,1 10^40 --limit 5\n"
+            "  formkit represent 1,0,1 1625 --factors 5^3*13"
         ),
         formatter_class=raw,
     )
@@ -116,6 +135,13 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument("n", metavar="N", help="the integer to represent: digits of any length, or a power of ten such as 3*10^20")
     p.add_argument("--primitive", action="store_true", help="list only primitive solutions (gcd(x, y) = 1)")
     p.add_argument("--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)")
+    p.add_argument(
+        "--factors",
+        metavar="FACTORS",
+        default=None,
+        help="the factorisation of |N| if known, e.g. 3^2*5*7 (checked: primes whose product is |N|); "
+        "saves factoring a large N",
+    )
     p.set_defaults(handler=_cmd_represent)
 
     g = sub.add_parser(

@@ -114,3 +114,32 @@ def test_bad_input(capsys, argv):
     code, out, err = run(capsys, *argv)
     assert code == 2 and out == ""
     assert err.startswith("formkit: error: ") and err.count("\n") == 1
+
+
+def test_factors_option_for_a_large_n(capsys):
+    # N = p·q with 31-digit primes p, q ≡ 1 (mod 4) (sympy.nextprime, an outside reference):
+    # Jacobi's two-square theorem gives r₂(N) = 4·(d₁(N) − d₃(N)) = 4·4 = 16, all primitive
+    # since N is squarefree.  Without --factors this N would have to be factored first.
+    from sympy import isprime, nextprime
+
+    p = nextprime(10**30)
+    while p % 4 != 1:
+        p = nextprime(p)
+    q = nextprime(p)
+    while q % 4 != 1:
+        q = nextprime(q)
+    assert isprime(p) and isprime(q)
+    d = run_json(capsys, "represent", "1,0,1", str(p * q), "--factors", f"{p}*{q}")
+    assert d["count"] == 16 and d["primitive_count"] == 16
+    for x, y in d["solutions"]:
+        assert x * x + y * y == p * q
+
+
+@pytest.mark.parametrize(
+    "factors, needle",
+    [("5^3*11", "multiply to 1375"), ("5^x", "5^x"), ("25^2*13", "25"), ("", "--factors"), ("5^3*13*-1", "-1")],
+)
+def test_factors_option_bad_input(factors, needle, capsys):
+    code, out, err = run(capsys, "represent", "1,0,1", "1625", "--factors", factors)
+    assert code == 2 and out == ""
+    assert err.startswith("formkit: error: ") and err.count("\n") == 1 and needle in err
