@@ -83,6 +83,12 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     D = _integer(args.discriminant, "D")
     H = class_polynomial(D, verify=not args.no_verify)
     payload = H.to_dict()
+    disc = None
+    if args.discriminant_factors:
+        from .class_polynomials import class_polynomial_discriminant
+
+        disc = class_polynomial_discriminant(D)
+        payload["polynomial_discriminant"] = disc.to_dict()
 
     def human() -> str:
         lines = [
@@ -99,6 +105,12 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
                 f"< 10^{v.residual_exponent}, coefficients < 10^{v.bound_digits} (stated bound), root counts "
                 f"mod {list(v.primes_checked)} match the prime-form classes"
             )
+        if disc is not None:
+            sign = "-" if disc.value < 0 else ""
+            fac = " * ".join(f"{p}^{e}" if e > 1 else str(p) for p, e in disc.factors) or "1"
+            rest = "" if disc.complete else f" * {disc.cofactor} (not factored by trial division to {disc.trial_bound})"
+            n = len(str(abs(disc.value)))
+            lines.append(f"disc(H) = {sign}{fac}{rest}   ({n} digit{'s' if n != 1 else ''})")
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -142,13 +154,19 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "reduced forms, rounded to integers and verified (second computation at higher precision, "
             "rounding residuals, coefficient bound, roots modulo small primes). For fundamental D this "
             "is the Hilbert class polynomial, otherwise the ring class polynomial of the order. "
-            "Python: formkit.class_polynomial(D)."
+            "Python: formkit.class_polynomial(D) (and formkit.class_polynomial_discriminant(D))."
         ),
-        epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json",
+        epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors",
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     q.add_argument("discriminant", metavar="D", help="a negative discriminant, D ≡ 0 or 1 (mod 4)")
     q.add_argument("--no-verify", action="store_true", help="skip the verification (faster)")
+    q.add_argument(
+        "--discriminant-factors",
+        action="store_true",
+        help="also compute disc(H) exactly and its prime factors (the primes the class-polynomial "
+        "criterion for p = x^2 + ny^2 must exclude)",
+    )
     q.set_defaults(handler=_cmd_hilbert)
 
 

@@ -486,7 +486,8 @@ def _class_text(Q: Form, D: int, order: int, polynomial: bool) -> str:
     if polynomial and order == 1:
         text += (
             f" Equivalently, for odd p ∤ {abs(D)}·disc(H): p is represented iff ({D}/p) = 1 and H(x) ≡ 0 (mod p) "
-            f"is solvable, H the class polynomial of D = {D} (Cox Thm 9.2 / Thm 9.4, as recalled)."
+            f"is solvable, H the class polynomial of D = {D} (Cox Thm 9.2 / Thm 9.4, as recalled); "
+            f"formkit.class_polynomial_discriminant({D}) gives the primes dividing disc(H)."
         )
     elif polynomial:
         text += (

@@ -301,3 +301,59 @@ def test_large_class_numbers_verify(D):
     H = class_polynomial(D)
     assert H.degree == _brute_reduced_count(D)
     assert H.verification.residual_exponent <= -10
+
+
+# ---------------------------------------------------------------------------
+# disc(H_D)
+
+
+@pytest.mark.parametrize("D", [-23, -56, -71, -84, -3 * 49, -4 * 105])
+def test_discriminant_primes_are_the_repeated_root_primes(D):
+    # algebra (common practice): for monic H, p | disc(H) iff H mod p has a repeated root,
+    # i.e. gcd(H, H') mod p is not constant — checked with sympy's polynomials over GF(p)
+    import sympy
+
+    from formkit.class_polynomials import class_polynomial, class_polynomial_discriminant
+
+    d = class_polynomial_discriminant(D)
+    assert d.complete
+    x = sympy.Symbol("x")
+    H = class_polynomial(D).coefficients
+    for p in sympy.primerange(2, 600):
+        f = sympy.Poly(H, x, modulus=p)
+        repeated = sympy.gcd(f, f.diff(x)).degree() > 0
+        assert repeated == (d.value % p == 0), (D, p)
+
+
+@pytest.mark.parametrize("D", [-23, -56, -31])
+def test_discriminant_against_numerical_roots(D):
+    # independent: ∏_{i<j} (r_i − r_j)² over the complex roots (mpmath.polyroots, 60 digits)
+    import mpmath
+
+    from formkit.class_polynomials import class_polynomial, class_polynomial_discriminant
+
+    H = class_polynomial(D).coefficients
+    with mpmath.workdps(120):
+        roots = mpmath.polyroots([mpmath.mpf(c) for c in H], maxsteps=400, extraprec=400)
+        prod = mpmath.mpf(1)
+        for i in range(len(roots)):
+            for j in range(i + 1, len(roots)):
+                prod *= (roots[i] - roots[j]) ** 2
+        exact = class_polynomial_discriminant(D).value
+        assert abs(prod.imag) < abs(exact) * mpmath.mpf(10) ** -30
+        assert abs(prod.real - exact) < abs(exact) * mpmath.mpf(10) ** -30
+
+
+def test_discriminant_partial_factorisation_and_bad_bound():
+    from formkit.class_polynomials import class_polynomial_discriminant
+    from formkit.errors import FormkitError
+
+    full = class_polynomial_discriminant(-56)
+    part = class_polynomial_discriminant(-56, trial_bound=7)
+    assert part.value == full.value and not part.complete
+    prod = part.cofactor
+    for p, e in part.factors:
+        prod *= p**e
+    assert prod == abs(full.value) and all(p <= 7 for p in part.primes)
+    with pytest.raises(FormkitError, match="trial_bound"):
+        class_polynomial_discriminant(-56, trial_bound=1)

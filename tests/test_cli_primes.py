@@ -109,3 +109,22 @@ def test_bad_input_one_line_exit_2(capsys, argv, words):
     assert err.startswith("formkit: error: ") and err.count("\n") == 1
     assert words in err
     assert "Traceback" not in err
+
+
+def test_hilbert_discriminant_factors(capsys):
+    from formkit.cli import main
+    import json
+
+    code = main(["hilbert", "-15", "--discriminant-factors", "--json"])
+    out, err = capsys.readouterr()
+    assert code == 0 and err == ""
+    d = json.loads(out)["polynomial_discriminant"]
+    # H₋₁₅ = x² + 191025x − 121287375 (Cox §13, as recalled): disc = 191025² + 4·121287375
+    assert d["value"] == 191025**2 + 4 * 121287375 and d["complete"]
+    assert d["factors"] == [[3, 6], [5, 3], [7, 4], [13, 2]]  # sympy.factorint agrees below
+    import sympy
+
+    assert sympy.factorint(d["value"]) == {3: 6, 5: 3, 7: 4, 13: 2}
+    code = main(["hilbert", "-15", "--discriminant-factors"])
+    out, _ = capsys.readouterr()
+    assert "disc(H) = 3^6 * 5^3 * 7^4 * 13^2" in out
