@@ -5,7 +5,9 @@ Outside references: complete enumeration (formkit.enumeration / class_group(meth
 (Davenport Ch. 6); the lists of imaginary quadratic fields of class number 1 and 2
 (Heegner–Baker–Stark; from memory); genus theory (the 2-rank of Cl(D) is
 log2(number of genera), Gauss; Cox §3–§6) checked at 20- and 25-digit D where nothing
-can be enumerated; the exact fundamental unit (formkit.discriminants) for regulators.
+can be enumerated; Rédei's 4-rank theorem (1934, from memory; tests/_redei.py, checked
+here against enumeration first) at 20- to 28-digit D built from known primes; the exact
+fundamental unit (formkit.discriminants) for regulators.
 """
 
 import math
@@ -328,3 +330,59 @@ def test_group_operations_match_formkit_composition():
             elts.append(ops.mul(x, y))
         if G is not None:
             assert all((G(x) ** G.exponent).is_identity() for x in elts[:10])
+
+
+# ---------------------------------------------------------------------------
+# Rédei's 4-rank (tests/_redei.py) at discriminants far beyond enumeration
+
+
+def test_redei_formula_as_recalled_matches_enumeration():
+    from _redei import redei_four_rank
+
+    from formkit.discriminants import is_fundamental_discriminant
+
+    for D in [d for d in range(-3000, 3000) if d not in (0, 1) and is_fundamental_discriminant(d)]:
+        G = class_group(D, method="enumerate")
+        assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D), D
+
+
+def _built_discriminant(rng, primes_wanted, digits, sign):
+    """A fundamental D = (sign)·∏ p_i (times 4 or 8 when needed) with known factorisation."""
+    from sympy import randprime
+
+    while True:
+        ps = [int(randprime(10 ** (digits - 1), 10**digits)) for _ in range(primes_wanted)]
+        if len(set(ps)) < primes_wanted:
+            continue
+        n = sign
+        for p in ps:
+            n *= p
+        fac = {p: 1 for p in ps}
+        if n % 4 == 1:
+            return n, fac
+        fac[2] = 2
+        return 4 * n, fac  # n ≡ 3 mod 4: 4n is fundamental
+
+
+@pytest.mark.parametrize("seed", [1, 2, 3])
+def test_two_and_four_ranks_at_20_digits(seed):
+    # genus theory (2-rank t − 1, Gauss) and Rédei's 4-rank, both from the factorisation
+    from _redei import prime_discriminants, redei_four_rank
+
+    rng = random.Random(seed)
+    D, fac = _built_discriminant(rng, 4, 5, -1)
+    G = class_group_bsgs(D)
+    t = len(prime_discriminants(D, fac))
+    assert G.two_rank == t - 1
+    assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D, fac)
+
+
+@pytest.mark.parametrize("primes, digits", [(5, 5), (4, 7), (6, 5)])
+def test_two_and_four_ranks_at_25_to_30_digits(primes, digits):
+    from _redei import prime_discriminants, redei_four_rank
+
+    rng = random.Random(primes * digits)
+    D, fac = _built_discriminant(rng, primes, digits, -1)
+    G = class_group_bsgs(D)
+    assert G.two_rank == len(prime_discriminants(D, fac)) - 1
+    assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D, fac)
