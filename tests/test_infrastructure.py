@@ -6,7 +6,9 @@ formkit.analytic (Davenport Ch. 6); the exact fundamental unit (formkit.discrimi
 the theorems of Biró (2003) settling the conjectures of Chowla (h(4m²+1) = 1 only for
 m = 1, 2, 3, 5, 7, 13) and of Yokoi (h(m²+4) = 1 only for m = 1, 3, 5, 7, 13, 17), from
 memory; classical small fields Q(√34) (h = 2, h⁺ = 4 although 34 = 3² + 5²) and Q(√229)
-(the first prime p ≡ 1 mod 4 with h > 1, h = 3), from memory; genus theory (Gauss).
+(the first prime p ≡ 1 mod 4 with h > 1, h = 3), from memory; genus theory (Gauss) and
+Rédei's 4-rank theorem (tests/_redei.py, from memory, checked against enumeration in
+test_large_discriminants.py) at 12- and 20-digit D built from known primes.
 """
 
 import math
@@ -23,7 +25,7 @@ from formkit.discriminants import fundamental_unit, is_discriminant, regulator
 from formkit.errors import DiscriminantError, FormkitError
 from formkit.genus import genus_count
 from formkit.infrastructure import _intersect, _progression, real_class_group, real_class_number
-from formkit.large_discriminants import BSGSStatistics
+from formkit._sylow import BSGSStatistics
 
 
 def _random_positive(rng, count, top, nonfundamental_share=0.3):
@@ -232,3 +234,40 @@ def test_statistics_counted():
     st_ = BSGSStatistics()
     R, norm = infra._regulator_infrastructure(10**12 + 41, st_, 10**7)
     assert st_.baby_steps > 0 and R > 0 and norm in (1, -1)
+
+
+# ---------------------------------------------------------------------------
+# genus theory and Rédei's 4-rank (tests/_redei.py, from memory, checked against
+# enumeration in test_large_discriminants.py) beyond enumeration
+
+
+def _built_positive(seed, primes_wanted, digits):
+    from sympy import nextprime
+
+    rng = random.Random(seed)
+    while True:
+        ps = sorted({int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1)))) for _ in range(primes_wanted)})
+        n = math.prod(ps)
+        if len(ps) == primes_wanted and n % 4 == 1:
+            return n, {p: 1 for p in ps}
+
+
+@pytest.mark.parametrize("seed", [2, 3])  # Rédei 4-ranks 1 and 2
+def test_narrow_two_and_four_ranks_at_12_digits(seed):
+    from _redei import prime_discriminants, redei_four_rank
+
+    D, fac = _built_positive(seed, 3, 4)
+    G = real_class_group(D)
+    assert G.two_rank == len(prime_discriminants(D, fac)) - 1
+    assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D, fac)
+
+
+@pytest.mark.parametrize("seed", [1, 3, 4])  # Rédei 4-ranks 0, 1 and 2
+def test_two_power_divides_narrow_class_number_at_20_digits(seed):
+    # 2-rank t − 1 and 4-rank r₄ force 2^(t−1+r₄) | h⁺
+    from _redei import prime_discriminants, redei_four_rank
+
+    D, fac = _built_positive(seed, 4, 5)
+    r = real_class_number(D)
+    t = len(prime_discriminants(D, fac))
+    assert r.class_number % 2 ** (t - 1 + redei_four_rank(D, fac)) == 0

@@ -348,10 +348,10 @@ def test_redei_formula_as_recalled_matches_enumeration():
 
 def _built_discriminant(rng, primes_wanted, digits, sign):
     """A fundamental D = (sign)·∏ p_i (times 4 or 8 when needed) with known factorisation."""
-    from sympy import randprime
+    from sympy import nextprime
 
     while True:
-        ps = [int(randprime(10 ** (digits - 1), 10**digits)) for _ in range(primes_wanted)]
+        ps = [int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1)))) for _ in range(primes_wanted)]
         if len(set(ps)) < primes_wanted:
             continue
         n = sign
@@ -364,7 +364,7 @@ def _built_discriminant(rng, primes_wanted, digits, sign):
         return 4 * n, fac  # n ≡ 3 mod 4: 4n is fundamental
 
 
-@pytest.mark.parametrize("seed", [1, 2, 3])
+@pytest.mark.parametrize("seed", [1, 3, 4])  # Rédei 4-ranks 1, 0 and 2
 def test_two_and_four_ranks_at_20_digits(seed):
     # genus theory (2-rank t − 1, Gauss) and Rédei's 4-rank, both from the factorisation
     from _redei import prime_discriminants, redei_four_rank
