@@ -18,6 +18,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 import formkit.infrastructure as infra
+from _discriminants import built_discriminant, random_discriminants
 from formkit.analytic import class_number_dirichlet
 from formkit.arith import factorint
 from formkit.classgroup import class_group, class_number_summary
@@ -26,20 +27,6 @@ from formkit.errors import DiscriminantError, FormkitError
 from formkit.genus import genus_count
 from formkit.infrastructure import _intersect, _progression, real_class_group, real_class_number
 from formkit._sylow import BSGSStatistics
-
-
-def _random_positive(rng, count, top, nonfundamental_share=0.3):
-    out = []
-    while len(out) < count:
-        D = rng.randrange(5, int(10 ** rng.uniform(1, math.log10(top))))
-        if not is_discriminant(D) or math.isqrt(D) ** 2 == D:
-            continue
-        if rng.random() < nonfundamental_share:
-            f = rng.choice([2, 3, 5, 6])
-            if D * f * f < top:
-                D *= f * f
-        out.append(D)
-    return out
 
 
 def _squarefree(n):
@@ -55,7 +42,7 @@ def test_against_enumeration_random(start):
     # start=100: a very short Euler product, so the candidates must be cut down by the
     # orders of classes and by lengthening the product
     rng = random.Random(2026 if start is None else 7)
-    for D in _random_positive(rng, 40, 10**6):
+    for D in random_discriminants(rng, 40, 10**6, negative=False):
         r = real_class_number(D, prime_bound=start)
         E = class_group(D, method="enumerate")
         assert (r.class_number, r.class_number_wide) == (E.order, E.class_number_wide), D
@@ -160,7 +147,7 @@ def test_progression_respects_genera_and_unit_norm():
 
 def test_class_group_against_enumeration_random():
     rng = random.Random(31)
-    for D in _random_positive(rng, 40, 10**6):
+    for D in random_discriminants(rng, 40, 10**6, negative=False):
         G = real_class_group(D)
         E = class_group(D, method="enumerate")
         assert G.invariants == E.invariants, D
@@ -224,7 +211,7 @@ def test_large_against_enumeration():
 @pytest.mark.slow
 def test_many_against_enumeration():
     rng = random.Random(8)
-    for D in _random_positive(rng, 150, 10**8):
+    for D in random_discriminants(rng, 150, 10**8, negative=False):
         G = real_class_group(D)
         E = class_group(D, method="enumerate")
         assert G.invariants == E.invariants, D
@@ -241,33 +228,22 @@ def test_statistics_counted():
 # enumeration in test_large_discriminants.py) beyond enumeration
 
 
-def _built_positive(seed, primes_wanted, digits):
-    from sympy import nextprime
-
-    rng = random.Random(seed)
-    while True:
-        ps = sorted({int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1)))) for _ in range(primes_wanted)})
-        n = math.prod(ps)
-        if len(ps) == primes_wanted and n % 4 == 1:
-            return n, {p: 1 for p in ps}
-
-
-@pytest.mark.parametrize("seed", [2, 3])  # Rédei 4-ranks 1 and 2
+@pytest.mark.parametrize("seed", [1, 3])  # Rédei 4-ranks 0 and 1
 def test_narrow_two_and_four_ranks_at_12_digits(seed):
     from _redei import prime_discriminants, redei_four_rank
 
-    D, fac = _built_positive(seed, 3, 4)
+    D, fac = built_discriminant(random.Random(seed), 3, 4, 1)
     G = real_class_group(D)
     assert G.two_rank == len(prime_discriminants(D, fac)) - 1
     assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D, fac)
 
 
-@pytest.mark.parametrize("seed", [1, 3, 4])  # Rédei 4-ranks 0, 1 and 2
+@pytest.mark.parametrize("seed", [1, 2, 4])  # Rédei 4-ranks 0, 1 and 2
 def test_two_power_divides_narrow_class_number_at_20_digits(seed):
     # 2-rank t − 1 and 4-rank r₄ force 2^(t−1+r₄) | h⁺
     from _redei import prime_discriminants, redei_four_rank
 
-    D, fac = _built_positive(seed, 4, 5)
+    D, fac = built_discriminant(random.Random(seed), 4, 5, 1)
     r = real_class_number(D)
     t = len(prime_discriminants(D, fac))
     assert r.class_number % 2 ** (t - 1 + redei_four_rank(D, fac)) == 0

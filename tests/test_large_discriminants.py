@@ -10,7 +10,6 @@ here against enumeration first) at 20- to 28-digit D built from known primes; th
 fundamental unit (formkit.discriminants) for regulators.
 """
 
-import math
 import random
 
 import pytest
@@ -23,6 +22,7 @@ from formkit.discriminants import fundamental_unit, is_discriminant, is_fundamen
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotPrimitiveError
 from formkit.forms import Form
 from formkit.genus import genus_count
+from _discriminants import built_discriminant, random_discriminants
 from formkit.large_discriminants import (
     bach_bound,
     class_group_bsgs,
@@ -32,24 +32,8 @@ from formkit.large_discriminants import (
 from formkit.infrastructure import real_class_number
 
 
-def _random_discriminants(rng, count, top, negative=True, nonfundamental_share=0.3):
-    out = []
-    while len(out) < count:
-        D = rng.randrange(3, int(10 ** rng.uniform(1, math.log10(top))))  # log-uniform sizes
-        D = -D if negative else D
-        if not is_discriminant(D) or (not negative and math.isqrt(D) ** 2 == D):
-            continue
-        if rng.random() < nonfundamental_share:
-            f = rng.choice([2, 3, 5, 6, 7])
-            if abs(D) * f * f < top:
-                D *= f * f
-        out.append(D)
-    return out
-
-
 def _random_elements(G, rng, k):
     """Random classes built from prime forms (not from the structure being tested)."""
-    D = G.discriminant
     primes = [p for p in range(2, 400) if all(p % q for q in range(2, p))]
     forms = []
     for p in primes:
@@ -97,7 +81,7 @@ def _check_structure(G):
 
 def test_agrees_with_enumeration_random():
     rng = random.Random(61)
-    for D in _random_discriminants(rng, 20, 10**8):
+    for D in random_discriminants(rng, 20, 10**8):
         G = _check_against_enumeration(D, rng)
         _check_structure(G)
 
@@ -105,7 +89,7 @@ def test_agrees_with_enumeration_random():
 @pytest.mark.slow
 def test_agrees_with_enumeration_random_large():
     rng = random.Random(62)
-    for D in _random_discriminants(rng, 60, 10**10):
+    for D in random_discriminants(rng, 60, 10**10):
         _check_against_enumeration(D, rng, 10)
 
 
@@ -221,7 +205,7 @@ def test_bad_input():
 
 def test_real_against_enumeration_random():
     rng = random.Random(5)
-    for D in _random_discriminants(rng, 25, 10**6, negative=False):
+    for D in random_discriminants(rng, 25, 10**6, negative=False):
         r = real_class_number(D)
         E = class_group(D, method="enumerate")
         assert (r.class_number, r.class_number_wide) == (E.order, E.class_number_wide), D
@@ -254,7 +238,7 @@ def test_real_large_regulator_consistency():
 @pytest.mark.slow
 def test_real_against_enumeration_large():
     rng = random.Random(55)
-    for D in _random_discriminants(rng, 40, 10**8, negative=False):
+    for D in random_discriminants(rng, 40, 10**8, negative=False):
         r = real_class_number(D)
         E = class_group(D, method="enumerate")
         assert (r.class_number, r.class_number_wide) == (E.order, E.class_number_wide), D
@@ -346,31 +330,13 @@ def test_redei_formula_as_recalled_matches_enumeration():
         assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D), D
 
 
-def _built_discriminant(rng, primes_wanted, digits, sign):
-    """A fundamental D = (sign)·∏ p_i (times 4 or 8 when needed) with known factorisation."""
-    from sympy import nextprime
-
-    while True:
-        ps = [int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1)))) for _ in range(primes_wanted)]
-        if len(set(ps)) < primes_wanted:
-            continue
-        n = sign
-        for p in ps:
-            n *= p
-        fac = {p: 1 for p in ps}
-        if n % 4 == 1:
-            return n, fac
-        fac[2] = 2
-        return 4 * n, fac  # n ≡ 3 mod 4: 4n is fundamental
-
-
 @pytest.mark.parametrize("seed", [1, 3, 4])  # Rédei 4-ranks 1, 0 and 2
 def test_two_and_four_ranks_at_20_digits(seed):
     # genus theory (2-rank t − 1, Gauss) and Rédei's 4-rank, both from the factorisation
     from _redei import prime_discriminants, redei_four_rank
 
     rng = random.Random(seed)
-    D, fac = _built_discriminant(rng, 4, 5, -1)
+    D, fac = built_discriminant(rng, 4, 5, -1)
     G = class_group_bsgs(D)
     t = len(prime_discriminants(D, fac))
     assert G.two_rank == t - 1
@@ -382,7 +348,7 @@ def test_two_and_four_ranks_at_25_to_30_digits(primes, digits):
     from _redei import prime_discriminants, redei_four_rank
 
     rng = random.Random(primes * digits)
-    D, fac = _built_discriminant(rng, primes, digits, -1)
+    D, fac = built_discriminant(rng, primes, digits, -1)
     G = class_group_bsgs(D)
     assert G.two_rank == len(prime_discriminants(D, fac)) - 1
     assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D, fac)
