@@ -63,6 +63,8 @@ Triple = Tuple[int, int, int]
 #: Longest cycle of reduced forms walked to find a class's canonical form (about 2.5 s
 #: at 0.8 million ρ-steps per second; cycles have about R/1.19 forms).
 CYCLE_LIMIT = 2_000_000
+#: Most baby steps stored by the regulator search (about 300 bytes each: 2.5 GB).
+REGULATOR_STEP_LIMIT = 1 << 23
 #: Classes (prime forms) tried against the candidates before the Euler product is lengthened.
 CLASSES_PER_ROUND = 24
 
@@ -100,7 +102,8 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     baby: Dict[Tuple[int, int], Tuple[float, int]] = {(1, b0): (0.0, 1)}
     a, b, c = a0, b0, c0
     dist, sign = 0.0, 1
-    forms = [((a0, b0, c0), 0.0, 1)]
+    half = target / 2
+    giant = (abs(half), (a0, b0, c0), 0.0, 1)  # the baby form nearest to distance target/2
     while dist < target:
         a, b, c, dd, s = step(a, b, c)
         dist += dd
@@ -108,11 +111,17 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
         stats.baby_steps += 1
         if (abs(a), b) == (1, b0):  # the whole cycle: R directly
             return dist, sign
+        if len(baby) > REGULATOR_STEP_LIMIT:
+            raise FormkitError(
+                f"the regulator of D = {D} needs more than {REGULATOR_STEP_LIMIT} stored reduction "
+                f"steps (h·R may be up to {hR_upper:.3g}): beyond this implementation's memory budget"
+            )
         baby[(abs(a), b)] = (dist, sign)
-        forms.append(((a, b, c), dist, sign))
+        if abs(dist - half) < giant[0]:
+            giant = (abs(dist - half), (a, b, c), dist, sign)
     T = dist
-    # giant form: the baby form nearest to distance T/2, made positive (same ideal)
-    (ga, gb, gc), gdist, gsign = min(forms, key=lambda t: abs(t[1] - T / 2))
+    # giant form: made positive (the same ideal)
+    _gap, (ga, gb, gc), gdist, gsign = giant
     if ga < 0:
         ga, gc = -ga, -gc
     fa, fb, fc, fdist, fsign = ga, gb, gc, gdist, gsign

@@ -247,3 +247,10 @@ def test_two_power_divides_narrow_class_number_at_20_digits(seed):
     r = real_class_number(D)
     t = len(prime_discriminants(D, fac))
     assert r.class_number % 2 ** (t - 1 + redei_four_rank(D, fac)) == 0
+
+
+def test_regulator_search_has_a_memory_budget(monkeypatch):
+    monkeypatch.setattr(infra, "REGULATOR_STEP_LIMIT", 10)
+    with pytest.raises(FormkitError, match="memory budget"):
+        real_class_number(10**12 + 29)  # R ≈ 2.7·10^5: thousands of baby steps
+    assert real_class_number(10**20 + 1).class_number == 352006328  # R tiny: the cycle closes at once
