@@ -30,7 +30,7 @@ def _parse_factors(text: str) -> dict:
     out: dict = {}
     for tok in tokens:
         base, _, exp = tok.partition("^")
-        if not base.isdigit() or (exp and not exp.isdigit()):
+        if not (base.isascii() and base.isdigit()) or (exp and not (exp.isascii() and exp.isdigit())):
             raise CommandError(f"--factors must look like 3^2*5*7 (primes and exponents in digits), not {tok!r}")
         p, e = int(base), int(exp) if exp else 1
         out[p] = out.get(p, 0) + e

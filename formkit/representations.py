@@ -88,6 +88,8 @@ def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
             raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
         if e == 0:
             continue
+        if e > max(1, n.bit_length()):  # p^e would exceed |n|: refuse before computing it
+            raise FormkitError(f"the given factor {p}^{e} exceeds |n| = {n}")
         if not is_probable_prime(p):
             raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
         fac[p] = fac.get(p, 0) + e

@@ -137,7 +137,8 @@ def test_factors_option_for_a_large_n(capsys):
 
 @pytest.mark.parametrize(
     "factors, needle",
-    [("5^3*11", "multiply to 1375"), ("5^x", "5^x"), ("25^2*13", "25"), ("", "--factors"), ("5^3*13*-1", "-1")],
+    [("5^3*11", "multiply to 1375"), ("5^x", "5^x"), ("25^2*13", "25"), ("", "--factors"), ("5^3*13*-1", "-1"),
+     ("5²*13", "5²"), ("5^99999999999", "exceeds")],
 )
 def test_factors_option_bad_input(factors, needle, capsys):
     code, out, err = run(capsys, "represent", "1,0,1", "1625", "--factors", factors)
