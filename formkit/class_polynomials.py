@@ -623,7 +623,7 @@ def class_polynomial_discriminant(D: object, *, trial_bound: "int | None" = None
     NotAnIntegerError, DiscriminantError
         If ``D`` is not a negative discriminant.
     FormkitError
-        If ``trial_bound`` is not an integer ≥ 2.
+        If ``trial_bound`` is not an integer in ``[2, 10^9]``.
 
     Examples
     --------
@@ -644,8 +644,8 @@ def class_polynomial_discriminant(D: object, *, trial_bound: "int | None" = None
 
     D = _check_negative(D)
     bound = abs(D) if trial_bound is None else as_int(trial_bound, "trial_bound")
-    if bound < 2:
-        raise FormkitError(f"trial_bound must be an integer ≥ 2, not {bound}")
+    if not 2 <= bound <= 10**9:
+        raise FormkitError(f"trial_bound must be an integer in [2, 10^9], not {bound}")
     coeffs = class_polynomial(D).coefficients
     x = sympy.Symbol("x")
     value = int(sympy.discriminant(sympy.Poly(coeffs, x, domain="ZZ")))

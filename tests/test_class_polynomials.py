@@ -357,3 +357,5 @@ def test_discriminant_partial_factorisation_and_bad_bound():
     assert prod == abs(full.value) and all(p <= 7 for p in part.primes)
     with pytest.raises(FormkitError, match="trial_bound"):
         class_polynomial_discriminant(-56, trial_bound=1)
+    with pytest.raises(FormkitError, match="trial_bound"):
+        class_polynomial_discriminant(-56, trial_bound=10**10)
