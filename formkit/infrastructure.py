@@ -65,6 +65,8 @@ Triple = Tuple[int, int, int]
 CYCLE_LIMIT = 2_000_000
 #: Most baby steps stored by the regulator search (about 300 bytes each: 2.5 GB).
 REGULATOR_STEP_LIMIT = 1 << 23
+#: Most candidates sieved by class orders (baby-step giant-step stores about √ of this).
+SIEVE_CANDIDATE_LIMIT = 1 << 40
 #: Classes (prime forms) tried against the candidates before the Euler product is lengthened.
 CLASSES_PER_ROUND = 24
 
@@ -421,7 +423,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
                 f"[{est.lower:.6g}, {est.upper:.6g}] for h·R and R = {R!r}"
             )
         tried = 0
-        while sieving and cand[2] > 1 and tried < CLASSES_PER_ROUND:
+        while sieving and 1 < cand[2] <= SIEVE_CANDIDATE_LIMIT and tried < CLASSES_PER_ROUND:
             p, x = next(classes)
             tried += 1
             try:

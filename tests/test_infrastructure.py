@@ -99,9 +99,10 @@ def test_unit_of_n_squared_plus_one():
     assert abs(r.regulator - math.log(10**10 + math.sqrt(D))) < 1e-9
 
 
-def test_not_determined_is_reported(monkeypatch):
+@pytest.mark.parametrize("knob, value", [("CLASSES_PER_ROUND", 0), ("SIEVE_CANDIDATE_LIMIT", 1)])
+def test_not_determined_is_reported(monkeypatch, knob, value):
     # with no class orders and no longer Euler product the candidates stay: an honest error
-    monkeypatch.setattr(infra, "CLASSES_PER_ROUND", 0)
+    monkeypatch.setattr(infra, knob, value)
     monkeypatch.setattr(infra, "MAX_PRIME_BOUND", 100)
     with pytest.raises(FormkitError, match="not determined"):
         real_class_number(10**12 + 1, prime_bound=100)
