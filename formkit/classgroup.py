@@ -513,6 +513,11 @@ class ClassGroup:
 _GROUP_CACHE: Dict[int, ClassGroup] = {}
 
 
+def _infrastructure_path(D: int, method: str) -> bool:
+    """True when ``D > 0`` is handled by :mod:`formkit.infrastructure` (GRH) for ``method``."""
+    return D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT))
+
+
 def class_group(D: object, method: str = "auto") -> ClassGroup:
     """The class group of discriminant ``D`` with its structure.
 
@@ -549,7 +554,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     D = validate_discriminant(D)
     if method not in ("auto", "enumerate", "bsgs"):
         raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
-    if D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT)):
+    if _infrastructure_path(D, method):
         from .infrastructure import real_class_group
 
         return real_class_group(D)
@@ -617,7 +622,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     D = validate_discriminant(D)
     if method not in ("auto", "enumerate", "bsgs"):
         raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
-    if D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT)):
+    if _infrastructure_path(D, method):
         from .infrastructure import real_class_number
 
         r = real_class_number(D)

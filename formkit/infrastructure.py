@@ -49,11 +49,11 @@ import math
 from math import isqrt
 from typing import Dict, List, Optional, Tuple
 
-from .arith import kronecker, next_prime
 from .classgroup import ClassGroup, Provenance
 from .discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from ._sylow import BSGSStatistics
+from .large_discriminants import _prime_forms
 from .lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
@@ -240,20 +240,6 @@ class _CanonicalOps:
         return self.raw.canonical(self.raw.pow(x, e))
 
 
-def _prime_classes(D: int, f: int):
-    """Reduced prime forms ``(p, b, c)`` (as narrow classes) for the primes with χ_D(p) ≠ −1, p ∤ f."""
-    from .forms import Form
-    from .reduction import _reduce_indefinite_raw
-
-    p, sq = 2, isqrt(D)
-    while True:
-        if kronecker(D, p) != -1 and f % p:
-            g = Form.prime_form(D, p)
-            a, b, c = _reduce_indefinite_raw(g.a, g.b, g.c, D, sq)
-            yield p, (int(a), int(b), int(c))
-        p = int(next_prime(p))
-
-
 #: Candidates ``k, k + step, …`` (``count`` of them): an arithmetic progression.
 Progression = Tuple[int, int, int]
 
@@ -412,7 +398,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
     e = 1 if norm == -1 else 2
     genera = genus_count(D)
     ops = _NarrowOps(D, stats)
-    classes = _prime_classes(D, f)
+    classes = _prime_forms(D, f)
     cand = _progression(est, R, e, genera)
     used: List[int] = []
     sieving = True
@@ -485,7 +471,7 @@ def _genus_structure(D: int, f: int, rank: int):
         return v, combo
 
     gens: List[Triple] = []
-    for p, x in _prime_classes(D, f):
+    for p, x in _prime_forms(D, f):
         if len(gens) == rank:
             break
         if p > GENERATOR_PRIME_LIMIT:  # pragma: no cover - every genus contains prime forms
@@ -513,7 +499,7 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     fac = factorint(narrow) if narrow > 1 else {}
     syl: Dict[int, _Sylow] = {}
     n, used = 1, []
-    for p, x in _prime_classes(D, f):
+    for p, x in _prime_forms(D, f):
         if n == narrow:
             break
         if p > GENERATOR_PRIME_LIMIT:  # pragma: no cover - prime forms generate Cl⁺(D)

@@ -298,15 +298,22 @@ def bach_bound(D: object) -> int:
     return int(6 * math.log(abs(D)) ** 2)
 
 
-def _prime_forms(D: int, f: int, start: int, stop: int):
-    """Reduced prime forms ``(p, b, c)`` of D for primes start ≤ p ≤ stop, p ∤ f, χ_D(p) ≠ −1."""
+def _prime_forms(D: int, f: int, stop: Optional[int] = None):
+    """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
+    with p ∤ f and χ_D(p) ≠ −1, in increasing order; shared with :mod:`formkit.infrastructure`."""
     from .forms import Form
+    from .reduction import _reduce_indefinite_raw
 
-    p = int(next_prime(start - 1)) if start > 2 else 2
-    while p <= stop:
+    sq = isqrt(D) if D > 0 else 0
+    p = 2
+    while stop is None or p <= stop:
         if kronecker(D, p) != -1 and f % p:
             g = Form.prime_form(D, p)
-            yield p, _Ops.reduce(g.a, g.b, g.c)
+            if D < 0:
+                yield p, _Ops.reduce(g.a, g.b, g.c)
+            else:
+                a, b, c = _reduce_indefinite_raw(g.a, g.b, g.c, D, sq)
+                yield p, (int(a), int(b), int(c))
         p = int(next_prime(p))
 
 
@@ -458,9 +465,9 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
             how = f"h(d_K) = {h_K} by baby-step giant-step under GRH (Bach bound {bound} for d_K)"
         _LAST["stats"] = stats
         target = _class_number_from_field(d_K, f, h_K)
-        forms = _prime_forms(D, f, 2, max(B, 10**7))
+        forms = _prime_forms(D, f, max(B, 10**7))
     else:
-        forms = _prime_forms(D, f, 2, B)
+        forms = _prime_forms(D, f, B)
     from .genus import genus_count
 
     S = _build(D, ops, forms, center, spread, U, target, genus_count(D))
