@@ -20,7 +20,7 @@ import statistics
 import time
 
 from formkit.classgroup import class_group
-from formkit.discriminants import is_fundamental_discriminant
+from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.errors import FormkitError
 from formkit.infrastructure import real_class_group, real_class_number
 from formkit.large_discriminants import class_group_bsgs, last_statistics

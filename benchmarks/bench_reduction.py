@@ -74,7 +74,8 @@ def _inputs(D: int, count: int, seed: int):
 
 def _child() -> dict:
     """Time every case once in this process; seconds per reduction."""
-    from formkit import arith, reduce_form, reduced
+    from formkit.core import arith
+    from formkit import reduce_form, reduced
 
     results = {"backend": arith.BACKEND}
     for i, (label, D, count) in enumerate(CASES):
@@ -93,7 +94,7 @@ def _child() -> dict:
         results[label] = best
         if arith.BACKEND == "gmpy2":
             results["raw " + label] = _raw_core(D, forms)
-    from formkit.discriminants import _fundamental_unit
+    from formkit.core.discriminants import _fundamental_unit
 
     compute = _fundamental_unit.__wrapped__  # bypass the cache
     compute(UNIT_D)
@@ -108,8 +109,8 @@ def _child() -> dict:
 def _raw_core(D: int, forms) -> dict:
     """Seconds per reduction of the bare reduction loop (no matrix, no validation) on
     Python ints and on gmpy2 mpz: what the integer type alone costs."""
-    from formkit.arith import isqrt, mpz
-    from formkit.reduction import _reduce_definite_raw, _reduce_indefinite_raw
+    from formkit.core.arith import isqrt, mpz
+    from formkit.core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
     out = {}
     for kind, conv in (("int", int), ("mpz", mpz)):

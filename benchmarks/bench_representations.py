@@ -30,11 +30,11 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 import sympy  # noqa: E402
 
-from formkit import arith  # noqa: E402
-from formkit.arith import is_probable_prime, kronecker  # noqa: E402
+from formkit.core import arith  # noqa: E402
+from formkit.core.arith import is_probable_prime, kronecker  # noqa: E402
 from formkit.cornacchia import prime_representation  # noqa: E402
-from formkit.enumeration import class_number  # noqa: E402
-from formkit.forms import Form  # noqa: E402
+from formkit.core.enumeration import class_number  # noqa: E402
+from formkit.core.forms import Form  # noqa: E402
 from formkit.orbits import representation_orbits  # noqa: E402
 from formkit.representations import represent  # noqa: E402
 

@@ -33,7 +33,7 @@ import sympy
 
 from formkit.class_polynomials import class_polynomial
 from formkit.representations import represent
-from formkit.arith import kronecker
+from formkit.core.arith import kronecker
 from formkit.prime_criteria import prime_criterion, primes_up_to, represented_primes
 
 Q = (1, 0, 14)

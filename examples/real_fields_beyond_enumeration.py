@@ -29,7 +29,7 @@ from __future__ import annotations
 import math
 import time
 
-from formkit.arith import factorint
+from formkit.core.arith import factorint
 from formkit.classgroup import class_group
 from formkit.infrastructure import real_class_group, real_class_number
 

@@ -16,18 +16,8 @@ if hasattr(_sys, "set_int_max_str_digits"):
 
 from .errors import *  # noqa: F401,F403,E402
 from .errors import __all__ as _errors_all  # noqa: E402
-from .forms import *  # noqa: F401,F403,E402
-from .forms import __all__ as _forms_all  # noqa: E402
-from .discriminants import *  # noqa: F401,F403,E402
-from .discriminants import __all__ as _disc_all  # noqa: E402
-from .reduction import *  # noqa: F401,F403,E402
-from .reduction import __all__ as _red_all  # noqa: E402
-from .equivalence import *  # noqa: F401,F403,E402
-from .equivalence import __all__ as _eq_all  # noqa: E402
-from .composition import *  # noqa: F401,F403,E402
-from .composition import __all__ as _comp_all  # noqa: E402
-from .enumeration import *  # noqa: F401,F403,E402
-from .enumeration import __all__ as _enum_all  # noqa: E402
+from .core import *  # noqa: F401,F403,E402
+from .core import __all__ as _core_all  # noqa: E402
 from .classgroup import *  # noqa: F401,F403,E402
 from .classgroup import __all__ as _cg_all  # noqa: E402
 from .orders import *  # noqa: F401,F403,E402
@@ -72,7 +62,7 @@ from .infrastructure import __all__ as _infra_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_forms_all, *_disc_all, *_red_all, *_eq_all, *_comp_all, *_enum_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_avg_all, *_lseries_all, *_large_all, *_infra_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_avg_all, *_lseries_all, *_large_all, *_infra_all, "__version__"]
 
 
 def __getattr__(name: str):

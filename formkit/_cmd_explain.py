@@ -5,8 +5,8 @@ from __future__ import annotations
 
 import argparse
 
-from ._parse import parse_integer
-from .forms import as_form
+from .core.parse import parse_integer
+from .core.forms import as_form
 
 _FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
 

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import argparse
 
-from .arith import isqrt
-from .equivalence import equivalence
-from .forms import Form, as_form
-from .reduction import _rho_indefinite_raw, _to_work, reduce_form
+from .core.arith import isqrt
+from .core.equivalence import equivalence
+from .core.forms import Form, as_form
+from .core.reduction import _rho_indefinite_raw, _to_work, reduce_form
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.

@@ -12,7 +12,7 @@ TEXT_FORMATS = ("json", "graphml", "dot")
 
 
 def _parse_primes(text: str) -> list[int]:
-    from ._parse import parse_integer
+    from .core.parse import parse_integer
     from .cli import CommandError
 
     parts = [t.strip() for t in text.split(",")]
@@ -41,9 +41,9 @@ def _format_of(args: argparse.Namespace) -> str:
 
 
 def _cmd_graph(args: argparse.Namespace) -> int:
-    from ._parse import parse_integer
+    from .core.parse import parse_integer
     from .cli import CommandError, emit
-    from .discriminants import validate_discriminant
+    from .core.discriminants import validate_discriminant
     from .graphs import cayley_graph, cycle_graph, fibre_graph, graph_title, graph_to_dot, graph_to_graphml, graph_to_json
 
     D = validate_discriminant(parse_integer(args.discriminant, "discriminant"))

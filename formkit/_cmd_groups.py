@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import argparse
 
-from ._parse import parse_integer
+from .core.parse import parse_integer
 from .classgroup import class_group, class_number_summary
-from .composition import compose, power
-from .forms import as_form
+from .core.composition import compose, power
+from .core.forms import as_form
 
 
 def _cmd_group(args: argparse.Namespace) -> int:

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import argparse
 
-from .arith import as_int
+from .core.arith import as_int
 from .errors import ParseError
-from .forms import as_form
+from .core.forms import as_form
 
 _SHOWN = 60  # primes listed in the text output (all of them with --json)
 

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import argparse
 
-from ._parse import parse_integer
-from .forms import as_form
+from .core.parse import parse_integer
+from .core.forms import as_form
 
 
 def _nonnegative_int(text: str) -> int:
@@ -39,7 +39,7 @@ def _parse_factors(text: str) -> dict:
 
 def _cmd_represent(args: argparse.Namespace) -> int:
     from .cli import emit
-    from .equivalence import fundamental_automorph
+    from .core.equivalence import fundamental_automorph
     from .representations import represent
 
     Q = as_form(args.form)

@@ -9,7 +9,7 @@ import sys
 import textwrap
 from typing import List, Sequence
 
-from ._parse import parse_integer
+from .core.parse import parse_integer
 from .tables import TableRow
 
 _FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_part")

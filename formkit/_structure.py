@@ -19,13 +19,13 @@ from __future__ import annotations
 
 from typing import Callable, Dict, Iterator, Sequence, Tuple
 
-from .arith import isqrt, kronecker
+from .core.arith import isqrt, kronecker
 from .classgroup import ENUMERATED, ClassGroup, Triple
-from .composition import _compose_raw
-from .enumeration import _cycles_cached, _reduced_forms_cached
+from .core.composition import _compose_raw
+from .core.enumeration import _cycles_cached, _reduced_forms_cached
 from .errors import FormkitError
-from .forms import Form
-from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .core.forms import Form
+from .core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = ["class_group_enumerated"]
 
@@ -49,7 +49,7 @@ def _canonical_function(D: int) -> Callable[[Triple], Triple]:
 
 
 def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]) -> Iterator[Triple]:
-    from .arith import next_prime
+    from .core.arith import next_prime
 
     p = 2
     limit = 60

@@ -31,7 +31,7 @@ from __future__ import annotations
 import math
 from typing import Dict, List, Optional, Tuple
 
-from .arith import crt, factorint, invert, isqrt
+from .core.arith import crt, factorint, invert, isqrt
 from .errors import FormkitError
 
 __all__: List[str] = []

@@ -28,8 +28,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .arith import factorint, kronecker
-from .discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from .core.arith import factorint, kronecker
+from .core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
 from .errors import DiscriminantError
 
 __all__ = ["class_number_dirichlet", "MAX_ANALYTIC_DISCRIMINANT"]

@@ -27,11 +27,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
-from .arith import as_int, isqrt, kronecker
-from .discriminants import unit_count, validate_discriminant
+from .core.arith import as_int, isqrt, kronecker
+from .core.discriminants import unit_count, validate_discriminant
 from .errors import FormError, FormkitError
-from .forms import Form, FormLike, _require_nonsquare, as_form
-from .reduction import reduced
+from .core.forms import Form, FormLike, _require_nonsquare, as_form
+from .core.reduction import reduced
 
 __all__ = [
     "LatticeCount",
@@ -185,7 +185,7 @@ class ClassLatticeTotal:
 def class_lattice_total(D: object, X: object, *, digits: int = 30) -> ClassLatticeTotal:
     """Lattice points of all classes of discriminant ``D < 0`` in their ellipses ``Q ≤ X``.
 
-    Uses :func:`formkit.enumeration.class_representatives` for the classes.
+    Uses :func:`formkit.core.enumeration.class_representatives` for the classes.
 
     Raises
     ------
@@ -198,7 +198,7 @@ def class_lattice_total(D: object, X: object, *, digits: int = 30) -> ClassLatti
     >>> t.class_number, t.count, round(float(t.class_number_estimate), 2)
     (3, 39295, 3.0)
     """
-    from .enumeration import class_representatives
+    from .core.enumeration import class_representatives
     from .errors import DiscriminantError
 
     D = validate_discriminant(D)

@@ -63,13 +63,13 @@ from typing import Sequence
 
 import mpmath
 
-from .arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
-from .discriminants import discriminant_parts, validate_discriminant
-from ._polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
-from .enumeration import _reduced_forms_cached
+from .core.arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
+from .core.discriminants import discriminant_parts, validate_discriminant
+from .core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
+from .core.enumeration import _reduced_forms_cached
 from .errors import DiscriminantError, FormError
-from .forms import Form
-from .reduction import _reduce_definite_raw
+from .core.forms import Form
+from .core.reduction import _reduce_definite_raw
 
 __all__ = [
     "ClassPolynomial",
@@ -78,8 +78,6 @@ __all__ = [
     "class_polynomial_discriminant",
     "class_polynomial_bound",
     "j_invariant",
-    "root_count_mod_prime",
-    "is_squarefree_mod_prime",
 ]
 
 # |j(τ) − 1/q| ≤ 2079 on the fundamental domain (Enge 2009, Lemma 1; from memory).

@@ -31,11 +31,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable, Dict, Iterator, Optional, Sequence, Tuple
 
-from .arith import as_int, lcm, mpz
-from .composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
-from .discriminants import discriminant_parts, fundamental_unit, validate_discriminant
+from .core.arith import as_int, lcm, mpz
+from .core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
+from .core.discriminants import discriminant_parts, fundamental_unit, validate_discriminant
 from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
-from .forms import Form, FormLike, as_form
+from .core.forms import Form, FormLike, as_form
 
 __all__ = [
     "Provenance",
@@ -201,7 +201,7 @@ class ClassGroupElement:
 
 
 def _require_prime(p: object) -> int:
-    from .arith import is_probable_prime
+    from .core.arith import is_probable_prime
     from .errors import NotPrimeError
 
     p = as_int(p, "p")

@@ -32,11 +32,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Optional, Tuple
 
-from .arith import _sqrt_mod_prime, as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
-from .equivalence import proper_equivalence
+from .core.arith import _sqrt_mod_prime, as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
+from .core.equivalence import proper_equivalence
 from .errors import FormkitError, NotPrimeError
-from .forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_definite
+from .core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .core.reduction import _reduce_definite
 
 __all__ = [
     "RepresentationDecision",
@@ -124,7 +124,7 @@ def cornacchia_4p(D: object, p: object) -> Optional[Vector]:
     >>> cornacchia_4p(-3, 7), cornacchia_4p(-23, 59), cornacchia_4p(-23, 13)
     ((5, 1), (12, 2), None)
     """
-    from .discriminants import validate_discriminant
+    from .core.discriminants import validate_discriminant
     from .errors import DiscriminantError
 
     D = validate_discriminant(D)

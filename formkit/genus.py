@@ -49,10 +49,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterable, Optional, Tuple
 
-from .arith import crt, factorint, gcd, kronecker
-from .discriminants import validate_discriminant
+from .core.arith import crt, factorint, gcd, kronecker
+from .core.discriminants import validate_discriminant
 from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
-from .forms import Form, FormLike, _require_nonsquare, as_form
+from .core.forms import Form, FormLike, _require_nonsquare, as_form
 
 __all__ = [
     "GenusCharacter",
@@ -389,7 +389,7 @@ class GenusPartition:
 
 
 def _class_forms(D: int) -> Tuple[Form, ...]:
-    from .enumeration import class_representatives
+    from .core.enumeration import class_representatives
 
     return tuple(class_representatives(D))
 
@@ -403,7 +403,7 @@ def genera(D: object, forms: Optional[Iterable[FormLike]] = None) -> GenusPartit
         The discriminant (any, positive or negative, fundamental or not).
     forms : iterable of forms, optional
         One primitive form per class; by default
-        :func:`formkit.enumeration.class_representatives` (so ``D`` must be small
+        :func:`formkit.core.enumeration.class_representatives` (so ``D`` must be small
         enough to list all classes).
 
     Returns

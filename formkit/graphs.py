@@ -56,9 +56,9 @@ from typing import Dict, Iterable, List, Optional, Set, Tuple
 
 import networkx as nx
 
-from .arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
+from .core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
 from .classgroup import ClassGroup, ClassGroupElement, class_group
-from .discriminants import discriminant_parts, validate_discriminant
+from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
 from .graph_export import (
     genus_label,
@@ -325,8 +325,8 @@ def cycle_graph(D: object) -> nx.DiGraph:
     >>> Y.edges[(1, 4, -3), (-3, 2, 2)]["matrix"]
     [[0, -1], [1, -1]]
     """
-    from .enumeration import reduced_forms
-    from .reduction import _rho_indefinite_raw
+    from .core.enumeration import reduced_forms
+    from .core.reduction import _rho_indefinite_raw
 
     D = validate_discriminant(D)
     if D < 0:

@@ -50,7 +50,7 @@ from math import isqrt
 from typing import Dict, List, Optional, Tuple
 
 from .classgroup import ClassGroup, Provenance
-from .discriminants import discriminant_parts, validate_discriminant
+from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from ._sylow import BSGSStatistics
 from .large_discriminants import _prime_forms
@@ -87,8 +87,8 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     doubles, each step adding a relative rounding error below 2^-52.
     ``hR_upper`` (an upper bound for ``h·R``) only sizes the baby range.
     """
-    from .composition import _compose_parts
-    from .reduction import _is_reduced_indefinite_raw, _principal_reduced_indefinite, _rho_indefinite_raw
+    from .core.composition import _compose_parts
+    from .core.reduction import _is_reduced_indefinite_raw, _principal_reduced_indefinite, _rho_indefinite_raw
 
     sq = isqrt(D)
     sD = math.sqrt(D)
@@ -160,23 +160,23 @@ class _NarrowOps:
 
     ``mul`` and ``pow`` return *some* reduced form of the class; ``canonical`` walks the
     cycle and returns its least form in the order ``(|a|, a < 0, b)`` — the
-    representative :func:`formkit.enumeration.class_representatives` uses.
+    representative :func:`formkit.core.enumeration.class_representatives` uses.
     """
 
     def __init__(self, D: int, stats: BSGSStatistics) -> None:
-        from .reduction import _principal_reduced_indefinite
+        from .core.reduction import _principal_reduced_indefinite
 
         self.D, self.sq, self.stats = D, isqrt(D), stats
         self.one = _principal_reduced_indefinite(D)
 
     def reduce(self, a: int, b: int, c: int) -> Triple:
-        from .reduction import _reduce_indefinite_raw
+        from .core.reduction import _reduce_indefinite_raw
 
         a, b, c = _reduce_indefinite_raw(a, b, c, self.D, self.sq)
         return int(a), int(b), int(c)
 
     def mul(self, x: Triple, y: Triple) -> Triple:
-        from .composition import _compose_raw
+        from .core.composition import _compose_raw
 
         self.stats.operations += 1
         return self.reduce(*_compose_raw(*x, *y, self.D))
@@ -198,7 +198,7 @@ class _NarrowOps:
 
     def canonical(self, x: Triple) -> Triple:
         """The representative of the class of the reduced form ``x`` (walks its cycle)."""
-        from .reduction import _rho_indefinite_raw
+        from .core.reduction import _rho_indefinite_raw
 
         a, b, c = x
         if a == 1:  # the only reduced form with a = 1 is the principal one
@@ -492,7 +492,7 @@ def _genus_structure(D: int, f: int, rank: int):
 
 def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     """Invariants, generators, discrete log and a note, from prime forms until ``h⁺`` is reached."""
-    from .arith import factorint
+    from .core.arith import factorint
     from ._sylow import _order_from_multiple, _Structure, _Sylow
 
     cops = _CanonicalOps(ops)

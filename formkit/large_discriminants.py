@@ -40,7 +40,7 @@ is computed from the prime forms of small norm:
    prime forms of ``D`` are added until ``|H| = h(D)``, which proves ``H = Cl(D)``.
 
 Group operations are Shanks' NUCOMP/NUDUPL (Cohen Algorithms 5.4.8, 5.4.9; the same
-formulas as :mod:`formkit.composition`, inlined here on plain Python integers, with
+formulas as :mod:`formkit.core.composition`, inlined here on plain Python integers, with
 modular inverses from ``pow(x, -1, m)``) for ``|D| ≥ 10^18`` and Dirichlet composition
 followed by reduction below; powers use a width-3 sliding window.
 
@@ -63,12 +63,12 @@ import math
 from math import gcd, isqrt
 from typing import Dict, Optional, Tuple
 
-from .arith import factorint, kronecker, next_prime
+from .core.arith import factorint, kronecker, next_prime
 from .classgroup import ClassGroup, Provenance
-from .discriminants import discriminant_parts, validate_discriminant
+from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError
 from .lseries import class_number_estimate, class_number_upper_bound
-from .reduction import _reduce_definite_raw
+from .core.reduction import _reduce_definite_raw
 from ._sylow import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
 
 __all__ = [
@@ -108,11 +108,11 @@ class _Ops:
         self.nucomp = -D >= 10**18
 
     #: Gauss reduction of a positive definite form (Cohen Algorithm 5.4.2), shared
-    #: with formkit.reduction.
+    #: with formkit.core.reduction.
     reduce = staticmethod(_reduce_definite_raw)
 
     def _partial(self, d1: int, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
-        # NUCOMP partial reduction (the formulas of formkit.composition._partial_reduce)
+        # NUCOMP partial reduction (the formulas of formkit.core.composition._partial_reduce)
         bound = self.L if v1 == v2 else isqrt(v1 * self.L2 // v2)
         Rp, Rc = v1, r
         Cp, Cc = 0, -1
@@ -301,8 +301,8 @@ def bach_bound(D: object) -> int:
 def _prime_forms(D: int, f: int, stop: Optional[int] = None):
     """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
     with p ∤ f and χ_D(p) ≠ −1, in increasing order; shared with :mod:`formkit.infrastructure`."""
-    from .forms import Form
-    from .reduction import _reduce_indefinite_raw
+    from .core.forms import Form
+    from .core.reduction import _reduce_indefinite_raw
 
     sq = isqrt(D) if D > 0 else 0
     p = 2
@@ -453,7 +453,7 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
     certified, assumption, bound = False, "GRH", B
     if f > 1:
         if -d_K <= FIELD_ENUMERATION_LIMIT:
-            from .enumeration import class_number
+            from .core.enumeration import class_number
 
             h_K = class_number(d_K)
             certified, assumption, bound = True, None, None
@@ -518,7 +518,7 @@ def order_of_class(form: object) -> int:
     >>> order_of_class((1, 1, 6))
     1
     """
-    from .forms import as_form
+    from .core.forms import as_form
     from .errors import FormError, NotPrimitiveError
 
     F = as_form(form)

@@ -76,8 +76,8 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Dict, Optional, Tuple
 
-from .arith import as_int, factorint, isqrt, kronecker
-from .discriminants import discriminant_parts, validate_discriminant
+from .core.arith import as_int, factorint, isqrt, kronecker
+from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import FormkitError
 
 __all__ = [

@@ -2,7 +2,7 @@
 
 For an indefinite form ``Q`` of non-square discriminant ``D > 0`` the proper
 automorphism group is ``{±A^k : k ∈ Z}`` with ``A`` the fundamental automorph
-(:func:`formkit.equivalence.fundamental_automorph`), and the solutions of
+(:func:`formkit.core.equivalence.fundamental_automorph`), and the solutions of
 ``Q(x, y) = n ≠ 0`` fall into finitely many orbits ``{±A^k v}``.  By the square-root
 correspondence of :mod:`formkit.representations`, the orbits of proper solutions of
 ``Q = m`` correspond one-to-one to the roots ``b mod 2|m|`` of ``b² ≡ D (mod 4|m|)``
@@ -31,11 +31,11 @@ from __future__ import annotations
 
 from typing import Dict, Iterator, List, Optional, Tuple
 
-from .arith import as_int, gcd, isqrt, mpz
-from .equivalence import fundamental_automorph
+from .core.arith import as_int, gcd, isqrt, mpz
+from .core.equivalence import fundamental_automorph
 from .errors import FormError
-from .forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_indefinite, _rho_indefinite_raw
+from .core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .core.reduction import _reduce_indefinite, _rho_indefinite_raw
 from .representations import (
     _content_and_sign,
     _factor_abs,

@@ -24,13 +24,13 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .arith import as_int, factorint, invert, kronecker, xgcd
+from .core.arith import as_int, factorint, invert, kronecker, xgcd
 from .classgroup import ClassGroupElement, class_group
-from .discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
-from .enumeration import class_number
+from .core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from .core.enumeration import class_number
 from .errors import FormkitError, NotPrimitiveError
-from .forms import Form, FormLike, _require_nonsquare, as_form
-from .reduction import reduced
+from .core.forms import Form, FormLike, _require_nonsquare, as_form
+from .core.reduction import reduced
 
 __all__ = [
     "coprime_representative",

@@ -64,12 +64,12 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
-from .arith import as_int, crt, factorint, isqrt, kronecker, sqrt_mod, sqrt_mod_prime
+from .core.arith import as_int, crt, factorint, isqrt, kronecker, sqrt_mod, sqrt_mod_prime
 from .classgroup import class_group
 from .errors import FormError, FormkitError, NotPrimitiveError
-from .forms import Form, FormLike, _require_nonsquare, as_form
-from .enumeration import _cycles_cached
-from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .core.forms import Form, FormLike, _require_nonsquare, as_form
+from .core.enumeration import _cycles_cached
+from .core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = [
     "PrimeCriterion",
@@ -218,7 +218,7 @@ def represents_prime(form: FormLike, p: object) -> bool:
     >>> represents_prime((1, 0, 5), 29), represents_prime((1, 0, 5), 7), represents_prime((2, 2, 3), 7)
     (True, False, True)
     """
-    from .arith import is_probable_prime
+    from .core.arith import is_probable_prime
     from .errors import NotPrimeError
 
     Q = _check_form(form)

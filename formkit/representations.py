@@ -14,7 +14,7 @@ representations of ``n/g²`` scaled by ``g``, over ``g² | n``.  (Gauss, *Disqui
 art. 154–170; Cox, *Primes of the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer,
 *Binary Quadratic Forms*, §3.2 and §6.8 — numbers as recalled.)
 
-The roots ``b`` come from :func:`formkit.arith.sqrt_mod` with the factorisation of ``n``
+The roots ``b`` come from :func:`formkit.core.arith.sqrt_mod` with the factorisation of ``n``
 (sympy's ``factorint``, or given by the caller), so ``n`` of 60 digits and more is
 fine whenever it can be factored.
 
@@ -48,12 +48,12 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Dict, List, Optional, Tuple
 
-from .arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz, sqrt_mod
-from .discriminants import discriminant_parts, unit_count, validate_discriminant
-from .equivalence import automorphism_group
+from .core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz, sqrt_mod
+from .core.discriminants import discriminant_parts, unit_count, validate_discriminant
+from .core.equivalence import automorphism_group
 from .errors import DiscriminantError, FormError, FormkitError
-from .forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_definite
+from .core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .core.reduction import _reduce_definite
 
 __all__ = [
     "RepresentationResult",
@@ -174,7 +174,7 @@ def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorp
 
 
 def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> int:
-    from .reduction import _reduce_definite_raw
+    from .core.reduction import _reduce_definite_raw
 
     D = P.discriminant
     target = _reduce_definite(P, False).reduced.coefficients

@@ -31,7 +31,7 @@ import time
 from dataclasses import dataclass
 from typing import Callable, Iterable, List, Optional, Sequence, Tuple
 
-from .arith import as_int
+from .core.arith import as_int
 from .errors import FormkitError
 from .tables import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
 

@@ -38,7 +38,7 @@ import time
 from dataclasses import dataclass
 from typing import Iterator, List, Optional, Sequence, Tuple
 
-from .arith import as_int
+from .core.arith import as_int
 from .errors import FormkitError
 from .table_sweep import (
     _chunk_arith_np,
@@ -300,9 +300,9 @@ def _negative_rows(spec: ChunkSpec):
 
 
 def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
-    from .arith import is_square
-    from .discriminants import discriminant_parts, fundamental_unit
-    from .enumeration import class_number
+    from .core.arith import is_square
+    from .core.discriminants import discriminant_parts, fundamental_unit
+    from .core.enumeration import class_number
     from .genus import genus_count
 
     rows: List[RawRow] = []

@@ -38,9 +38,9 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Optional, Tuple
 
-from .arith import xgcd
-from .forms import Form, FormLike, as_form
-from .reduction import ReductionResult, reduce_form
+from .core.arith import xgcd
+from .core.forms import Form, FormLike, as_form
+from .core.reduction import ReductionResult, reduce_form
 from .worked_examples_more import worked_class_group, worked_representation
 from .worked_examples_text import (
     Block,
@@ -258,7 +258,7 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
     >>> t.d1, t.v1, t.v2, t.r, t.composite, t.result
     (1, 2, 3, 0, Form(6, 1, 1), Form(1, 1, 6))
     """
-    from .composition import _check, compose
+    from .core.composition import _check, compose
 
     F, G = as_form(F, name="F"), as_form(G, name="G")
     D = _check(F, G)
@@ -294,7 +294,7 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
     if D < 0 and check != red.reduced:  # pragma: no cover - would be a bug
         raise ArithmeticError(f"traced composition {red.reduced!r} differs from compose() = {check!r}")
     if D > 0:
-        from .equivalence import proper_equivalence
+        from .core.equivalence import proper_equivalence
 
         if proper_equivalence(check, red.reduced) is None:  # pragma: no cover - would be a bug
             raise ArithmeticError(f"traced composition {red.reduced!r} not equivalent to compose() = {check!r}")

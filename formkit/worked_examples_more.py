@@ -27,10 +27,10 @@ References
 
 from __future__ import annotations
 
-from .arith import as_int, factorint, gcd, isqrt, sqrt_mod
+from .core.arith import as_int, factorint, gcd, isqrt, sqrt_mod
 from .errors import FormkitError
-from .forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import reduce_form
+from .core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from .core.reduction import reduce_form
 from .worked_examples_text import (
     Block,
     Heading,
@@ -161,7 +161,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     # index: reduced form R properly equivalent to P  ->  N with P·N = R
     index: dict[Form, Matrix] = {red_P.reduced: red_P.matrix}
     if DP > 0:
-        from .reduction import reduced_cycle
+        from .core.reduction import reduced_cycle
 
         cyc = reduced_cycle(P, max_length=MAX_CYCLE)
         N = red_P.matrix
@@ -178,7 +178,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         )
         automorphs: list[Matrix] = []
     else:
-        from .equivalence import automorphism_group
+        from .core.equivalence import automorphism_group
 
         automorphs = list(automorphism_group(P).elements())
         blocks.append(
@@ -354,7 +354,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     [[1, 0, 21], [2, 2, 11], [3, 0, 7], [5, 4, 5]]
     """
     from .classgroup import class_group
-    from .discriminants import validate_discriminant
+    from .core.discriminants import validate_discriminant
     from .genus import assigned_characters, value_prime_to
 
     D = validate_discriminant(D)

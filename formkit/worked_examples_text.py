@@ -461,7 +461,7 @@ def _step_line(step, running) -> Line:
 
 def why_reduced(f) -> Line:
     """Why the form ``f`` is reduced, with its numbers."""
-    from .arith import isqrt
+    from .core.arith import isqrt
 
     D = f.discriminant
     if D < 0:
@@ -480,7 +480,7 @@ def why_reduced(f) -> Line:
 
 
 def reduction_blocks(res) -> tuple[list, list]:
-    """The steps of a :class:`~formkit.reduction.ReductionResult` (recorded with
+    """The steps of a :class:`~formkit.core.reduction.ReductionResult` (recorded with
     ``steps=True``) as blocks, and as JSON records with the running matrix."""
     blocks: list = []
     running = ((1, 0), (0, 1))

@@ -6,7 +6,7 @@ import math
 
 from sympy import nextprime
 
-from formkit.discriminants import is_discriminant
+from formkit.core.discriminants import is_discriminant
 
 
 def random_discriminants(rng, count, top, negative=True, nonfundamental_share=0.3):

@@ -10,7 +10,7 @@ enumeration for every fundamental |D| < 3000 before using it at 20 to 30 digits.
 
 from __future__ import annotations
 
-from formkit.arith import factorint, kronecker
+from formkit.core.arith import factorint, kronecker
 
 
 def prime_discriminants(D: int, factors=None) -> list[tuple[int, int]]:

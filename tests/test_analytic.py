@@ -2,7 +2,7 @@
 
 The analytic value (a finite character sum for D < 0, a log-sine sum with the regulator
 for D > 0; Davenport, *Multiplicative Number Theory*, Ch. 6; Cohen GTM 138 §5.3, §5.6)
-is compared with **complete enumeration** (formkit.enumeration), with the **brute-force**
+is compared with **complete enumeration** (formkit.core.enumeration), with the **brute-force**
 counts of tests/_classgroup_reference.py, and with classical values (from memory).
 """
 

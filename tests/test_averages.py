@@ -15,11 +15,11 @@ import mpmath
 import pytest
 from hypothesis import given, strategies as st
 
-from formkit.arith import kronecker
-from formkit.discriminants import is_discriminant, is_fundamental_discriminant, unit_count
-from formkit.enumeration import class_number, class_representatives
+from formkit.core.arith import kronecker
+from formkit.core.discriminants import is_discriminant, is_fundamental_discriminant, unit_count
+from formkit.core.enumeration import class_number, class_representatives
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.averages import class_lattice_total, l_value_at_one, lattice_point_count
 from formkit.representations import representation_count
 

@@ -19,7 +19,7 @@ from formkit.class_polynomials import (
     j_invariant,
     root_count_mod_prime,
 )
-from formkit.forms import Form
+from formkit.core.forms import Form
 
 # j-invariants of the thirteen imaginary quadratic orders of class number one
 # (classical, from memory: Cox, Primes of the Form x² + ny², §12; -163: j = -640320³).

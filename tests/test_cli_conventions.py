@@ -20,7 +20,7 @@ import shlex
 import pytest
 
 import formkit.cli as cli
-from formkit.forms import Form
+from formkit.core.forms import Form
 
 FORM_DESTS = {"form", "first", "second"}
 

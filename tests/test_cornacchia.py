@@ -16,11 +16,11 @@ import pytest
 import sympy
 from hypothesis import given, strategies as st
 
-from formkit.arith import next_prime
-from formkit.discriminants import is_discriminant
-from formkit.enumeration import class_representatives
+from formkit.core.arith import next_prime
+from formkit.core.discriminants import is_discriminant
+from formkit.core.enumeration import class_representatives
 from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError, NotPrimeError
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.cornacchia import cornacchia, cornacchia_4p, prime_representation
 
 PRIMES = list(sympy.primerange(2, 3000))

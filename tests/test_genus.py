@@ -16,9 +16,9 @@ from hypothesis import given, strategies as st
 
 from _foundation_strategies import brute_reduced_definite
 
-from formkit.arith import kronecker
+from formkit.core.arith import kronecker
 from formkit.classgroup import class_group
-from formkit.discriminants import is_discriminant
+from formkit.core.discriminants import is_discriminant
 from formkit.errors import (
     DiscriminantError,
     DiscriminantMismatchError,
@@ -27,7 +27,7 @@ from formkit.errors import (
     NotAnIntegerError,
     NotPrimitiveError,
 )
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.genus import (
     assigned_characters,
     genera,
@@ -38,7 +38,7 @@ from formkit.genus import (
     same_genus,
     value_prime_to,
 )
-from formkit.reduction import reduced, reduced_cycle
+from formkit.core.reduction import reduced, reduced_cycle
 
 
 # ---------------------------------------------------------------------------

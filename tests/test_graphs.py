@@ -37,7 +37,7 @@ from formkit.errors import (
     NotPrimeError,
     NotPrimitiveError,
 )
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.genus import genus_symbol
 from formkit.graph_export import _dot_quote
 from formkit.graphs import (

@@ -2,7 +2,7 @@
 
 Outside references: complete enumeration (formkit.classgroup method="enumerate",
 unconditional, an independent algorithm); Dirichlet's finite character sums of
-formkit.analytic (Davenport Ch. 6); the exact fundamental unit (formkit.discriminants);
+formkit.analytic (Davenport Ch. 6); the exact fundamental unit (formkit.core.discriminants);
 the theorems of Biró (2003) settling the conjectures of Chowla (h(4m²+1) = 1 only for
 m = 1, 2, 3, 5, 7, 13) and of Yokoi (h(m²+4) = 1 only for m = 1, 3, 5, 7, 13, 17), from
 memory; classical small fields Q(√34) (h = 2, h⁺ = 4 although 34 = 3² + 5²) and Q(√229)
@@ -20,9 +20,9 @@ from hypothesis import given, settings, strategies as st
 import formkit.infrastructure as infra
 from _discriminants import built_discriminant, random_discriminants
 from formkit.analytic import class_number_dirichlet
-from formkit.arith import factorint
+from formkit.core.arith import factorint
 from formkit.classgroup import class_group, class_number_summary
-from formkit.discriminants import fundamental_unit, is_discriminant, regulator
+from formkit.core.discriminants import fundamental_unit, is_discriminant, regulator
 from formkit.errors import DiscriminantError, FormkitError
 from formkit.genus import genus_count
 from formkit.infrastructure import _intersect, _progression, real_class_group, real_class_number

@@ -1,13 +1,13 @@
 """Tests for formkit.large_discriminants (baby-step giant-step class groups, D > 0 method).
 
-Outside references: complete enumeration (formkit.enumeration / class_group(method=
+Outside references: complete enumeration (formkit.core.enumeration / class_group(method=
 "enumerate"), unconditional); the independent finite character sums of formkit.analytic
 (Davenport Ch. 6); the lists of imaginary quadratic fields of class number 1 and 2
 (Heegner–Baker–Stark; from memory); genus theory (the 2-rank of Cl(D) is
 log2(number of genera), Gauss; Cox §3–§6) checked at 20- and 25-digit D where nothing
 can be enumerated; Rédei's 4-rank theorem (1934, from memory; tests/_redei.py, checked
 here against enumeration first) at 20- to 28-digit D built from known primes; the exact
-fundamental unit (formkit.discriminants) for regulators.
+fundamental unit (formkit.core.discriminants) for regulators.
 """
 
 import random
@@ -16,11 +16,16 @@ import pytest
 
 from formkit import classgroup as cg
 from formkit.analytic import class_number_dirichlet
-from formkit.arith import factorint
+from formkit.core.arith import factorint
 from formkit.classgroup import class_group
-from formkit.discriminants import fundamental_unit, is_discriminant, is_fundamental_discriminant, regulator
+from formkit.core.discriminants import (
+    fundamental_unit,
+    is_discriminant,
+    is_fundamental_discriminant,
+    regulator,
+)
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotPrimitiveError
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.genus import genus_count
 from _discriminants import built_discriminant, random_discriminants
 from formkit.large_discriminants import (
@@ -135,7 +140,7 @@ def test_genus_theory_at_large_discriminants(digits):
 
 
 def _split(D, p):
-    from formkit.arith import kronecker
+    from formkit.core.arith import kronecker
 
     return all(p % q for q in range(2, p)) and kronecker(D, p) == 1
 
@@ -146,7 +151,7 @@ def test_non_fundamental_large_uses_field_class_number():
     G = class_group_bsgs(9 * d)
     h_K = class_group(d, method="enumerate").order
     # Cox Thm 7.24: h(f²d) = h(d)·f·∏(1 − χ(p)/p); here f = 3
-    from formkit.arith import kronecker
+    from formkit.core.arith import kronecker
 
     assert G.order == h_K * (3 - kronecker(d, 3))
     assert G.provenance.certified and G.provenance.assumption is None
@@ -289,8 +294,8 @@ def test_idoneal_numbers_complete_below_3000():
 
 
 def test_group_operations_match_formkit_composition():
-    # the inlined NUCOMP/NUDUPL (all gcd cases) against formkit.composition.compose/square
-    from formkit.composition import compose, square
+    # the inlined NUCOMP/NUDUPL (all gcd cases) against formkit.core.composition.compose/square
+    from formkit.core.composition import compose, square
     from formkit.large_discriminants import BSGSStatistics, _Ops
 
     rng = random.Random(17)
@@ -323,7 +328,7 @@ def test_group_operations_match_formkit_composition():
 def test_redei_formula_as_recalled_matches_enumeration():
     from _redei import redei_four_rank
 
-    from formkit.discriminants import is_fundamental_discriminant
+    from formkit.core.discriminants import is_fundamental_discriminant
 
     for D in [d for d in range(-3000, 3000) if d not in (0, 1) and is_fundamental_discriminant(d)]:
         G = class_group(D, method="enumerate")

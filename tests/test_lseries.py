@@ -4,7 +4,7 @@ Outside references: classical closed forms of L(1, χ) for D = −4, −3, 5, 8 
 class number formula with h = 1, from memory); exact class numbers from formkit's
 enumeration and from the independent finite character sums of formkit.analytic
 (Davenport, Multiplicative Number Theory, Ch. 6); regulators from the exact
-fundamental unit (formkit.discriminants); sympy's primerange and mpmath's digamma for
+fundamental unit (formkit.core.discriminants); sympy's primerange and mpmath's digamma for
 the pieces of the bound (docs/l_value_interval.md).  The interval is a theorem under
 GRH, so an exact value outside it would refute GRH or (far likelier) reveal a bug: the
 containment tests below can fail.
@@ -18,9 +18,9 @@ from hypothesis import given, strategies as st
 
 from formkit.analytic import class_number_dirichlet
 from formkit.classgroup import class_group
-from formkit.discriminants import is_discriminant, is_fundamental_discriminant, regulator
-from formkit.enumeration import class_number
-from formkit.arith import kronecker
+from formkit.core.discriminants import is_discriminant, is_fundamental_discriminant, regulator
+from formkit.core.enumeration import class_number
+from formkit.core.arith import kronecker
 from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError
 from formkit.lseries import (
     GRH_CONSTANT,

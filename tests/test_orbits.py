@@ -15,12 +15,12 @@ from math import gcd, isqrt
 import pytest
 import sympy
 
-from formkit.arith import kronecker
-from formkit.discriminants import is_fundamental_discriminant
-from formkit.enumeration import class_representatives
-from formkit.equivalence import fundamental_automorph
+from formkit.core.arith import kronecker
+from formkit.core.discriminants import is_fundamental_discriminant
+from formkit.core.enumeration import class_representatives
+from formkit.core.equivalence import fundamental_automorph
 from formkit.errors import FormError, NotAnIntegerError
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.orbits import orbit_representative, representation_orbits, walk_orbit
 from formkit.representations import dirichlet_count, represent, total_representation_count
 

@@ -11,7 +11,7 @@ from hypothesis import given, strategies as st
 
 from formkit import errors
 from formkit.classgroup import class_group
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.prime_criteria import (
     density_count,
     genus_residues,

@@ -16,9 +16,9 @@ import pytest
 import sympy
 from hypothesis import given, strategies as st
 
-from formkit.arith import kronecker
-from formkit.discriminants import conductor, is_discriminant, is_fundamental_discriminant, unit_count
-from formkit.enumeration import class_representatives
+from formkit.core.arith import kronecker
+from formkit.core.discriminants import conductor, is_discriminant, is_fundamental_discriminant, unit_count
+from formkit.core.enumeration import class_representatives
 from formkit.errors import (
     DiscriminantError,
     FormError,
@@ -26,7 +26,7 @@ from formkit.errors import (
     NotAnIntegerError,
     ParseError,
 )
-from formkit.forms import Form
+from formkit.core.forms import Form
 from formkit.representations import (
     dirichlet_count,
     primitive_representation_count,

@@ -30,7 +30,7 @@ from formkit import (
     table_info,
     table_rows,
 )
-from formkit.arith import kronecker
+from formkit.core.arith import kronecker
 from formkit.genus import genus_count
 from formkit.table_store import parse_invariants
 from formkit.tables import ChunkSpec, compute_chunk, split_range

@@ -25,7 +25,7 @@ from formkit import (
     is_reduced,
     reduced,
 )
-from formkit.forms import Form, mat_mul
+from formkit.core.forms import Form, mat_mul
 from formkit.genus import genus_count
 from formkit.representations import represent
 from formkit.worked_examples import (

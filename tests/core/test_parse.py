@@ -1,4 +1,4 @@
-"""Tests of the hand-written parser (formkit._parse, Form.parse).
+"""Tests of the hand-written parser (formkit.core.parse, Form.parse).
 
 The parser must read the notations of the issue and reject everything outside its
 grammar, in particular text that would run code if it were evaluated.  Checks: fixed
@@ -19,8 +19,8 @@ from hypothesis import assume, given
 from hypothesis import strategies as st
 
 from formkit import Form, ParseError, as_form
-from formkit._parse import MAX_TEXT, parse_form_text, parse_integer
-from formkit.arith import mpz
+from formkit.core.parse import MAX_TEXT, parse_form_text, parse_integer
+from formkit.core.arith import mpz
 
 coef = st.integers(-(10**40), 10**40)
 

@@ -31,7 +31,7 @@ from dataclasses import dataclass, field
 from typing import Tuple
 
 from .arith import isqrt, mpz
-from .errors import FormError
+from ..errors import FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
 
 __all__ = [

@@ -27,7 +27,7 @@ from typing import Iterator, Optional
 
 from .arith import isqrt
 from .discriminants import fundamental_unit
-from .errors import DiscriminantMismatchError, FormError
+from ..errors import DiscriminantMismatchError, FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw, _to_work
 
@@ -291,7 +291,7 @@ def fundamental_automorph(F: FormLike) -> Matrix:
     F = as_form(F)
     D = _require_nonsquare(F, "automorphisms")
     if D < 0:
-        from .errors import FormError
+        from ..errors import FormError
 
         raise FormError(f"{F!r} is definite: its automorphism group is finite; use automorphism_group")
     g = F.content

@@ -1,4 +1,4 @@
-"""Tests of formkit.forms: the Form value type, matrices, principal and prime forms, sympy.
+"""Tests of formkit.core.forms: the Form value type, matrices, principal and prime forms, sympy.
 
 Outside references: the definitions (evaluation, the matrix action written out in
 tests/_foundation_strategies.py), sympy (Matrix products and inverses, Poly), brute

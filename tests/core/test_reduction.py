@@ -1,4 +1,4 @@
-"""Tests of formkit.reduction: definite and indefinite reduction, ρ, cycles, step traces.
+"""Tests of formkit.core.reduction: definite and indefinite reduction, ρ, cycles, step traces.
 
 Outside references: brute-force lists of reduced forms from the defining inequalities
 (tests/_foundation_strategies.py), class numbers h(D) and narrow class numbers h⁺(D)

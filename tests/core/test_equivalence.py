@@ -1,4 +1,4 @@
-"""Tests of formkit.equivalence: proper/improper equivalence and automorphism groups.
+"""Tests of formkit.core.equivalence: proper/improper equivalence and automorphism groups.
 
 Outside references: brute-force searches over small matrices, the matrix action written
 out in tests/_foundation_strategies.py, narrow class numbers from published tables
@@ -41,12 +41,12 @@ from formkit import (
     are_equivalent,
     are_properly_equivalent,
     automorphism_group,
-    equivalence,
     fundamental_automorph,
     improper_equivalence,
     proper_equivalence,
     reduced_cycle,
 )
+from formkit.core import equivalence
 
 IDENT = ((1, 0), (0, 1))
 MINUS = ((-1, 0), (0, -1))

@@ -42,7 +42,7 @@ from __future__ import annotations
 from functools import lru_cache
 
 from .arith import as_int, isqrt, mpz, xgcd
-from .errors import DiscriminantMismatchError, FormError, NotPrimitiveError
+from ..errors import DiscriminantMismatchError, FormError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
 from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
@@ -185,7 +185,7 @@ def compose(F: FormLike, G: FormLike, *, method: str = "dirichlet") -> Form:
     Form
         The reduced composite.  For D > 0 this is *a* reduced form of the product
         class (the first one Gauss reduction reaches); compare classes with
-        :func:`formkit.equivalence.are_properly_equivalent` or through a class group.
+        :func:`formkit.core.equivalence.are_properly_equivalent` or through a class group.
 
     Raises
     ------

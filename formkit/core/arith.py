@@ -26,7 +26,7 @@ import os
 from functools import lru_cache
 from typing import Iterable, Sequence
 
-from .errors import FormkitError, NotAnIntegerError, NotPrimeError
+from ..errors import FormkitError, NotAnIntegerError, NotPrimeError
 
 __all__ = [
     "BACKEND",

@@ -28,7 +28,7 @@ import operator
 import re
 
 from .arith import _int_from_digits
-from .errors import ParseError
+from ..errors import ParseError
 
 __all__ = ["parse_form_text", "parse_integer"]
 

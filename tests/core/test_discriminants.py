@@ -1,4 +1,4 @@
-"""Tests of formkit.discriminants.
+"""Tests of formkit.core.discriminants.
 
 Outside references: brute-force definitions (conductor, fundamental discriminants,
 units as solutions of norm equations), sympy (kronecker_symbol, factorint and the Pell

@@ -21,7 +21,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
 
 from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker, sqrt_mod_prime
-from .errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
+from ..errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 
 if TYPE_CHECKING:  # pragma: no cover
     import sympy
@@ -381,7 +381,7 @@ class Form:
         >>> Form.parse("[1, 0, -7]")
         Form(1, 0, -7)
         """
-        from ._parse import parse_form_text
+        from .parse import parse_form_text
 
         return cls(*parse_form_text(text))
 

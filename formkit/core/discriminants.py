@@ -23,7 +23,7 @@ from functools import lru_cache
 from typing import Callable
 
 from .arith import as_int, factorint, is_square, isqrt, kronecker
-from .errors import DiscriminantError, FormkitError
+from ..errors import DiscriminantError, FormkitError
 
 __all__ = [
     "validate_discriminant",

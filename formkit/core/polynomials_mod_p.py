@@ -19,7 +19,7 @@ from __future__ import annotations
 from typing import Sequence
 
 from .arith import as_int, is_probable_prime
-from .errors import FormError, NotPrimeError
+from ..errors import FormError, NotPrimeError
 
 __all__ = ["root_count_mod_prime", "is_squarefree_mod_prime"]
 

@@ -1,4 +1,4 @@
-"""Tests for formkit.composition: Dirichlet composition, NUCOMP/NUDUPL, square, power, inverse.
+"""Tests for formkit.core.composition: Dirichlet composition, NUCOMP/NUDUPL, square, power, inverse.
 
 The reference for the group law is tests/_classgroup_reference.py: composition through
 **multiplication of ideals** in the quadratic order (Cox, *Primes of the Form x² + ny²*,

@@ -1,4 +1,4 @@
-"""Tests of formkit.arith, the integer backend.
+"""Tests of formkit.core.arith, the integer backend.
 
 Outside references: Python's math module and built-in pow, sympy (isprime, nextprime,
 factorint, divisors, kronecker_symbol, jacobi_symbol, sqrt_mod with all_roots=True,
@@ -23,8 +23,8 @@ from sympy.functions.combinatorial.numbers import jacobi_symbol
 from sympy.ntheory.modular import crt as sympy_crt
 from sympy.ntheory.residue_ntheory import sqrt_mod as sympy_sqrt_mod
 
-from formkit import arith
-from formkit.arith import (
+from formkit.core import arith
+from formkit.core.arith import (
     as_int,
     crt,
     divisors,
@@ -337,7 +337,7 @@ def test_other_bad_inputs():
 
 _BACKEND_SCRIPT = r"""
 import json
-from formkit import arith
+from formkit.core import arith
 assert arith.BACKEND == "python" and arith.mpz is int
 out = {
     "isqrt": [int(arith.isqrt(n)) for n in (0, 1, 10**41 + 7, 2**200)],

@@ -1,4 +1,4 @@
-"""Tests for formkit.enumeration: reduced forms, class representatives, class numbers.
+"""Tests for formkit.core.enumeration: reduced forms, class representatives, class numbers.
 
 References checked against (each test names its source):
 * brute force: every reduced form found by scanning all b (tests/_classgroup_reference.py),

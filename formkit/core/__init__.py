@@ -1,0 +1,41 @@
+"""The ground layer: integers, forms and the operations on them that everything else uses.
+
+* :mod:`~formkit.core.arith` — the integer backend (the one module that talks to gmpy2);
+* :mod:`~formkit.core.parse` — the hand-written text parser for forms and integers;
+* :mod:`~formkit.core.forms` — the ``Form`` value type and 2×2 integer matrices;
+* :mod:`~formkit.core.discriminants` — discriminants, conductors, χ_D, units, regulators;
+* :mod:`~formkit.core.reduction` — reduction of definite and indefinite forms, ρ, cycles;
+* :mod:`~formkit.core.equivalence` — proper and improper equivalence, automorphisms;
+* :mod:`~formkit.core.composition` — Dirichlet composition, NUCOMP and NUDUPL;
+* :mod:`~formkit.core.enumeration` — all reduced forms of D and class numbers by listing;
+* :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime.
+
+This layer imports nothing from formkit but :mod:`formkit.errors`.  The names below are
+re-exported by :mod:`formkit`; the integer backend and the parser are used by every
+layer but are not part of the top-level API.
+"""
+
+from .composition import *  # noqa: F401,F403
+from .composition import __all__ as _composition_all
+from .discriminants import *  # noqa: F401,F403
+from .discriminants import __all__ as _discriminants_all
+from .enumeration import *  # noqa: F401,F403
+from .enumeration import __all__ as _enumeration_all
+from .equivalence import *  # noqa: F401,F403
+from .equivalence import __all__ as _equivalence_all
+from .forms import *  # noqa: F401,F403
+from .forms import __all__ as _forms_all
+from .polynomials_mod_p import *  # noqa: F401,F403
+from .polynomials_mod_p import __all__ as _polynomials_all
+from .reduction import *  # noqa: F401,F403
+from .reduction import __all__ as _reduction_all
+
+__all__ = [
+    *_forms_all,
+    *_discriminants_all,
+    *_reduction_all,
+    *_equivalence_all,
+    *_composition_all,
+    *_enumeration_all,
+    *_polynomials_all,
+]
