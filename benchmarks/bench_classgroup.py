@@ -31,10 +31,12 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 from formkit.core import arith as arith_module  # noqa: E402
+from formkit.core import modular_roots as roots_module  # noqa: E402
 from formkit import classgroup as cg_module  # noqa: E402
 from formkit.core import discriminants as disc_module  # noqa: E402
 from formkit.core import enumeration as enum_module  # noqa: E402
-from formkit.core.arith import isqrt, kronecker, mpz, next_prime, sqrt_mod_prime  # noqa: E402
+from formkit.core.arith import isqrt, kronecker, mpz, next_prime  # noqa: E402
+from formkit.core.modular_roots import sqrt_mod_prime  # noqa: E402
 from formkit.classgroup import class_group  # noqa: E402
 from formkit.core.composition import (  # noqa: E402
     _compose_raw,
@@ -45,13 +47,14 @@ from formkit.core.composition import (  # noqa: E402
     power,
 )
 from formkit.core.enumeration import class_number  # noqa: E402
-from formkit.core.reduction import _reduce_definite_raw  # noqa: E402
+from formkit.core.raw_reduction import _reduce_definite_raw  # noqa: E402
 
 
 def clear_caches() -> None:
     """Empty every memo the computation could reuse (lists of forms, groups, and the
-    factorisations / square roots memoised in formkit.core.arith), so each timing is cold."""
-    for module in (arith_module, enum_module, cg_module, disc_module):
+    factorisations / square roots memoised in formkit.core.arith and formkit.core.modular_roots),
+    so each timing is cold."""
+    for module in (arith_module, roots_module, enum_module, cg_module, disc_module):
         for name in dir(module):
             clear = getattr(getattr(module, name), "cache_clear", None)
             if callable(clear):

@@ -110,7 +110,7 @@ def _raw_core(D: int, forms) -> dict:
     """Seconds per reduction of the bare reduction loop (no matrix, no validation) on
     Python ints and on gmpy2 mpz: what the integer type alone costs."""
     from formkit.core.arith import isqrt, mpz
-    from formkit.core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
+    from formkit.core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
     out = {}
     for kind, conv in (("int", int), ("mpz", mpz)):

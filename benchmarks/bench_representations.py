@@ -30,7 +30,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 import sympy  # noqa: E402
 
-from formkit.core import arith  # noqa: E402
+from formkit.core import arith, modular_roots  # noqa: E402
 from formkit.core.arith import is_probable_prime, kronecker  # noqa: E402
 from formkit.cornacchia import prime_representation  # noqa: E402
 from formkit.core.enumeration import class_number  # noqa: E402
@@ -55,7 +55,7 @@ def median_time(fn, repeat: int, setup=None) -> float:
 
 def clear_caches() -> None:
     arith._factorint_cached.cache_clear()
-    arith._sqrt_mod_prime_power.cache_clear()
+    modular_roots._sqrt_mod_prime_power.cache_clear()
     sympy.core.cache.clear_cache()
 
 

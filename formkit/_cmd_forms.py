@@ -4,32 +4,15 @@ from __future__ import annotations
 
 import argparse
 
-from .core.arith import isqrt
 from .core.equivalence import equivalence
-from .core.forms import Form, as_form
-from .core.reduction import _rho_indefinite_raw, _to_work, reduce_form
+from .core.forms import as_form
+from .core.reduction import _cycle_prefix, reduce_form
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
 CYCLE_LIMIT = 10_000
 #: Default bound on the cycle walk of ``formkit equivalent`` (about a second of work).
 MAX_CYCLE_STEPS = 1_000_000
-
-
-def _cycle_prefix(start: Form, limit: int) -> tuple[list[Form], bool]:
-    """The ρ-cycle of the reduced indefinite ``start``: (forms, complete?), at most ``limit``
-    forms (``limit = 0``: no bound)."""
-    D = start.discriminant
-    forms = [start]
-    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
-    while True:
-        a, b, c, _ = _rho_indefinite_raw(a, b, c, Dz, sq)
-        g = Form(int(a), int(b), int(c))
-        if g == start:
-            return forms, True
-        if limit and len(forms) >= limit:
-            return forms, False
-        forms.append(g)
 
 
 def _matrix_text(m) -> str:

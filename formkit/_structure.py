@@ -25,7 +25,7 @@ from .core.composition import _compose_raw
 from .core.enumeration import _cycles_cached, _reduced_forms_cached
 from .errors import FormkitError
 from .core.forms import Form
-from .core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = ["class_group_enumerated"]
 

@@ -31,7 +31,8 @@ from __future__ import annotations
 import math
 from typing import Dict, List, Optional, Tuple
 
-from .core.arith import crt, factorint, invert, isqrt
+from .core.modular_roots import crt
+from .core.arith import factorint, invert, isqrt
 from .errors import FormkitError
 
 __all__: List[str] = []

@@ -102,7 +102,7 @@ def class_number_dirichlet(D: object) -> int:
     hK = _fundamental_negative(d_K) if d_K < 0 else _fundamental_positive(d_K)
     if f == 1:
         return hK
-    from .orders import unit_index
+    from .core.discriminants import unit_index
 
     value = Fraction(hK * f, unit_index(D))
     for p in factorint(f):

@@ -69,7 +69,7 @@ from .core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prim
 from .core.enumeration import _reduced_forms_cached
 from .errors import DiscriminantError, FormError
 from .core.forms import Form
-from .core.reduction import _reduce_definite_raw
+from .core.raw_reduction import _reduce_definite_raw
 
 __all__ = [
     "ClassPolynomial",

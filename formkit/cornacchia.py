@@ -32,7 +32,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Optional, Tuple
 
-from .core.arith import _sqrt_mod_prime, as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
+from .core.modular_roots import _sqrt_mod_prime
+from .core.arith import as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
 from .core.equivalence import proper_equivalence
 from .errors import FormkitError, NotPrimeError
 from .core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul

@@ -49,7 +49,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterable, Optional, Tuple
 
-from .core.arith import crt, factorint, gcd, kronecker
+from .core.modular_roots import crt
+from .core.arith import factorint, gcd, kronecker
 from .core.discriminants import validate_discriminant
 from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 from .core.forms import Form, FormLike, _require_nonsquare, as_form

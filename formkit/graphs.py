@@ -326,7 +326,7 @@ def cycle_graph(D: object) -> nx.DiGraph:
     [[0, -1], [1, -1]]
     """
     from .core.enumeration import reduced_forms
-    from .core.reduction import _rho_indefinite_raw
+    from .core.raw_reduction import _rho_indefinite_raw
 
     D = validate_discriminant(D)
     if D < 0:

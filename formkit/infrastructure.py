@@ -53,7 +53,7 @@ from .classgroup import ClassGroup, Provenance
 from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from ._sylow import BSGSStatistics
-from .large_discriminants import _prime_forms
+from .core.enumeration import _prime_forms
 from .lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
@@ -88,7 +88,11 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     ``hR_upper`` (an upper bound for ``h·R``) only sizes the baby range.
     """
     from .core.composition import _compose_parts
-    from .core.reduction import _is_reduced_indefinite_raw, _principal_reduced_indefinite, _rho_indefinite_raw
+    from .core.raw_reduction import (
+        _is_reduced_indefinite_raw,
+        _principal_reduced_indefinite,
+        _rho_indefinite_raw,
+    )
 
     sq = isqrt(D)
     sD = math.sqrt(D)
@@ -164,13 +168,13 @@ class _NarrowOps:
     """
 
     def __init__(self, D: int, stats: BSGSStatistics) -> None:
-        from .core.reduction import _principal_reduced_indefinite
+        from .core.raw_reduction import _principal_reduced_indefinite
 
         self.D, self.sq, self.stats = D, isqrt(D), stats
         self.one = _principal_reduced_indefinite(D)
 
     def reduce(self, a: int, b: int, c: int) -> Triple:
-        from .core.reduction import _reduce_indefinite_raw
+        from .core.raw_reduction import _reduce_indefinite_raw
 
         a, b, c = _reduce_indefinite_raw(a, b, c, self.D, self.sq)
         return int(a), int(b), int(c)
@@ -198,7 +202,7 @@ class _NarrowOps:
 
     def canonical(self, x: Triple) -> Triple:
         """The representative of the class of the reduced form ``x`` (walks its cycle)."""
-        from .core.reduction import _rho_indefinite_raw
+        from .core.raw_reduction import _rho_indefinite_raw
 
         a, b, c = x
         if a == 1:  # the only reduced form with a = 1 is the principal one

@@ -63,12 +63,13 @@ import math
 from math import gcd, isqrt
 from typing import Dict, Optional, Tuple
 
-from .core.arith import factorint, kronecker, next_prime
+from .core.arith import factorint, kronecker
 from .classgroup import ClassGroup, Provenance
 from .core.discriminants import discriminant_parts, validate_discriminant
+from .core.enumeration import _prime_forms
 from .errors import DiscriminantError
 from .lseries import class_number_estimate, class_number_upper_bound
-from .core.reduction import _reduce_definite_raw
+from .core.raw_reduction import _reduce_definite_raw
 from ._sylow import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
 
 __all__ = [
@@ -108,7 +109,7 @@ class _Ops:
         self.nucomp = -D >= 10**18
 
     #: Gauss reduction of a positive definite form (Cohen Algorithm 5.4.2), shared
-    #: with formkit.core.reduction.
+    #: with formkit.core.raw_reduction.
     reduce = staticmethod(_reduce_definite_raw)
 
     def _partial(self, d1: int, v1: int, v2: int, r: int, b2: int, c2: int) -> Triple:
@@ -296,25 +297,6 @@ def bach_bound(D: object) -> int:
     """
     D = validate_discriminant(D)
     return int(6 * math.log(abs(D)) ** 2)
-
-
-def _prime_forms(D: int, f: int, stop: Optional[int] = None):
-    """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
-    with p ∤ f and χ_D(p) ≠ −1, in increasing order; shared with :mod:`formkit.infrastructure`."""
-    from .core.forms import Form
-    from .core.reduction import _reduce_indefinite_raw
-
-    sq = isqrt(D) if D > 0 else 0
-    p = 2
-    while stop is None or p <= stop:
-        if kronecker(D, p) != -1 and f % p:
-            g = Form.prime_form(D, p)
-            if D < 0:
-                yield p, _Ops.reduce(g.a, g.b, g.c)
-            else:
-                a, b, c = _reduce_indefinite_raw(g.a, g.b, g.c, D, sq)
-                yield p, (int(a), int(b), int(c))
-        p = int(next_prime(p))
 
 
 def _unit_index(d_K: int, f: int) -> int:

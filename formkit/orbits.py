@@ -35,7 +35,8 @@ from .core.arith import as_int, gcd, isqrt, mpz
 from .core.equivalence import fundamental_automorph
 from .errors import FormError
 from .core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .core.reduction import _reduce_indefinite, _rho_indefinite_raw
+from .core.reduction import _reduce_indefinite
+from .core.raw_reduction import _rho_indefinite_raw
 from .representations import (
     _content_and_sign,
     _factor_abs,

@@ -26,7 +26,7 @@ from fractions import Fraction
 
 from .core.arith import as_int, factorint, invert, kronecker, xgcd
 from .classgroup import ClassGroupElement, class_group
-from .core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from .core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
 from .core.enumeration import class_number
 from .errors import FormkitError, NotPrimitiveError
 from .core.forms import Form, FormLike, _require_nonsquare, as_form
@@ -37,7 +37,6 @@ __all__ = [
     "project_to_maximal_order",
     "order_projection",
     "projection_kernel",
-    "unit_index",
     "class_number_order_formula",
 ]
 
@@ -142,29 +141,6 @@ def projection_kernel(D: object) -> list[ClassGroupElement]:
     (3, 2)
     """
     return [x for x, y in order_projection(D).items() if y.is_identity()]
-
-
-def unit_index(D: object) -> int:
-    """The index ``[O_K* : O*]`` of the unit group of the order of discriminant ``D``.
-
-    Examples
-    --------
-    >>> unit_index(-12), unit_index(-16), unit_index(-20), unit_index(5 * 4)
-    (3, 2, 1, 3)
-    """
-    D = validate_discriminant(D)
-    d_K, f = discriminant_parts(D)
-    if D < 0:
-        return unit_count(d_K) // unit_count(D)
-    eK = fundamental_unit(d_K)
-    t, u = eK.t, eK.u
-    T, U = t, u
-    k = 1
-    # ε_K^k = (T + U√d_K)/2 lies in O iff f | U and T ≡ (U/f)·D (mod 2)
-    while not (U % f == 0 and (T - (U // f) * D) % 2 == 0):
-        T, U = (T * t + U * u * d_K) // 2, (T * u + U * t) // 2
-        k += 1
-    return k
 
 
 def class_number_order_formula(D: object) -> int:

@@ -64,12 +64,13 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
-from .core.arith import as_int, crt, factorint, isqrt, kronecker, sqrt_mod, sqrt_mod_prime
+from .core.arith import as_int, factorint, isqrt, kronecker
+from .core.modular_roots import crt, sqrt_mod, sqrt_mod_prime
 from .classgroup import class_group
 from .errors import FormError, FormkitError, NotPrimitiveError
 from .core.forms import Form, FormLike, _require_nonsquare, as_form
 from .core.enumeration import _cycles_cached
-from .core.reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = [
     "PrimeCriterion",

@@ -14,7 +14,7 @@ representations of ``n/g²`` scaled by ``g``, over ``g² | n``.  (Gauss, *Disqui
 art. 154–170; Cox, *Primes of the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer,
 *Binary Quadratic Forms*, §3.2 and §6.8 — numbers as recalled.)
 
-The roots ``b`` come from :func:`formkit.core.arith.sqrt_mod` with the factorisation of ``n``
+The roots ``b`` come from :func:`formkit.core.modular_roots.sqrt_mod` with the factorisation of ``n``
 (sympy's ``factorint``, or given by the caller), so ``n`` of 60 digits and more is
 fine whenever it can be factored.
 
@@ -48,7 +48,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Dict, List, Optional, Tuple
 
-from .core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz, sqrt_mod
+from .core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz
+from .core.modular_roots import sqrt_mod
 from .core.discriminants import discriminant_parts, unit_count, validate_discriminant
 from .core.equivalence import automorphism_group
 from .errors import DiscriminantError, FormError, FormkitError
@@ -174,7 +175,7 @@ def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorp
 
 
 def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> int:
-    from .core.reduction import _reduce_definite_raw
+    from .core.raw_reduction import _reduce_definite_raw
 
     D = P.discriminant
     target = _reduce_definite(P, False).reduced.coefficients

@@ -109,7 +109,7 @@ def worked_reduction(form: FormLike) -> WorkedExample:
     >>> "running product" in ex.render("md")
     True
     """
-    from ._cmd_forms import _cycle_prefix
+    from .core.reduction import _cycle_prefix
 
     f = as_form(form)
     res = reduce_form(f, steps=True)

@@ -27,7 +27,8 @@ References
 
 from __future__ import annotations
 
-from .core.arith import as_int, factorint, gcd, isqrt, sqrt_mod
+from .core.arith import as_int, factorint, gcd, isqrt
+from .core.modular_roots import sqrt_mod
 from .errors import FormkitError
 from .core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from .core.reduction import reduce_form
@@ -405,7 +406,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                       tuple(((m_int(a),), tuple(p for g in fs for p in (m_form(g), " "))[:-1]) for a, fs in sorted(by_a.items())))
             )
         else:
-            from ._cmd_forms import _cycle_prefix
+            from .core.reduction import _cycle_prefix
 
             blocks.append(
                 para(

@@ -1,18 +1,21 @@
 """The ground layer: integers, forms and the operations on them that everything else uses.
 
 * :mod:`~formkit.core.arith` — the integer backend (the one module that talks to gmpy2);
+* :mod:`~formkit.core.modular_roots` — square roots modulo n, the Chinese remainder theorem;
 * :mod:`~formkit.core.parse` — the hand-written text parser for forms and integers;
 * :mod:`~formkit.core.forms` — the ``Form`` value type and 2×2 integer matrices;
 * :mod:`~formkit.core.discriminants` — discriminants, conductors, χ_D, units, regulators;
+* :mod:`~formkit.core.raw_reduction` — the reduction loops on bare integer triples;
 * :mod:`~formkit.core.reduction` — reduction of definite and indefinite forms, ρ, cycles;
 * :mod:`~formkit.core.equivalence` — proper and improper equivalence, automorphisms;
 * :mod:`~formkit.core.composition` — Dirichlet composition, NUCOMP and NUDUPL;
-* :mod:`~formkit.core.enumeration` — all reduced forms of D and class numbers by listing;
+* :mod:`~formkit.core.enumeration` — all reduced forms of D, class numbers by listing, the
+  reduced prime forms of the small primes;
 * :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime.
 
 This layer imports nothing from formkit but :mod:`formkit.errors`.  The names below are
-re-exported by :mod:`formkit`; the integer backend and the parser are used by every
-layer but are not part of the top-level API.
+re-exported by :mod:`formkit`; the integer backend, the parser and the raw reduction
+loops are used by every layer but are not part of the top-level API.
 """
 
 from .composition import *  # noqa: F401,F403

@@ -44,7 +44,7 @@ from functools import lru_cache
 from .arith import as_int, isqrt, mpz, xgcd
 from ..errors import DiscriminantMismatchError, FormError, NotPrimitiveError
 from .forms import Form, FormLike, _require_nonsquare, as_form
-from .reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = ["compose", "square", "power", "inverse", "COMPOSITION_METHODS"]
 

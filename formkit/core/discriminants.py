@@ -4,8 +4,9 @@ A discriminant is a non-square integer ``D ≡ 0, 1 (mod 4)``; it is the discrim
 ``b² − 4ac`` of the form ``(a, b, c)`` and of the quadratic order ``Z[(D + √D)/2]``.
 This module validates discriminants, splits ``D = f²·d_K`` into the fundamental
 discriminant and the conductor, evaluates the Kronecker character ``χ_D``, counts the
-units ``w(D)`` of imaginary orders, and computes the fundamental unit
-``ε = (t + u√D)/2`` of a real order, its norm and the regulator ``log ε``.
+units ``w(D)`` of imaginary orders, computes the fundamental unit
+``ε = (t + u√D)/2`` of a real order, its norm and the regulator ``log ε``, and the
+unit index ``[O_K* : O*]`` of an order in the maximal order.
 
 References
 ----------
@@ -37,6 +38,7 @@ __all__ = [
     "QuadraticUnit",
     "fundamental_unit",
     "regulator",
+    "unit_index",
 ]
 
 
@@ -297,7 +299,7 @@ def fundamental_unit(D: object) -> QuadraticUnit:
 
 @lru_cache(maxsize=256)
 def _fundamental_unit(D: int) -> tuple[int, int]:
-    from .reduction import _principal_reduced_indefinite, _rho_indefinite_raw, _to_work
+    from .raw_reduction import _principal_reduced_indefinite, _rho_indefinite_raw, _to_work
 
     a0, b0, c0 = _principal_reduced_indefinite(D)
     # the forms stay small (|a|, |c| < √D): plain ints unless D itself is large
@@ -348,3 +350,26 @@ def regulator(D: object, digits: int = 30):
     '0.4812118250596034474977589134243684231352'
     """
     return fundamental_unit(D).regulator(digits)
+
+
+def unit_index(D: object) -> int:
+    """The index ``[O_K* : O*]`` of the unit group of the order of discriminant ``D``.
+
+    Examples
+    --------
+    >>> unit_index(-12), unit_index(-16), unit_index(-20), unit_index(5 * 4)
+    (3, 2, 1, 3)
+    """
+    D = validate_discriminant(D)
+    d_K, f = discriminant_parts(D)
+    if D < 0:
+        return unit_count(d_K) // unit_count(D)
+    eK = fundamental_unit(d_K)
+    t, u = eK.t, eK.u
+    T, U = t, u
+    k = 1
+    # ε_K^k = (T + U√d_K)/2 lies in O iff f | U and T ≡ (U/f)·D (mod 2)
+    while not (U % f == 0 and (T - (U // f) * D) % 2 == 0):
+        T, U = (T * t + U * u * d_K) // 2, (T * u + U * t) // 2
+        k += 1
+    return k

@@ -25,13 +25,16 @@ References
 
 from __future__ import annotations
 
+import math
 from functools import lru_cache
 from math import gcd as _gcd
+from typing import Optional
 
-from .arith import _sqrt_mod_prime_power, divisors, isqrt
+from .modular_roots import _sqrt_mod_prime_power
+from .arith import divisors, isqrt, kronecker, next_prime
 from .discriminants import validate_discriminant
 from .forms import Form
-from .reduction import _rho_indefinite_raw
+from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw, _rho_indefinite_raw
 
 __all__ = [
     "reduced_forms",
@@ -222,3 +225,25 @@ def class_number(D: object) -> int:
     if D < 0:
         return len(_reduced_forms_cached(D))
     return len(_cycles_cached(D)[0])
+
+
+# ---------------------------------------------------------------------------
+# reduced prime forms of the small primes
+
+
+def _prime_forms(D: int, f: int, stop: Optional[int] = None):
+    """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
+    with p ∤ f and χ_D(p) ≠ −1, in increasing order: the generators from which both
+    large-discriminant class-group methods start (baby-step giant-step for D < 0,
+    :mod:`formkit.infrastructure` for D > 0)."""
+    sq = math.isqrt(D) if D > 0 else 0
+    p = 2
+    while stop is None or p <= stop:
+        if kronecker(D, p) != -1 and f % p:
+            g = Form.prime_form(D, p)
+            if D < 0:
+                yield p, _reduce_definite_raw(g.a, g.b, g.c)
+            else:
+                a, b, c = _reduce_indefinite_raw(g.a, g.b, g.c, D, sq)
+                yield p, (int(a), int(b), int(c))
+        p = int(next_prime(p))

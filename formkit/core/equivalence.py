@@ -29,7 +29,8 @@ from .arith import isqrt
 from .discriminants import fundamental_unit
 from ..errors import DiscriminantMismatchError, FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_definite, _reduce_indefinite, _rho_indefinite_raw, _to_work
+from .reduction import _reduce_definite, _reduce_indefinite
+from .raw_reduction import _rho_indefinite_raw, _to_work
 
 __all__ = [
     "EquivalenceResult",

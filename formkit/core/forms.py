@@ -20,7 +20,8 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
 
-from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker, sqrt_mod_prime
+from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker
+from .modular_roots import sqrt_mod_prime
 from ..errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 
 if TYPE_CHECKING:  # pragma: no cover

@@ -30,9 +30,17 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Tuple
 
-from .arith import isqrt, mpz
+from .arith import isqrt
 from ..errors import FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
+from .raw_reduction import (
+    _is_reduced_definite_raw,
+    _is_reduced_indefinite_raw,
+    _reduce_definite_raw,
+    _reduce_indefinite_raw,
+    _rho_indefinite_raw,
+    _to_work,
+)
 
 __all__ = [
     "ReductionStep",
@@ -104,87 +112,6 @@ class FormCycle:
     def length(self) -> int:
         """Number of reduced forms in the cycle."""
         return len(self.forms)
-
-
-# ---------------------------------------------------------------------------
-# raw integer cores (hot paths; callers pass mpz or int)
-
-#: Coefficients of at least this many bits are reduced with gmpy2 ``mpz``; smaller ones
-#: with plain Python ints, which are faster there (no conversions, no object overhead).
-#: Chosen from ``benchmarks/bench_reduction.py`` (docs/performance.md, section
-#: "Reduction and the integer backend"): Python ints win at |D| ≈ 10^40, mpz from
-#: coefficients of a few hundred digits on.
-MPZ_THRESHOLD_BITS = 512
-
-
-def _to_work(*values):
-    """``values`` as the integer type that is fastest for their size (see above)."""
-    if mpz is not int and max(abs(v) for v in values).bit_length() >= MPZ_THRESHOLD_BITS:
-        return tuple(mpz(v) for v in values)
-    return tuple(int(v) for v in values)
-
-
-
-def _is_reduced_definite_raw(a: int, b: int, c: int) -> bool:
-    if a < 0:
-        a, b, c = -a, -b, -c
-    return -a < b <= a <= c and not (a == c and b < 0)
-
-
-def _reduce_definite_raw(a: int, b: int, c: int) -> tuple[int, int, int]:
-    """Reduce a positive definite form (no matrix).  Cohen Algorithm 5.4.2."""
-    while True:
-        if not (-a < b <= a):
-            a2 = a + a
-            r = b % a2
-            if r > a:
-                r -= a2
-            # b -> r = b + 2ak with k = (r - b) / 2a
-            k = (r - b) // a2
-            c += (a * k + b) * k
-            b = r
-        if a > c:
-            a, b, c = c, -b, a
-            continue
-        if a == c and b < 0:
-            b = -b
-        return a, b, c
-
-
-def _is_reduced_indefinite_raw(a: int, b: int, sq: int) -> bool:
-    if b <= 0 or b > sq:
-        return False
-    a2 = 2 * abs(a)
-    return a2 + b > sq and a2 - b <= sq
-
-
-def _rho_indefinite_raw(a: int, b: int, c: int, D: int, sq: int):
-    """One step of ρ: returns ``(c, b', (b'² − D)/4c, t)`` with matrix ``[[0, −1], [1, t]]``."""
-    cc = abs(c)
-    c2 = 2 * cc
-    if cc > sq:
-        r = (-b) % c2
-        if r > cc:
-            r -= c2
-    else:
-        r = sq - ((sq + b) % c2)
-    t = (b + r) // (2 * c)
-    return c, r, (r * r - D) // (4 * c), t
-
-
-def _reduce_indefinite_raw(a: int, b: int, c: int, D: int, sq: int):
-    """Apply ρ until reduced; returns the reduced form (no matrix)."""
-    while not _is_reduced_indefinite_raw(a, b, sq):
-        a, b, c, _ = _rho_indefinite_raw(a, b, c, D, sq)
-    return a, b, c
-
-
-def _principal_reduced_indefinite(D: int) -> tuple[int, int, int]:
-    """A reduced form ``(1, b, (b² − D)/4)`` of discriminant ``D > 0`` (b the largest
-    integer < √D with b ≡ D mod 2)."""
-    sq = int(isqrt(D))
-    b = sq if (sq - D) % 2 == 0 else sq - 1
-    return 1, b, (b * b - D) // 4
 
 
 # ---------------------------------------------------------------------------
@@ -399,3 +326,19 @@ def _cycle_product(cyc: FormCycle, upto: int | None = None) -> Matrix:
     for step in cyc.matrices[: upto if upto is not None else len(cyc.matrices)]:
         m = mat_mul(m, step)
     return m
+
+
+def _cycle_prefix(start: Form, limit: int) -> tuple[list[Form], bool]:
+    """The ρ-cycle of the reduced indefinite ``start``: (forms, complete?), at most ``limit``
+    forms (``limit = 0``: no bound)."""
+    D = start.discriminant
+    forms = [start]
+    a, b, c, Dz, sq = _to_work(start.a, start.b, start.c, D, isqrt(D))
+    while True:
+        a, b, c, _ = _rho_indefinite_raw(a, b, c, Dz, sq)
+        g = Form(int(a), int(b), int(c))
+        if g == start:
+            return forms, True
+        if limit and len(forms) >= limit:
+            return forms, False
+        forms.append(g)

@@ -26,7 +26,6 @@ from sympy.ntheory.residue_ntheory import sqrt_mod as sympy_sqrt_mod
 from formkit.core import arith
 from formkit.core.arith import (
     as_int,
-    crt,
     divisors,
     factorint,
     gcd,
@@ -40,11 +39,9 @@ from formkit.core.arith import (
     mpz,
     next_prime,
     powmod,
-    sqrt_mod,
-    sqrt_mod_prime,
-    sqrt_mod_prime_power,
     xgcd,
 )
+from formkit.core.modular_roots import crt, sqrt_mod, sqrt_mod_prime, sqrt_mod_prime_power
 from formkit.errors import FormkitError, NotAnIntegerError, NotPrimeError
 
 big = st.integers(-(10**60), 10**60)
@@ -337,16 +334,16 @@ def test_other_bad_inputs():
 
 _BACKEND_SCRIPT = r"""
 import json
-from formkit.core import arith
+from formkit.core import arith, modular_roots
 assert arith.BACKEND == "python" and arith.mpz is int
 out = {
     "isqrt": [int(arith.isqrt(n)) for n in (0, 1, 10**41 + 7, 2**200)],
     "xgcd": [list(map(int, arith.xgcd(a, b))) for a, b in ((240, 46), (-7, 3), (5, -3), (0, 9))],
     "kronecker": [arith.kronecker(a, n) for a in range(-12, 13) for n in range(-12, 13)],
     "prime": [arith.is_probable_prime(n) for n in range(60)],
-    "sqrt_mod": [arith.sqrt_mod(a, 360) for a in range(40)],
-    "sqrt_p": [int(arith.sqrt_mod_prime(k * k, p)) for p in (13, 10**9 + 7, 998244353) for k in (2, 3, 12345)],
-    "crt": list(arith.crt([2, 3, 2], [3, 5, 7])),
+    "sqrt_mod": [modular_roots.sqrt_mod(a, 360) for a in range(40)],
+    "sqrt_p": [int(modular_roots.sqrt_mod_prime(k * k, p)) for p in (13, 10**9 + 7, 998244353) for k in (2, 3, 12345)],
+    "crt": list(modular_roots.crt([2, 3, 2], [3, 5, 7])),
     "next": int(arith.next_prime(10**12)),
 }
 print(json.dumps(out))
