@@ -51,10 +51,6 @@ from .orbits import *  # noqa: F401,F403,E402
 from .orbits import __all__ as _orbits_all  # noqa: E402
 from .cornacchia import *  # noqa: F401,F403,E402
 from .cornacchia import __all__ as _corn_all  # noqa: E402
-from .averages import *  # noqa: F401,F403,E402
-from .averages import __all__ as _avg_all  # noqa: E402
-from .lseries import *  # noqa: F401,F403,E402
-from .lseries import __all__ as _lseries_all  # noqa: E402
 from .large_discriminants import *  # noqa: F401,F403,E402
 from .large_discriminants import __all__ as _large_all  # noqa: E402
 from .infrastructure import *  # noqa: F401,F403,E402
@@ -62,7 +58,7 @@ from .infrastructure import __all__ as _infra_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_core_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_avg_all, *_lseries_all, *_large_all, *_infra_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_large_all, *_infra_all, "__version__"]
 
 
 def __getattr__(name: str):

@@ -593,7 +593,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
         As for :func:`class_group`.
     interval : bool
         Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
-        (``D > 0``) from :func:`formkit.lseries.class_number_estimate` (primes up to
+        (``D > 0``) from :func:`formkit.analytic.lseries.class_number_estimate` (primes up to
         ``min(2·10^6, |D|)`` or the default bound if larger), which holds under GRH.
 
     Returns
@@ -638,7 +638,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
                        fundamental_unit_norm=full["fundamental_unit_norm"])
         out.update(G.provenance.to_dict())
     if interval:
-        from .lseries import class_number_estimate, default_prime_bound
+        from .analytic.lseries import class_number_estimate, default_prime_bound
 
         est = class_number_estimate(D, max(default_prime_bound(D), min(2 * 10**6, abs(D))))
         out["analytic_interval"] = {

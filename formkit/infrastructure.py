@@ -10,7 +10,7 @@ module finds, for the order of discriminant ``D``,
    Forms*, Ch. 10; Cohen GTM 138, §5.8);
 2. the wide class number ``h`` from ``h·R = √D·L(1, χ_D)/2`` (Cox, Theorem 7.24 and
    Exercise 7.30 for orders), with ``L(1, χ_D)`` in the interval of
-   :func:`formkit.lseries.l_value_estimate`, **which holds under GRH**.  The integers
+   :func:`formkit.analytic.lseries.l_value_estimate`, **which holds under GRH**.  The integers
    ``h`` in ``[lower/R, upper/R]`` are the candidates; ``h⁺ = h`` if ``N(ε) = −1`` and
    ``2h`` otherwise;
 3. when several candidates remain they are cut down by group theory, which is
@@ -54,7 +54,7 @@ from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormkitError
 from ._sylow import BSGSStatistics
 from .core.enumeration import _prime_forms
-from .lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
+from .analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
 
@@ -358,7 +358,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
         A positive non-square discriminant (fundamental or not).
     prime_bound : int, optional
         First truncation point of the Euler product (default: the larger of
-        :func:`formkit.lseries.default_prime_bound` and ``min(2·10^6, D)``); it is lengthened
+        :func:`formkit.analytic.lseries.default_prime_bound` and ``min(2·10^6, D)``); it is lengthened
         tenfold, up to ``2·10^8``, while several class numbers remain possible.
 
     Returns

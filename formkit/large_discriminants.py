@@ -10,10 +10,10 @@ is computed from the prime forms of small norm:
 2. *Orders.*  The order of the first generator is found by Shanks' baby-step
    giant-step (Cohen GTM 138, Algorithm 5.4.10; Buchmann–Vollmer, *Binary Quadratic
    Forms*, Ch. 9), with the giant steps walking outwards from the analytic estimate of
-   :func:`formkit.lseries.class_number_estimate` (the estimate only decides where to
+   :func:`formkit.analytic.lseries.class_number_estimate` (the estimate only decides where to
    look first; the search is exhaustive, so a poor estimate costs time, not
    correctness).  The class number found is then checked against the interval that
-   holds under GRH (:func:`formkit.lseries.l_value_estimate`).  Baby steps are stored
+   holds under GRH (:func:`formkit.analytic.lseries.l_value_estimate`).  Baby steps are stored
    by ``(a, |b|)``, which ``x^j`` and ``x^{-j}`` share, so each giant step covers
    ``2s + 1`` exponents.  The number of genera ``2^t``
    divides ``h`` (genus theory), so the search runs on ``x^(2^t)`` over a range ``2^t``
@@ -29,7 +29,7 @@ is computed from the prime forms of small norm:
    structure computation", Math. Comp. 67 (1998)).  This part lives in
    :mod:`formkit._sylow`, shared with :mod:`formkit.infrastructure`.
 4. *Index bound.*  ``h(D) ≤ U`` with the proven bound ``U`` of
-   :func:`formkit.lseries.class_number_upper_bound`, so ``[Cl(D) : H] ≤ U/|H|``; a
+   :func:`formkit.analytic.lseries.class_number_upper_bound`, so ``[Cl(D) : H] ≤ U/|H|``; a
    prime ``ℓ > U/|H|`` cannot divide the index, so the ℓ-parts of later generators
    need no membership test.  For the other primes a generator costs one exponentiation
    by the ``(U/|H|)``-rough part of ``|H|`` plus small ones.
@@ -68,7 +68,7 @@ from .classgroup import ClassGroup, Provenance
 from .core.discriminants import discriminant_parts, validate_discriminant
 from .core.enumeration import _prime_forms
 from .errors import DiscriminantError
-from .lseries import class_number_estimate, class_number_upper_bound
+from .analytic.lseries import class_number_estimate, class_number_upper_bound
 from .core.raw_reduction import _reduce_definite_raw
 from ._sylow import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
 
@@ -383,7 +383,7 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
         A negative discriminant (fundamental or not) of any size.
     prime_bound : int, optional
         Truncation point of the Euler product that steers the search
-        (default :func:`formkit.lseries.default_prime_bound`).
+        (default :func:`formkit.analytic.lseries.default_prime_bound`).
 
     Returns
     -------

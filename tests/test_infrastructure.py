@@ -2,7 +2,7 @@
 
 Outside references: complete enumeration (formkit.classgroup method="enumerate",
 unconditional, an independent algorithm); Dirichlet's finite character sums of
-formkit.analytic (Davenport Ch. 6); the exact fundamental unit (formkit.core.discriminants);
+formkit.analytic.class_number_formula (Davenport Ch. 6); the exact fundamental unit (formkit.core.discriminants);
 the theorems of Biró (2003) settling the conjectures of Chowla (h(4m²+1) = 1 only for
 m = 1, 2, 3, 5, 7, 13) and of Yokoi (h(m²+4) = 1 only for m = 1, 3, 5, 7, 13, 17), from
 memory; classical small fields Q(√34) (h = 2, h⁺ = 4 although 34 = 3² + 5²) and Q(√229)
@@ -19,7 +19,7 @@ from hypothesis import given, settings, strategies as st
 
 import formkit.infrastructure as infra
 from _discriminants import built_discriminant, random_discriminants
-from formkit.analytic import class_number_dirichlet
+from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.core.arith import factorint
 from formkit.classgroup import class_group, class_number_summary
 from formkit.core.discriminants import fundamental_unit, is_discriminant, regulator
@@ -80,7 +80,7 @@ def test_small_classical_fields():
 def test_large_values_are_consistent():
     # 10^12+1 and 10^20+1 (unit of norm −1, tiny regulator, huge h) and 4·(10^12+3):
     # genus theory, h⁺ ∈ {h, 2h}, and h·R inside the GRH interval recomputed independently
-    from formkit.lseries import class_number_estimate
+    from formkit.analytic.lseries import class_number_estimate
 
     for D in (10**12 + 1, 10**20 + 1, 4 * (10**12 + 3)):
         r = real_class_number(D)

@@ -1,7 +1,7 @@
 """Tests for formkit.large_discriminants (baby-step giant-step class groups, D > 0 method).
 
 Outside references: complete enumeration (formkit.core.enumeration / class_group(method=
-"enumerate"), unconditional); the independent finite character sums of formkit.analytic
+"enumerate"), unconditional); the independent finite character sums of formkit.analytic.class_number_formula
 (Davenport Ch. 6); the lists of imaginary quadratic fields of class number 1 and 2
 (Heegner–Baker–Stark; from memory); genus theory (the 2-rank of Cl(D) is
 log2(number of genera), Gauss; Cox §3–§6) checked at 20- and 25-digit D where nothing
@@ -15,7 +15,7 @@ import random
 import pytest
 
 from formkit import classgroup as cg
-from formkit.analytic import class_number_dirichlet
+from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.core.arith import factorint
 from formkit.classgroup import class_group
 from formkit.core.discriminants import (

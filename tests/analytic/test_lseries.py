@@ -1,8 +1,8 @@
-"""Tests for formkit.lseries: L(1, χ_D) with its GRH interval and the class-number bounds.
+"""Tests for formkit.analytic.lseries: L(1, χ_D) with its GRH interval and the class-number bounds.
 
 Outside references: classical closed forms of L(1, χ) for D = −4, −3, 5, 8 (Dirichlet's
 class number formula with h = 1, from memory); exact class numbers from formkit's
-enumeration and from the independent finite character sums of formkit.analytic
+enumeration and from the independent finite character sums of formkit.analytic.class_number_formula
 (Davenport, Multiplicative Number Theory, Ch. 6); regulators from the exact
 fundamental unit (formkit.core.discriminants); sympy's primerange and mpmath's digamma for
 the pieces of the bound (docs/l_value_interval.md).  The interval is a theorem under
@@ -16,13 +16,13 @@ import random
 import pytest
 from hypothesis import given, strategies as st
 
-from formkit.analytic import class_number_dirichlet
+from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.classgroup import class_group
 from formkit.core.discriminants import is_discriminant, is_fundamental_discriminant, regulator
 from formkit.core.enumeration import class_number
 from formkit.core.arith import kronecker
 from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError
-from formkit.lseries import (
+from formkit.analytic.lseries import (
     GRH_CONSTANT,
     SIGMAS,
     _sums,
@@ -164,7 +164,7 @@ def test_estimate_contains_h_times_regulator_random_positive():
 
 
 def test_against_independent_character_sums():
-    # formkit.analytic evaluates Dirichlet's finite sums: no code shared with the Euler product
+    # formkit.analytic.class_number_formula evaluates Dirichlet's finite sums: no code shared with the Euler product
     for D in (-3, -4, -7, -1003, -9995, -4 * 2503, 13, 1001, 1009 * 4):
         if not is_discriminant(D):
             continue

@@ -28,9 +28,9 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .core.arith import factorint, kronecker
-from .core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
-from .errors import DiscriminantError
+from ..core.arith import factorint, kronecker
+from ..core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from ..errors import DiscriminantError
 
 __all__ = ["class_number_dirichlet", "MAX_ANALYTIC_DISCRIMINANT"]
 
@@ -102,7 +102,7 @@ def class_number_dirichlet(D: object) -> int:
     hK = _fundamental_negative(d_K) if d_K < 0 else _fundamental_positive(d_K)
     if f == 1:
         return hK
-    from .core.discriminants import unit_index
+    from ..core.discriminants import unit_index
 
     value = Fraction(hK * f, unit_index(D))
     for p in factorint(f):

@@ -1,4 +1,4 @@
-"""Tests for formkit.analytic: class numbers from Dirichlet's class number formula.
+"""Tests for formkit.analytic.class_number_formula: class numbers from Dirichlet's class number formula.
 
 The analytic value (a finite character sum for D < 0, a log-sine sum with the regulator
 for D > 0; Davenport, *Multiplicative Number Theory*, Ch. 6; Cohen GTM 138 §5.3, §5.6)

@@ -27,11 +27,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
-from .core.arith import as_int, isqrt, kronecker
-from .core.discriminants import unit_count, validate_discriminant
-from .errors import FormError, FormkitError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form
-from .core.reduction import reduced
+from ..core.arith import as_int, isqrt, kronecker
+from ..core.discriminants import unit_count, validate_discriminant
+from ..errors import FormError, FormkitError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.reduction import reduced
 
 __all__ = [
     "LatticeCount",
@@ -198,8 +198,8 @@ def class_lattice_total(D: object, X: object, *, digits: int = 30) -> ClassLatti
     >>> t.class_number, t.count, round(float(t.class_number_estimate), 2)
     (3, 39295, 3.0)
     """
-    from .core.enumeration import class_representatives
-    from .errors import DiscriminantError
+    from ..core.enumeration import class_representatives
+    from ..errors import DiscriminantError
 
     D = validate_discriminant(D)
     if D > 0:

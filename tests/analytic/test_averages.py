@@ -1,4 +1,4 @@
-"""Tests of formkit.averages: lattice-point counts, class totals, L(1, χ_D).
+"""Tests of formkit.analytic.averages: lattice-point counts, class totals, L(1, χ_D).
 
 Sources: brute-force point counts; the Gauss circle problem values N(r) for the disc of
 radius r (OEIS A000328: 1, 5, 13, 29, 49, 81, 113, 149, 197, 253, 317 — from memory);
@@ -20,7 +20,7 @@ from formkit.core.discriminants import is_discriminant, is_fundamental_discrimin
 from formkit.core.enumeration import class_number, class_representatives
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError
 from formkit.core.forms import Form
-from formkit.averages import class_lattice_total, l_value_at_one, lattice_point_count
+from formkit.analytic.averages import class_lattice_total, l_value_at_one, lattice_point_count
 from formkit.representations import representation_count
 
 

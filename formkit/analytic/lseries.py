@@ -76,9 +76,9 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Dict, Optional, Tuple
 
-from .core.arith import as_int, factorint, isqrt, kronecker
-from .core.discriminants import discriminant_parts, validate_discriminant
-from .errors import FormkitError
+from ..core.arith import as_int, factorint, isqrt, kronecker
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..errors import FormkitError
 
 __all__ = [
     "GRH_CONSTANT",

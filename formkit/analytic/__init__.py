@@ -1,0 +1,22 @@
+"""The analytic layer: class numbers and L-values from analysis, as independent checks.
+
+* :mod:`~formkit.analytic.lseries` — L(1, χ_D) by a truncated Euler product with an
+  explicit error interval under GRH, the class-number interval and proven upper bound
+  that the large-discriminant class-group methods rely on;
+* :mod:`~formkit.analytic.class_number_formula` — h(D) from Dirichlet's class number
+  formula as finite character sums;
+* :mod:`~formkit.analytic.averages` — lattice-point counts N_Q(X) beside 2πX/√|D|.
+
+Floating point appears here only with a stated precision and a verification step.
+This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names below
+are re-exported by :mod:`formkit`.
+"""
+
+from .averages import *  # noqa: F401,F403
+from .averages import __all__ as _averages_all
+from .class_number_formula import *  # noqa: F401,F403
+from .class_number_formula import __all__ as _formula_all
+from .lseries import *  # noqa: F401,F403
+from .lseries import __all__ as _lseries_all
+
+__all__ = [*_formula_all, *_averages_all, *_lseries_all]
