@@ -5,7 +5,8 @@
   that the large-discriminant class-group methods rely on;
 * :mod:`~formkit.analytic.class_number_formula` — h(D) from Dirichlet's class number
   formula as finite character sums;
-* :mod:`~formkit.analytic.averages` — lattice-point counts N_Q(X) beside 2πX/√|D|.
+* :mod:`~formkit.analytic.averages` — lattice-point counts N_Q(X) beside 2πX/√|D|;
+* :mod:`~formkit.analytic.j_function` — the modular invariant j(τ) (for class polynomials).
 
 Floating point appears here only with a stated precision and a verification step.
 This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names below
@@ -16,7 +17,9 @@ from .averages import *  # noqa: F401,F403
 from .averages import __all__ as _averages_all
 from .class_number_formula import *  # noqa: F401,F403
 from .class_number_formula import __all__ as _formula_all
+from .j_function import *  # noqa: F401,F403
+from .j_function import __all__ as _j_all
 from .lseries import *  # noqa: F401,F403
 from .lseries import __all__ as _lseries_all
 
-__all__ = [*_formula_all, *_averages_all, *_lseries_all]
+__all__ = [*_formula_all, *_averages_all, *_lseries_all, *_j_all]
