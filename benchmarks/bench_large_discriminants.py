@@ -19,11 +19,11 @@ import random
 import statistics
 import time
 
-from formkit.classgroup import class_group
+from formkit.classgroups.group import class_group
 from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.errors import FormkitError
-from formkit.infrastructure import real_class_group, real_class_number
-from formkit.large_discriminants import class_group_bsgs, last_statistics
+from formkit.classgroups.infrastructure import real_class_group, real_class_number
+from formkit.classgroups.baby_step_giant_step import class_group_bsgs, last_statistics
 
 
 def random_fundamental(rng: random.Random, digits: int, sign: int = -1) -> int:

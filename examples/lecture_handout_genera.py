@@ -24,7 +24,7 @@ from __future__ import annotations
 import sys
 
 from formkit import class_group, explain_class_group, explain_composition
-from formkit.genus import genera
+from formkit.classgroups.genus import genera
 from formkit.prime_criteria import primes_up_to, represents_prime
 
 

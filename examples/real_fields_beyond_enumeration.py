@@ -12,7 +12,7 @@ either.  The researcher
 1. checks the classical small cases: for squarefree 4m^2 + 1 with m < 60, h = 1 exactly
    for m = 1, 2, 3, 5, 7, 13 (Chowla's conjecture, proved by Biro in 2003; from memory),
    both by enumeration (unconditional) and by the infrastructure method of
-   formkit.infrastructure (conditional on GRH), which must agree;
+   formkit.classgroups.infrastructure (conditional on GRH), which must agree;
 2. computes h and R for m = 10^3, ..., 10^10 (D up to 4*10^20 + 1) with
    formkit.real_class_number, and checks R against the exact log(2m + sqrt(D)) and the
    norm of the unit against -1;
@@ -30,8 +30,8 @@ import math
 import time
 
 from formkit.core.arith import factorint
-from formkit.classgroup import class_group
-from formkit.infrastructure import real_class_group, real_class_number
+from formkit.classgroups.group import class_group
+from formkit.classgroups.infrastructure import real_class_group, real_class_number
 
 
 def squarefree(n: int) -> bool:

@@ -18,10 +18,8 @@ from .errors import *  # noqa: F401,F403,E402
 from .errors import __all__ as _errors_all  # noqa: E402
 from .core import *  # noqa: F401,F403,E402
 from .core import __all__ as _core_all  # noqa: E402
-from .classgroup import *  # noqa: F401,F403,E402
-from .classgroup import __all__ as _cg_all  # noqa: E402
-from .orders import *  # noqa: F401,F403,E402
-from .orders import __all__ as _orders_all  # noqa: E402
+from .classgroups import *  # noqa: F401,F403,E402
+from .classgroups import __all__ as _classgroups_all  # noqa: E402
 from .analytic import *  # noqa: F401,F403,E402
 from .analytic import __all__ as _analytic_all  # noqa: E402
 from .worked_examples import *  # noqa: F401,F403,E402
@@ -43,22 +41,16 @@ _graphs_all = [
     "graph_to_json", "graph_from_json", "graph_to_graphml", "graph_to_dot", "graph_title",
     "GRAPH_KINDS",
 ]
-from .genus import *  # noqa: F401,F403,E402
-from .genus import __all__ as _genus_all  # noqa: E402
 from .representations import *  # noqa: F401,F403,E402
 from .representations import __all__ as _repr_all  # noqa: E402
 from .orbits import *  # noqa: F401,F403,E402
 from .orbits import __all__ as _orbits_all  # noqa: E402
 from .cornacchia import *  # noqa: F401,F403,E402
 from .cornacchia import __all__ as _corn_all  # noqa: E402
-from .large_discriminants import *  # noqa: F401,F403,E402
-from .large_discriminants import __all__ as _large_all  # noqa: E402
-from .infrastructure import *  # noqa: F401,F403,E402
-from .infrastructure import __all__ as _infra_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_core_all, *_cg_all, *_orders_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_genus_all, *_repr_all, *_orbits_all, *_corn_all, *_large_all, *_infra_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_repr_all, *_orbits_all, *_corn_all, "__version__"]
 
 
 def __getattr__(name: str):

@@ -86,7 +86,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
 def _cmd_genera(args: argparse.Namespace) -> int:
     from .cli import emit
-    from .genus import genera
+    from .classgroups.genus import genera
 
     D = parse_integer(args.discriminant, "discriminant")
     P = genera(D)

@@ -22,7 +22,7 @@ are keyed by a reduced form as a tuple ``(a, b, c)``:
   exact sequence before it — numbers as recalled).
 
 Every node carries ``form`` (``[a, b, c]``), ``order`` (order of the class) and
-``genus`` (the genus symbol of :func:`formkit.genus.genus_symbol`, a tuple of ±1).
+``genus`` (the genus symbol of :func:`formkit.classgroups.genus.genus_symbol`, a tuple of ±1).
 
 *Which primes* (:func:`generating_primes`, the default): the primes ``p = 2, 3, 5, …``
 with ``χ_D(p) ≠ −1`` and ``p ∤ f`` (so that a primitive prime form exists), each kept
@@ -57,7 +57,7 @@ from typing import Dict, Iterable, List, Optional, Set, Tuple
 import networkx as nx
 
 from .core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
-from .classgroup import ClassGroup, ClassGroupElement, class_group
+from .classgroups.group import ClassGroup, ClassGroupElement, class_group
 from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
 from .graph_export import (
@@ -100,9 +100,9 @@ GRAPH_KINDS = ("cayley", "cycles", "fibres")
 
 
 def _genus_function():
-    """The genus symbol of a form, from :mod:`formkit.genus` (None if unavailable)."""
+    """The genus symbol of a form, from :mod:`formkit.classgroups.genus` (None if unavailable)."""
     try:
-        from .genus import genus_symbol
+        from .classgroups.genus import genus_symbol
     except ImportError:  # pragma: no cover - genus module not present
         return None
     return genus_symbol
@@ -370,7 +370,7 @@ def fibre_graph(D: object) -> nx.DiGraph:
         discriminants differ, so the keys do not collide), with ``form``, ``order``,
         ``genus``, ``discriminant`` and ``bipartite`` (0 for ``Cl(D)``, 1 for
         ``Cl(d_K)``); the ``Cl(d_K)`` nodes also carry ``fibre_size``.  One edge from
-        each class of ``D`` to its image (:func:`formkit.orders.project_to_maximal_order`).
+        each class of ``D`` to its image (:func:`formkit.classgroups.orders.project_to_maximal_order`).
         Graph attributes: ``kind = "fibres"``,
         ``discriminant``, ``fundamental_discriminant``, ``conductor``,
         ``class_number``, ``class_number_maximal``, ``fibre_size``, ``identity`` and
@@ -390,7 +390,7 @@ def fibre_graph(D: object) -> nx.DiGraph:
     >>> sorted(F.out_degree(x) for x, s in F.nodes(data="bipartite") if s == 0)
     [1, 1, 1, 1, 1, 1]
     """
-    from .orders import project_to_maximal_order
+    from .classgroups.orders import project_to_maximal_order
 
     G = _group_for(D)
     D = G.discriminant

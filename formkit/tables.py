@@ -229,7 +229,7 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
-    from .classgroup import class_group
+    from .classgroups.group import class_group
 
     G = class_group(D, method="enumerate")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range
@@ -303,7 +303,7 @@ def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
     from .core.arith import is_square
     from .core.discriminants import discriminant_parts, fundamental_unit
     from .core.enumeration import class_number
-    from .genus import genus_count
+    from .classgroups.genus import genus_count
 
     rows: List[RawRow] = []
     for D in range(max(spec.lo, 5), spec.hi + 1):

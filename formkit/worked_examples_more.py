@@ -354,9 +354,9 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     >>> [row["form"] for row in ex.data["classes"]]
     [[1, 0, 21], [2, 2, 11], [3, 0, 7], [5, 4, 5]]
     """
-    from .classgroup import class_group
+    from .classgroups.group import class_group
     from .core.discriminants import validate_discriminant
-    from .genus import assigned_characters, value_prime_to
+    from .classgroups.genus import assigned_characters, value_prime_to
 
     D = validate_discriminant(D)
     max_classes = _check_count(max_classes, "max_classes", 1)

@@ -28,7 +28,7 @@ from sympy import factorint, kronecker_symbol
 
 from _foundation_strategies import brute_reduced_indefinite as _brute_reduced_indefinite
 
-from formkit.classgroup import class_group
+from formkit.classgroups.group import class_group
 from formkit.errors import (
     DiscriminantError,
     FormError,
@@ -38,7 +38,7 @@ from formkit.errors import (
     NotPrimitiveError,
 )
 from formkit.core.forms import Form
-from formkit.genus import genus_symbol
+from formkit.classgroups.genus import genus_symbol
 from formkit.graph_export import _dot_quote
 from formkit.graphs import (
     cayley_graph,

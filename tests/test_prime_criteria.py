@@ -10,7 +10,7 @@ import sympy
 from hypothesis import given, strategies as st
 
 from formkit import errors
-from formkit.classgroup import class_group
+from formkit.classgroups.group import class_group
 from formkit.core.forms import Form
 from formkit.prime_criteria import (
     density_count,
@@ -134,7 +134,7 @@ def test_genus_residues_property(a, b, c):
 @pytest.mark.parametrize("D", [-20, -84, -56, -80, -4 * 30, -4 * 13 * 4, -23, 60, 8 * 17, 12, 4 * 35])
 def test_genus_residues_match_genus_characters(D):
     # cross-check with the genus module (assigned characters of Gauss, Cox table before Thm 3.15)
-    from formkit.genus import assigned_characters, genus_symbol
+    from formkit.classgroups.genus import assigned_characters, genus_symbol
 
     chars = assigned_characters(D)
     for f in class_group(D).forms():

@@ -31,7 +31,7 @@ from formkit import (
     table_rows,
 )
 from formkit.core.arith import kronecker
-from formkit.genus import genus_count
+from formkit.classgroups.genus import genus_count
 from formkit.table_store import parse_invariants
 from formkit.tables import ChunkSpec, compute_chunk, split_range
 from formkit.table_sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
@@ -146,7 +146,7 @@ def test_windows_of_a_larger_sweep_agree():
 
 def test_chunk_arithmetic_against_factorisation():
     # fundamental part, conductor (sympy factorisation via discriminant_parts) and number of
-    # genera (formkit.genus: assigned characters, Cox Prop. 3.11 / Thm 3.15) for both sieves
+    # genera (formkit.classgroups.genus: assigned characters, Cox Prop. 3.11 / Thm 3.15) for both sieves
     for L, H in ((3, 3000), (999_000, 1_000_000)):
         a = [x.tolist() for x in _chunk_arith_np(L, H)]
         b = _chunk_arith_py(L, H)

@@ -26,7 +26,7 @@ from formkit import (
     reduced,
 )
 from formkit.core.forms import Form, mat_mul
-from formkit.genus import genus_count
+from formkit.classgroups.genus import genus_count
 from formkit.representations import represent
 from formkit.worked_examples import (
     composition_trace,

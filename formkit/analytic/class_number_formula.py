@@ -11,7 +11,7 @@ exact integer arithmetic throughout.  For a fundamental ``d > 0`` it is
 evaluated with mpmath at a working precision chosen from the size of the sum and
 verified by recomputation at higher precision before rounding (the result must lie
 within 10⁻⁶ of an integer at both precisions).  Non-fundamental discriminants go
-through the class number formula for orders (:mod:`formkit.orders`), with the
+through the class number formula for orders (:mod:`formkit.classgroups.orders`), with the
 fundamental part computed here.
 
 These formulas share no code with enumeration, so agreement is a real check.

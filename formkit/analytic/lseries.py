@@ -43,7 +43,7 @@ useful size is known (Siegel's theorem is ineffective).
 ``n = q``; the head is at most ``1 + log q`` and, because ``χ`` sums to 0 over any
 ``q`` consecutive integers, Abel summation bounds the tail by ``q/(q+1) < 1``.  Hence
 ``h(D) ≤ w·√|D|·(2 + log q)·∏_{p|f}(1 + 1/p)/(2π)`` for ``D < 0`` (proved, used by
-:mod:`formkit.large_discriminants` to bound the index of a subgroup).
+:mod:`formkit.classgroups.baby_step_giant_step` to bound the index of a subgroup).
 
 **Steering width (not a bound).**  ``typical_radius = 1/√(P·log P)`` is the standard
 deviation of the tail ``Σ_{p>P} χ(p)/p`` in a random-sign model.  It only sizes the

@@ -3,7 +3,7 @@
 The classes of primitive forms of discriminant ``D`` under proper (SL2(Z))
 equivalence are listed here by their reduced forms (positive definite ones when
 ``D < 0``); for ``D > 0`` these are the *narrow* classes of the order of discriminant
-``D``.  The group structure lives in :mod:`formkit.classgroup`.
+``D``.  The group structure lives in :mod:`formkit.classgroups.group`.
 
 *Enumeration* (``D < 0``).  Every class has exactly one reduced form; for each
 ``a ≤ √(|D|/3)`` the admissible ``b`` are the square roots of ``D`` modulo ``4a``,
@@ -235,7 +235,7 @@ def _prime_forms(D: int, f: int, stop: Optional[int] = None):
     """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
     with p ∤ f and χ_D(p) ≠ −1, in increasing order: the generators from which both
     large-discriminant class-group methods start (baby-step giant-step for D < 0,
-    :mod:`formkit.infrastructure` for D > 0)."""
+    :mod:`formkit.classgroups.infrastructure` for D > 0)."""
     sq = math.isqrt(D) if D > 0 else 0
     p = 2
     while stop is None or p <= stop:

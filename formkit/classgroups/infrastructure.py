@@ -24,7 +24,7 @@ module finds, for the order of discriminant ``D``,
    classes tried again;
 4. the narrow class group ``Cl⁺(D)`` (:func:`real_class_group`): prime forms are added
    until the subgroup they generate has ``h⁺`` classes, with the Sylow code of
-   :mod:`formkit._sylow`; classes are compared through canonical representatives found
+   :mod:`formkit.classgroups.abelian_groups`; classes are compared through canonical representatives found
    by walking their cycles, which is practical while cycles are shorter than
    :data:`CYCLE_LIMIT` (``R`` up to about ``2·10^6``).  When every genus is a single
    class the group is ``C2^r`` and is read off the genus characters.
@@ -49,12 +49,12 @@ import math
 from math import isqrt
 from typing import Dict, List, Optional, Tuple
 
-from .classgroup import ClassGroup, Provenance
-from .core.discriminants import discriminant_parts, validate_discriminant
-from .errors import DiscriminantError, FormkitError
-from ._sylow import BSGSStatistics
-from .core.enumeration import _prime_forms
-from .analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
+from .group import ClassGroup, Provenance
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..errors import DiscriminantError, FormkitError
+from .abelian_groups import BSGSStatistics
+from ..core.enumeration import _prime_forms
+from ..analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
 
@@ -87,8 +87,8 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     doubles, each step adding a relative rounding error below 2^-52.
     ``hR_upper`` (an upper bound for ``h·R``) only sizes the baby range.
     """
-    from .core.composition import _compose_parts
-    from .core.raw_reduction import (
+    from ..core.composition import _compose_parts
+    from ..core.raw_reduction import (
         _is_reduced_indefinite_raw,
         _principal_reduced_indefinite,
         _rho_indefinite_raw,
@@ -168,19 +168,19 @@ class _NarrowOps:
     """
 
     def __init__(self, D: int, stats: BSGSStatistics) -> None:
-        from .core.raw_reduction import _principal_reduced_indefinite
+        from ..core.raw_reduction import _principal_reduced_indefinite
 
         self.D, self.sq, self.stats = D, isqrt(D), stats
         self.one = _principal_reduced_indefinite(D)
 
     def reduce(self, a: int, b: int, c: int) -> Triple:
-        from .core.raw_reduction import _reduce_indefinite_raw
+        from ..core.raw_reduction import _reduce_indefinite_raw
 
         a, b, c = _reduce_indefinite_raw(a, b, c, self.D, self.sq)
         return int(a), int(b), int(c)
 
     def mul(self, x: Triple, y: Triple) -> Triple:
-        from .core.composition import _compose_raw
+        from ..core.composition import _compose_raw
 
         self.stats.operations += 1
         return self.reduce(*_compose_raw(*x, *y, self.D))
@@ -202,7 +202,7 @@ class _NarrowOps:
 
     def canonical(self, x: Triple) -> Triple:
         """The representative of the class of the reduced form ``x`` (walks its cycle)."""
-        from .core.raw_reduction import _rho_indefinite_raw
+        from ..core.raw_reduction import _rho_indefinite_raw
 
         a, b, c = x
         if a == 1:  # the only reduced form with a = 1 is the principal one
@@ -225,7 +225,7 @@ class _NarrowOps:
 
 
 class _CanonicalOps:
-    """The interface of the Sylow code (:mod:`formkit._sylow`), on canonical forms."""
+    """The interface of the Sylow code (:mod:`formkit.classgroups.abelian_groups`), on canonical forms."""
 
     def __init__(self, ops: _NarrowOps) -> None:
         self.raw, self.stats = ops, ops.stats
@@ -297,7 +297,7 @@ class RealClassNumber:
 
     Attributes: ``discriminant``, ``class_number`` (narrow, ``h⁺``),
     ``class_number_wide`` (``h``), ``regulator`` (float), ``unit_norm`` (``N(ε) = ±1``),
-    ``provenance`` (:class:`formkit.classgroup.Provenance`), ``statistics``.
+    ``provenance`` (:class:`formkit.classgroups.group.Provenance`), ``statistics``.
     """
 
     __slots__ = ("discriminant", "class_number", "class_number_wide", "regulator", "unit_norm",
@@ -496,8 +496,8 @@ def _genus_structure(D: int, f: int, rank: int):
 
 def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     """Invariants, generators, discrete log and a note, from prime forms until ``h⁺`` is reached."""
-    from .core.arith import factorint
-    from ._sylow import _order_from_multiple, _Structure, _Sylow
+    from ..core.arith import factorint
+    from .abelian_groups import _order_from_multiple, _Structure, _Sylow
 
     cops = _CanonicalOps(ops)
     fac = factorint(narrow) if narrow > 1 else {}
@@ -534,7 +534,7 @@ def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
     Prime forms of increasing norm are then added one by one: the order of each divides
     ``h⁺`` and is found by factoring ``h⁺``; its Sylow parts enlarge the subgroup
     found so far (the ℓ-adic discrete logarithms and Smith normal form of
-    :mod:`formkit._sylow`, shared with :mod:`formkit.large_discriminants`).  When the subgroup has ``h⁺`` classes it is the
+    :mod:`formkit.classgroups.abelian_groups`, shared with :mod:`formkit.classgroups.baby_step_giant_step`).  When the subgroup has ``h⁺`` classes it is the
     whole group: the classes of prime forms generate ``Cl⁺(D)``, so this ends.  Classes
     are compared through their canonical forms, found by walking their cycles of reduced
     forms, so the cycles (about ``R/1.19`` forms) must be shorter than

@@ -1,4 +1,4 @@
-"""Tests for formkit.orders: projection Cl(D) → Cl(d_K), its kernel, unit index, class number formula.
+"""Tests for formkit.classgroups.orders: projection Cl(D) → Cl(d_K), its kernel, unit index, class number formula.
 
 References:
 * the class number formula for orders, h(D) = h(d_K)·f/[O_K*:O*]·∏_{p|f}(1 − χ_{d_K}(p)/p)

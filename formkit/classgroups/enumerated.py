@@ -6,7 +6,7 @@ built one generator at a time; the new generator ``g`` contributes the relation
 exponent vector on those generators.  A Smith normal form ``U·R·V = diag(n_i)`` of the
 relation matrix ``R`` (sympy's ``smith_normal_decomp``) then gives the invariant factors,
 generators of exactly those orders and the discrete logarithm of every class (Cohen GTM
-138, §2.4.3 and §5.5).  Used by :func:`formkit.classgroup.class_group` for enumerated
+138, §2.4.3 and §5.5).  Used by :func:`formkit.classgroups.group.class_group` for enumerated
 groups; the results are unconditional.
 
 References
@@ -19,13 +19,13 @@ from __future__ import annotations
 
 from typing import Callable, Dict, Iterator, Sequence, Tuple
 
-from .core.arith import isqrt, kronecker
-from .classgroup import ENUMERATED, ClassGroup, Triple
-from .core.composition import _compose_raw
-from .core.enumeration import _cycles_cached, _reduced_forms_cached
-from .errors import FormkitError
-from .core.forms import Form
-from .core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from ..core.arith import isqrt, kronecker
+from .group import ENUMERATED, ClassGroup, Triple
+from ..core.composition import _compose_raw
+from ..core.enumeration import _cycles_cached, _reduced_forms_cached
+from ..errors import FormkitError
+from ..core.forms import Form
+from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = ["class_group_enumerated"]
 
@@ -49,7 +49,7 @@ def _canonical_function(D: int) -> Callable[[Triple], Triple]:
 
 
 def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]) -> Iterator[Triple]:
-    from .core.arith import next_prime
+    from ..core.arith import next_prime
 
     p = 2
     limit = 60

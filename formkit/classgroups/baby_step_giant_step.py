@@ -27,7 +27,7 @@ is computed from the prime forms of small norm:
    and a Smith normal form (sympy) of the relation matrix gives the new basis
    (Cohen GTM 138, §2.4.3 and §5.5; Teske, "A space efficient algorithm for group
    structure computation", Math. Comp. 67 (1998)).  This part lives in
-   :mod:`formkit._sylow`, shared with :mod:`formkit.infrastructure`.
+   :mod:`formkit.classgroups.abelian_groups`, shared with :mod:`formkit.classgroups.infrastructure`.
 4. *Index bound.*  ``h(D) ≤ U`` with the proven bound ``U`` of
    :func:`formkit.analytic.lseries.class_number_upper_bound`, so ``[Cl(D) : H] ≤ U/|H|``; a
    prime ``ℓ > U/|H|`` cannot divide the index, so the ℓ-parts of later generators
@@ -35,7 +35,7 @@ is computed from the prime forms of small norm:
    by the ``(U/|H|)``-rough part of ``|H|`` plus small ones.
 5. *Non-fundamental D = f²·d_K.*  ``h(D) = h(d_K)·f·∏_{p|f}(1 − χ_{d_K}(p)/p)/[O_K^*:O^*]``
    (Cox, *Primes of the form x² + ny²*, Theorem 7.24).  ``h(d_K)`` is computed first
-   (by enumeration when ``|d_K|`` is within :data:`formkit.classgroup.ENUMERATION_LIMIT`,
+   (by enumeration when ``|d_K|`` is within :data:`formkit.classgroups.group.ENUMERATION_LIMIT`,
    which makes the whole result unconditional; otherwise by this module under GRH), and
    prime forms of ``D`` are added until ``|H| = h(D)``, which proves ``H = Cl(D)``.
 
@@ -63,14 +63,14 @@ import math
 from math import gcd, isqrt
 from typing import Dict, Optional, Tuple
 
-from .core.arith import factorint, kronecker
-from .classgroup import ClassGroup, Provenance
-from .core.discriminants import discriminant_parts, validate_discriminant
-from .core.enumeration import _prime_forms
-from .errors import DiscriminantError
-from .analytic.lseries import class_number_estimate, class_number_upper_bound
-from .core.raw_reduction import _reduce_definite_raw
-from ._sylow import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
+from ..core.arith import factorint, kronecker
+from .group import ClassGroup, Provenance
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.enumeration import _prime_forms
+from ..errors import DiscriminantError
+from ..analytic.lseries import class_number_estimate, class_number_upper_bound
+from ..core.raw_reduction import _reduce_definite_raw
+from .abelian_groups import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
 
 __all__ = [
     "bach_bound",
@@ -420,7 +420,7 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
     if D > 0:
         raise DiscriminantError(
             f"baby-step giant-step class groups are implemented for D < 0, not {D}; "
-            "for D > 0 use formkit.infrastructure.real_class_number (class numbers and regulator)"
+            "for D > 0 use formkit.real_class_number (class numbers and regulator)"
         )
     d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
@@ -435,7 +435,7 @@ def class_group_bsgs(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
     certified, assumption, bound = False, "GRH", B
     if f > 1:
         if -d_K <= FIELD_ENUMERATION_LIMIT:
-            from .core.enumeration import class_number
+            from ..core.enumeration import class_number
 
             h_K = class_number(d_K)
             certified, assumption, bound = True, None, None
@@ -500,8 +500,8 @@ def order_of_class(form: object) -> int:
     >>> order_of_class((1, 1, 6))
     1
     """
-    from .core.forms import as_form
-    from .errors import FormError, NotPrimitiveError
+    from ..core.forms import as_form
+    from ..errors import FormError, NotPrimitiveError
 
     F = as_form(form)
     D = F.discriminant

@@ -24,13 +24,13 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .core.arith import as_int, factorint, invert, kronecker, xgcd
-from .classgroup import ClassGroupElement, class_group
-from .core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
-from .core.enumeration import class_number
-from .errors import FormkitError, NotPrimitiveError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form
-from .core.reduction import reduced
+from ..core.arith import as_int, factorint, invert, kronecker, xgcd
+from .group import ClassGroupElement, class_group
+from ..core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
+from ..core.enumeration import class_number
+from ..errors import FormkitError, NotPrimitiveError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.reduction import reduced
 
 __all__ = [
     "coprime_representative",

@@ -31,11 +31,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable, Dict, Iterator, Optional, Sequence, Tuple
 
-from .core.arith import as_int, lcm, mpz
-from .core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
-from .core.discriminants import discriminant_parts, fundamental_unit, validate_discriminant
-from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
-from .core.forms import Form, FormLike, as_form
+from ..core.arith import as_int, lcm, mpz
+from ..core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
+from ..core.discriminants import discriminant_parts, fundamental_unit, validate_discriminant
+from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
+from ..core.forms import Form, FormLike, as_form
 
 __all__ = [
     "Provenance",
@@ -49,10 +49,10 @@ __all__ = [
 
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
 #: (about √|D| work); above it the baby-step giant-step path of
-#: :mod:`formkit.large_discriminants` is used when present.
+#: :mod:`formkit.classgroups.baby_step_giant_step` is used when present.
 ENUMERATION_LIMIT = 10**11  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
 #: For D > 0, ``method="auto"`` enumerates up to this D (about 2 s here at 10^9, 10 s at
-#: 10^10, 3 min at 10^12) and uses :func:`formkit.infrastructure.real_class_group` above.
+#: 10^10, 3 min at 10^12) and uses :func:`formkit.classgroups.infrastructure.real_class_group` above.
 REAL_ENUMERATION_LIMIT = 10**9
 
 Triple = Tuple[int, int, int]
@@ -201,8 +201,8 @@ class ClassGroupElement:
 
 
 def _require_prime(p: object) -> int:
-    from .core.arith import is_probable_prime
-    from .errors import NotPrimeError
+    from ..core.arith import is_probable_prime
+    from ..errors import NotPrimeError
 
     p = as_int(p, "p")
     if not is_probable_prime(p):
@@ -514,7 +514,7 @@ _GROUP_CACHE: Dict[int, ClassGroup] = {}
 
 
 def _infrastructure_path(D: int, method: str) -> bool:
-    """True when ``D > 0`` is handled by :mod:`formkit.infrastructure` (GRH) for ``method``."""
+    """True when ``D > 0`` is handled by :mod:`formkit.classgroups.infrastructure` (GRH) for ``method``."""
     return D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT))
 
 
@@ -528,8 +528,8 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     method : {"auto", "enumerate", "bsgs"}
         ``"enumerate"`` lists every class (unconditional, about √|D| work);
         ``"bsgs"`` uses baby-step giant-step under GRH (D < 0: see
-        :mod:`formkit.large_discriminants`; D > 0: the infrastructure and class orders of
-        :mod:`formkit.infrastructure`); ``"auto"`` enumerates up to
+        :mod:`formkit.classgroups.baby_step_giant_step`; D > 0: the infrastructure and class orders of
+        :mod:`formkit.classgroups.infrastructure`); ``"auto"`` enumerates up to
         :data:`ENUMERATION_LIMIT` for D < 0 and :data:`REAL_ENUMERATION_LIMIT` for D > 0.
 
     Returns
@@ -560,7 +560,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
         return real_class_group(D)
     if method == "bsgs" or (method == "auto" and D < 0 and -D > ENUMERATION_LIMIT):
         try:
-            from .large_discriminants import class_group_bsgs
+            from .baby_step_giant_step import class_group_bsgs
         except ImportError as exc:  # pragma: no cover - until that module exists
             raise FormkitError(
                 f"|D| = {abs(D)} exceeds the enumeration limit {ENUMERATION_LIMIT} and no "
@@ -569,7 +569,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
         return class_group_bsgs(D)
     cached = _GROUP_CACHE.get(D)
     if cached is None:
-        from ._structure import class_group_enumerated
+        from .enumerated import class_group_enumerated
 
         cached = class_group_enumerated(D)
         if len(_GROUP_CACHE) > 64:
@@ -582,7 +582,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
 
     For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
-    :func:`formkit.infrastructure.real_class_number`, which needs no cycle walk beyond
+    :func:`formkit.classgroups.infrastructure.real_class_number`, which needs no cycle walk beyond
     ``√(h·R)`` steps and so reaches much further than :func:`class_group`.
 
     Parameters
@@ -638,7 +638,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
                        fundamental_unit_norm=full["fundamental_unit_norm"])
         out.update(G.provenance.to_dict())
     if interval:
-        from .analytic.lseries import class_number_estimate, default_prime_bound
+        from ..analytic.lseries import class_number_estimate, default_prime_bound
 
         est = class_number_estimate(D, max(default_prime_bound(D), min(2 * 10**6, abs(D))))
         out["analytic_interval"] = {

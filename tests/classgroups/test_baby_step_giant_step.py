@@ -1,4 +1,4 @@
-"""Tests for formkit.large_discriminants (baby-step giant-step class groups, D > 0 method).
+"""Tests for formkit.classgroups.baby_step_giant_step (baby-step giant-step class groups, D > 0 method).
 
 Outside references: complete enumeration (formkit.core.enumeration / class_group(method=
 "enumerate"), unconditional); the independent finite character sums of formkit.analytic.class_number_formula
@@ -14,10 +14,10 @@ import random
 
 import pytest
 
-from formkit import classgroup as cg
+from formkit.classgroups import group as cg
 from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.core.arith import factorint
-from formkit.classgroup import class_group
+from formkit.classgroups.group import class_group
 from formkit.core.discriminants import (
     fundamental_unit,
     is_discriminant,
@@ -26,15 +26,15 @@ from formkit.core.discriminants import (
 )
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotPrimitiveError
 from formkit.core.forms import Form
-from formkit.genus import genus_count
+from formkit.classgroups.genus import genus_count
 from _discriminants import built_discriminant, random_discriminants
-from formkit.large_discriminants import (
+from formkit.classgroups.baby_step_giant_step import (
     bach_bound,
     class_group_bsgs,
     last_statistics,
     order_of_class,
 )
-from formkit.infrastructure import real_class_number
+from formkit.classgroups.infrastructure import real_class_number
 
 
 def _random_elements(G, rng, k):
@@ -256,7 +256,7 @@ def test_orders_of_the_units_fields(D):
 
 
 def test_non_fundamental_with_field_beyond_enumeration_limit(monkeypatch):
-    import formkit.large_discriminants as ld
+    import formkit.classgroups.baby_step_giant_step as ld
 
     monkeypatch.setattr(ld, "FIELD_ENUMERATION_LIMIT", 10**4)
     d = -(10**6) - 3  # 10^6 + 3 is prime, ≡ 3 mod 4: fundamental
@@ -296,7 +296,7 @@ def test_idoneal_numbers_complete_below_3000():
 def test_group_operations_match_formkit_composition():
     # the inlined NUCOMP/NUDUPL (all gcd cases) against formkit.core.composition.compose/square
     from formkit.core.composition import compose, square
-    from formkit.large_discriminants import BSGSStatistics, _Ops
+    from formkit.classgroups.baby_step_giant_step import BSGSStatistics, _Ops
 
     rng = random.Random(17)
     for D in (-3, -4, -23, -4 * 3 * 5 * 7 * 11, -(10**9) - 7, -4 * (10**19 + 1), -(10**31) - 3 * 9, -(3**40) * 4):

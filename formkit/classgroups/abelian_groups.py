@@ -1,7 +1,7 @@
 """Finite abelian groups given by an arithmetic object: orders, Sylow bases, structure.
 
-Shared by :mod:`formkit.large_discriminants` (``Cl(D)``, ``D < 0``) and
-:mod:`formkit.infrastructure` (``Cl⁺(D)``, ``D > 0``).  The group is an ``ops`` object
+Shared by :mod:`formkit.classgroups.baby_step_giant_step` (``Cl(D)``, ``D < 0``) and
+:mod:`formkit.classgroups.infrastructure` (``Cl⁺(D)``, ``D > 0``).  The group is an ``ops`` object
 with ``one``, ``mul(x, y)``, ``pow(x, e)`` (any integer ``e``), ``inv(x)`` and a
 ``stats`` counter, whose elements are hashable and *canonical* (equal classes are equal
 values).
@@ -31,9 +31,9 @@ from __future__ import annotations
 import math
 from typing import Dict, List, Optional, Tuple
 
-from .core.modular_roots import crt
-from .core.arith import factorint, invert, isqrt
-from .errors import FormkitError
+from ..core.modular_roots import crt
+from ..core.arith import factorint, invert, isqrt
+from ..errors import FormkitError
 
 __all__: List[str] = []
 

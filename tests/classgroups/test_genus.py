@@ -1,4 +1,4 @@
-"""Tests of formkit.genus against the classical theory and brute force.
+"""Tests of formkit.classgroups.genus against the classical theory and brute force.
 
 Sources: Cox, *Primes of the Form x² + ny²* (the table of assigned characters before
 Theorem 3.15; Theorem 3.15: 2^(μ−1) genera; Gauss's theorem that the principal genus
@@ -17,7 +17,7 @@ from hypothesis import given, strategies as st
 from _foundation_strategies import brute_reduced_definite
 
 from formkit.core.arith import kronecker
-from formkit.classgroup import class_group
+from formkit.classgroups.group import class_group
 from formkit.core.discriminants import is_discriminant
 from formkit.errors import (
     DiscriminantError,
@@ -28,7 +28,7 @@ from formkit.errors import (
     NotPrimitiveError,
 )
 from formkit.core.forms import Form
-from formkit.genus import (
+from formkit.classgroups.genus import (
     assigned_characters,
     genera,
     genus_count,

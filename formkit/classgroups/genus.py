@@ -49,11 +49,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterable, Optional, Tuple
 
-from .core.modular_roots import crt
-from .core.arith import factorint, gcd, kronecker
-from .core.discriminants import validate_discriminant
-from .errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.modular_roots import crt
+from ..core.arith import factorint, gcd, kronecker
+from ..core.discriminants import validate_discriminant
+from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 
 __all__ = [
     "GenusCharacter",
@@ -390,7 +390,7 @@ class GenusPartition:
 
 
 def _class_forms(D: int) -> Tuple[Form, ...]:
-    from .core.enumeration import class_representatives
+    from ..core.enumeration import class_representatives
 
     return tuple(class_representatives(D))
 
@@ -459,7 +459,7 @@ def principal_genus_is_squares(D: object) -> bool:
     """Check Gauss's theorem for ``D``: the principal genus is the group of squares.
 
     Squares are computed with the class group's composition
-    (:func:`formkit.classgroup.class_group`); the principal genus from genus symbols.
+    (:func:`formkit.classgroups.group.class_group`); the principal genus from genus symbols.
     Returns ``True`` when the two sets of classes coincide (the theorem says always).
 
     Examples
@@ -467,7 +467,7 @@ def principal_genus_is_squares(D: object) -> bool:
     >>> principal_genus_is_squares(-56), principal_genus_is_squares(-260)
     (True, True)
     """
-    from .classgroup import class_group
+    from .group import class_group
 
     D = validate_discriminant(D)
     G = class_group(D)
