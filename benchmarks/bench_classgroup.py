@@ -32,12 +32,12 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 from formkit.core import arith as arith_module  # noqa: E402
 from formkit.core import modular_roots as roots_module  # noqa: E402
-from formkit.classgroups import group as cg_module  # noqa: E402
+from formkit.classgroups import dispatch as cg_module  # noqa: E402
 from formkit.core import discriminants as disc_module  # noqa: E402
 from formkit.core import enumeration as enum_module  # noqa: E402
 from formkit.core.arith import isqrt, kronecker, mpz, next_prime  # noqa: E402
 from formkit.core.modular_roots import sqrt_mod_prime  # noqa: E402
-from formkit.classgroups.group import class_group  # noqa: E402
+from formkit.classgroups.dispatch import class_group  # noqa: E402
 from formkit.core.composition import (  # noqa: E402
     _compose_raw,
     _nucomp_bound,

@@ -46,7 +46,7 @@ def main() -> None:
 
     import matplotlib
 
-    from formkit.classgroups.group import class_group
+    from formkit.classgroups.dispatch import class_group
     from formkit.graphs import cayley_graph, graph_to_dot, graph_to_graphml, graph_to_json
     from formkit.plotting import save_picture
 

@@ -19,7 +19,7 @@ import random
 import statistics
 import time
 
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.errors import FormkitError
 from formkit.classgroups.infrastructure import real_class_group, real_class_number

@@ -30,7 +30,7 @@ import math
 import time
 
 from formkit.core.arith import factorint
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.classgroups.infrastructure import real_class_group, real_class_number
 
 

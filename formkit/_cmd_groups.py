@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 
 from .core.parse import parse_integer
-from .classgroups.group import class_group, class_number_summary
+from .classgroups.dispatch import class_group, class_number_summary
 from .core.composition import compose, power
 from .core.forms import as_form
 

@@ -57,7 +57,8 @@ from typing import Dict, Iterable, List, Optional, Set, Tuple
 import networkx as nx
 
 from .core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
-from .classgroups.group import ClassGroup, ClassGroupElement, class_group
+from .classgroups.group import ClassGroup, ClassGroupElement
+from .classgroups.dispatch import class_group
 from .core.discriminants import discriminant_parts, validate_discriminant
 from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
 from .graph_export import (

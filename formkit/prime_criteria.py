@@ -66,7 +66,7 @@ from typing import Optional
 
 from .core.arith import as_int, factorint, isqrt, kronecker
 from .core.modular_roots import crt, sqrt_mod, sqrt_mod_prime
-from .classgroups.group import class_group
+from .classgroups.dispatch import class_group
 from .errors import FormError, FormkitError, NotPrimitiveError
 from .core.forms import Form, FormLike, _require_nonsquare, as_form
 from .core.enumeration import _cycles_cached

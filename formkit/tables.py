@@ -229,7 +229,7 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
-    from .classgroups.group import class_group
+    from .classgroups.dispatch import class_group
 
     G = class_group(D, method="enumerate")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range

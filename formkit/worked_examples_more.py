@@ -354,7 +354,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     >>> [row["form"] for row in ex.data["classes"]]
     [[1, 0, 21], [2, 2, 11], [3, 0, 7], [5, 4, 5]]
     """
-    from .classgroups.group import class_group
+    from .classgroups.dispatch import class_group
     from .core.discriminants import validate_discriminant
     from .classgroups.genus import assigned_characters, value_prime_to
 

@@ -114,7 +114,7 @@ def test_root_count_matches_prime_form_class(D):
     # For split p ∤ disc(H): H splits mod p into factors of degree = order of the class of
     # the prime ideal above p (Cox §9, Artin reciprocity for the ring class field);
     # factor degrees from sympy, class orders from the class group module.
-    from formkit.classgroups.group import class_group
+    from formkit.classgroups.dispatch import class_group
 
     H = class_polynomial(D)
     G = class_group(D)

@@ -28,7 +28,7 @@ from sympy import factorint, kronecker_symbol
 
 from _foundation_strategies import brute_reduced_indefinite as _brute_reduced_indefinite
 
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.errors import (
     DiscriminantError,
     FormError,

@@ -10,7 +10,7 @@ import sympy
 from hypothesis import given, strategies as st
 
 from formkit import errors
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.core.forms import Form
 from formkit.prime_criteria import (
     density_count,

@@ -9,8 +9,10 @@
   :mod:`~formkit.classgroups.enumerated` (complete enumeration, unconditional),
   :mod:`~formkit.classgroups.baby_step_giant_step` (D < 0 beyond enumeration, GRH),
   :mod:`~formkit.classgroups.infrastructure` (D > 0 beyond enumeration, GRH);
+* :mod:`~formkit.classgroups.dispatch` — ``class_group(D)``: chooses the method by size;
 * :mod:`~formkit.classgroups.orders` — orders of conductor f: Cl(D) → Cl(d_K), the class
-  number formula for orders.
+  number formula for orders;
+* :mod:`~formkit.classgroups.principal_genus_theorem` — Gauss's theorem checked on Cl(D).
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -18,6 +20,8 @@ the names below are re-exported by :mod:`formkit`.
 
 from .baby_step_giant_step import *  # noqa: F401,F403
 from .baby_step_giant_step import __all__ as _bsgs_all
+from .dispatch import *  # noqa: F401,F403
+from .dispatch import __all__ as _dispatch_all
 from .genus import *  # noqa: F401,F403
 from .genus import __all__ as _genus_all
 from .group import *  # noqa: F401,F403
@@ -26,5 +30,9 @@ from .infrastructure import *  # noqa: F401,F403
 from .infrastructure import __all__ as _infrastructure_all
 from .orders import *  # noqa: F401,F403
 from .orders import __all__ as _orders_all
+from .principal_genus_theorem import *  # noqa: F401,F403
+from .principal_genus_theorem import __all__ as _theorem_all
 
-__all__ = [*_group_all, *_genus_all, *_orders_all, *_bsgs_all, *_infrastructure_all]
+__all__ = [
+    *_group_all, *_dispatch_all, *_genus_all, *_theorem_all, *_orders_all, *_bsgs_all, *_infrastructure_all,
+]

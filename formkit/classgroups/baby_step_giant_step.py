@@ -35,7 +35,7 @@ is computed from the prime forms of small norm:
    by the ``(U/|H|)``-rough part of ``|H|`` plus small ones.
 5. *Non-fundamental D = f²·d_K.*  ``h(D) = h(d_K)·f·∏_{p|f}(1 − χ_{d_K}(p)/p)/[O_K^*:O^*]``
    (Cox, *Primes of the form x² + ny²*, Theorem 7.24).  ``h(d_K)`` is computed first
-   (by enumeration when ``|d_K|`` is within :data:`formkit.classgroups.group.ENUMERATION_LIMIT`,
+   (by enumeration when ``|d_K|`` is within :data:`formkit.classgroups.dispatch.ENUMERATION_LIMIT`,
    which makes the whole result unconditional; otherwise by this module under GRH), and
    prime forms of ``D`` are added until ``|H| = h(D)``, which proves ``H = Cl(D)``.
 

@@ -6,7 +6,7 @@ built one generator at a time; the new generator ``g`` contributes the relation
 exponent vector on those generators.  A Smith normal form ``U·R·V = diag(n_i)`` of the
 relation matrix ``R`` (sympy's ``smith_normal_decomp``) then gives the invariant factors,
 generators of exactly those orders and the discrete logarithm of every class (Cohen GTM
-138, §2.4.3 and §5.5).  Used by :func:`formkit.classgroups.group.class_group` for enumerated
+138, §2.4.3 and §5.5).  Used by :func:`formkit.classgroups.dispatch.class_group` for enumerated
 groups; the results are unconditional.
 
 References

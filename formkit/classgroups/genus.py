@@ -66,7 +66,6 @@ __all__ = [
     "same_genus",
     "genera",
     "principal_genus",
-    "principal_genus_is_squares",
 ]
 
 _TWO_ADIC_FORMULAS = {
@@ -453,26 +452,3 @@ def principal_genus(D: object) -> Genus:
     (Form(1, 0, 14), Form(2, 0, 7))
     """
     return genera(D).principal
-
-
-def principal_genus_is_squares(D: object) -> bool:
-    """Check Gauss's theorem for ``D``: the principal genus is the group of squares.
-
-    Squares are computed with the class group's composition
-    (:func:`formkit.classgroups.group.class_group`); the principal genus from genus symbols.
-    Returns ``True`` when the two sets of classes coincide (the theorem says always).
-
-    Examples
-    --------
-    >>> principal_genus_is_squares(-56), principal_genus_is_squares(-260)
-    (True, True)
-    """
-    from .group import class_group
-
-    D = validate_discriminant(D)
-    G = class_group(D)
-    elements = list(G.elements())
-    one = tuple(1 for _ in assigned_characters(D))
-    squares = {x * x for x in elements}
-    principal = {x for x in elements if genus_symbol(x.form) == one}
-    return squares == principal

@@ -9,15 +9,11 @@ A :class:`ClassGroupElement` is a class, represented by its canonical reduced fo
 knows its group and supports ``*``, ``**`` (any integer), :meth:`~ClassGroupElement.inverse`
 and :attr:`~ClassGroupElement.order`.
 
-*Structure from a table* (enumerated groups).  Starting from prime forms of small
-primes, then any class not yet reached, the group is built one generator at a time;
-the new generator ``g`` contributes the relation ``g^m = (a product of earlier
-generators)`` with ``m`` minimal.  These relations span the relation lattice ``L`` of
-the generators, and a Smith normal form ``U·R·V = diag(n_i)`` of the relation matrix
-``R`` (sympy's ``smith_normal_decomp``) changes to a basis in which
-``Z^k / L ≅ ⊕ Z/n_i`` (Cohen GTM 138, §2.4.3 on the Smith normal form and §5.5 on
-computing class group structure from relations).  Every result records how it was
-obtained in :attr:`ClassGroup.provenance`.
+Every result records how it was obtained in :attr:`ClassGroup.provenance`.  The
+groups are built by the methods :mod:`formkit.classgroups.enumerated`,
+:mod:`formkit.classgroups.baby_step_giant_step` and
+:mod:`formkit.classgroups.infrastructure`; :func:`formkit.class_group`
+(:mod:`formkit.classgroups.dispatch`) chooses among them.
 
 References
 ----------
@@ -29,11 +25,11 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Callable, Dict, Iterator, Optional, Sequence, Tuple
+from typing import Callable, Iterator, Optional, Sequence, Tuple
 
 from ..core.arith import as_int, lcm, mpz
 from ..core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
-from ..core.discriminants import discriminant_parts, fundamental_unit, validate_discriminant
+from ..core.discriminants import discriminant_parts, fundamental_unit
 from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 from ..core.forms import Form, FormLike, as_form
 
@@ -41,19 +37,7 @@ __all__ = [
     "Provenance",
     "ClassGroup",
     "ClassGroupElement",
-    "class_group",
-    "class_number_summary",
-    "ENUMERATION_LIMIT",
-    "REAL_ENUMERATION_LIMIT",
 ]
-
-#: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
-#: (about √|D| work); above it the baby-step giant-step path of
-#: :mod:`formkit.classgroups.baby_step_giant_step` is used when present.
-ENUMERATION_LIMIT = 10**11  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
-#: For D > 0, ``method="auto"`` enumerates up to this D (about 2 s here at 10^9, 10 s at
-#: 10^10, 3 min at 10^12) and uses :func:`formkit.classgroups.infrastructure.real_class_group` above.
-REAL_ENUMERATION_LIMIT = 10**9
 
 Triple = Tuple[int, int, int]
 
@@ -508,141 +492,3 @@ class ClassGroup:
 
     def __hash__(self) -> int:
         return hash(("ClassGroup", self._D))
-
-
-_GROUP_CACHE: Dict[int, ClassGroup] = {}
-
-
-def _infrastructure_path(D: int, method: str) -> bool:
-    """True when ``D > 0`` is handled by :mod:`formkit.classgroups.infrastructure` (GRH) for ``method``."""
-    return D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT))
-
-
-def class_group(D: object, method: str = "auto") -> ClassGroup:
-    """The class group of discriminant ``D`` with its structure.
-
-    Parameters
-    ----------
-    D : int
-        A non-square discriminant (fundamental or not, negative or positive).
-    method : {"auto", "enumerate", "bsgs"}
-        ``"enumerate"`` lists every class (unconditional, about √|D| work);
-        ``"bsgs"`` uses baby-step giant-step under GRH (D < 0: see
-        :mod:`formkit.classgroups.baby_step_giant_step`; D > 0: the infrastructure and class orders of
-        :mod:`formkit.classgroups.infrastructure`); ``"auto"`` enumerates up to
-        :data:`ENUMERATION_LIMIT` for D < 0 and :data:`REAL_ENUMERATION_LIMIT` for D > 0.
-
-    Returns
-    -------
-    ClassGroup
-        With ``provenance`` saying how it was obtained.
-
-    Raises
-    ------
-    DiscriminantError
-        If ``D`` is not a discriminant.
-
-    Examples
-    --------
-    >>> G = class_group(-56)
-    >>> G.order, G.invariants, G.structure
-    (4, (4,), 'C4')
-    >>> H = class_group(4 * 79)
-    >>> H.order, H.class_number_wide, H.invariants
-    (6, 3, (6,))
-    """
-    D = validate_discriminant(D)
-    if method not in ("auto", "enumerate", "bsgs"):
-        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
-    if _infrastructure_path(D, method):
-        from .infrastructure import real_class_group
-
-        return real_class_group(D)
-    if method == "bsgs" or (method == "auto" and D < 0 and -D > ENUMERATION_LIMIT):
-        try:
-            from .baby_step_giant_step import class_group_bsgs
-        except ImportError as exc:  # pragma: no cover - until that module exists
-            raise FormkitError(
-                f"|D| = {abs(D)} exceeds the enumeration limit {ENUMERATION_LIMIT} and no "
-                "baby-step giant-step module is available"
-            ) from exc
-        return class_group_bsgs(D)
-    cached = _GROUP_CACHE.get(D)
-    if cached is None:
-        from .enumerated import class_group_enumerated
-
-        cached = class_group_enumerated(D)
-        if len(_GROUP_CACHE) > 64:
-            _GROUP_CACHE.clear()
-        _GROUP_CACHE[D] = cached
-    return cached
-
-
-def class_number_summary(D: object, method: str = "auto", *, interval: bool = False) -> dict:
-    """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
-
-    For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
-    :func:`formkit.classgroups.infrastructure.real_class_number`, which needs no cycle walk beyond
-    ``√(h·R)`` steps and so reaches much further than :func:`class_group`.
-
-    Parameters
-    ----------
-    D : int
-        A non-square discriminant.
-    method : {"auto", "enumerate", "bsgs"}
-        As for :func:`class_group`.
-    interval : bool
-        Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
-        (``D > 0``) from :func:`formkit.analytic.lseries.class_number_estimate` (primes up to
-        ``min(2·10^6, |D|)`` or the default bound if larger), which holds under GRH.
-
-    Returns
-    -------
-    dict
-        ``discriminant``, ``class_number`` (narrow for ``D > 0``) and, for ``D > 0``,
-        ``class_number_wide``, ``regulator`` (float) and ``fundamental_unit_norm``; then
-        ``method``, ``certified``, ``assumption``, ``bound`` and ``detail`` saying how
-        the result was obtained.
-
-    Raises
-    ------
-    DiscriminantError
-        If ``D`` is not a non-square discriminant.
-    FormkitError
-        If ``method`` is unknown, or (D > 0) the class number is not determined.
-
-    Examples
-    --------
-    >>> r = class_number_summary(4 * 79)
-    >>> r["class_number"], r["class_number_wide"], r["fundamental_unit_norm"], r["method"]
-    (6, 3, 1, 'enumeration')
-    >>> class_number_summary(-23)["class_number"]
-    3
-    """
-    D = validate_discriminant(D)
-    if method not in ("auto", "enumerate", "bsgs"):
-        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
-    if _infrastructure_path(D, method):
-        from .infrastructure import real_class_number
-
-        r = real_class_number(D)
-        out = {"discriminant": D, "class_number": r.class_number, "class_number_wide": r.class_number_wide,
-               "regulator": r.regulator, "fundamental_unit_norm": r.unit_norm}
-        out.update(r.provenance.to_dict())
-    else:
-        G = class_group(D, method)
-        out = {"discriminant": D, "class_number": G.order}
-        if D > 0:
-            full = G.to_dict()
-            out.update(class_number_wide=full["class_number_wide"], regulator=full["regulator"],
-                       fundamental_unit_norm=full["fundamental_unit_norm"])
-        out.update(G.provenance.to_dict())
-    if interval:
-        from ..analytic.lseries import class_number_estimate, default_prime_bound
-
-        est = class_number_estimate(D, max(default_prime_bound(D), min(2 * 10**6, abs(D))))
-        out["analytic_interval"] = {
-            "of": "h" if D < 0 else "h*R", "lower": est.lower, "upper": est.upper,
-            "estimate": est.estimate, "prime_bound": est.l_value.prime_bound, "assumption": est.assumption,
-        }
-    return out

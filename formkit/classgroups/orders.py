@@ -25,7 +25,8 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..core.arith import as_int, factorint, invert, kronecker, xgcd
-from .group import ClassGroupElement, class_group
+from .group import ClassGroupElement
+from .dispatch import class_group
 from ..core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
 from ..core.enumeration import class_number
 from ..errors import FormkitError, NotPrimitiveError

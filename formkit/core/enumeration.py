@@ -3,7 +3,7 @@
 The classes of primitive forms of discriminant ``D`` under proper (SL2(Z))
 equivalence are listed here by their reduced forms (positive definite ones when
 ``D < 0``); for ``D > 0`` these are the *narrow* classes of the order of discriminant
-``D``.  The group structure lives in :mod:`formkit.classgroups.group`.
+``D``.  The group structure lives in :mod:`formkit.classgroups`.
 
 *Enumeration* (``D < 0``).  Every class has exactly one reduced form; for each
 ``a ≤ √(|D|/3)`` the admissible ``b`` are the square roots of ``D`` modulo ``4a``,

@@ -17,7 +17,7 @@ import pytest
 from hypothesis import given, strategies as st
 
 from formkit.analytic.class_number_formula import class_number_dirichlet
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.core.discriminants import is_discriminant, is_fundamental_discriminant, regulator
 from formkit.core.enumeration import class_number
 from formkit.core.arith import kronecker

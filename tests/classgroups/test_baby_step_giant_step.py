@@ -14,10 +14,10 @@ import random
 
 import pytest
 
-from formkit.classgroups import group as cg
+from formkit.classgroups import dispatch as cg
 from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.core.arith import factorint
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.core.discriminants import (
     fundamental_unit,
     is_discriminant,

@@ -1,4 +1,4 @@
-"""Tests for formkit.classgroups.group: the ClassGroup object, its structure and provenance.
+"""Tests for formkit.classgroups.group and .dispatch: the ClassGroup object, its structure and provenance.
 
 References (named beside each check):
 * brute force: a class group built from the scanned reduced forms, composition by

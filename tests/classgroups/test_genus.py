@@ -17,7 +17,7 @@ from hypothesis import given, strategies as st
 from _foundation_strategies import brute_reduced_definite
 
 from formkit.core.arith import kronecker
-from formkit.classgroups.group import class_group
+from formkit.classgroups.dispatch import class_group
 from formkit.core.discriminants import is_discriminant
 from formkit.errors import (
     DiscriminantError,
@@ -34,10 +34,10 @@ from formkit.classgroups.genus import (
     genus_count,
     genus_symbol,
     principal_genus,
-    principal_genus_is_squares,
     same_genus,
     value_prime_to,
 )
+from formkit.classgroups.principal_genus_theorem import principal_genus_is_squares
 from formkit.core.reduction import reduced, reduced_cycle
 
 

@@ -1,6 +1,6 @@
 """Tests for formkit.classgroups.infrastructure: regulator, class numbers and Cl⁺(D) for D > 0.
 
-Outside references: complete enumeration (formkit.classgroups.group method="enumerate",
+Outside references: complete enumeration (formkit.class_group method="enumerate",
 unconditional, an independent algorithm); Dirichlet's finite character sums of
 formkit.analytic.class_number_formula (Davenport Ch. 6); the exact fundamental unit (formkit.core.discriminants);
 the theorems of Biró (2003) settling the conjectures of Chowla (h(4m²+1) = 1 only for
@@ -21,7 +21,7 @@ import formkit.classgroups.infrastructure as infra
 from _discriminants import built_discriminant, random_discriminants
 from formkit.analytic.class_number_formula import class_number_dirichlet
 from formkit.core.arith import factorint
-from formkit.classgroups.group import class_group, class_number_summary
+from formkit.classgroups.dispatch import class_group, class_number_summary
 from formkit.core.discriminants import fundamental_unit, is_discriminant, regulator
 from formkit.errors import DiscriminantError, FormkitError
 from formkit.classgroups.genus import genus_count
