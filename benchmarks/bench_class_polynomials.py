@@ -27,11 +27,11 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from formkit import class_polynomials as cp  # noqa: E402
-from formkit.class_polynomials import class_polynomial, class_polynomial_bound  # noqa: E402
+from formkit.representation import class_polynomials as cp  # noqa: E402
+from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound  # noqa: E402
 from formkit.cli import main  # noqa: E402
 from formkit.core.enumeration import class_number  # noqa: E402
-from formkit.prime_criteria import represented_primes  # noqa: E402
+from formkit.representation.prime_criteria import represented_primes  # noqa: E402
 
 
 def median_time(fn, repeat: int) -> float:

@@ -32,11 +32,11 @@ import sympy  # noqa: E402
 
 from formkit.core import arith, modular_roots  # noqa: E402
 from formkit.core.arith import is_probable_prime, kronecker  # noqa: E402
-from formkit.cornacchia import prime_representation  # noqa: E402
+from formkit.representation.cornacchia import prime_representation  # noqa: E402
 from formkit.core.enumeration import class_number  # noqa: E402
 from formkit.core.forms import Form  # noqa: E402
-from formkit.orbits import representation_orbits  # noqa: E402
-from formkit.representations import represent  # noqa: E402
+from formkit.representation.orbits import representation_orbits  # noqa: E402
+from formkit.representation.representations import represent  # noqa: E402
 
 D0 = -100003
 

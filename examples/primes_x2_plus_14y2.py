@@ -31,10 +31,10 @@ import sys
 
 import sympy
 
-from formkit.class_polynomials import class_polynomial
-from formkit.representations import represent
+from formkit.representation.class_polynomials import class_polynomial
+from formkit.representation.representations import represent
 from formkit.core.arith import kronecker
-from formkit.prime_criteria import prime_criterion, primes_up_to, represented_primes
+from formkit.representation.prime_criteria import prime_criterion, primes_up_to, represented_primes
 
 Q = (1, 0, 14)
 D = -56

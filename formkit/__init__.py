@@ -24,10 +24,8 @@ from .analytic import *  # noqa: F401,F403,E402
 from .analytic import __all__ as _analytic_all  # noqa: E402
 from .worked_examples import *  # noqa: F401,F403,E402
 from .worked_examples import __all__ as _worked_all  # noqa: E402
-from .class_polynomials import *  # noqa: F401,F403,E402
-from .class_polynomials import __all__ as _cpoly_all  # noqa: E402
-from .prime_criteria import *  # noqa: F401,F403,E402
-from .prime_criteria import __all__ as _pcrit_all  # noqa: E402
+from .representation import *  # noqa: F401,F403,E402
+from .representation import __all__ as _representation_all  # noqa: E402
 from .tables import *  # noqa: F401,F403,E402
 from .tables import __all__ as _tables_all  # noqa: E402
 from .table_store import *  # noqa: F401,F403,E402
@@ -41,16 +39,10 @@ _graphs_all = [
     "graph_to_json", "graph_from_json", "graph_to_graphml", "graph_to_dot", "graph_title",
     "GRAPH_KINDS",
 ]
-from .representations import *  # noqa: F401,F403,E402
-from .representations import __all__ as _repr_all  # noqa: E402
-from .orbits import *  # noqa: F401,F403,E402
-from .orbits import __all__ as _orbits_all  # noqa: E402
-from .cornacchia import *  # noqa: F401,F403,E402
-from .cornacchia import __all__ as _corn_all  # noqa: E402
 
 __version__ = "0.1.0"
 
-__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_cpoly_all, *_pcrit_all, *_tables_all, *_store_all, *_graphs_all, *_repr_all, *_orbits_all, *_corn_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_representation_all, *_tables_all, *_store_all, *_graphs_all, "__version__"]
 
 
 def __getattr__(name: str):

@@ -23,7 +23,12 @@ def _integer(text: str, name: str) -> int:
 
 def _cmd_primes(args: argparse.Namespace) -> int:
     from .cli import emit
-    from .prime_criteria import PrimeCriterion, prime_criterion, primes_up_to, represented_primes
+    from .representation.prime_criteria import (
+        PrimeCriterion,
+        prime_criterion,
+        primes_up_to,
+        represented_primes,
+    )
 
     Q = as_form(args.form)
     X = _integer(args.upto, "--upto")
@@ -77,7 +82,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
 
 
 def _cmd_hilbert(args: argparse.Namespace) -> int:
-    from .class_polynomials import class_polynomial
+    from .representation.class_polynomials import class_polynomial
     from .cli import emit
 
     D = _integer(args.discriminant, "D")
@@ -85,7 +90,7 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     payload = H.to_dict()
     disc = None
     if args.discriminant_factors:
-        from .class_polynomials import class_polynomial_discriminant
+        from .representation.class_polynomials import class_polynomial_discriminant
 
         disc = class_polynomial_discriminant(D)
         payload["polynomial_discriminant"] = disc.to_dict()

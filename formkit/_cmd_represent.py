@@ -40,7 +40,7 @@ def _parse_factors(text: str) -> dict:
 def _cmd_represent(args: argparse.Namespace) -> int:
     from .cli import emit
     from .core.equivalence import fundamental_automorph
-    from .representations import represent
+    from .representation.representations import represent
 
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")

@@ -12,7 +12,7 @@ The second half of :mod:`formkit.worked_examples` (which re-exports both functio
   ones of ``n/g²``, ``g² | n``.  (Gauss, *Disquisitiones* art. 154–170; Cox, *Primes of
   the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer, *Binary Quadratic Forms*,
   §3.2 — numbers as recalled.)  Written from the mathematics; the tests compare its
-  solutions with :func:`formkit.representations.represent`.
+  solutions with :func:`formkit.representation.representations.represent`.
 * :func:`worked_class_group` lists the reduced forms, the structure of ``Cl(D)``, and the
   class table with orders, discrete logarithms and the assigned genus characters (Cox,
   §3, the table before Theorem 3.15), then checks genus theory on it: ``2^(μ−1)``
@@ -83,7 +83,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     ----------
     form : FormLike
         Any form of non-square discriminant (content and negative definite forms are
-        handled as in :mod:`formkit.representations`).
+        handled as in :mod:`formkit.representation.representations`).
     n : int
         The number to represent.
     max_detail : int

@@ -27,7 +27,7 @@ from formkit import (
 )
 from formkit.core.forms import Form, mat_mul
 from formkit.classgroups.genus import genus_count
-from formkit.representations import represent
+from formkit.representation.representations import represent
 from formkit.worked_examples import (
     composition_trace,
     explain_class_group,

@@ -5,7 +5,7 @@
 and ``j = (1 + 256 t)³ / t``; the pentagonal series is summed in fixed-point integer
 arithmetic (all its terms have modulus < 1).  For ``τ`` in the closure of the standard
 fundamental domain ``|j(τ) − 1/q| ≤ 2079`` (A. Enge, Math. Comp. 78 (2009), Lemma 1;
-from memory), the bound on which the precision of :mod:`formkit.class_polynomials`
+from memory), the bound on which the precision of :mod:`formkit.representation.class_polynomials`
 rests.
 
 References

@@ -1,6 +1,6 @@
 """Polynomials over the integers reduced modulo a prime: root counts and squarefreeness.
 
-Used to check class polynomials (:mod:`formkit.class_polynomials`) and to apply the
+Used to check class polynomials (:mod:`formkit.representation.class_polynomials`) and to apply the
 class-polynomial criterion.  Polynomials are lists of residues, lowest degree first.
 Products use Kronecker substitution (pack the coefficients into one big integer,
 multiply once, unpack), remainders the reversed-polynomial trick with a Newton
@@ -151,7 +151,7 @@ def root_count_mod_prime(polynomial: Sequence[int], p: object) -> int:
 
     Examples
     --------
-    >>> from formkit.class_polynomials import class_polynomial
+    >>> from formkit.representation.class_polynomials import class_polynomial
     >>> H = class_polynomial(-23).coefficients
     >>> root_count_mod_prime(H, 59), root_count_mod_prime(H, 13)  # 59 = 5² + 5·2 + 6·2², 13 = 2·2² + 2 + 3
     (3, 0)

@@ -21,7 +21,7 @@ from formkit.core.enumeration import class_number, class_representatives
 from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError
 from formkit.core.forms import Form
 from formkit.analytic.averages import class_lattice_total, l_value_at_one, lattice_point_count
-from formkit.representations import representation_count
+from formkit.representation.representations import representation_count
 
 
 def brute_points(f, X):

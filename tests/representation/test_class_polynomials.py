@@ -1,4 +1,4 @@
-"""Tests for formkit.class_polynomials against classical values, sympy and brute force."""
+"""Tests for formkit.representation.class_polynomials against classical values, sympy and brute force."""
 
 import math
 
@@ -13,7 +13,7 @@ from sympy.polys.galoistools import gf_factor_sqf, gf_from_int_poly, gf_gcd, gf_
 
 from formkit import errors
 from formkit.analytic.j_function import j_invariant
-from formkit.class_polynomials import class_polynomial, class_polynomial_bound
+from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound
 from formkit.core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
 from formkit.core.forms import Form
 
@@ -259,7 +259,7 @@ def test_discriminant_primes_are_the_repeated_root_primes(D):
     # i.e. gcd(H, H') mod p is not constant — checked with sympy's polynomials over GF(p)
     import sympy
 
-    from formkit.class_polynomials import class_polynomial, class_polynomial_discriminant
+    from formkit.representation.class_polynomials import class_polynomial, class_polynomial_discriminant
 
     d = class_polynomial_discriminant(D)
     assert d.complete
@@ -276,7 +276,7 @@ def test_discriminant_against_numerical_roots(D):
     # independent: ∏_{i<j} (r_i − r_j)² over the complex roots (mpmath.polyroots, 60 digits)
     import mpmath
 
-    from formkit.class_polynomials import class_polynomial, class_polynomial_discriminant
+    from formkit.representation.class_polynomials import class_polynomial, class_polynomial_discriminant
 
     H = class_polynomial(D).coefficients
     with mpmath.workdps(120):
@@ -291,7 +291,7 @@ def test_discriminant_against_numerical_roots(D):
 
 
 def test_discriminant_partial_factorisation_and_bad_bound():
-    from formkit.class_polynomials import class_polynomial_discriminant
+    from formkit.representation.class_polynomials import class_polynomial_discriminant
     from formkit.errors import FormkitError
 
     full = class_polynomial_discriminant(-56)

@@ -64,13 +64,13 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
-from .core.arith import as_int, factorint, isqrt, kronecker
-from .core.modular_roots import crt, sqrt_mod, sqrt_mod_prime
-from .classgroups.dispatch import class_group
-from .errors import FormError, FormkitError, NotPrimitiveError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form
-from .core.enumeration import _cycles_cached
-from .core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from ..core.arith import as_int, factorint, isqrt, kronecker
+from ..core.modular_roots import crt, sqrt_mod, sqrt_mod_prime
+from ..classgroups.dispatch import class_group
+from ..errors import FormError, FormkitError, NotPrimitiveError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.enumeration import _cycles_cached
+from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
 __all__ = [
     "PrimeCriterion",
@@ -219,8 +219,8 @@ def represents_prime(form: FormLike, p: object) -> bool:
     >>> represents_prime((1, 0, 5), 29), represents_prime((1, 0, 5), 7), represents_prime((2, 2, 3), 7)
     (True, False, True)
     """
-    from .core.arith import is_probable_prime
-    from .errors import NotPrimeError
+    from ..core.arith import is_probable_prime
+    from ..errors import NotPrimeError
 
     Q = _check_form(form)
     p = as_int(p, "p")

@@ -63,14 +63,14 @@ from typing import Sequence
 
 import mpmath
 
-from .analytic.j_function import _J_TAIL, _fixed, _j_of_form
-from .core.arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
-from .core.discriminants import discriminant_parts, validate_discriminant
-from .core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
-from .core.enumeration import _reduced_forms_cached
-from .errors import DiscriminantError
-from .core.forms import Form
-from .core.raw_reduction import _reduce_definite_raw
+from ..analytic.j_function import _J_TAIL, _fixed, _j_of_form
+from ..core.arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
+from ..core.enumeration import _reduced_forms_cached
+from ..errors import DiscriminantError
+from ..core.forms import Form
+from ..core.raw_reduction import _reduce_definite_raw
 
 __all__ = [
     "ClassPolynomial",
@@ -517,7 +517,7 @@ def class_polynomial_discriminant(D: object, *, trial_bound: "int | None" = None
     """
     import sympy
 
-    from .errors import FormkitError
+    from ..errors import FormkitError
 
     D = _check_negative(D)
     bound = abs(D) if trial_bound is None else as_int(trial_bound, "trial_bound")

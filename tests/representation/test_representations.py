@@ -1,4 +1,4 @@
-"""Tests of formkit.representations against classical theorems, sympy and brute force.
+"""Tests of formkit.representation.representations against classical theorems, sympy and brute force.
 
 Sources named beside each check: Jacobi's two-square theorem r(n) = 4(d₁(n) − d₃(n));
 the rule that n is a sum of two squares iff every prime ≡ 3 (mod 4) divides it to an
@@ -19,15 +19,9 @@ from hypothesis import given, strategies as st
 from formkit.core.arith import kronecker
 from formkit.core.discriminants import conductor, is_discriminant, is_fundamental_discriminant, unit_count
 from formkit.core.enumeration import class_representatives
-from formkit.errors import (
-    DiscriminantError,
-    FormError,
-    FormkitError,
-    NotAnIntegerError,
-    ParseError,
-)
+from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError, ParseError
 from formkit.core.forms import Form
-from formkit.representations import (
+from formkit.representation.representations import (
     dirichlet_count,
     primitive_representation_count,
     represent,

@@ -1,4 +1,4 @@
-"""Tests for formkit.prime_criteria against classical theorems, Euler's list and brute force."""
+"""Tests for formkit.representation.prime_criteria against classical theorems, Euler's list and brute force."""
 
 import functools
 import math
@@ -12,7 +12,7 @@ from hypothesis import given, strategies as st
 from formkit import errors
 from formkit.classgroups.dispatch import class_group
 from formkit.core.forms import Form
-from formkit.prime_criteria import (
+from formkit.representation.prime_criteria import (
     density_count,
     genus_residues,
     is_idoneal,
@@ -236,7 +236,7 @@ INDEFINITE_FORMS = [(1, 0, -2), (1, 0, -3), (-1, 0, 3), (1, 1, -1), (3, 2, -2), 
 def test_indefinite_against_search_and_represent(form):
     # every prime found by a direct search is listed; every listed prime is confirmed by the
     # representation module (an independent implementation)
-    from formkit.representations import represent
+    from formkit.representation.representations import represent
 
     a, b, c = form
     N = 3000

@@ -34,7 +34,7 @@ handled by their content.  ``n = 0`` has only the solution ``(0, 0)`` (non-squar
 discriminant); it is counted once and is not primitive.
 
 Indefinite forms (infinitely many solutions, in orbits) are treated in
-:mod:`formkit.orbits`; :func:`represent` covers both kinds.
+:mod:`formkit.representation.orbits`; :func:`represent` covers both kinds.
 
 References
 ----------
@@ -48,13 +48,13 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Dict, List, Optional, Tuple
 
-from .core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz
-from .core.modular_roots import sqrt_mod
-from .core.discriminants import discriminant_parts, unit_count, validate_discriminant
-from .core.equivalence import automorphism_group
-from .errors import DiscriminantError, FormError, FormkitError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .core.reduction import _reduce_definite
+from ..core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz
+from ..core.modular_roots import sqrt_mod
+from ..core.discriminants import discriminant_parts, unit_count, validate_discriminant
+from ..core.equivalence import automorphism_group
+from ..errors import DiscriminantError, FormError, FormkitError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.reduction import _reduce_definite
 
 __all__ = [
     "RepresentationResult",
@@ -175,7 +175,7 @@ def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorp
 
 
 def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> int:
-    from .core.raw_reduction import _reduce_definite_raw
+    from ..core.raw_reduction import _reduce_definite_raw
 
     D = P.discriminant
     target = _reduce_definite(P, False).reduced.coefficients
@@ -207,7 +207,7 @@ class RepresentationResult:
     when asked; at most ``limit`` of them when a limit was given — ``truncated`` says
     so).  For indefinite forms ``count`` is ``None`` (infinitely many solutions unless
     ``n = 0``), ``orbits`` holds one representative per orbit under the proper
-    automorphs (the smallest, see :func:`formkit.orbits.orbit_representative`) and ``orbit_count``
+    automorphs (the smallest, see :func:`formkit.representation.orbits.orbit_representative`) and ``orbit_count``
     their number; ``primitive_orbit_count`` counts the orbits of primitive solutions.
     """
 
@@ -351,7 +351,7 @@ def representations(
     ------
     FormError
         If ``Q`` is indefinite (infinitely many solutions: use
-        :func:`formkit.orbits.representation_orbits`).
+        :func:`formkit.representation.orbits.representation_orbits`).
 
     Examples
     --------

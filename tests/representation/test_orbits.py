@@ -1,4 +1,4 @@
-"""Tests of formkit.orbits: solutions of Q(x, y) = n for indefinite forms, by orbits.
+"""Tests of formkit.representation.orbits: solutions of Q(x, y) = n for indefinite forms, by orbits.
 
 Sources: brute force in a box (every solution in the box lies in exactly one returned
 orbit, and the orbits met equal the returned ones); Dirichlet's count for fundamental
@@ -21,8 +21,8 @@ from formkit.core.enumeration import class_representatives
 from formkit.core.equivalence import fundamental_automorph
 from formkit.errors import FormError, NotAnIntegerError
 from formkit.core.forms import Form
-from formkit.orbits import orbit_representative, representation_orbits, walk_orbit
-from formkit.representations import dirichlet_count, represent, total_representation_count
+from formkit.representation.orbits import orbit_representative, representation_orbits, walk_orbit
+from formkit.representation.representations import dirichlet_count, represent, total_representation_count
 
 
 def in_orbit(f, rep, v, box):

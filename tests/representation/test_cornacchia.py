@@ -1,4 +1,4 @@
-"""Tests of formkit.cornacchia: prime decision by reduction and by Cornacchia's algorithm.
+"""Tests of formkit.representation.cornacchia: prime decision by reduction and by Cornacchia's algorithm.
 
 Sources: Fermat's two-square theorem (p = x² + y² ⇔ p = 2 or p ≡ 1 mod 4); p = x² + 2y²
 ⇔ p = 2 or p ≡ 1, 3 (mod 8); p = x² + 3y² ⇔ p = 3 or p ≡ 1 (mod 3) (Fermat, Euler; Cox
@@ -21,7 +21,7 @@ from formkit.core.discriminants import is_discriminant
 from formkit.core.enumeration import class_representatives
 from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError, NotPrimeError
 from formkit.core.forms import Form
-from formkit.cornacchia import cornacchia, cornacchia_4p, prime_representation
+from formkit.representation.cornacchia import cornacchia, cornacchia_4p, prime_representation
 
 PRIMES = list(sympy.primerange(2, 3000))
 

@@ -4,7 +4,7 @@
 prime ``p`` exactly when ``χ_D(p) ≠ −1`` and one of the forms ``(p, ±b, (b² − D)/4p)``
 with ``b² ≡ D (mod 4p)`` is properly equivalent to ``Q`` — the second one belongs to the
 inverse class ``Q⁻¹`` (Cox, *Primes of the Form x² + ny²*, Lemma 2.5 and Theorem 2.8
-for ``D < 0``; the same square-root correspondence as in :mod:`formkit.representations`).
+for ``D < 0``; the same square-root correspondence as in :mod:`formkit.representation.representations`).
 One square root modulo ``p`` (Tonelli–Shanks) and one reduction (a logarithmic number of
 steps) decide it, with the equivalence matrix giving ``(x, y)``; for ``D > 0`` the reduced
 form is looked up in the cycle of ``Q``.  Primes of hundreds of digits take milliseconds.
@@ -16,7 +16,7 @@ a Euclidean algorithm stopped at ``√p``; it is the fast path for the forms
 reduction test.
 
 Numbers that are not (probable) primes are never rejected: they are passed to the
-general square-root method of :mod:`formkit.representations`.
+general square-root method of :mod:`formkit.representation.representations`.
 
 References
 ----------
@@ -32,12 +32,12 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Optional, Tuple
 
-from .core.modular_roots import _sqrt_mod_prime
-from .core.arith import as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
-from .core.equivalence import proper_equivalence
-from .errors import FormkitError, NotPrimeError
-from .core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .core.reduction import _reduce_definite
+from ..core.modular_roots import _sqrt_mod_prime
+from ..core.arith import as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
+from ..core.equivalence import proper_equivalence
+from ..errors import FormkitError, NotPrimeError
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.reduction import _reduce_definite
 
 __all__ = [
     "RepresentationDecision",
@@ -125,8 +125,8 @@ def cornacchia_4p(D: object, p: object) -> Optional[Vector]:
     >>> cornacchia_4p(-3, 7), cornacchia_4p(-23, 59), cornacchia_4p(-23, 13)
     ((5, 1), (12, 2), None)
     """
-    from .core.discriminants import validate_discriminant
-    from .errors import DiscriminantError
+    from ..core.discriminants import validate_discriminant
+    from ..errors import DiscriminantError
 
     D = validate_discriminant(D)
     if D > 0:
@@ -229,7 +229,7 @@ def prime_representation(
     p : int
         The number to test; if it is not a probable prime (or the form is not primitive
         and positive-or-indefinite) the general method of
-        :func:`formkit.representations.represent` answers instead — never a silent "no".
+        :func:`formkit.representation.representations.represent` answers instead — never a silent "no".
     method : {"auto", "reduction", "cornacchia"}
         ``"cornacchia"`` needs ``Q = x² + ny²`` or ``x² + xy + ky²`` (definite).
     assume_prime : bool

@@ -4,7 +4,7 @@ For an indefinite form ``Q`` of non-square discriminant ``D > 0`` the proper
 automorphism group is ``{±A^k : k ∈ Z}`` with ``A`` the fundamental automorph
 (:func:`formkit.core.equivalence.fundamental_automorph`), and the solutions of
 ``Q(x, y) = n ≠ 0`` fall into finitely many orbits ``{±A^k v}``.  By the square-root
-correspondence of :mod:`formkit.representations`, the orbits of proper solutions of
+correspondence of :mod:`formkit.representation.representations`, the orbits of proper solutions of
 ``Q = m`` correspond one-to-one to the roots ``b mod 2|m|`` of ``b² ≡ D (mod 4|m|)``
 whose form ``(m, b, (b² − D)/4m)`` is primitive and properly equivalent to ``Q``:
 ``b`` is an invariant of the orbit, and the solutions attached to one ``b`` are the
@@ -31,12 +31,12 @@ from __future__ import annotations
 
 from typing import Dict, Iterator, List, Optional, Tuple
 
-from .core.arith import as_int, gcd, isqrt, mpz
-from .core.equivalence import fundamental_automorph
-from .errors import FormError
-from .core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .core.reduction import _reduce_indefinite
-from .core.raw_reduction import _rho_indefinite_raw
+from ..core.arith import as_int, gcd, isqrt, mpz
+from ..core.equivalence import fundamental_automorph
+from ..errors import FormError
+from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.reduction import _reduce_indefinite
+from ..core.raw_reduction import _rho_indefinite_raw
 from .representations import (
     _content_and_sign,
     _factor_abs,

@@ -1,0 +1,41 @@
+"""The representation layer: which integers and primes a form represents, and how.
+
+* :mod:`~formkit.representation.representations` — r_Q(n), primitive counts and all
+  solutions of Q(x, y) = n (definite forms), sums over classes;
+* :mod:`~formkit.representation.orbits` — one solution per orbit of the automorphs
+  (indefinite forms);
+* :mod:`~formkit.representation.cornacchia` — does Q represent the prime p, and how
+  (reduction of (p, b, ·), Cornacchia's algorithm);
+* :mod:`~formkit.representation.class_polynomials` — Hilbert and ring class polynomials
+  from j-invariants, verified;
+* :mod:`~formkit.representation.prime_criteria` — which primes a form represents:
+  congruences, class polynomials, densities.
+
+The function :func:`formkit.representations` shares its name with the module above;
+``formkit.representation.representations`` is the function too (as are
+``formkit.representation.cornacchia`` and ``formkit.core.equivalence``): import the
+modules with ``from formkit.representation.representations import …``.
+
+This layer imports :mod:`formkit.core`, :mod:`formkit.analytic`,
+:mod:`formkit.classgroups` and :mod:`formkit.errors`; the names below are re-exported by
+:mod:`formkit`.
+"""
+
+from .class_polynomials import *  # noqa: F401,F403
+from .class_polynomials import __all__ as _class_polynomials_all
+from .cornacchia import *  # noqa: F401,F403
+from .cornacchia import __all__ as _cornacchia_all
+from .orbits import *  # noqa: F401,F403
+from .orbits import __all__ as _orbits_all
+from .prime_criteria import *  # noqa: F401,F403
+from .prime_criteria import __all__ as _prime_criteria_all
+from .representations import *  # noqa: F401,F403
+from .representations import __all__ as _representations_all
+
+__all__ = [
+    *_representations_all,
+    *_orbits_all,
+    *_cornacchia_all,
+    *_class_polynomials_all,
+    *_prime_criteria_all,
+]
