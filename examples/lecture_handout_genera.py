@@ -25,7 +25,7 @@ import sys
 
 from formkit import class_group, explain_class_group, explain_composition
 from formkit.classgroups.genus import genera
-from formkit.representation.prime_criteria import primes_up_to, represents_prime
+from formkit.representation.prime_decision import primes_up_to, represents_prime
 
 
 def genus_table(D: int) -> str:

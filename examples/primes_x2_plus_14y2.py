@@ -34,7 +34,8 @@ import sympy
 from formkit.representation.class_polynomials import class_polynomial
 from formkit.representation.representations import represent
 from formkit.core.arith import kronecker
-from formkit.representation.prime_criteria import prime_criterion, primes_up_to, represented_primes
+from formkit.representation.prime_criteria import prime_criterion, represented_primes
+from formkit.representation.prime_decision import primes_up_to
 
 Q = (1, 0, 14)
 D = -56

@@ -23,12 +23,8 @@ def _integer(text: str, name: str) -> int:
 
 def _cmd_primes(args: argparse.Namespace) -> int:
     from .cli import emit
-    from .representation.prime_criteria import (
-        PrimeCriterion,
-        prime_criterion,
-        primes_up_to,
-        represented_primes,
-    )
+    from .representation.prime_criteria import PrimeCriterion, prime_criterion, represented_primes
+    from .representation.prime_decision import primes_up_to
 
     Q = as_form(args.form)
     X = _integer(args.upto, "--upto")

@@ -1,5 +1,6 @@
 """The representation layer: which integers and primes a form represents, and how.
 
+* :mod:`~formkit.representation.square_root_method` — the steps both kinds of form share;
 * :mod:`~formkit.representation.representations` — r_Q(n), primitive counts and all
   solutions of Q(x, y) = n (definite forms), sums over classes;
 * :mod:`~formkit.representation.orbits` — one solution per orbit of the automorphs
@@ -8,8 +9,12 @@
   (reduction of (p, b, ·), Cornacchia's algorithm);
 * :mod:`~formkit.representation.class_polynomials` — Hilbert and ring class polynomials
   from j-invariants, verified;
-* :mod:`~formkit.representation.prime_criteria` — which primes a form represents:
-  congruences, class polynomials, densities.
+* :mod:`~formkit.representation.prime_decision` — does Q represent the prime p (the class
+  of the prime form decides); primes up to a bound;
+* :mod:`~formkit.representation.genus_congruences` — the values of a genus modulo |D|, one
+  class per genus, idoneal numbers;
+* :mod:`~formkit.representation.prime_criteria` — which primes a form represents, in
+  words: congruences, class polynomials, densities.
 
 The function :func:`formkit.representations` shares its name with the module above;
 ``formkit.representation.representations`` is the function too (as are
@@ -25,10 +30,14 @@ from .class_polynomials import *  # noqa: F401,F403
 from .class_polynomials import __all__ as _class_polynomials_all
 from .cornacchia import *  # noqa: F401,F403
 from .cornacchia import __all__ as _cornacchia_all
+from .genus_congruences import *  # noqa: F401,F403
+from .genus_congruences import __all__ as _genus_congruences_all
 from .orbits import *  # noqa: F401,F403
 from .orbits import __all__ as _orbits_all
 from .prime_criteria import *  # noqa: F401,F403
 from .prime_criteria import __all__ as _prime_criteria_all
+from .prime_decision import *  # noqa: F401,F403
+from .prime_decision import __all__ as _prime_decision_all
 from .representations import *  # noqa: F401,F403
 from .representations import __all__ as _representations_all
 
@@ -37,5 +46,7 @@ __all__ = [
     *_orbits_all,
     *_cornacchia_all,
     *_class_polynomials_all,
+    *_prime_decision_all,
+    *_genus_congruences_all,
     *_prime_criteria_all,
 ]

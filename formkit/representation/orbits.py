@@ -37,7 +37,7 @@ from ..errors import FormError
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from ..core.reduction import _reduce_indefinite
 from ..core.raw_reduction import _rho_indefinite_raw
-from .representations import (
+from .square_root_method import (
     _content_and_sign,
     _factor_abs,
     _primitive_target,

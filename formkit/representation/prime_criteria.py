@@ -1,37 +1,11 @@
-"""Which primes a form represents: congruence criteria, class polynomials, densities.
+"""Which primes a form represents: the criterion in words, class polynomials, densities.
 
 Let ``Q`` be a primitive form of non-square discriminant ``D`` (positive definite when
 ``D < 0``) and ``C`` its class in ``Cl(D)`` (the narrow class group when ``D > 0``).
 
-*The class of the prime ideal decides.*  A prime ``p ∤ D`` is represented by some
-primitive form of discriminant ``D`` iff ``χ_D(p) = (D/p) = 1`` (Cox Lemma 2.5 for odd
-``p``; the same argument with ``b² ≡ D (mod 8)`` for ``p = 2``), and then exactly by the
-forms in the class of the prime form ``(p, b, ·)`` at ``p`` and its inverse ``(p, −b, ·)``
-— the classes of the two prime ideals above ``p``.  So ``Q`` represents ``p`` iff
-``χ_D(p) = 1`` and the prime form at ``p`` lies in ``C`` or ``C⁻¹``.  This is the
-per-prime decision used here (one reduction per prime); :func:`formkit.represent`
-decides single numbers, listing the solutions.
-
-*Congruence criteria* (Cox §2–§3, Theorem 2.26 and Corollary 2.27 as recalled).  The
-values of ``Q`` prime to ``D``, taken modulo ``|D|``, form a coset of the subgroup of
-values of the principal form; this coset is the same for all forms of one genus and
-determines the genus.  Hence when the genus of ``Q`` consists of the class of ``Q``
-alone — which happens for every ``Q`` exactly when ``Cl(D)`` has exponent ≤ 2, i.e.
-one class per genus, since the principal genus is ``Cl(D)²`` — a prime ``p ∤ D`` is
-represented by ``Q`` iff ``p mod |D|`` lies in that coset.  When the genus has several
-classes the congruence class of ``p`` only tells the genus, and no congruence
-criterion is offered.  The modulus ``|D|`` always suffices: for ``x² + ny²`` it is
-already ``4n``, and the characters at 2 have period dividing ``|D|`` (below).
-
-The coset is computed locally, without trusting a table of characters: by the Chinese
-remainder theorem the unit values of ``Q`` modulo ``|D| = ∏ q^e`` are the products of
-the unit values modulo each ``q^e``.  For odd ``q``, ``4aQ = (2ax + by)² − Dy²`` with
-``q ∤ a`` (after a unimodular change making a value ``v`` prime to ``q`` the first
-coefficient) shows that the unit values modulo ``q^e`` are ``v·(squares)``, i.e. the
-``r`` with ``(r/q) = (v/q)``.  For ``q = 2`` with ``2^e ∥ D``: ``aQ = X² − (D/4)Y²``
-with ``a`` odd; when ``e ≥ 3`` an odd value needs ``X`` odd, and ``X²`` runs over all of
-``1 + 8Z`` modulo ``2^e``, so the unit values are a union of classes modulo 8 — found
-by trying ``x, y`` modulo 8 (modulo 4 when ``e = 2``).
+:func:`prime_criterion` and :func:`represented_primes` put together the per-prime
+decision (:mod:`formkit.representation.prime_decision`), the congruence criteria
+(:mod:`formkit.representation.genus_congruences`) and the following.
 
 *Class polynomials* (Cox Theorem 9.2 for ``x² + ny²`` and Theorem 9.4 for orders;
 Theorem 11.1: ``K(j(O))`` is the ring class field; numbers as recalled).  For ``D < 0``
@@ -57,276 +31,27 @@ References
 .. [3] L. Euler, on numeri idonei (1778); the list of 65 idoneal numbers (from memory).
 """
 
+
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
-from ..core.arith import as_int, factorint, isqrt, kronecker
-from ..core.modular_roots import crt, sqrt_mod, sqrt_mod_prime
 from ..classgroups.dispatch import class_group
-from ..errors import FormError, FormkitError, NotPrimitiveError
-from ..core.forms import Form, FormLike, _require_nonsquare, as_form
-from ..core.enumeration import _cycles_cached
-from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from ..errors import FormkitError
+from ..core.forms import Form, FormLike
+from .genus_congruences import genus_residues
+from .prime_decision import _Decider, _check_bound, _check_form, primes_up_to
 
 __all__ = [
     "PrimeCriterion",
     "DensityCount",
     "prime_criterion",
-    "genus_residues",
-    "one_class_per_genus",
-    "is_idoneal",
     "prime_density",
     "density_count",
     "represented_primes",
-    "represents_prime",
-    "primes_up_to",
 ]
-
-#: Largest number of residues :func:`genus_residues` lists.
-RESIDUE_LIMIT = 10**6
-#: Largest bound accepted by :func:`represented_primes` and :func:`primes_up_to`.
-PRIME_BOUND_LIMIT = 10**8
-
-
-# ---------------------------------------------------------------------------
-# input checks
-
-
-def _check_form(form: FormLike) -> Form:
-    Q = as_form(form)
-    _require_nonsquare(Q, "a prime criterion")
-    if not Q.is_primitive:
-        raise NotPrimitiveError(
-            f"prime criteria are for primitive forms; {Q!r} has content {Q.content} "
-            f"(its values are multiples of {Q.content}, so it represents no prime unless {Q.content} is "
-            f"prime and {Q.primitive_part()!r} represents 1)"
-        )
-    if Q.discriminant < 0 and Q.a < 0:
-        raise FormError(
-            f"{Q!r} is negative definite and represents no positive prime; use {(-Q)!r}, "
-            "which represents p exactly when the given form represents -p"
-        )
-    return Q
-
-
-def _check_bound(upto: object) -> int:
-    X = as_int(upto, "upto")
-    if X < 0:
-        raise FormkitError(f"upto must be ≥ 0, not {X}")
-    if X > PRIME_BOUND_LIMIT:
-        raise FormkitError(f"upto must be at most {PRIME_BOUND_LIMIT} (a sieve is kept in memory), not {X}")
-    return X
-
-
-# ---------------------------------------------------------------------------
-# primes
-
-
-def primes_up_to(upto: object) -> list[int]:
-    """All primes ``p ≤ upto`` (sieve of Eratosthenes).
-
-    Raises
-    ------
-    FormkitError
-        If ``upto`` is negative or larger than ``PRIME_BOUND_LIMIT`` (10^8).
-
-    Examples
-    --------
-    >>> primes_up_to(30)
-    [2, 3, 5, 7, 11, 13, 17, 19, 23, 29]
-    """
-    X = _check_bound(upto)
-    if X < 2:
-        return []
-    sieve = bytearray([1]) * (X + 1)
-    sieve[0] = sieve[1] = 0
-    for i in range(2, math.isqrt(X) + 1):
-        if sieve[i]:
-            sieve[i * i :: i] = bytes(len(range(i * i, X + 1, i)))
-    return [i for i, v in enumerate(sieve) if v]
-
-
-class _Decider:
-    """Per-prime decision: the class of the prime form at p is C or C⁻¹."""
-
-    def __init__(self, Q: Form) -> None:
-        self.Q = Q
-        self.D = D = Q.discriminant
-        self.G = G = class_group(D)
-        self.C = G(Q)
-        self.targets = {self.C, self.C.inverse()}
-        self.raw_targets = {t.form.coefficients for t in self.targets}
-        if D > 0:  # reduced form -> representative of its cycle (the canonical class form)
-            self.sqrt_D = isqrt(D)
-            self.cycle_of = _cycles_cached(D)[1]
-        self.exceptions = tuple(p for p in sorted(factorint(abs(D))) if self._divisor_represented(p))
-
-    def _divisor_represented(self, p: int) -> bool:
-        D = self.D
-        for b in sorted({int(r) % (2 * p) for r in sqrt_mod(D, 4 * p)}):
-            f = Form(p, b, (b * b - D) // (4 * p))
-            if f.is_primitive and self.G(f) in self.targets:
-                return True
-        return False
-
-    def __call__(self, p: int) -> bool:
-        D = self.D
-        if D % p == 0:
-            return p in self.exceptions
-        if p == 2:
-            if kronecker(D, p) != 1:
-                return False
-            return self.G(Form.prime_form(D, p)) in self.targets
-        # fast path for odd p: Euler's criterion, then the prime form (p, b, (b² − D)/4p)
-        # with b² ≡ D (mod p), b ≡ D (mod 2), reduced (Gauss) and compared with C, C⁻¹
-        d = D % p
-        if pow(d, (p - 1) >> 1, p) != 1:
-            return False
-        if p & 3 == 3:
-            r = pow(d, (p + 1) >> 2, p)
-        elif p & 7 == 5:  # Atkin's square root for p ≡ 5 (mod 8)
-            v = pow(2 * d, (p - 5) >> 3, p)
-            r = d * v * (2 * d * v * v - 1) % p
-        else:
-            r = int(sqrt_mod_prime(d, p))
-        b = r if (r - D) % 2 == 0 else p - r
-        c = (b * b - D) // (4 * p)
-        if D < 0:
-            return _reduce_definite_raw(p, b, c) in self.raw_targets
-        red = _reduce_indefinite_raw(p, b, c, D, self.sqrt_D)
-        return self.cycle_of[(int(red[0]), int(red[1]), int(red[2]))] in self.raw_targets
-
-
-def represents_prime(form: FormLike, p: object) -> bool:
-    """True if the form represents the prime ``p``: ``Q(x, y) = p`` has a solution.
-
-    Decided by the class of the prime form at ``p`` (module docstring); for the
-    solutions themselves use :func:`formkit.represent`.
-
-    Raises
-    ------
-    NotPrimeError
-        If ``p`` is not a prime.
-    NotPrimitiveError, FormError, DiscriminantError
-        If the form is not primitive, is negative definite or has square discriminant.
-
-    Examples
-    --------
-    >>> represents_prime((1, 0, 5), 29), represents_prime((1, 0, 5), 7), represents_prime((2, 2, 3), 7)
-    (True, False, True)
-    """
-    from ..core.arith import is_probable_prime
-    from ..errors import NotPrimeError
-
-    Q = _check_form(form)
-    p = as_int(p, "p")
-    if p < 2 or not is_probable_prime(p):
-        raise NotPrimeError(f"p must be a prime, not {p}")
-    return _Decider(Q)(p)
-
-
-# ---------------------------------------------------------------------------
-# genera and congruences
-
-
-def one_class_per_genus(D: object) -> bool:
-    """True if every genus of discriminant ``D`` consists of a single class.
-
-    Equivalent to ``Cl(D)`` (narrow for ``D > 0``) having exponent ≤ 2, because the
-    principal genus is the subgroup of squares (Gauss; Cox Theorem 3.15, as recalled).
-
-    Examples
-    --------
-    >>> one_class_per_genus(-4 * 5), one_class_per_genus(-4 * 14), one_class_per_genus(-4 * 1848)
-    (True, False, True)
-    """
-    return class_group(D).exponent <= 2
-
-
-def is_idoneal(n: object) -> bool:
-    """True if ``n ≥ 1`` is idoneal in Euler's sense: ``x² + ny²`` has one class per genus.
-
-    Raises
-    ------
-    FormkitError
-        If ``n < 1``.
-
-    Examples
-    --------
-    >>> [n for n in range(1, 30) if is_idoneal(n)]
-    [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 13, 15, 16, 18, 21, 22, 24, 25, 28]
-    """
-    n = as_int(n, "n")
-    if n < 1:
-        raise FormkitError(f"idoneal numbers are positive integers, not {n}")
-    return one_class_per_genus(-4 * n)
-
-
-def _local_units(Q: Form, q: int, e: int) -> list[int]:
-    """Residues modulo q^e of the values of Q prime to q (see module docstring)."""
-    a, b, c = Q.coefficients
-    qe = q**e
-    if q == 2:
-        m = 2 ** min(e, 3)
-        T = {(a * x * x + b * x * y + c * y * y) % m for x in range(m) for y in range(m)}
-        return [r for r in range(1, qe, 2) if r % m in T]
-    v = next(v for v in (a, c, a + b + c) if v % q)
-    s = kronecker(v, q)
-    return [r for r in range(1, qe) if r % q and kronecker(r, q) == s]
-
-
-def genus_residues(form: FormLike) -> tuple[int, tuple[int, ...]]:
-    """The residues modulo ``|D|`` of the values of ``Q`` (and of its genus) prime to ``D``.
-
-    A prime ``p ∤ D`` represented by any form in the genus of ``Q`` satisfies
-    ``p mod |D| ∈ residues``; conversely a prime with ``p mod |D| ∈ residues`` is
-    represented by some form of the genus.  Computed prime by prime as described in
-    the module docstring.
-
-    Parameters
-    ----------
-    form : FormLike
-        A primitive form of non-square discriminant, not negative definite.
-
-    Returns
-    -------
-    (int, tuple of int)
-        The modulus ``|D|`` and the sorted residues.
-
-    Raises
-    ------
-    FormkitError
-        If there would be more than ``RESIDUE_LIMIT`` (10^6) residues.
-
-    Examples
-    --------
-    >>> genus_residues((1, 0, 5))      # p = x² + 5y²  iff  p ≡ 1, 9 (mod 20)
-    (20, (1, 9))
-    >>> genus_residues((1, 1, 1))
-    (3, (1,))
-    """
-    Q = _check_form(form)
-    D = Q.discriminant
-    fac = factorint(abs(D))
-    count = 1
-    for q, e in fac.items():
-        count *= q ** (e - 1) * (q - 1) // (2 if q > 2 else 1)
-    if count > RESIDUE_LIMIT:
-        raise FormkitError(
-            f"the genus of {Q!r} has about {count} residues modulo {abs(D)}, more than {RESIDUE_LIMIT}"
-        )
-    residues = [0]
-    modulus = 1
-    for q, e in sorted(fac.items()):
-        qe = q**e
-        local = _local_units(Q, q, e)
-        residues = [crt((r, s), (modulus, qe))[0] for r in residues for s in local]
-        modulus *= qe
-    return modulus, tuple(sorted(int(r) for r in residues))
 
 
 # ---------------------------------------------------------------------------

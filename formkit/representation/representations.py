@@ -34,7 +34,8 @@ handled by their content.  ``n = 0`` has only the solution ``(0, 0)`` (non-squar
 discriminant); it is counted once and is not primitive.
 
 Indefinite forms (infinitely many solutions, in orbits) are treated in
-:mod:`formkit.representation.orbits`; :func:`represent` covers both kinds.
+:mod:`formkit.representation.orbits`; :func:`represent` covers both kinds.  The steps
+both share are in :mod:`formkit.representation.square_root_method`.
 
 References
 ----------
@@ -48,13 +49,20 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Dict, List, Optional, Tuple
 
-from ..core.arith import as_int, factorint, gcd, is_probable_prime, kronecker, mpz
-from ..core.modular_roots import sqrt_mod
+from ..core.arith import as_int, factorint, gcd, kronecker, mpz
 from ..core.discriminants import discriminant_parts, unit_count, validate_discriminant
 from ..core.equivalence import automorphism_group
 from ..errors import DiscriminantError, FormError, FormkitError
-from ..core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.forms import Form, FormLike, mat_inverse, mat_mul
 from ..core.reduction import _reduce_definite
+from .square_root_method import (
+    _content_and_sign,
+    _factor_abs,
+    _primitive_target,
+    _proper_roots,
+    _scaled_factors,
+    _square_divisors,
+)
 
 __all__ = [
     "RepresentationResult",
@@ -67,89 +75,6 @@ __all__ = [
 ]
 
 Vector = Tuple[int, int]
-
-
-# ---------------------------------------------------------------------------
-# factorisations and roots
-
-
-def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
-    """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
-    n = abs(n)
-    if factors is None:
-        if n > 1 and is_probable_prime(n):
-            return {n: 1}  # skip sympy's trial division on large primes
-        return factorint(n) if n > 1 else {}
-    fac: Dict[int, int] = {}
-    prod = 1
-    for p, e in dict(factors).items():
-        p = as_int(p, "prime factor")
-        e = as_int(e, "exponent")
-        if e < 0 or p < 2:
-            raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
-        if e == 0:
-            continue
-        if e > max(1, n.bit_length()):  # p^e would exceed |n|: refuse before computing it
-            raise FormkitError(f"the given factor {p}^{e} exceeds |n| = {n}")
-        if not is_probable_prime(p):
-            raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
-        fac[p] = fac.get(p, 0) + e
-        prod *= p**e
-    if prod != n:
-        raise FormkitError(f"the given factors multiply to {prod}, not to |n| = {n}")
-    return dict(sorted(fac.items()))
-
-
-def _square_divisors(fac: Dict[int, int]) -> List[Tuple[int, Dict[int, int]]]:
-    """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²``."""
-    out: List[Tuple[int, Dict[int, int]]] = [(1, dict(fac))]
-    for p, e in fac.items():
-        new = []
-        for g, rest in out:
-            for k in range(1, e // 2 + 1):
-                r = dict(rest)
-                r[p] = e - 2 * k
-                if r[p] == 0:
-                    del r[p]
-                new.append((g * p**k, r))
-        out.extend(new)
-    return out
-
-
-def _proper_roots(D: int, m: int, fac: Dict[int, int]) -> List[int]:
-    """The ``b`` in ``[0, 2|m|)`` with ``b² ≡ D (mod 4|m|)`` and ``(m, b, ·)`` primitive."""
-    am = abs(m)
-    fac4 = dict(fac)
-    fac4[2] = fac4.get(2, 0) + 2
-    roots = sqrt_mod(D, 4 * am, factors=fac4)
-    two_m = 2 * am
-    out = []
-    for b in roots:
-        if b >= two_m:
-            break
-        c = (b * b - D) // (4 * m)
-        if gcd(am, b, c) == 1:
-            out.append(int(b))
-    return out
-
-
-def _content_and_sign(form: FormLike, n: object) -> Tuple[Form, int, int, int, int]:
-    """Return ``(Q, D, k, sign, n)``; ``Q`` the original form, ``k`` its content and
-    ``sign = −1`` for negative definite forms."""
-    Q = as_form(form)
-    D = _require_nonsquare(Q, "representations")
-    n = as_int(n, "n")
-    sign = -1 if (D < 0 and Q.a < 0) else 1
-    return Q, D, Q.content, sign, n
-
-
-def _primitive_target(Q: Form, k: int, sign: int, n: int) -> Tuple[Optional[Form], int]:
-    """The primitive positive-or-indefinite form and the value it must take, or ``None``
-    when no representation is possible (content does not divide n)."""
-    if n % k:
-        return None, 0
-    P = Form(sign * Q.a // k, sign * Q.b // k, sign * Q.c // k)
-    return P, sign * n // k
 
 
 # ---------------------------------------------------------------------------
@@ -320,19 +245,6 @@ def _all_definite(Q, D, k, sign, n, factors, primitive: bool) -> List[Vector]:
         return []
     fac = _factor_abs(m, _scaled_factors(factors, n, m))
     return sorted(_definite_solutions(P, m, fac, primitive))
-
-
-def _scaled_factors(factors, n: int, m: int):
-    """Factorisation of |m| from one of |n| (m = n/k), or None."""
-    if factors is None:
-        return None
-    fac = _factor_abs(n, factors)
-    q = abs(n) // abs(m)
-    for p in factorint(q) if q > 1 else {}:
-        while q % p == 0:
-            fac[p] -= 1
-            q //= p
-    return {p: e for p, e in fac.items() if e}
 
 
 def representations(

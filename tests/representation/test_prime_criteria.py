@@ -1,4 +1,4 @@
-"""Tests for formkit.representation.prime_criteria against classical theorems, Euler's list and brute force."""
+"""Tests for formkit.representation.prime_criteria, .prime_decision and .genus_congruences against classical theorems, Euler's list and brute force."""
 
 import functools
 import math
@@ -14,15 +14,12 @@ from formkit.classgroups.dispatch import class_group
 from formkit.core.forms import Form
 from formkit.representation.prime_criteria import (
     density_count,
-    genus_residues,
-    is_idoneal,
-    one_class_per_genus,
     prime_criterion,
     prime_density,
-    primes_up_to,
     represented_primes,
-    represents_prime,
 )
+from formkit.representation.genus_congruences import genus_residues, is_idoneal, one_class_per_genus
+from formkit.representation.prime_decision import primes_up_to, represents_prime
 
 # Euler's 65 idoneal numbers (from memory; Euler 1778, Cox §3 / Exercise on idoneal numbers).
 EULER_IDONEAL = [

@@ -1,0 +1,122 @@
+"""The square-root method shared by definite and indefinite representations.
+
+A proper representation ``Q(x, y) = m`` (``gcd(x, y) = 1``) of a primitive form ``Q`` of
+discriminant ``D`` corresponds to a root ``b`` of ``b² ≡ D (mod 4m)``, ``0 ≤ b < 2|m|``,
+with ``(m, b, (b² − D)/4m)`` primitive and properly equivalent to ``Q``; all
+representations are the proper ones of ``n/g²`` scaled by ``g``, over ``g² | n``
+(Gauss, *Disquisitiones* art. 154–170; Cox, *Primes of the Form x² + ny²*, Lemma 2.5
+and §2.A — numbers as recalled).  Here are the steps both kinds of form share: the
+factorisation of ``|n|`` (checked when the caller gives it), the divisors ``g²``, the
+roots ``b`` (:func:`formkit.core.modular_roots.sqrt_mod`), and the reduction of a
+form with content or of a negative definite form to a primitive target.  Used by
+:mod:`formkit.representation.representations` (definite forms) and
+:mod:`formkit.representation.orbits` (indefinite forms).
+
+References
+----------
+.. [1] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2.
+.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, §3.2.
+"""
+
+from __future__ import annotations
+
+from typing import Dict, List, Optional, Tuple
+
+from ..core.arith import as_int, factorint, gcd, is_probable_prime
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.modular_roots import sqrt_mod
+from ..errors import FormkitError
+
+__all__: list = []
+
+
+def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
+    """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
+    n = abs(n)
+    if factors is None:
+        if n > 1 and is_probable_prime(n):
+            return {n: 1}  # skip sympy's trial division on large primes
+        return factorint(n) if n > 1 else {}
+    fac: Dict[int, int] = {}
+    prod = 1
+    for p, e in dict(factors).items():
+        p = as_int(p, "prime factor")
+        e = as_int(e, "exponent")
+        if e < 0 or p < 2:
+            raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
+        if e == 0:
+            continue
+        if e > max(1, n.bit_length()):  # p^e would exceed |n|: refuse before computing it
+            raise FormkitError(f"the given factor {p}^{e} exceeds |n| = {n}")
+        if not is_probable_prime(p):
+            raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
+        fac[p] = fac.get(p, 0) + e
+        prod *= p**e
+    if prod != n:
+        raise FormkitError(f"the given factors multiply to {prod}, not to |n| = {n}")
+    return dict(sorted(fac.items()))
+
+
+def _square_divisors(fac: Dict[int, int]) -> List[Tuple[int, Dict[int, int]]]:
+    """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²``."""
+    out: List[Tuple[int, Dict[int, int]]] = [(1, dict(fac))]
+    for p, e in fac.items():
+        new = []
+        for g, rest in out:
+            for k in range(1, e // 2 + 1):
+                r = dict(rest)
+                r[p] = e - 2 * k
+                if r[p] == 0:
+                    del r[p]
+                new.append((g * p**k, r))
+        out.extend(new)
+    return out
+
+
+def _proper_roots(D: int, m: int, fac: Dict[int, int]) -> List[int]:
+    """The ``b`` in ``[0, 2|m|)`` with ``b² ≡ D (mod 4|m|)`` and ``(m, b, ·)`` primitive."""
+    am = abs(m)
+    fac4 = dict(fac)
+    fac4[2] = fac4.get(2, 0) + 2
+    roots = sqrt_mod(D, 4 * am, factors=fac4)
+    two_m = 2 * am
+    out = []
+    for b in roots:
+        if b >= two_m:
+            break
+        c = (b * b - D) // (4 * m)
+        if gcd(am, b, c) == 1:
+            out.append(int(b))
+    return out
+
+
+def _content_and_sign(form: FormLike, n: object) -> Tuple[Form, int, int, int, int]:
+    """Return ``(Q, D, k, sign, n)``; ``Q`` the original form, ``k`` its content and
+    ``sign = −1`` for negative definite forms."""
+    Q = as_form(form)
+    D = _require_nonsquare(Q, "representations")
+    n = as_int(n, "n")
+    sign = -1 if (D < 0 and Q.a < 0) else 1
+    return Q, D, Q.content, sign, n
+
+
+def _primitive_target(Q: Form, k: int, sign: int, n: int) -> Tuple[Optional[Form], int]:
+    """The primitive positive-or-indefinite form and the value it must take, or ``None``
+    when no representation is possible (content does not divide n)."""
+    if n % k:
+        return None, 0
+    P = Form(sign * Q.a // k, sign * Q.b // k, sign * Q.c // k)
+    return P, sign * n // k
+
+
+def _scaled_factors(factors, n: int, m: int):
+    """Factorisation of |m| from one of |n| (m = n/k), or None."""
+    if factors is None:
+        return None
+    fac = _factor_abs(n, factors)
+    q = abs(n) // abs(m)
+    for p in factorint(q) if q > 1 else {}:
+        while q % p == 0:
+            fac[p] -= 1
+            q //= p
+    return {p: e for p, e in fac.items() if e}
