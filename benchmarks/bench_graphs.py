@@ -48,7 +48,7 @@ def main() -> None:
 
     from formkit.classgroups.dispatch import class_group
     from formkit.graphs import cayley_graph, graph_to_dot, graph_to_graphml, graph_to_json
-    from formkit.plotting import save_picture
+    from formkit.graphs.plotting import save_picture
 
     print(f"python {platform.python_version()}, matplotlib {matplotlib.__version__}, {platform.machine()}")
     print(f"medians of {args.repeats} runs, seconds")

@@ -96,7 +96,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         except OSError as exc:
             raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
     else:
-        from .plotting import save_picture
+        from .graphs.plotting import save_picture
 
         try:
             save_picture(C, args.output, fmt)
@@ -125,7 +125,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "object is printed: a summary (nodes, edges, primes, output file) holding the graph "
             "under 'graph' (node-link) or the GraphML/DOT text under 'text' when written to stdout. "
             "Python: formkit.cayley_graph(D, primes), formkit.cycle_graph(D), formkit.fibre_graph(D), "
-            "formkit.graph_to_json / graph_to_graphml / graph_to_dot, formkit.plotting.save_picture."
+            "formkit.graph_to_json / graph_to_graphml / graph_to_dot, formkit.graphs.plotting.save_picture."
         ),
         epilog=(
             "examples:\n"

@@ -34,10 +34,10 @@ forms) and gives at most ``log₂ h`` primes, so the picture stays readable.
 Reading structure back: :func:`generated_subgroup` (the classes reachable from the
 identity) and :func:`prime_orders` / :func:`cycle_lengths` (cycles of one prime).
 
-Export (in :mod:`formkit.graph_export`, re-exported here): :func:`graph_to_json`
-(networkx node-link data), :func:`graph_from_json`, :func:`graph_to_graphml`,
-:func:`graph_to_dot` (DOT text written there, no Graphviz needed).  Pictures are in
-:mod:`formkit.plotting` (optional extra ``formkit[plot]``).
+Export (in :mod:`formkit.graphs.export`, re-exported by :mod:`formkit.graphs`):
+:func:`graph_to_json` (networkx node-link data), :func:`graph_from_json`,
+:func:`graph_to_graphml`, :func:`graph_to_dot` (DOT text written there, no Graphviz
+needed).  Pictures are in :mod:`formkit.graphs.plotting` (optional extra ``formkit[plot]``).
 
 References
 ----------
@@ -56,20 +56,11 @@ from typing import Dict, Iterable, List, Optional, Set, Tuple
 
 import networkx as nx
 
-from .core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
-from .classgroups.group import ClassGroup, ClassGroupElement
-from .classgroups.dispatch import class_group
-from .core.discriminants import discriminant_parts, validate_discriminant
-from .errors import DiscriminantError, FormError, FormkitError, NotPrimeError
-from .graph_export import (
-    genus_label,
-    graph_from_json,
-    graph_title,
-    graph_to_dot,
-    graph_to_graphml,
-    graph_to_json,
-    node_label,
-)
+from ..core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
+from ..classgroups.group import ClassGroup, ClassGroupElement
+from ..classgroups.dispatch import class_group
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..errors import DiscriminantError, FormError, FormkitError, NotPrimeError
 
 __all__ = [
     "usable_primes",
@@ -80,13 +71,6 @@ __all__ = [
     "generated_subgroup",
     "cycle_lengths",
     "prime_orders",
-    "genus_label",
-    "node_label",
-    "graph_to_json",
-    "graph_from_json",
-    "graph_to_graphml",
-    "graph_to_dot",
-    "graph_title",
     "GRAPH_KINDS",
 ]
 
@@ -103,7 +87,7 @@ GRAPH_KINDS = ("cayley", "cycles", "fibres")
 def _genus_function():
     """The genus symbol of a form, from :mod:`formkit.classgroups.genus` (None if unavailable)."""
     try:
-        from .classgroups.genus import genus_symbol
+        from ..classgroups.genus import genus_symbol
     except ImportError:  # pragma: no cover - genus module not present
         return None
     return genus_symbol
@@ -326,8 +310,8 @@ def cycle_graph(D: object) -> nx.DiGraph:
     >>> Y.edges[(1, 4, -3), (-3, 2, 2)]["matrix"]
     [[0, -1], [1, -1]]
     """
-    from .core.enumeration import reduced_forms
-    from .core.raw_reduction import _rho_indefinite_raw
+    from ..core.enumeration import reduced_forms
+    from ..core.raw_reduction import _rho_indefinite_raw
 
     D = validate_discriminant(D)
     if D < 0:
@@ -391,7 +375,7 @@ def fibre_graph(D: object) -> nx.DiGraph:
     >>> sorted(F.out_degree(x) for x, s in F.nodes(data="bipartite") if s == 0)
     [1, 1, 1, 1, 1, 1]
     """
-    from .classgroups.orders import project_to_maximal_order
+    from ..classgroups.orders import project_to_maximal_order
 
     G = _group_for(D)
     D = G.discriminant

@@ -1,4 +1,4 @@
-"""Tests of formkit.graphs and formkit.plotting against outside references.
+"""Tests of formkit.graphs and formkit.graphs.plotting against outside references.
 
 References used here:
 * networkx's own generators (``cycle_graph``, ``hypercube_graph``, ``circulant_graph``)
@@ -39,7 +39,7 @@ from formkit.errors import (
 )
 from formkit.core.forms import Form
 from formkit.classgroups.genus import genus_symbol
-from formkit.graph_export import _dot_quote
+from formkit.graphs.export import _dot_quote
 from formkit.graphs import (
     cayley_graph,
     cycle_graph,
@@ -56,7 +56,8 @@ from formkit.graphs import (
     prime_orders,
     usable_primes,
 )
-from formkit.plotting import genus_colours, graph_layout, save_picture
+from formkit.graphs.colours import genus_colours
+from formkit.graphs.plotting import graph_layout, save_picture
 
 
 # ---------------------------------------------------------------------------

@@ -1,8 +1,8 @@
 """Pictures of the graphs of :mod:`formkit.graphs` (PNG, SVG) through matplotlib.
 
 matplotlib is an optional dependency (``pip install 'formkit[plot]'``); it is imported
-only when a picture is drawn.  The colour tables and the layout (:func:`graph_layout`)
-need no matplotlib, so the DOT export uses the same colours.
+only when a picture is drawn.  The colour tables (:mod:`formkit.graphs.colours`) and
+the layout (:func:`graph_layout`) need no matplotlib; the DOT export uses the same colours.
 
 Layout (chosen to stay legible up to a few hundred classes):
 
@@ -26,24 +26,20 @@ References
 ----------
 .. [1] J. D. Hunter, "Matplotlib: A 2D graphics environment", Computing in Science &
        Engineering 9 (2007) 90–95.
-.. [2] C. Brewer, colorbrewer2.org (the Set3 and Dark2 palettes used here).
 """
 
 from __future__ import annotations
 
-import colorsys
 import math
 import os
 from typing import Dict, Hashable, List, Optional, Tuple, Union
 
 import networkx as nx
 
-from .errors import FormkitError
+from ..errors import FormkitError
+from .colours import edge_colours, genus_colours, genus_key
 
 __all__ = [
-    "genus_key",
-    "genus_colours",
-    "edge_colours",
     "graph_layout",
     "draw_graph",
     "save_picture",
@@ -53,83 +49,7 @@ __all__ = [
 #: Picture formats written by :func:`save_picture`.
 PICTURE_FORMATS = ("png", "svg")
 
-# ColorBrewer Set3 (pastel fills for genera) and Dark2 (strong strokes for primes).
-_FILLS = ["#8dd3c7", "#ffffb3", "#bebada", "#fb8072", "#80b1d3", "#fdb462",
-          "#b3de69", "#fccde5", "#d9d9d9", "#bc80bd", "#ccebc5", "#ffed6f"]
-_STROKES = ["#1b9e77", "#d95f02", "#7570b3", "#e7298a", "#66a61e", "#e6ab02", "#a6761d", "#666666"]
-
 Point = Tuple[float, float]
-
-
-def _extra_colours(n: int, light: bool) -> List[str]:
-    out = []
-    for i in range(n):
-        h = (i * 0.618033988749895) % 1.0
-        r, g, b = colorsys.hls_to_rgb(h, 0.78 if light else 0.38, 0.65)
-        out.append("#%02x%02x%02x" % (round(r * 255), round(g * 255), round(b * 255)))
-    return out
-
-
-def _palette(base: List[str], n: int, light: bool) -> List[str]:
-    return base[:n] + (_extra_colours(n - len(base), light) if n > len(base) else [])
-
-
-def genus_key(C: nx.Graph, node: Hashable) -> str:
-    """The genus label of a node as used for colours: signs such as ``'+-'``; in a fibre
-    graph prefixed by the node's discriminant (``'-455 +--'``), the two groups having
-    different characters.
-
-    Examples
-    --------
-    >>> from formkit.graphs import fibre_graph
-    >>> F = fibre_graph(-23 * 9)
-    >>> genus_key(F, (1, 1, 6)), genus_key(F, (1, 1, 52))
-    ('-23 +', '-207 ++')
-    """
-    from .graphs import genus_label
-
-    d = C.nodes[node]
-    label = genus_label(d.get("genus"))
-    if C.graph.get("kind") == "fibres":
-        return f"{d.get('discriminant')} {label}"
-    return label
-
-
-def genus_colours(C: nx.Graph) -> Dict[str, str]:
-    """Fill colour (hex) per genus key (:func:`genus_key`), the principal genus first.
-
-    In a fibre graph each group has its own list, both starting at the first colour.
-
-    Examples
-    --------
-    >>> from formkit.graphs import cayley_graph
-    >>> genus_colours(cayley_graph(-84, [2, 3]))     # characters (n/3), (n/7), delta
-    {'+++': '#8dd3c7', '+--': '#ffffb3', '-+-': '#bebada', '--+': '#fb8072'}
-    """
-    groups: Dict[str, set] = {}
-    for v in C.nodes:
-        key = genus_key(C, v)
-        prefix, _, label = key.rpartition(" ")
-        groups.setdefault(prefix, set()).add(label)
-    out: Dict[str, str] = {}
-    for prefix in sorted(groups, key=lambda t: (len(t), t)):
-        ordered = sorted(groups[prefix], key=lambda s: (s.count("-"), s.count("?"), s))
-        for label, colour in zip(ordered, _palette(_FILLS, len(ordered), True)):
-            out[f"{prefix} {label}" if prefix else label] = colour
-    return out
-
-
-def edge_colours(C: nx.Graph) -> Dict[int, str]:
-    """Stroke colour (hex) per prime of a Cayley graph (empty for other graphs).
-
-    Examples
-    --------
-    >>> from formkit.graphs import cayley_graph
-    >>> edge_colours(cayley_graph(-71, [2, 3]))
-    {2: '#1b9e77', 3: '#d95f02'}
-    """
-    primes = list(C.graph.get("primes", []))
-    return dict(zip(primes, _palette(_STROKES, len(primes), False)))
 
 
 # ---------------------------------------------------------------------------
@@ -152,7 +72,7 @@ def _grid_centres(R: int) -> List[Point]:
 
 def _ring_prime(C: nx.Graph) -> Optional[int]:
     """The prime of largest class order (smallest such prime), None without primes."""
-    from .graphs import prime_orders
+    from .construction import prime_orders
 
     primes = list(C.graph.get("primes", []))
     if not primes:
@@ -341,7 +261,7 @@ def draw_graph(
     FormkitError
         If matplotlib is not installed, or ``edges`` is not one of the three styles.
     """
-    from .graphs import graph_title, node_label
+    from .labels import graph_title, node_label
 
     if edges not in ("auto", "curved", "straight"):
         raise FormkitError(f"edges must be 'auto', 'curved' or 'straight', not {edges!r}")
@@ -440,7 +360,7 @@ def draw_graph(
     if len(genera) > len(shown):
         handles.append(Line2D([], [], linestyle="", label=f"… {len(genera)} genera in all"))
     if kind == "cayley":
-        from .graphs import prime_orders
+        from .construction import prime_orders
 
         orders = prime_orders(C) if C.graph["primes"] else {}
         for p, colour in ecol.items():

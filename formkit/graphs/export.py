@@ -7,7 +7,7 @@
   ``networkx.read_graphml`` and by graph editors such as yEd or Gephi.
 * :func:`graph_to_dot` — Graphviz DOT text written here (Graphviz is not needed), every
   id and value double-quoted with ``\\`` and ``"`` escaped, nodes filled by genus and
-  edges coloured by prime with the colours of :mod:`formkit.plotting`.
+  edges coloured by prime with the colours of :mod:`formkit.graphs.colours`.
 
 References
 ----------
@@ -22,16 +22,14 @@ References
 from __future__ import annotations
 
 import json
-from typing import Optional, Sequence, Tuple
+from typing import Optional, Tuple
 
 import networkx as nx
 
-from .errors import FormkitError
+from ..errors import FormkitError
+from .labels import genus_label, graph_title, node_label
 
 __all__ = [
-    "node_label",
-    "genus_label",
-    "graph_title",
     "graph_to_json",
     "graph_from_json",
     "graph_to_graphml",
@@ -39,31 +37,6 @@ __all__ = [
 ]
 
 Triple = Tuple[int, int, int]
-
-
-def node_label(node: Sequence[int]) -> str:
-    """The text key of a node ``(a, b, c)`` in exported graphs: ``"a,b,c"``.
-
-    Examples
-    --------
-    >>> node_label((2, -1, 3))
-    '2,-1,3'
-    """
-    return ",".join(str(int(v)) for v in node)
-
-
-def genus_label(symbol: Optional[Sequence[int]]) -> str:
-    """A genus symbol ``(±1, …)`` as a short string of signs, ``'?'`` if unknown.
-
-    Examples
-    --------
-    >>> genus_label((1, -1, -1)), genus_label(None)
-    ('+--', '?')
-    """
-    if symbol is None:
-        return "?"
-    return "".join("+" if s > 0 else "-" for s in symbol)
-
 
 
 def _jsonable(v: object) -> object:
@@ -195,25 +168,6 @@ def _dot_attrs(d: dict) -> str:
     return "[" + ", ".join(f"{k}={_dot_quote(v)}" for k, v in d.items()) + "]"
 
 
-def graph_title(C: nx.Graph) -> str:
-    """A one-line description of a graph built here."""
-    g = C.graph
-    kind = g.get("kind")
-    D = g.get("discriminant")
-    if kind == "cayley":
-        ps = ", ".join(str(p) for p in g["primes"]) or "none"
-        cl = "Cl+" if D > 0 else "Cl"
-        return f"Cayley graph of {cl}({D}) = {g['structure']}, h = {g['class_number']}, primes {ps}"
-    if kind == "cycles":
-        return f"cycles of reduced forms of D = {D} under rho, {g['class_number']} narrow classes"
-    if kind == "fibres":
-        return (
-            f"Cl({D}) -> Cl({g['fundamental_discriminant']}), conductor {g['conductor']}, "
-            f"h = {g['class_number']} -> {g['class_number_maximal']}, fibres of {g['fibre_size']}"
-        )
-    return f"graph of {C.number_of_nodes()} nodes"
-
-
 def graph_to_dot(C: nx.Graph) -> str:
     """The graph as Graphviz DOT text (written here; Graphviz is not needed).
 
@@ -234,7 +188,7 @@ def graph_to_dot(C: nx.Graph) -> str:
     ...
     }
     """
-    from .plotting import edge_colours, genus_colours, genus_key
+    from .colours import edge_colours, genus_colours, genus_key
 
     D = C.graph.get("discriminant")
     gcol = genus_colours(C)
