@@ -28,8 +28,6 @@ from .representation import *  # noqa: F401,F403,E402
 from .representation import __all__ as _representation_all  # noqa: E402
 from .tables import *  # noqa: F401,F403,E402
 from .tables import __all__ as _tables_all  # noqa: E402
-from .table_store import *  # noqa: F401,F403,E402
-from .table_store import __all__ as _store_all  # noqa: E402
 # The graph module needs networkx, which takes a noticeable time to import; its names
 # are loaded on first use (PEP 562) so that `import formkit` and the CLI stay quick.
 # tests/test_package.py checks that this list equals formkit.graphs.__all__.
@@ -40,9 +38,9 @@ _graphs_all = [
     "GRAPH_KINDS",
 ]
 
-__version__ = "0.1.0"
+from ._version import __version__  # noqa: E402
 
-__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_representation_all, *_tables_all, *_store_all, *_graphs_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_representation_all, *_tables_all, *_graphs_all, "__version__"]
 
 
 def __getattr__(name: str):

@@ -10,14 +10,15 @@ import textwrap
 from typing import List, Sequence
 
 from .core.parse import parse_integer
-from .tables import TableRow
+from .tables.rows import TableRow
 
 _FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_part")
 
 
 def _cmd_table(args: argparse.Namespace) -> int:
     from .cli import CommandError
-    from .table_store import build_table, query_table, table_info
+    from .tables.parallel import build_table
+    from .tables.store import query_table, table_info
 
     fmt = "json" if args.json else args.format
     start = None if args.start is None else parse_integer(args.start, "--from")

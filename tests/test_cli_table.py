@@ -162,7 +162,7 @@ def test_pipe_is_quiet_subprocess(tmp_path):
 
 def test_cluster_option_and_probe(tmp_path, capsys, monkeypatch):
     distributed = pytest.importorskip("distributed")
-    import formkit.table_store as store
+    import formkit.tables.parallel as store
 
     db = str(tmp_path / "c.db")
     with distributed.LocalCluster(n_workers=1, threads_per_worker=2, processes=False,

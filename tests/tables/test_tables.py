@@ -1,4 +1,4 @@
-"""Tests of formkit.tables and formkit.table_store against published values, theorems,
+"""Tests of formkit.tables (rows, sweep, store, parallel) against published values, theorems,
 brute force and independent implementations; the resumable store is killed for real."""
 
 from __future__ import annotations
@@ -32,11 +32,11 @@ from formkit import (
 )
 from formkit.core.arith import kronecker
 from formkit.classgroups.genus import genus_count
-from formkit.table_store import parse_invariants
-from formkit.tables import ChunkSpec, compute_chunk, split_range
-from formkit.table_sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
+from formkit.tables.store import parse_invariants
+from formkit.tables.rows import ChunkSpec, compute_chunk, split_range
+from formkit.tables.sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
 
-ROOT = Path(__file__).resolve().parents[1]
+ROOT = Path(__file__).resolve().parents[2]
 
 
 # ---------------------------------------------------------------------------
@@ -427,7 +427,7 @@ def test_cluster_unreachable_is_a_clean_error(tmp_path):
 def test_invariants_shortcut_agrees_with_class_group():
     # invariants decided by h and the 2-rank (number of genera) alone must be the group's
     from formkit import class_group
-    from formkit.tables import _invariants_from_order
+    from formkit.tables.rows import _invariants_from_order
 
     decided = 0
     for D in [d for d in range(-3, -3001, -1) if d % 4 in (0, 1)] + [d for d in range(5, 1500) if d % 4 in (0, 1)]:

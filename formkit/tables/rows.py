@@ -5,14 +5,14 @@ conductor ``f`` (``D = f²·d_K``), the class number ``h(D)`` (the narrow one wh
 ``D > 0``), optionally the invariants ``n1 | n2 | … | nk`` of the class group, the
 number of genera ``2^(μ−1)``, and for ``D > 0`` the wide class number and the
 regulator.  Rows are computed in *chunks* (contiguous ranges of ``D``); the chunk
-is the unit of parallel work (:mod:`formkit.table_store` runs chunks on all cores or
-on a Dask cluster and commits them to an SQLite file).
+is the unit of parallel work (:mod:`formkit.tables.parallel` runs chunks on all cores
+or on a Dask cluster and commits them to the SQLite file of :mod:`formkit.tables.store`).
 
 *Negative discriminants, all at once.*  The class numbers of a whole chunk are found
 by counting reduced forms for all ``D`` at once — for a fixed first coefficient ``a``
 the count is periodic in ``−D`` — followed by a Möbius inversion that keeps the
 primitive forms (Gauss; Cohen GTM 138, Algorithm 5.3.5, swept over a range; details
-in :mod:`formkit.table_sweep`).  Sieves give the fundamental part, the conductor
+in :mod:`formkit.tables.sweep`).  Sieves give the fundamental part, the conductor
 and the number of genera ``2^(μ−1)`` (Cox, Proposition 3.11 and Theorem 3.15).  Two
 engines: ``"numpy"`` (vectorised) and ``"python"`` (an independent pure-Python sweep).
 
@@ -38,9 +38,9 @@ import time
 from dataclasses import dataclass
 from typing import Iterator, List, Optional, Sequence, Tuple
 
-from .core.arith import as_int
-from .errors import FormkitError
-from .table_sweep import (
+from ..core.arith import as_int
+from ..errors import FormkitError
+from .sweep import (
     _chunk_arith_np,
     _chunk_arith_py,
     _class_numbers_np,
@@ -229,7 +229,7 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
-    from .classgroups.dispatch import class_group
+    from ..classgroups.dispatch import class_group
 
     G = class_group(D, method="enumerate")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range
@@ -300,10 +300,10 @@ def _negative_rows(spec: ChunkSpec):
 
 
 def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
-    from .core.arith import is_square
-    from .core.discriminants import discriminant_parts, fundamental_unit
-    from .core.enumeration import class_number
-    from .classgroups.genus import genus_count
+    from ..core.arith import is_square
+    from ..core.discriminants import discriminant_parts, fundamental_unit
+    from ..core.enumeration import class_number
+    from ..classgroups.genus import genus_count
 
     rows: List[RawRow] = []
     for D in range(max(spec.lo, 5), spec.hi + 1):

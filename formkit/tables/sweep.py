@@ -1,4 +1,4 @@
-"""Sweeps behind :mod:`formkit.tables`: class numbers, conductors and genera of all
+"""Sweeps behind :mod:`formkit.tables.rows`: class numbers, conductors and genera of all
 negative discriminants of a range at once.
 
 *Class numbers.*  Every class of primitive positive definite forms of discriminant
@@ -45,7 +45,7 @@ import math
 from functools import lru_cache
 from typing import List, Tuple
 
-from .errors import FormkitError
+from ..errors import FormkitError
 
 _NUMPY: list = []
 
@@ -60,7 +60,7 @@ def _numpy():
         _NUMPY.append(numpy)
     return _NUMPY[0]
 
-__all__: list = []  # private helpers of formkit.tables
+__all__: list = []  # private helpers of formkit.tables.rows
 
 
 # ---------------------------------------------------------------------------

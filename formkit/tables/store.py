@@ -1,13 +1,12 @@
-"""Resumable class-number tables in an SQLite file, computed on all cores or a cluster.
+"""Resumable class-number tables in an SQLite file: the file format, and reading it back.
 
-:func:`build_table` splits a range of discriminants into chunks (see
-:mod:`formkit.tables`), computes them in worker processes (``workers``, default all
-cores) or on an existing Dask distributed cluster (``cluster``), and writes each chunk
-to the file in **one transaction** that also records the chunk in the ``chunks``
-table.  A run stopped at any moment — Ctrl-C, ``kill -9``, a lost machine — leaves
-only whole chunks in the file; running the same command again computes just the
-parts of the range no finished chunk covers.  :func:`query_table` reads rows back
-with filters (class number, invariants, conductor, …); no SQL is taken from users.
+:func:`formkit.build_table` (:mod:`formkit.tables.parallel`) writes each chunk of a
+range of discriminants to the file in **one transaction** that also records the chunk
+in the ``chunks`` table.  A run stopped at any moment — Ctrl-C, ``kill -9``, a lost
+machine — leaves only whole chunks in the file; running the same command again
+computes just the parts of the range no finished chunk covers.  :func:`query_table`
+reads rows back with filters (class number, invariants, conductor, …); no SQL is taken
+from users.
 
 The file holds three tables: ``meta`` (options and provenance: the method is
 complete enumeration, so every row is unconditional), ``chunks`` (finished ranges)
@@ -20,24 +19,18 @@ References
 .. [1] SQLite documentation, "Atomic Commit In SQLite" and "Write-Ahead Logging"
        (transactions are atomic across process crashes).
 """
-
 from __future__ import annotations
 
 import os
 import sqlite3
-import sys
-import threading
 import time
-from dataclasses import dataclass
-from typing import Callable, Iterable, List, Optional, Sequence, Tuple
+from typing import List, Optional, Sequence, Tuple
 
-from .core.arith import as_int
-from .errors import FormkitError
-from .tables import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
+from ..core.arith import as_int
+from ..errors import FormkitError
+from .rows import ChunkSpec, RawRow, TableRow, _check_range
 
 __all__ = [
-    "BuildSummary",
-    "build_table",
     "query_table",
     "table_info",
     "parse_invariants",
@@ -61,32 +54,6 @@ CREATE TABLE IF NOT EXISTS rows (
     genus_count INTEGER NOT NULL,
     regulator REAL);
 """
-
-#: Default chunk widths (numbers of consecutive integers D per chunk).
-CHUNK_NEGATIVE_FAST = 100_000
-CHUNK_NEGATIVE_PYTHON = 250_000
-CHUNK_WITH_INVARIANTS = 2_000
-CHUNK_POSITIVE = 1_000
-
-
-@dataclass(frozen=True)
-class BuildSummary:
-    """What a :func:`build_table` run did."""
-
-    path: Optional[str]
-    start: int
-    stop: int
-    chunks_total: int
-    chunks_already_done: int
-    chunks_computed: int
-    rows_written: int
-    seconds: float
-    workers: int
-    cluster: Optional[str]
-
-    def to_dict(self) -> dict:
-        return dict(self.__dict__)
-
 
 # ---------------------------------------------------------------------------
 # invariants text
@@ -189,7 +156,7 @@ def _check_or_record_meta(conn: sqlite3.Connection, path: str, fundamental: bool
                     f"(--{'no-invariants' if key == 'invariants' else 'fundamental'} must match)"
                 )
         return
-    from . import __version__
+    from .._version import __version__
 
     rows = {
         "format": _FORMAT,
@@ -247,241 +214,6 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
         conn.execute("ROLLBACK")
         raise
     conn.execute("COMMIT")
-
-
-# ---------------------------------------------------------------------------
-# running chunks: in process, on a process pool, on a Dask cluster
-# ---------------------------------------------------------------------------
-
-def _watch_parent(parent: int) -> None:  # pragma: no cover - runs in pool workers
-    while True:
-        time.sleep(0.5)
-        if os.getppid() != parent:
-            os._exit(1)
-
-
-def _worker_init(parent: int) -> None:  # pragma: no cover - runs in pool workers
-    # Ctrl-C is the parent's business (it stops the pool); a worker whose parent was
-    # killed (kill -9) stops instead of lingering
-    import signal
-
-    signal.signal(signal.SIGINT, signal.SIG_IGN)
-    threading.Thread(target=_watch_parent, args=(parent,), daemon=True).start()
-
-
-def _run_chunks(specs: List[ChunkSpec], workers: int, cluster, sink: Callable, bar) -> None:
-    if not specs:
-        return
-    if cluster is not None:
-        _run_on_cluster(specs, cluster, sink, bar)
-    elif workers <= 1 or len(specs) == 1:
-        for spec in specs:
-            sink(*compute_chunk(spec))
-            bar.update(1)
-    else:
-        import multiprocessing as mp
-
-        ctx = mp.get_context()
-        with ctx.Pool(min(workers, len(specs)), initializer=_worker_init, initargs=(os.getpid(),)) as pool:
-            for result in pool.imap_unordered(compute_chunk, specs, chunksize=1):
-                sink(*result)
-                bar.update(1)
-
-
-def _run_on_cluster(specs: List[ChunkSpec], cluster, sink: Callable, bar) -> None:
-    try:
-        from distributed import Client, as_completed
-    except ImportError:
-        raise FormkitError(
-            "--cluster needs Dask distributed: pip install 'formkit[cluster]'"
-        ) from None
-    own = isinstance(cluster, str)
-    try:
-        client = Client(cluster) if own else cluster
-    except (OSError, TimeoutError, ValueError) as exc:
-        raise FormkitError(f"could not connect to the Dask scheduler at {cluster!r}: {exc}") from None
-    try:
-        try:  # the scheduler and every worker must be able to import formkit
-            client.submit(_cluster_probe, pure=False).result()
-        except Exception as exc:
-            raise FormkitError(
-                f"the Dask cluster at {cluster!r} cannot run formkit tasks ({type(exc).__name__}: "
-                f"{' '.join(str(exc).split())[:200]}); install formkit on the scheduler and every worker"
-            ) from None
-        futures = client.map(compute_chunk, specs, pure=False)
-        for fut in as_completed(futures):
-            sink(*fut.result())
-            bar.update(1)
-    finally:
-        if own:
-            client.close()
-
-
-def _cluster_probe() -> str:  # runs on a Dask worker
-    from . import __version__
-
-    return __version__
-
-
-class _NoBar:
-    def update(self, n: int) -> None:
-        pass
-
-    def close(self) -> None:
-        pass
-
-
-def _progress_bar(total: int, show: Optional[bool], desc: str):
-    if show is None:
-        show = sys.stderr.isatty()
-    if not show:
-        return _NoBar()
-    from tqdm import tqdm
-
-    return tqdm(total=total, desc=desc, unit="chunk", file=sys.stderr, dynamic_ncols=True)
-
-
-def _plan(start: int, stop: int, missing: Iterable[Tuple[int, int]], fundamental: bool,
-          invariants: bool, engine: str, chunk_size: Optional[int]) -> List[ChunkSpec]:
-    specs = []
-    for lo, hi in missing:
-        if chunk_size is not None:
-            size = chunk_size
-        elif lo > 0:
-            size = CHUNK_POSITIVE
-        elif invariants:
-            size = CHUNK_WITH_INVARIANTS
-        else:
-            size = CHUNK_NEGATIVE_PYTHON if engine == "python" else CHUNK_NEGATIVE_FAST
-        for a, b in split_range(lo, hi, size):
-            specs.append(ChunkSpec(a, b, fundamental, invariants, engine))
-    # costliest (largest |D|) first: the workers then finish close together
-    specs.sort(key=lambda s: -max(abs(s.lo), abs(s.hi)))
-    return specs
-
-
-def _check_workers(workers: Optional[int]) -> int:
-    if workers is None:
-        return os.cpu_count() or 1
-    workers = as_int(workers, "workers")
-    if workers < 1:
-        raise FormkitError(f"workers must be at least 1, not {workers}")
-    return workers
-
-
-def build_table(
-    path: Optional[str],
-    start: int,
-    stop: int,
-    *,
-    fundamental: bool = False,
-    invariants: bool = True,
-    workers: Optional[int] = None,
-    cluster=None,
-    chunk_size: Optional[int] = None,
-    engine: str = "auto",
-    progress: Optional[bool] = None,
-    rows_out: Optional[list] = None,
-) -> BuildSummary:
-    """Compute the table of ``start ≤ D ≤ stop`` into the SQLite file ``path``, resumably.
-
-    Parameters
-    ----------
-    path : str or None
-        The SQLite file (created if missing).  Chunks already recorded there are
-        skipped.  ``None`` computes without a file; pass a list as ``rows_out`` to
-        receive the rows.
-    start, stop : int
-        The range of ``D``, inclusive (negative, positive or both; non-discriminants
-        and squares are skipped).
-    fundamental : bool
-        Only fundamental discriminants.
-    invariants : bool
-        Also the class-group invariants (one :func:`formkit.class_group` per ``D``;
-        without them negative ranges are swept all at once and run far faster).
-    workers : int, optional
-        Worker processes (default ``os.cpu_count()``).
-    cluster : str or distributed.Client, optional
-        Run the chunks on this Dask distributed cluster (scheduler address such as
-        ``"tcp://10.0.0.5:8786"``, or a client) instead of local processes.
-    chunk_size : int, optional
-        Consecutive integers ``D`` per chunk (default: 100 000 for the negative sweep,
-        2 000 with invariants, 1 000 for ``D > 0``).
-    engine : {"auto", "numpy", "python"}
-        The sweep for negative discriminants.
-    progress : bool, optional
-        Show a tqdm progress bar on stderr (default: when stderr is a terminal).
-    rows_out : list, optional
-        Rows computed by this run are appended here as :class:`TableRow`.
-
-    Returns
-    -------
-    BuildSummary
-
-    Raises
-    ------
-    FormkitError
-        For a bad range, worker count, chunk size or engine, a file built with other
-        options, or an unreachable cluster.
-
-    Examples
-    --------
-    >>> import tempfile, os
-    >>> db = os.path.join(tempfile.mkdtemp(), "t.db")
-    >>> s = build_table(db, -100, -3, invariants=False, workers=1, chunk_size=40)
-    >>> s.chunks_computed, s.rows_written
-    (3, 50)
-    >>> build_table(db, -200, -3, invariants=False, workers=1, chunk_size=40).chunks_already_done
-    3
-    >>> [r.discriminant for r in query_table(db, class_number=5)]
-    [-47, -79, -103, -127, -131, -179, -188]
-    """
-    start, stop = _check_range(start, stop)
-    workers = _check_workers(workers)
-    engine = _check_engine(engine)
-    if chunk_size is not None:
-        chunk_size = as_int(chunk_size, "chunk size")
-        if chunk_size < 1:
-            raise FormkitError(f"chunk size must be a positive integer, not {chunk_size}")
-    t0 = time.perf_counter()
-    conn = None
-    if path is not None:
-        conn = _connect(path, create=True)
-        _check_or_record_meta(conn, path, bool(fundamental), bool(invariants))
-        done = _done_intervals(conn)
-    else:
-        done = []
-    missing = _missing(start, stop, done)
-    already = sum(1 for lo, hi in done if hi >= start and lo <= stop)
-    specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
-    written = [0]
-
-    def sink(spec: ChunkSpec, rows: List[RawRow], seconds: float) -> None:
-        if conn is not None:
-            _write_chunk(conn, spec, rows, seconds)
-        if rows_out is not None:
-            rows_out.extend(TableRow._from_raw(r) for r in rows)
-        written[0] += len(rows)
-
-    bar = _progress_bar(len(specs), progress, "formkit table")
-    try:
-        _run_chunks(specs, workers, cluster, sink, bar)
-    finally:
-        bar.close()
-        if conn is not None:
-            conn.close()
-    return BuildSummary(
-        path=None if path is None else os.fspath(path),
-        start=start,
-        stop=stop,
-        chunks_total=already + len(specs),
-        chunks_already_done=already,
-        chunks_computed=len(specs),
-        rows_written=written[0],
-        seconds=round(time.perf_counter() - t0, 3),
-        workers=workers,
-        cluster=cluster if isinstance(cluster, str) or cluster is None else repr(cluster),
-    )
 
 
 # ---------------------------------------------------------------------------
