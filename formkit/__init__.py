@@ -22,8 +22,8 @@ from .classgroups import *  # noqa: F401,F403,E402
 from .classgroups import __all__ as _classgroups_all  # noqa: E402
 from .analytic import *  # noqa: F401,F403,E402
 from .analytic import __all__ as _analytic_all  # noqa: E402
-from .worked_examples import *  # noqa: F401,F403,E402
-from .worked_examples import __all__ as _worked_all  # noqa: E402
+from .explain import *  # noqa: F401,F403,E402
+from .explain import __all__ as _explain_all  # noqa: E402
 from .representation import *  # noqa: F401,F403,E402
 from .representation import __all__ as _representation_all  # noqa: E402
 from .tables import *  # noqa: F401,F403,E402
@@ -40,7 +40,7 @@ _graphs_all = [
 
 from ._version import __version__  # noqa: E402
 
-__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_worked_all, *_representation_all, *_tables_all, *_graphs_all, "__version__"]
+__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_explain_all, *_representation_all, *_tables_all, *_graphs_all, "__version__"]
 
 
 def __getattr__(name: str):

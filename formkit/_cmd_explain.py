@@ -50,26 +50,26 @@ def _emit_example(args: argparse.Namespace, example) -> int:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .worked_examples import worked_reduction
+    from .explain.reduction import worked_reduction
 
     return _emit_example(args, worked_reduction(as_form(args.form)))
 
 
 def _cmd_compose(args: argparse.Namespace) -> int:
-    from .worked_examples import worked_composition
+    from .explain.composition import worked_composition
 
     return _emit_example(args, worked_composition(as_form(args.first, name="F"), as_form(args.second, name="G")))
 
 
 def _cmd_represent(args: argparse.Namespace) -> int:
-    from .worked_examples import worked_representation
+    from .explain.representation import worked_representation
 
     n = parse_integer(args.n, "n")
     return _emit_example(args, worked_representation(as_form(args.form), n, max_detail=args.max_detail))
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
-    from .worked_examples import worked_class_group
+    from .explain.class_group import worked_class_group
 
     D = parse_integer(args.discriminant, "discriminant")
     return _emit_example(args, worked_class_group(D, max_classes=args.max_classes))

@@ -1,36 +1,16 @@
-"""Worked examples: reduction, composition, representation and class groups, step by step.
+"""Worked example: Dirichlet composition of two forms, with every intermediate value.
 
-For papers, theses and lectures: each function here runs a computation while recording
-every intermediate number, and writes it out as Markdown or as LaTeX (a complete
-document, or a fragment to paste into one).
-
-* :func:`worked_reduction` — every reduction step with its matrix and the running
-  product (Gauss/Lagrange reduction for definite forms, Cohen GTM 138 Algorithm 5.4.2;
-  the operator ρ for indefinite forms, Buchmann–Vollmer §6.2, with the cycle).
-* :func:`worked_composition` — Dirichlet composition as in Cohen GTM 138 Algorithm
-  5.4.7: ``s``, ``n``, the two extended-Euclid steps with their Bézout coefficients,
-  ``d1 = gcd(a1, a2, s)``, ``v1``, ``v2``, ``r``, the unreduced composite, then its
-  reduction; the result is checked against :func:`formkit.compose`.
-* :func:`worked_representation` — the square-root method (Cox, *Primes of the Form
-  x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer §3.2): every ``b mod 2m`` with
-  ``b² ≡ D (mod 4m)`` for every ``g² | n``, ``m = n/g²``, the reduction of
-  ``(m, b, (b² − D)/4m)``, the comparison with the reduced form (or cycle) of ``Q``, and
-  the solution ``(x, y)`` read off the first column of the matrix.
-* :func:`worked_class_group` — the reduced forms found by enumeration, the structure
-  and generators, and the class table with orders, discrete logarithms and genus
-  characters (Cox §3), with the checks of genus theory.
-
-Each returns a :class:`WorkedExample`; ``.render("md")`` / ``.render("tex")`` give the
-text and ``.to_dict()`` the recorded numbers.  ``explain_reduction(form, format="md")``
-and its siblings return the text directly (the command ``formkit explain``).  The
-document model and the writers are in :mod:`formkit.worked_examples_text`.
+:func:`worked_composition` — Dirichlet composition as in Cohen GTM 138 Algorithm
+5.4.7: ``s``, ``n``, the two extended-Euclid steps with their Bézout coefficients,
+``d1 = gcd(a1, a2, s)``, ``v1``, ``v2``, ``r``, the unreduced composite, then its
+reduction; the result is checked against :func:`formkit.compose`.
+:func:`composition_trace` records the numbers; :func:`explain_composition` returns the
+rendered text (``formkit explain compose``).
 
 References
 ----------
 .. [1] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138, Springer
-       1993, Algorithms 5.4.2 and 5.4.7, §5.6.
-.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, §3.2, §6.2.
-.. [3] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2–§3.
+       1993, Algorithm 5.4.7.
 """
 
 from __future__ import annotations
@@ -38,11 +18,10 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Optional, Tuple
 
-from .core.arith import xgcd
-from .core.forms import Form, FormLike, as_form
-from .core.reduction import ReductionResult, reduce_form
-from .worked_examples_more import worked_class_group, worked_representation
-from .worked_examples_text import (
+from ..core.arith import xgcd
+from ..core.forms import Form, FormLike, as_form
+from ..core.reduction import ReductionResult, reduce_form
+from .document import (
     Block,
     Heading,
     Items,
@@ -57,121 +36,15 @@ from .worked_examples_text import (
 )
 
 __all__ = [
-    "WorkedExample",
     "CompositionTrace",
-    "EXPLAIN_FORMATS",
     "composition_trace",
-    "worked_reduction",
     "worked_composition",
-    "worked_representation",
-    "worked_class_group",
-    "explain_reduction",
     "explain_composition",
-    "explain_representation",
-    "explain_class_group",
 ]
-
-#: Output formats of the worked examples.
-EXPLAIN_FORMATS = ("md", "tex")
-
-#: Forms of an indefinite cycle listed in a worked reduction.
-CYCLE_SHOWN = 40
-
 
 def _p(x: int) -> str:
     """An integer for substitution into a formula: negative ones in parentheses."""
     return f"({x})" if x < 0 else str(x)
-
-
-# ---------------------------------------------------------------------------
-# reduction
-
-
-def worked_reduction(form: FormLike) -> WorkedExample:
-    """The reduction of a form, step by step (definite or indefinite).
-
-    Each step gives its kind (translation, swap, or ρ), its matrix, the form after it
-    and the running product of the matrices; for an indefinite form the cycle of
-    reduced forms follows (the first :data:`CYCLE_SHOWN`).
-
-    Raises
-    ------
-    DiscriminantError
-        If the discriminant is a square.
-    ParseError, FormError
-        For input that is not a form.
-
-    Examples
-    --------
-    >>> ex = worked_reduction((10, 37, 35))
-    >>> [s["kind"] for s in ex.data["steps"]], ex.data["reduced"]
-    (['translate', 'swap', 'translate'], [1, 1, 8])
-    >>> "running product" in ex.render("md")
-    True
-    """
-    from .core.reduction import _cycle_prefix
-
-    f = as_form(form)
-    res = reduce_form(f, steps=True)
-    D = f.discriminant
-    title = f"Reduction of {f.to_list()}"
-    blocks: list[Block] = [
-        Heading(1, title),
-        Paragraph(("The form ", m_poly(f)) + text(f" has discriminant @D = b^2 - 4ac = {D}@; it is {f.kind}.")),
-    ]
-    if D < 0:
-        blocks.append(
-            para(
-                "A positive definite form @(a, b, c)@ is reduced when @|b| <= a <= c@, with @b >= 0@ if "
-                "@|b| = a@ or @a = c@ (Gauss; Cohen, GTM 138, Algorithm 5.4.2). Each step either translates "
-                "b into @(-a, a]@ by the matrix @[[1, k], [0, 1]]@ or exchanges a and c by @[[0, -1], [1, 0]]@."
-                + ("" if f.a > 0 else " A negative definite form is reduced through its negative.")
-            )
-        )
-    else:
-        blocks.append(
-            para(
-                "An indefinite form @(a, b, c)@ is reduced when @0 < b < sqrt(D)@ and "
-                "@sqrt(D) - b < 2|a| < sqrt(D) + b@. Each step applies rho, which takes @(a, b, c)@ to "
-                "@(c, b', (b'^2 - D)/4c)@ with @b' = -b + 2ct@, where b' lies in @(-|c|, |c|]@ when "
-                "@|c| > sqrt(D)@ and in @(sqrt(D) - 2|c|, sqrt(D))@ otherwise; its matrix is @[[0, -1], [1, t]]@ "
-                "(Buchmann and Vollmer, Binary Quadratic Forms, Section 6.2)."
-            )
-        )
-    blocks.append(Heading(2, "Steps"))
-    red_blocks, recs = reduction_blocks(res)
-    blocks.extend(red_blocks)
-    data = {
-        "form": f.to_list(),
-        "discriminant": D,
-        "steps": recs,
-        "reduced": res.reduced.to_list(),
-        "matrix": matrix_list(res.matrix),
-    }
-    if D > 0:
-        forms, complete = _cycle_prefix(res.reduced, CYCLE_SHOWN)
-        blocks.append(Heading(2, "The cycle of reduced forms"))
-        blocks.append(
-            para(
-                "Applying rho to a reduced form gives a reduced form; the reduced forms of the class form one cycle"
-                + (f" of length {len(forms)}:" if complete else f", longer than {CYCLE_SHOWN}; its first {len(forms)} forms:")
-            )
-        )
-        blocks.append(Items(tuple((m_form(g),) for g in forms)))
-        data["cycle"] = [g.to_list() for g in forms]
-        data["cycle_complete"] = complete
-    return WorkedExample("reduce", title, data, tuple(blocks))
-
-
-def explain_reduction(form: FormLike, *, format: str = "md", fragment: bool = False) -> str:
-    """:func:`worked_reduction` rendered as ``"md"`` or ``"tex"`` text.
-
-    Examples
-    --------
-    >>> print(explain_reduction((3, 1, 2)).splitlines()[0])
-    # Reduction of [3, 1, 2]
-    """
-    return worked_reduction(form).render(format, fragment=fragment)
 
 
 # ---------------------------------------------------------------------------
@@ -258,7 +131,7 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
     >>> t.d1, t.v1, t.v2, t.r, t.composite, t.result
     (1, 2, 3, 0, Form(6, 1, 1), Form(1, 1, 6))
     """
-    from .core.composition import _check, compose
+    from ..core.composition import _check, compose
 
     F, G = as_form(F, name="F"), as_form(G, name="G")
     D = _check(F, G)
@@ -294,7 +167,7 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
     if D < 0 and check != red.reduced:  # pragma: no cover - would be a bug
         raise ArithmeticError(f"traced composition {red.reduced!r} differs from compose() = {check!r}")
     if D > 0:
-        from .core.equivalence import proper_equivalence
+        from ..core.equivalence import proper_equivalence
 
         if proper_equivalence(check, red.reduced) is None:  # pragma: no cover - would be a bug
             raise ArithmeticError(f"traced composition {red.reduced!r} not equivalent to compose() = {check!r}")
@@ -408,28 +281,3 @@ def explain_composition(F: FormLike, G: FormLike, *, format: str = "md", fragmen
     True
     """
     return worked_composition(F, G).render(format, fragment=fragment)
-
-
-
-def explain_representation(
-    form: FormLike, n: object, *, format: str = "md", fragment: bool = False, max_detail: int = 32
-) -> str:
-    """:func:`worked_representation` rendered as ``"md"`` or ``"tex"`` text.
-
-    Examples
-    --------
-    >>> print(explain_representation((1, 0, 5), 21).splitlines()[0])
-    # Representations of 21 by [1, 0, 5]
-    """
-    return worked_representation(form, n, max_detail=max_detail).render(format, fragment=fragment)
-
-
-def explain_class_group(D: object, *, format: str = "md", fragment: bool = False, max_classes: int = 500) -> str:
-    """:func:`worked_class_group` rendered as ``"md"`` or ``"tex"`` text.
-
-    Examples
-    --------
-    >>> print(explain_class_group(-84).splitlines()[0])
-    # The class group of discriminant -84
-    """
-    return worked_class_group(D, max_classes=max_classes).render(format, fragment=fragment)

@@ -1,6 +1,6 @@
 """A small document model for worked examples, written out as Markdown or LaTeX.
 
-:mod:`formkit.worked_examples` describes each worked example as a sequence of blocks
+:mod:`formkit.explain` describes each worked example as a sequence of blocks
 (headings, paragraphs, numbered lists, tables, displayed formulas).  Inline pieces are
 either plain text (ASCII) or :class:`Math`, which carries two spellings of the same
 formula: LaTeX for ``.tex`` output and plain text (Unicode allowed) for Markdown, where
@@ -18,9 +18,11 @@ import re
 from dataclasses import dataclass, field
 from typing import Sequence, Tuple, Union
 
-from .errors import FormkitError
+from ..core.arith import as_int
+from ..errors import FormkitError
 
 __all__ = [
+    "EXPLAIN_FORMATS",
     "Math",
     "Heading",
     "Paragraph",
@@ -34,6 +36,16 @@ __all__ = [
     "render_latex",
     "escape_tex",
 ]
+
+#: Output formats of the worked examples.
+EXPLAIN_FORMATS = ("md", "tex")
+
+
+def _check_count(value: object, name: str, least: int) -> int:
+    v = as_int(value, name)
+    if v < least:
+        raise FormkitError(f"{name} must be at least {least}, not {v}")
+    return v
 
 
 @dataclass(frozen=True)
@@ -461,7 +473,7 @@ def _step_line(step, running) -> Line:
 
 def why_reduced(f) -> Line:
     """Why the form ``f`` is reduced, with its numbers."""
-    from .core.arith import isqrt
+    from ..core.arith import isqrt
 
     D = f.discriminant
     if D < 0:

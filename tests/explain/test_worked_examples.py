@@ -1,4 +1,4 @@
-"""Tests of formkit.worked_examples: the traced computations against independent
+"""Tests of formkit.explain: the traced computations against independent
 computations (brute force, classical theorems, the library's own fast paths), and the
 Markdown / LaTeX output (compiled when a TeX engine is installed, else checked for
 structure)."""
@@ -28,18 +28,11 @@ from formkit import (
 from formkit.core.forms import Form, mat_mul
 from formkit.classgroups.genus import genus_count
 from formkit.representation.representations import represent
-from formkit.worked_examples import (
-    composition_trace,
-    explain_class_group,
-    explain_composition,
-    explain_reduction,
-    explain_representation,
-    worked_class_group,
-    worked_composition,
-    worked_reduction,
-    worked_representation,
-)
-from formkit.worked_examples_text import escape_tex, formula, text
+from formkit.explain.composition import composition_trace, explain_composition, worked_composition
+from formkit.explain.class_group import explain_class_group, worked_class_group
+from formkit.explain.reduction import explain_reduction, worked_reduction
+from formkit.explain.representation import explain_representation, worked_representation
+from formkit.explain.document import escape_tex, formula, text
 
 # ---------------------------------------------------------------------------
 # helpers

@@ -1,0 +1,298 @@
+"""Worked example: the representations of an integer by a form, by the square-root method.
+
+:func:`worked_representation` follows the square-root method: a proper
+representation ``Q(x, y) = m`` is the first column of a matrix ``M ∈ SL2(Z)`` with
+``Q·M = (m, b, c)``, ``b`` determined modulo ``2m`` with ``b² ≡ D (mod 4m)``; so one
+lists those ``b``, reduces each ``(m, b, (b² − D)/4m)`` and keeps the ones properly
+equivalent to ``Q``; the matrix of the equivalence gives ``(x, y)``, and the proper
+automorphs of ``Q`` give the others (``w`` of them when ``D < 0``; one orbit under the
+infinite automorphism group when ``D > 0``).  All solutions are ``g`` times the proper
+ones of ``n/g²``, ``g² | n``.  (Gauss, *Disquisitiones* art. 154–170; Cox, *Primes of
+the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer, *Binary Quadratic Forms*,
+§3.2 — numbers as recalled.)  Written from the mathematics; the tests compare its
+solutions with :func:`formkit.representation.representations.represent`.
+:func:`explain_representation` returns the rendered text (``formkit explain represent``).
+
+References
+----------
+.. [1] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, §2.
+.. [2] J. Buchmann, U. Vollmer, *Binary Quadratic Forms*, Springer 2007, §3.2.
+.. [3] C. F. Gauss, *Disquisitiones Arithmeticae*, 1801, art. 154–170.
+"""
+
+from __future__ import annotations
+
+from ..core.arith import as_int, factorint, gcd
+from ..core.modular_roots import sqrt_mod
+from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.reduction import reduce_form
+from .document import (
+    Block,
+    Heading,
+    Math,
+    Paragraph,
+    Table,
+    WorkedExample,
+    _check_count,
+    m_form,
+    m_int,
+    m_matrix,
+    m_poly,
+    m_vector,
+    matrix_list,
+    para,
+    reduction_blocks,
+    text,
+)
+
+__all__ = ["worked_representation", "explain_representation"]
+
+#: Longest cycle of reduced forms a worked representation walks (indefinite forms).
+MAX_CYCLE = 100_000
+
+
+def _square_divisors(m: int) -> list[int]:
+    """All ``g ≥ 1`` with ``g² | m`` (``m ≠ 0``), increasing."""
+    gs = [1]
+    for p, e in (factorint(abs(m)) if abs(m) > 1 else {}).items():
+        gs = [g * p**k for g in gs for k in range(e // 2 + 1)]
+    return sorted(gs)
+
+
+# ---------------------------------------------------------------------------
+# representations
+
+
+def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) -> WorkedExample:
+    """How ``Q(x, y) = n`` is solved by square roots modulo ``4m`` and reduction.
+
+    Parameters
+    ----------
+    form : FormLike
+        Any form of non-square discriminant (content and negative definite forms are
+        handled as in :mod:`formkit.representation.representations`).
+    n : int
+        The number to represent.
+    max_detail : int
+        Show the reduction steps for at most this many roots ``b`` (the table of all
+        roots and all solutions is always complete).
+
+    Returns
+    -------
+    WorkedExample
+        ``data["solutions"]`` lists every solution (definite forms) or one solution
+        per orbit of the automorphs (indefinite forms).
+
+    Raises
+    ------
+    DiscriminantError, NotAnIntegerError, ParseError
+        For a square discriminant or input that is not a form / an integer.
+
+    Examples
+    --------
+    >>> ex = worked_representation((1, 0, 5), 21)
+    >>> ex.data["count"], ex.data["solutions"][:4]
+    (8, [[-4, -1], [-4, 1], [-1, -2], [-1, 2]])
+    >>> [r["b"] for r in ex.data["roots"]]
+    [8, 20, 22, 34]
+    """
+    Q = as_form(form)
+    D = _require_nonsquare(Q, "representations")
+    n = as_int(n, "n")
+    max_detail = _check_count(max_detail, "max_detail", 0)
+    title = f"Representations of {n} by {Q.to_list()}"
+    blocks: list[Block] = [
+        Heading(1, title),
+        Paragraph(
+            ("We solve ", Math(m_poly(Q).tex + f" = {n}", f"{Q} = {n}"))
+            + text(f" for integers x, y; the form has discriminant @D = {D}@.")
+        ),
+        para(
+            "Method (Gauss; Cox, Primes of the Form @x^2 + ny^2@, Lemma 2.5): a proper solution (@gcd(x, y) = 1@) "
+            "of @Q(x, y) = m@ is the first column of a matrix M of determinant 1 with @Q·M = (m, b, c)@, where "
+            "b is determined modulo 2m and @b^2 ≡ D (mod 4m)@. So we list those b, reduce each form "
+            "@(m, b, (b^2 - D)/4m)@ and keep the ones properly equivalent to Q; the matrix of the equivalence "
+            "gives (x, y), and the automorphs of Q give the other solutions. Every solution is g times a proper "
+            "solution of @n/g^2@ for some g with @g^2 | n@."
+        ),
+    ]
+    data: dict = {"form": Q.to_list(), "n": n, "discriminant": D, "definite": D < 0}
+    if n == 0:
+        blocks.append(para("Since D is not a square, the form vanishes only at @(x, y) = (0, 0)@."))
+        data.update(count=1, primitive_count=0, solutions=[[0, 0]], roots=[])
+        return WorkedExample("represent", title, data, tuple(blocks))
+    P, m, note = Q, n, []
+    if D < 0 and Q.a < 0:
+        P, m = -Q, -n
+        note.append(f"Q is negative definite: we solve @-Q(x, y) = {m}@ instead.")
+    k = P.content
+    none = None
+    if m % k:
+        none = f"The coefficients of Q have common divisor {k}, which does not divide {m}: no solutions."
+    elif k > 1:
+        P, m = Form(P.a // k, P.b // k, P.c // k), m // k
+        note.append(f"The coefficients have common divisor @{k}@: we solve @{P.a}x^2 + ({P.b})xy + ({P.c})y^2 = {m}@.")
+    if none is None and D < 0 and m < 0:
+        none = f"A positive definite form takes no negative value such as {m}: no solutions."
+    for t in note:
+        blocks.append(para(t))
+    if none is not None:
+        blocks.append(Paragraph((none,)))
+        data.update(count=0, primitive_count=0, solutions=[], roots=[])
+        return WorkedExample("represent", title, data, tuple(blocks))
+
+    DP = P.discriminant
+    blocks.append(Heading(2, "The reduced form of Q"))
+    red_P = reduce_form(P, steps=True)
+    rb, _ = reduction_blocks(red_P)
+    blocks.extend(rb)
+    # index: reduced form R properly equivalent to P  ->  N with P·N = R
+    index: dict[Form, Matrix] = {red_P.reduced: red_P.matrix}
+    if DP > 0:
+        from ..core.reduction import reduced_cycle
+
+        cyc = reduced_cycle(P, max_length=MAX_CYCLE)
+        N = red_P.matrix
+        for f_i, step in zip(cyc.forms[1:], cyc.matrices):
+            N = mat_mul(N, step)
+            index[f_i] = N
+        blocks.append(
+            para(
+                f"Q is indefinite: a form is properly equivalent to Q exactly when its reduction lands on the cycle "
+                f"of the reduced form of Q, which has {len(cyc)} forms: "
+                + ", ".join(f"@{g.to_list()}@" for g in cyc.forms[:40])
+                + (" and more." if len(cyc) > 40 else ".")
+            )
+        )
+        automorphs: list[Matrix] = []
+    else:
+        from ..core.equivalence import automorphism_group
+
+        automorphs = list(automorphism_group(P).elements())
+        blocks.append(
+            Paragraph(
+                text(f"The proper automorphs of the form (@w = {len(automorphs)}@ of them) are ")
+                + tuple(x for A in automorphs for x in (m_matrix(A), ", "))[:-1]
+                + (".",)
+            )
+        )
+
+    roots_rec: list[dict] = []
+    solutions: list[tuple[int, int]] = []
+    detailed = 0
+    omitted = 0
+    for g in _square_divisors(m):
+        mm = m // (g * g)
+        am = abs(mm)
+        blocks.append(Heading(2, f"g = {g}: proper solutions of Q(x, y) = {mm}" + (f", times {g}" if g > 1 else "")))
+        roots = [int(b) for b in sqrt_mod(DP, 4 * am) if b < 2 * am]
+        if not roots:
+            blocks.append(para(f"No b in @[0, {2 * am})@ has @b^2 ≡ {DP} (mod {4 * am})@: {DP} is not a square modulo {4 * am}."))
+            continue
+        blocks.append(
+            para(
+                f"The b in @[0, {2 * am})@ with @b^2 ≡ {DP} (mod {4 * am})@: "
+                + ", ".join(f"@{b}@" for b in roots) + "."
+            )
+        )
+        rows = []
+        details: list[Block] = []
+        for b in roots:
+            c = (b * b - DP) // (4 * mm)
+            F = Form(mm, b, c)
+            rec: dict = {"g": g, "m": mm, "b": b, "form": F.to_list(), "primitive": F.is_primitive}
+            if not F.is_primitive:
+                rows.append((m_int(b), m_form(F), ("no",), ("-",), ("-",), ("-",)))
+                rec.update(reduced=None, equivalent=False, matrix=None, solution=None)
+                roots_rec.append(rec)
+                continue
+            rf = reduce_form(F, steps=True)
+            N = index.get(rf.reduced)
+            rec["reduced"] = rf.reduced.to_list()
+            if N is None:
+                rows.append((m_int(b), m_form(F), ("yes",), (m_form(rf.reduced),), ("no",), ("-",)))
+                rec.update(equivalent=False, matrix=None, solution=None)
+            else:
+                M = mat_mul(N, mat_inverse(rf.matrix))  # P·M = F
+                x, y = M[0][0], M[1][0]
+                if P.transform(M) != F or P(x, y) != mm:  # pragma: no cover - would be a bug
+                    raise ArithmeticError(f"representation of {mm} by {P!r}: matrix check failed")
+                sol = (g * x, g * y)
+                rows.append((m_int(b), m_form(F), ("yes",), (m_form(rf.reduced),), ("yes",), (m_vector(sol),)))
+                rec.update(equivalent=True, matrix=matrix_list(M), solution=list(sol))
+                if automorphs:
+                    solutions.extend((g * (A[0][0] * x + A[0][1] * y), g * (A[1][0] * x + A[1][1] * y)) for A in automorphs)
+                else:
+                    solutions.append(sol)
+            roots_rec.append(rec)
+            if detailed >= max_detail:
+                omitted += 1
+                continue
+            detailed += 1
+            details.append(Heading(3, f"b = {b}: reduction of ({mm}, {b}, {c})"))
+            steps_blocks, steps_rec = reduction_blocks(rf)
+            rec["steps"] = steps_rec
+            details.extend(steps_blocks)
+            if N is None:
+                details.append(Paragraph(("The reduced form ", m_form(rf.reduced), " is not that of Q: no solution from this b.")))
+            else:
+                details.append(
+                    Paragraph(
+                        ("It is " + ("on the cycle of Q" if DP > 0 else "the reduced form of Q") + ", so ",
+                         m_form(F), " = Q·M with ", m_matrix(M))
+                        + text(" (the matrix taking Q to that reduced form times the inverse of this reduction "
+                               f"matrix); its first column "
+                               f"@({x}, {y})@ gives @Q({x}, {y}) = {mm}@")
+                        + (text(f"; scaled by g: @{sol}@.") if g > 1 else (".",))
+                    )
+                )
+        blocks.append(
+            Table(
+                (("b",), ("form (m, b, c)",), ("primitive",), ("reduced",), ("equivalent to Q",), ("solution (x, y)",)),
+                tuple(rows),
+            )
+        )
+        blocks.extend(details)
+    if omitted:
+        blocks.append(para(f"(Reduction steps of {omitted} further roots are not shown; see max_detail.)"))
+
+    blocks.append(Heading(2, "Result"))
+    solutions = sorted(set(solutions))
+    data["roots"] = roots_rec
+    if D < 0:
+        prim = [v for v in solutions if gcd(v[0], v[1]) == 1]
+        data.update(count=len(solutions), primitive_count=len(prim), solutions=[list(v) for v in solutions])
+        if solutions:
+            blocks.append(
+                para(
+                    f"{len(solutions)} solutions ({len(prim)} of them proper): "
+                    + ", ".join(f"@{v}@" for v in solutions) + "."
+                )
+            )
+        else:
+            blocks.append(para(f"No solutions: Q does not represent {n}."))
+    else:
+        data.update(count=None, orbit_count=len(solutions), solutions=[list(v) for v in solutions])
+        if solutions:
+            blocks.append(
+                para(
+                    f"Infinitely many solutions, in {len(solutions)} orbits under the automorphs of Q; one solution "
+                    "per orbit: " + ", ".join(f"@{v}@" for v in solutions) + "."
+                )
+            )
+        else:
+            blocks.append(para(f"No solutions: Q does not represent {n}."))
+    return WorkedExample("represent", title, data, tuple(blocks))
+
+
+def explain_representation(
+    form: FormLike, n: object, *, format: str = "md", fragment: bool = False, max_detail: int = 32
+) -> str:
+    """:func:`worked_representation` rendered as ``"md"`` or ``"tex"`` text.
+
+    Examples
+    --------
+    >>> print(explain_representation((1, 0, 5), 21).splitlines()[0])
+    # Representations of 21 by [1, 0, 5]
+    """
+    return worked_representation(form, n, max_detail=max_detail).render(format, fragment=fragment)
