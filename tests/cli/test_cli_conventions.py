@@ -19,7 +19,7 @@ import shlex
 
 import pytest
 
-import formkit.cli as cli
+import formkit.cli.entry_point as cli
 from formkit.core.forms import Form
 
 FORM_DESTS = {"form", "first", "second"}

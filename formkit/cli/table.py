@@ -9,16 +9,16 @@ import sys
 import textwrap
 from typing import List, Sequence
 
-from .core.parse import parse_integer
-from .tables.rows import TableRow
+from ..core.parse import parse_integer
+from ..tables.rows import TableRow
 
 _FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_part")
 
 
 def _cmd_table(args: argparse.Namespace) -> int:
-    from .cli import CommandError
-    from .tables.parallel import build_table
-    from .tables.store import query_table, table_info
+    from .conventions import CommandError
+    from ..tables.parallel import build_table
+    from ..tables.store import query_table, table_info
 
     fmt = "json" if args.json else args.format
     start = None if args.start is None else parse_integer(args.start, "--from")
@@ -87,7 +87,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
     payload = summary.to_dict()
     payload.update(method="enumeration", certified=True)
     if fmt == "json":
-        from .cli import emit
+        from .conventions import emit
 
         emit(args, payload, "")
     else:
@@ -195,7 +195,7 @@ def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str
 
 
 def _emit_info(args: argparse.Namespace, info: dict) -> None:
-    from .cli import emit
+    from .conventions import emit
 
     def human() -> str:
         m = info["meta"]

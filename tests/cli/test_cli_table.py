@@ -15,7 +15,7 @@ import pytest
 from formkit import class_group, is_fundamental_discriminant
 from formkit.cli import main
 
-ROOT = Path(__file__).resolve().parents[1]
+ROOT = Path(__file__).resolve().parents[2]
 
 
 def run(argv, capsys):

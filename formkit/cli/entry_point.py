@@ -1,9 +1,10 @@
-"""The ``formkit`` command line: a thin layer over the library.
+"""The ``formkit`` command line: a thin layer over the library (the entry point).
 
 Every command has a ``--json`` form printing one JSON object; the same result is one
 function call away in Python (each command's help names the function).  Commands live
-in the private modules ``formkit._cmd_*``, one per topic; each defines
-``register(subparsers, parent)`` where ``parent`` carries the shared options.
+in the modules of :mod:`formkit.cli`, one per topic; each defines
+``register(subparsers, parent)`` where ``parent`` carries the shared options, and uses
+the conventions of :mod:`formkit.cli.conventions`.
 
 Exit status: 0 on success, 2 for bad input (one line ``formkit: error: …`` on stderr),
 1 for an internal error (a short message; the traceback only with ``--debug``).
@@ -12,63 +13,16 @@ Exit status: 0 on success, 2 for bad input (one line ``formkit: error: …`` on 
 from __future__ import annotations
 
 import argparse
-import importlib
-import json
 import re
 import sys
-from typing import Any, Callable, Sequence
+from typing import Sequence
 
-from .errors import FormkitError
+from ..errors import FormkitError
+from .conventions import _Parser
 
-__all__ = ["main", "build_parser", "emit"]
-
-# Modules providing commands, in the order they appear in ``formkit --help``.
-COMMAND_MODULES = (
-    "formkit._cmd_forms",
-    "formkit._cmd_groups",
-    "formkit._cmd_explain",
-    "formkit._cmd_primes",
-    "formkit._cmd_table",
-    "formkit._cmd_graph",
-    "formkit._cmd_represent",
-)
+__all__ = ["main", "build_parser"]
 
 _FORMLIKE_DASH = re.compile(r"-[\d\sxy(\[]")
-
-
-class CommandError(FormkitError):
-    """Bad command-line input that the library itself does not see."""
-
-
-class _Parser(argparse.ArgumentParser):
-    """argparse with the house error format: one line, exit status 2."""
-
-    def error(self, message: str) -> None:  # type: ignore[override]
-        sys.stderr.write(f"formkit: error: {message}\n")
-        raise SystemExit(2)
-
-
-def emit(args: argparse.Namespace, payload: dict, human: Callable[[], str] | str) -> None:
-    """Print ``payload`` as one JSON object when ``--json`` was given, else ``human``."""
-    if getattr(args, "json", False):
-        sys.stdout.write(json.dumps(payload, default=_json_default) + "\n")
-    else:
-        text = human() if callable(human) else human
-        sys.stdout.write(text.rstrip("\n") + "\n")
-
-
-def _json_default(obj: Any) -> Any:
-    try:
-        import operator
-
-        return operator.index(obj)
-    except TypeError:
-        pass
-    if hasattr(obj, "to_list"):
-        return obj.to_list()
-    if hasattr(obj, "to_dict"):
-        return obj.to_dict()
-    return str(obj)
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -87,8 +41,11 @@ def build_parser() -> argparse.ArgumentParser:
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-    for name in COMMAND_MODULES:
-        importlib.import_module(name).register(sub, parent)
+    # the modules providing commands, in the order they appear in ``formkit --help``
+    from . import explain, forms, graph, groups, primes, represent, table
+
+    for module in (forms, groups, explain, primes, table, graph, represent):
+        module.register(sub, parent)
     return parser
 
 

@@ -5,8 +5,8 @@ from __future__ import annotations
 
 import argparse
 
-from .core.parse import parse_integer
-from .core.forms import as_form
+from ..core.parse import parse_integer
+from ..core.forms import as_form
 
 _FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
 
@@ -28,7 +28,7 @@ def _positive_int(text: str) -> int:
 
 
 def _emit_example(args: argparse.Namespace, example) -> int:
-    from .cli import CommandError, emit
+    from .conventions import CommandError, emit
 
     if args.fragment and args.format != "tex":
         raise CommandError("--fragment applies to --format tex only")
@@ -50,33 +50,33 @@ def _emit_example(args: argparse.Namespace, example) -> int:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .explain.reduction import worked_reduction
+    from ..explain.reduction import worked_reduction
 
     return _emit_example(args, worked_reduction(as_form(args.form)))
 
 
 def _cmd_compose(args: argparse.Namespace) -> int:
-    from .explain.composition import worked_composition
+    from ..explain.composition import worked_composition
 
     return _emit_example(args, worked_composition(as_form(args.first, name="F"), as_form(args.second, name="G")))
 
 
 def _cmd_represent(args: argparse.Namespace) -> int:
-    from .explain.representation import worked_representation
+    from ..explain.representation import worked_representation
 
     n = parse_integer(args.n, "n")
     return _emit_example(args, worked_representation(as_form(args.form), n, max_detail=args.max_detail))
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
-    from .explain.class_group import worked_class_group
+    from ..explain.class_group import worked_class_group
 
     D = parse_integer(args.discriminant, "discriminant")
     return _emit_example(args, worked_class_group(D, max_classes=args.max_classes))
 
 
 def _format_parent() -> argparse.ArgumentParser:
-    from .cli import _Parser
+    from .conventions import _Parser
 
     p = _Parser(add_help=False)
     p.add_argument("--format", choices=("md", "tex"), default="md", help="Markdown (default) or LaTeX")
@@ -92,7 +92,7 @@ def _format_parent() -> argparse.ArgumentParser:
 
 def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
     """Add the ``explain`` command and its subcommands."""
-    from .cli import _Parser
+    from .conventions import _Parser
 
     fmt = _format_parent()
     raw = argparse.RawDescriptionHelpFormatter

@@ -4,12 +4,12 @@ from __future__ import annotations
 
 import argparse
 
-from .core.parse import parse_integer
-from .core.forms import as_form
+from ..core.parse import parse_integer
+from ..core.forms import as_form
 
 
 def _nonnegative_int(text: str) -> int:
-    from .cli import CommandError
+    from .conventions import CommandError
 
     try:
         value = parse_integer(text, "--limit")
@@ -22,7 +22,7 @@ def _nonnegative_int(text: str) -> int:
 
 def _parse_factors(text: str) -> dict:
     """``'3^2*5*7^3'`` (or separated by spaces or commas) -> ``{3: 2, 5: 1, 7: 3}``; no evaluation."""
-    from .cli import CommandError
+    from .conventions import CommandError
 
     tokens = [t for t in text.replace("*", " ").replace(",", " ").split() if t]
     if not tokens:
@@ -38,9 +38,9 @@ def _parse_factors(text: str) -> dict:
 
 
 def _cmd_represent(args: argparse.Namespace) -> int:
-    from .cli import emit
-    from .core.equivalence import fundamental_automorph
-    from .representation.representations import represent
+    from .conventions import emit
+    from ..core.equivalence import fundamental_automorph
+    from ..representation.representations import represent
 
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")
@@ -85,8 +85,8 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
 
 def _cmd_genera(args: argparse.Namespace) -> int:
-    from .cli import emit
-    from .classgroups.genus import genera
+    from .conventions import emit
+    from ..classgroups.genus import genera
 
     D = parse_integer(args.discriminant, "discriminant")
     P = genera(D)

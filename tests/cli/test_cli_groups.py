@@ -217,7 +217,7 @@ def test_bad_input_one_line_exit_2(argv, needle, capsys):
 def test_real_subprocess():
     # one real process: exit status 2, a single stderr line, nothing on stdout
     env = dict(os.environ)
-    root = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+    root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
     env["PYTHONPATH"] = root + os.pathsep + env.get("PYTHONPATH", "")
     bad = subprocess.run([sys.executable, "-m", "formkit", "group", "-5", "--json"],
                          capture_output=True, text=True, env=env, timeout=120)

@@ -12,8 +12,8 @@ TEXT_FORMATS = ("json", "graphml", "dot")
 
 
 def _parse_primes(text: str) -> list[int]:
-    from .core.parse import parse_integer
-    from .cli import CommandError
+    from ..core.parse import parse_integer
+    from .conventions import CommandError
 
     parts = [t.strip() for t in text.split(",")]
     if not text.strip() or any(not t for t in parts):
@@ -22,7 +22,7 @@ def _parse_primes(text: str) -> list[int]:
 
 
 def _format_of(args: argparse.Namespace) -> str:
-    from .cli import CommandError
+    from .conventions import CommandError
 
     if args.format:
         return args.format
@@ -41,10 +41,18 @@ def _format_of(args: argparse.Namespace) -> str:
 
 
 def _cmd_graph(args: argparse.Namespace) -> int:
-    from .core.parse import parse_integer
-    from .cli import CommandError, emit
-    from .core.discriminants import validate_discriminant
-    from .graphs import cayley_graph, cycle_graph, fibre_graph, graph_title, graph_to_dot, graph_to_graphml, graph_to_json
+    from ..core.parse import parse_integer
+    from .conventions import CommandError, emit
+    from ..core.discriminants import validate_discriminant
+    from ..graphs import (
+        cayley_graph,
+        cycle_graph,
+        fibre_graph,
+        graph_title,
+        graph_to_dot,
+        graph_to_graphml,
+        graph_to_json,
+    )
 
     D = validate_discriminant(parse_integer(args.discriminant, "discriminant"))
     fmt = _format_of(args)
@@ -96,7 +104,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         except OSError as exc:
             raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
     else:
-        from .graphs.plotting import save_picture
+        from ..graphs.plotting import save_picture
 
         try:
             save_picture(C, args.output, fmt)

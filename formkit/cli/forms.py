@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import argparse
 
-from .core.equivalence import equivalence
-from .core.forms import as_form
-from .core.reduction import _cycle_prefix, reduce_form
+from ..core.equivalence import equivalence
+from ..core.forms import as_form
+from ..core.reduction import _cycle_prefix, reduce_form
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -20,7 +20,7 @@ def _matrix_text(m) -> str:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .cli import CommandError, emit
+    from .conventions import CommandError, emit
 
     f = as_form(args.form)
     res = reduce_form(f, steps=args.steps)
@@ -63,7 +63,7 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
 
 
 def _cmd_equivalent(args: argparse.Namespace) -> int:
-    from .cli import CommandError, emit
+    from .conventions import CommandError, emit
 
     F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
     if args.max_steps < 1:

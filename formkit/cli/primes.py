@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import argparse
 
-from .core.arith import as_int
-from .errors import ParseError
-from .core.forms import as_form
+from ..core.arith import as_int
+from ..errors import ParseError
+from ..core.forms import as_form
 
 _SHOWN = 60  # primes listed in the text output (all of them with --json)
 
@@ -22,9 +22,9 @@ def _integer(text: str, name: str) -> int:
 
 
 def _cmd_primes(args: argparse.Namespace) -> int:
-    from .cli import emit
-    from .representation.prime_criteria import PrimeCriterion, prime_criterion, represented_primes
-    from .representation.prime_decision import primes_up_to
+    from .conventions import emit
+    from ..representation.prime_criteria import PrimeCriterion, prime_criterion, represented_primes
+    from ..representation.prime_decision import primes_up_to
 
     Q = as_form(args.form)
     X = _integer(args.upto, "--upto")
@@ -78,15 +78,15 @@ def _cmd_primes(args: argparse.Namespace) -> int:
 
 
 def _cmd_hilbert(args: argparse.Namespace) -> int:
-    from .representation.class_polynomials import class_polynomial
-    from .cli import emit
+    from ..representation.class_polynomials import class_polynomial
+    from .conventions import emit
 
     D = _integer(args.discriminant, "D")
     H = class_polynomial(D, verify=not args.no_verify)
     payload = H.to_dict()
     disc = None
     if args.discriminant_factors:
-        from .representation.class_polynomials import class_polynomial_discriminant
+        from ..representation.class_polynomials import class_polynomial_discriminant
 
         disc = class_polynomial_discriminant(D)
         payload["polynomial_discriminant"] = disc.to_dict()

@@ -4,18 +4,18 @@ from __future__ import annotations
 
 import argparse
 
-from .core.parse import parse_integer
-from .classgroups.dispatch import class_group, class_number_summary
-from .core.composition import compose, power
-from .core.forms import as_form
+from ..core.parse import parse_integer
+from ..classgroups.dispatch import class_group, class_number_summary
+from ..core.composition import compose, power
+from ..core.forms import as_form
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .conventions import emit
 
     D = parse_integer(args.discriminant, "discriminant")
     if args.max_rows < 0:
-        from .cli import CommandError
+        from .conventions import CommandError
 
         raise CommandError(f"--max-rows must be >= 0, not {args.max_rows}")
     G = class_group(D, method=args.method)
@@ -62,7 +62,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
 
 
 def _cmd_class_number(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .conventions import emit
 
     D = parse_integer(args.discriminant, "discriminant")
     payload = class_number_summary(D, method=args.method, interval=args.interval)
@@ -97,7 +97,7 @@ def _cmd_class_number(args: argparse.Namespace) -> int:
 
 
 def _cmd_compose(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .conventions import emit
 
     F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
     result = compose(F, G, method=args.method)
@@ -106,7 +106,7 @@ def _cmd_compose(args: argparse.Namespace) -> int:
 
 
 def _cmd_power(args: argparse.Namespace) -> int:
-    from .cli import emit
+    from .conventions import emit
 
     F = as_form(args.form)
     k = parse_integer(args.exponent, "exponent")
