@@ -1,10 +1,22 @@
 """formkit: binary quadratic forms, class groups and representations, exactly.
 
-The public API is re-exported here from one module per topic; see each module's
-docstring for what it covers and which references it follows.
-"""
+The public API is re-exported here from one subpackage per layer; imports run only
+down the layers (``tests/test_layers.py`` checks it):
 
-from __future__ import annotations
+* :mod:`formkit.errors` — the ``FormkitError`` family;
+* :mod:`formkit.core` — integers, forms, discriminants, reduction, equivalence,
+  composition, enumeration;
+* :mod:`formkit.analytic` — L(1, χ_D) with its GRH interval, the class number formula,
+  lattice-point averages, j(τ);
+* :mod:`formkit.classgroups` — ``ClassGroup`` and its methods, genera, orders;
+* :mod:`formkit.representation` — representations, orbits, Cornacchia, class
+  polynomials, prime criteria;
+* :mod:`formkit.graphs`, :mod:`formkit.tables`, :mod:`formkit.explain` — graphs, tables
+  and worked examples;
+* :mod:`formkit.cli` — the ``formkit`` command.
+
+See each module's docstring for what it covers and which references it follows.
+"""
 
 import sys as _sys
 
@@ -14,21 +26,23 @@ import sys as _sys
 if hasattr(_sys, "set_int_max_str_digits"):
     _sys.set_int_max_str_digits(0)
 
+from ._version import __version__  # noqa: E402
 from .errors import *  # noqa: F401,F403,E402
 from .errors import __all__ as _errors_all  # noqa: E402
 from .core import *  # noqa: F401,F403,E402
 from .core import __all__ as _core_all  # noqa: E402
-from .classgroups import *  # noqa: F401,F403,E402
-from .classgroups import __all__ as _classgroups_all  # noqa: E402
 from .analytic import *  # noqa: F401,F403,E402
 from .analytic import __all__ as _analytic_all  # noqa: E402
-from .explain import *  # noqa: F401,F403,E402
-from .explain import __all__ as _explain_all  # noqa: E402
+from .classgroups import *  # noqa: F401,F403,E402
+from .classgroups import __all__ as _classgroups_all  # noqa: E402
 from .representation import *  # noqa: F401,F403,E402
 from .representation import __all__ as _representation_all  # noqa: E402
 from .tables import *  # noqa: F401,F403,E402
 from .tables import __all__ as _tables_all  # noqa: E402
-# The graph module needs networkx, which takes a noticeable time to import; its names
+from .explain import *  # noqa: F401,F403,E402
+from .explain import __all__ as _explain_all  # noqa: E402
+
+# The graph layer needs networkx, which takes a noticeable time to import; its names
 # are loaded on first use (PEP 562) so that `import formkit` and the CLI stay quick.
 # tests/test_package.py checks that this list equals formkit.graphs.__all__.
 _graphs_all = [
@@ -38,9 +52,17 @@ _graphs_all = [
     "GRAPH_KINDS",
 ]
 
-from ._version import __version__  # noqa: E402
-
-__all__ = [*_errors_all, *_core_all, *_classgroups_all, *_analytic_all, *_explain_all, *_representation_all, *_tables_all, *_graphs_all, "__version__"]
+__all__ = [
+    *_errors_all,
+    *_core_all,
+    *_analytic_all,
+    *_classgroups_all,
+    *_representation_all,
+    *_tables_all,
+    *_explain_all,
+    *_graphs_all,
+    "__version__",
+]
 
 
 def __getattr__(name: str):

@@ -1,4 +1,11 @@
-"""Shared pytest configuration: doctest namespace and hypothesis profiles."""
+"""Shared pytest configuration: hypothesis profiles.
+
+The tests mirror the package (tests/core/, tests/classgroups/, …) without __init__.py
+files: pytest puts the directory of this conftest on sys.path, so the shared helpers
+here (_cli, _discriminants, _foundation_strategies, _redei, _classgroup_reference) are
+imported by their plain names from every subdirectory, and test file names must be
+unique across the tree.
+"""
 
 import os
 

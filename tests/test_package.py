@@ -39,17 +39,29 @@ def test_unknown_attribute_is_an_attribute_error():
         raise AssertionError("expected AttributeError")
 
 
+def _library_modules():
+    """Every module of the library (the subpackages walked), without private ones and the CLI."""
+    root = pathlib.Path(formkit.__file__).parent
+    for path in sorted(root.rglob("*.py")):
+        parts = path.relative_to(root).with_suffix("").parts
+        if parts[-1] == "__init__":
+            parts = parts[:-1]
+        if not parts or parts[0] == "cli" or any(p.startswith("_") for p in parts):
+            continue
+        yield "formkit." + ".".join(parts)
+
+
 def test_no_two_modules_export_one_name_for_different_objects():
     # a star import would silently let the later module win (this caught a clash once)
     owners = {}
-    for path in sorted(pathlib.Path(formkit.__file__).parent.glob("*.py")):
-        if path.stem.startswith("_") or path.stem == "cli":
-            continue
-        module = importlib.import_module(f"formkit.{path.stem}")
+    names = list(_library_modules())
+    assert "formkit.core.forms" in names and "formkit.classgroups" in names  # the walk reaches the subpackages
+    for name_of_module in names:
+        module = importlib.import_module(name_of_module)
         for name in getattr(module, "__all__", ()):
             obj = getattr(module, name)
             if name in owners:
                 other_module, other_obj = owners[name]
-                assert other_obj is obj, f"{name} exported by {other_module} and {path.stem}"
+                assert other_obj is obj, f"{name} exported by {other_module} and {name_of_module}"
             else:
-                owners[name] = (path.stem, obj)
+                owners[name] = (name_of_module, obj)
