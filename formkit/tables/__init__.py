@@ -8,8 +8,9 @@
 * :mod:`~formkit.tables.parallel` — building a store on all cores or a Dask cluster.
 
 Every row comes from complete enumeration and is unconditional.  This layer imports
-:mod:`formkit.core`, :mod:`formkit.classgroups` and :mod:`formkit.errors`; the names below
-are re-exported by :mod:`formkit`.
+:mod:`formkit.core`, :mod:`formkit.classgroups`, :mod:`formkit.errors` and
+``formkit._version`` (recorded in each store); the names below are re-exported by
+:mod:`formkit`.
 """
 
 from .parallel import *  # noqa: F401,F403
