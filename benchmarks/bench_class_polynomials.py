@@ -27,11 +27,11 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from formkit.representation import class_polynomials as cp  # noqa: E402
-from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound  # noqa: E402
-from formkit.cli import main  # noqa: E402
-from formkit.core.enumeration import class_number  # noqa: E402
-from formkit.representation.prime_criteria import represented_primes  # noqa: E402
+from formkit.cli import main
+from formkit.core.enumeration import class_number
+from formkit.representation import class_polynomials as cp
+from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound
+from formkit.representation.prime_criteria import represented_primes
 
 
 def median_time(fn, repeat: int) -> float:
@@ -55,7 +55,9 @@ def first_discriminant_with_class_number(h: int) -> int:
 
 def bench_class_polynomials(targets, repeat: int) -> None:
     print("## class polynomials (median of", repeat, "runs)")
-    print(f"{'D':>8} {'h':>4} {'bound B':>8} {'actual':>7} {'digits':>7} {'compute s':>10} {'verified s':>11} {'ratio':>6}")
+    print(
+        f"{'D':>8} {'h':>4} {'bound B':>8} {'actual':>7} {'digits':>7} {'compute s':>10} {'verified s':>11} {'ratio':>6}"
+    )
     for h in targets:
         D = first_discriminant_with_class_number(h)
 

@@ -30,15 +30,14 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from formkit.core import arith as arith_module  # noqa: E402
-from formkit.core import modular_roots as roots_module  # noqa: E402
-from formkit.classgroups import dispatch as cg_module  # noqa: E402
-from formkit.core import discriminants as disc_module  # noqa: E402
-from formkit.core import enumeration as enum_module  # noqa: E402
-from formkit.core.arith import isqrt, kronecker, mpz, next_prime  # noqa: E402
-from formkit.core.modular_roots import sqrt_mod_prime  # noqa: E402
-from formkit.classgroups.dispatch import class_group  # noqa: E402
-from formkit.core.composition import (  # noqa: E402
+from formkit.classgroups import dispatch as cg_module
+from formkit.classgroups.dispatch import class_group
+from formkit.core import arith as arith_module
+from formkit.core import discriminants as disc_module
+from formkit.core import enumeration as enum_module
+from formkit.core import modular_roots as roots_module
+from formkit.core.arith import isqrt, kronecker, mpz, next_prime
+from formkit.core.composition import (
     _compose_raw,
     _nucomp_bound,
     _nucomp_raw,
@@ -46,8 +45,9 @@ from formkit.core.composition import (  # noqa: E402
     compose,
     power,
 )
-from formkit.core.enumeration import class_number  # noqa: E402
-from formkit.core.raw_reduction import _reduce_definite_raw  # noqa: E402
+from formkit.core.enumeration import class_number
+from formkit.core.modular_roots import sqrt_mod_prime
+from formkit.core.raw_reduction import _reduce_definite_raw
 
 
 def clear_caches() -> None:
@@ -79,7 +79,9 @@ def random_discriminant(rng: random.Random, exponent: int, sign: int) -> int:
 
 def bench_enumeration(rng: random.Random, repeat: int, quick: bool) -> None:
     print(f"## enumeration and structure (cold caches; median over {repeat} random D per size)")
-    print(f"{'|D| ~':>8} {'sign':>4} {'median h':>9} {'enumerate s':>12} {'structure s':>12} {'example invariants'}")
+    print(
+        f"{'|D| ~':>8} {'sign':>4} {'median h':>9} {'enumerate s':>12} {'structure s':>12} {'example invariants'}"
+    )
     sizes = [(6, -1), (8, -1), (10, -1), (6, 1), (8, 1)]
     if quick:
         sizes = [(6, -1), (8, -1), (6, 1)]
@@ -146,7 +148,9 @@ def interleaved(fa, fb, items, rounds: int) -> tuple[float, float]:
 
 
 def bench_composition(rng: random.Random, repeat: int, quick: bool) -> None:
-    print(f"## NUCOMP vs Dirichlet composition + reduction (same inputs, interleaved; median of {repeat} rounds)")
+    print(
+        f"## NUCOMP vs Dirichlet composition + reduction (same inputs, interleaved; median of {repeat} rounds)"
+    )
     print(f"{'|D| ~':>8} {'operation':<28} {'Dirichlet us':>13} {'NUCOMP us':>10} {'ratio':>6}")
     exponents = [20, 100, 400] if not quick else [20, 100]
     npairs = 40
@@ -195,8 +199,12 @@ def bench_composition(rng: random.Random, repeat: int, quick: bool) -> None:
         k = rng.randrange(int(isqrt(-D)), 2 * int(isqrt(-D)))
         F = forms[0][0]
         assert power(F, k, method="nucomp") == power(F, k, method="dirichlet")
-        ta, tb = interleaved(lambda: power(F, k, method="dirichlet"), lambda: power(F, k, method="nucomp"),
-                             [()], max(5, repeat))
+        ta, tb = interleaved(
+            lambda: power(F, k, method="dirichlet"),
+            lambda: power(F, k, method="nucomp"),
+            [()],
+            max(5, repeat),
+        )
         label = f"power, k ~ 10^{len(str(k)) - 1}"
         print(f"{'10^' + str(e):>8} {label:<28} {ta * 1e6:>13.0f} {tb * 1e6:>10.0f} {ta / tb:>6.2f}")
     print()

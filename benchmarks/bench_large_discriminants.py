@@ -19,11 +19,11 @@ import random
 import statistics
 import time
 
+from formkit.classgroups.baby_step_giant_step import class_group_bsgs, last_statistics
 from formkit.classgroups.dispatch import class_group
+from formkit.classgroups.infrastructure import real_class_group, real_class_number
 from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.errors import FormkitError
-from formkit.classgroups.infrastructure import real_class_group, real_class_number
-from formkit.classgroups.baby_step_giant_step import class_group_bsgs, last_statistics
 
 
 def random_fundamental(rng: random.Random, digits: int, sign: int = -1) -> int:
@@ -48,11 +48,13 @@ def main() -> None:
     ap.add_argument("--real-sizes", default="8,10,12,14,16,18,20,22")
     args = ap.parse_args()
     rng = random.Random(args.seed)
-    class_group_bsgs(-10**6 - 3)  # warm up imports (numpy, sympy) outside the timings
+    class_group_bsgs(-(10**6) - 3)  # warm up imports (numpy, sympy) outside the timings
 
     print("D < 0, baby-step giant-step (GRH, Bach bound), random fundamental D in [10^k, 2·10^k)")
-    print(f"{'k':>3} {'n':>2} {'wall s':>8} {'cpu s':>8} {'ops':>9} {'ops/|D|^.25':>12} {'ops/|D|^.2':>11}"
-          f" {'bsgs steps':>10} {'gens':>5}")
+    print(
+        f"{'k':>3} {'n':>2} {'wall s':>8} {'cpu s':>8} {'ops':>9} {'ops/|D|^.25':>12} {'ops/|D|^.2':>11}"
+        f" {'bsgs steps':>10} {'gens':>5}"
+    )
     for k in [int(s) for s in args.sizes.split(",")]:
         walls, cpus, ops, steps, gens = [], [], [], [], []
         for _ in range(args.count):
@@ -64,12 +66,17 @@ def main() -> None:
             ops.append(st.operations)
             steps.append(st.baby_steps + st.giant_steps)
             gens.append(st.generators_used)
-            print(f"    D = {D}: {G.structure}, {w:.2f} s wall, {c:.2f} s cpu, {st.operations} ops", flush=True)
+            print(
+                f"    D = {D}: {G.structure}, {w:.2f} s wall, {c:.2f} s cpu, {st.operations} ops", flush=True
+            )
         Dabs = 1.5 * 10**k
         mo = statistics.median(ops)
-        print(f"{k:>3} {args.count:>2} {statistics.median(walls):>8.2f} {statistics.median(cpus):>8.2f} {mo:>9.0f}"
-              f" {mo / Dabs**0.25:>12.3f} {mo / Dabs**0.2:>11.3f} {statistics.median(steps):>10.0f}"
-              f" {statistics.median(gens):>5.0f}", flush=True)
+        print(
+            f"{k:>3} {args.count:>2} {statistics.median(walls):>8.2f} {statistics.median(cpus):>8.2f} {mo:>9.0f}"
+            f" {mo / Dabs**0.25:>12.3f} {mo / Dabs**0.2:>11.3f} {statistics.median(steps):>10.0f}"
+            f" {statistics.median(gens):>5.0f}",
+            flush=True,
+        )
 
     if not args.skip_threshold:
         print("\nenumeration (unconditional) against baby-step giant-step (GRH), same D, cpu seconds")
@@ -82,7 +89,9 @@ def main() -> None:
 
     print("\nD > 0: real_class_number (infrastructure regulator, class number from the GRH interval")
     print("and the orders of classes), random fundamental D in [10^k, 2·10^k)")
-    print(f"{'k':>3} {'wall s':>8} {'cpu s':>8} {'max wall':>9} {'reduction steps':>16} {'Euler P':>10} {'failed':>7}")
+    print(
+        f"{'k':>3} {'wall s':>8} {'cpu s':>8} {'max wall':>9} {'reduction steps':>16} {'Euler P':>10} {'failed':>7}"
+    )
     for k in [int(s) for s in args.real_sizes.split(",")]:
         ws, cs, ss, ps, failed = [], [], [], [], 0
         for _ in range(args.count):
@@ -96,8 +105,11 @@ def main() -> None:
             cs.append(c)
             ss.append(r.statistics.baby_steps + r.statistics.giant_steps)
             ps.append(r.provenance.bound)
-        print(f"{k:>3} {statistics.median(ws):>8.3f} {statistics.median(cs):>8.3f} {max(ws):>9.3f}"
-              f" {statistics.median(ss):>16.0f} {max(ps):>10} {failed:>7}", flush=True)
+        print(
+            f"{k:>3} {statistics.median(ws):>8.3f} {statistics.median(cs):>8.3f} {max(ws):>9.3f}"
+            f" {statistics.median(ss):>16.0f} {max(ps):>10} {failed:>7}",
+            flush=True,
+        )
 
     print("\nD > 0: narrow class group, enumeration (unconditional) against real_class_group (GRH), cpu s")
     print(f"{'k':>3} {'enumerate':>10} {'infrastructure':>15} {'ratio':>7}")

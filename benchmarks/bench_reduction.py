@@ -74,8 +74,8 @@ def _inputs(D: int, count: int, seed: int):
 
 def _child() -> dict:
     """Time every case once in this process; seconds per reduction."""
-    from formkit.core import arith
     from formkit import reduce_form, reduced
+    from formkit.core import arith
 
     results = {"backend": arith.BACKEND}
     for i, (label, D, count) in enumerate(CASES):
@@ -181,7 +181,9 @@ def main() -> None:
         g, p = row["gmpy2_with_matrix"], row["python_with_matrix"]
         go, po = row["gmpy2_form_only"], row["python_form_only"]
         if label == UNIT_LABEL:
-            print(f"\n{label}: {1 / g:,.1f}/s with gmpy2, {1 / p:,.1f}/s with Python ints, ratio {p / g:.2f}x")
+            print(
+                f"\n{label}: {1 / g:,.1f}/s with gmpy2, {1 / p:,.1f}/s with Python ints, ratio {p / g:.2f}x"
+            )
             continue
         print(f"{label:22s} {1 / g:12,.0f} {1 / p:13,.0f} {p / g:12.2f}x   {1 / go:22,.0f} {po / go:5.2f}x")
     print("\nbare reduction loop (no matrix, no validation), gmpy2 run: Python ints vs mpz")

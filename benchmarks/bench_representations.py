@@ -28,15 +28,15 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-import sympy  # noqa: E402
+import sympy
 
-from formkit.core import arith, modular_roots  # noqa: E402
-from formkit.core.arith import is_probable_prime, kronecker  # noqa: E402
-from formkit.representation.cornacchia import prime_representation  # noqa: E402
-from formkit.core.enumeration import class_number  # noqa: E402
-from formkit.core.forms import Form  # noqa: E402
-from formkit.representation.orbits import representation_orbits  # noqa: E402
-from formkit.representation.representations import represent  # noqa: E402
+from formkit.core import arith, modular_roots
+from formkit.core.arith import is_probable_prime, kronecker
+from formkit.core.enumeration import class_number
+from formkit.core.forms import Form
+from formkit.representation.cornacchia import prime_representation
+from formkit.representation.orbits import representation_orbits
+from formkit.representation.representations import represent
 
 D0 = -100003
 
@@ -78,8 +78,8 @@ def prime_values(Q: Form, lo: int, hi: int, count: int, rng: random.Random) -> l
 
 def bench_large_n(repeat: int, factor_too: bool = True) -> None:
     rng = random.Random(20240)
-    P = Form.principal(D0)               # x² + xy + 25001y²
-    Q = Form(11, 3, 2273)                # a non-principal class of D0 (order 39)
+    P = Form.principal(D0)  # x² + xy + 25001y²
+    Q = Form(11, 3, 2273)  # a non-principal class of D0 (order 39)
     print(f"\n## All solutions of Q(x, y) = n, D = {D0}, h = {class_number(D0)}")
     print("| n digits | prime factors | form | solutions | primitive | solve (s) | sympy factorint (s) |")
     print("|---:|---|---|---:|---:|---:|---:|")
@@ -95,7 +95,7 @@ def bench_large_n(repeat: int, factor_too: bool = True) -> None:
             primes += prime_values(form, -(-(10 ** (target - 1)) // M), 10**target // M, 1, rng)
             n = M * primes[-1]
             assert len(str(n)) == target
-            fac = {p: 1 for p in primes}
+            fac = dict.fromkeys(primes, 1)
             res = represent(form, n, factors=fac)
             assert all(form(x, y) == n for x, y in res.solutions)
             t = median_time(lambda: represent(form, n, factors=fac), repeat, clear_caches)
@@ -103,8 +103,11 @@ def bench_large_n(repeat: int, factor_too: bool = True) -> None:
                 tf = f"{median_time(lambda: sympy.factorint(n), 1, clear_caches):.3f}"
             else:
                 tf = "not timed"  # Pollard rho on 10-digit factors: 40 s to many minutes
-            print(f"| {len(str(n))} | {shape} | {form.to_list()} | {res.count} | {res.primitive_count} "
-                  f"| {t:.4f} | {tf} |", flush=True)
+            print(
+                f"| {len(str(n))} | {shape} | {form.to_list()} | {res.count} | {res.primitive_count} "
+                f"| {t:.4f} | {tf} |",
+                flush=True,
+            )
 
 
 def bench_primes(repeat: int, digit_list=(100, 300, 1000)) -> None:
@@ -128,8 +131,10 @@ def bench_primes(repeat: int, digit_list=(100, 300, 1000)) -> None:
                 assert form(*d.solution) == p
             t1 = median_time(lambda: prime_representation(form, p, method=method), repeat)
             t2 = median_time(lambda: prime_representation(form, p, method=method, assume_prime=True), repeat)
-            print(f"| {digits} | {form.to_list()} | {d.represented} | {d.method} | {1000 * t1:.2f} | {1000 * t2:.2f} |",
-                  flush=True)
+            print(
+                f"| {digits} | {form.to_list()} | {d.represented} | {d.method} | {1000 * t1:.2f} | {1000 * t2:.2f} |",
+                flush=True,
+            )
 
 
 def bench_sympy(repeat: int) -> None:
@@ -139,8 +144,8 @@ def bench_sympy(repeat: int) -> None:
         ((1, 0, 1), 10000121 * 11000149 * 12000253),
         ((2, 1, 3), (10**6 + 3) * 47),
         ((3, 2, 7), 20 * 1000003),
-        ((1, 0, 5), 1000000000061),                      # prime ≡ 1 (mod 20)
-        ((1, 1, 25001), 82821343 * 2506799),             # Q(1234, 57)·Q(77, 10), |D| ≈ 10^5
+        ((1, 0, 5), 1000000000061),  # prime ≡ 1 (mod 20)
+        ((1, 1, 25001), 82821343 * 2506799),  # Q(1234, 57)·Q(77, 10), |D| ≈ 10^5
         ((1, 0, 1), int(sympy.nextprime(10**20 + 10**10)) * 5),
     ]
     print("\n## formkit `represent` against `sympy.diophantine` (definite forms, same solution sets)")
@@ -161,15 +166,20 @@ def bench_sympy(repeat: int) -> None:
     eq = x**2 - 2 * y**2 - 7 * 17 * 23 * 31
     t1 = median_time(lambda: representation_orbits((1, 0, -2), 7 * 17 * 23 * 31), repeat, clear_caches)
     t2 = median_time(lambda: sympy.diophantine(eq, syms=(x, y)), repeat, clear_caches)
-    print(f"indefinite x^2 - 2y^2 = {7 * 17 * 23 * 31}: {len(representation_orbits((1, 0, -2), 7 * 17 * 23 * 31))} "
-          f"orbits; formkit {t1:.4f} s, sympy (parametric families) {t2:.4f} s, ratio {t2 / t1:.0f}")
+    print(
+        f"indefinite x^2 - 2y^2 = {7 * 17 * 23 * 31}: {len(representation_orbits((1, 0, -2), 7 * 17 * 23 * 31))} "
+        f"orbits; formkit {t1:.4f} s, sympy (parametric families) {t2:.4f} s, ratio {t2 / t1:.0f}"
+    )
 
 
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__, formatter_class=argparse.RawDescriptionHelpFormatter)
     ap.add_argument("--repeat", type=int, default=5)
-    ap.add_argument("--quick", action="store_true",
-                    help="one run each, skip the 1000-digit primes and the sympy factoring")
+    ap.add_argument(
+        "--quick",
+        action="store_true",
+        help="one run each, skip the 1000-digit primes and the sympy factoring",
+    )
     args = ap.parse_args()
     repeat = 1 if args.quick else args.repeat
     print(f"integer backend: {arith.BACKEND}; CPU time medians of {repeat} run(s)", flush=True)

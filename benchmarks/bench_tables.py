@@ -29,7 +29,7 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from formkit import build_table  # noqa: E402
+from formkit import build_table
 
 
 def cpu_seconds() -> float:
@@ -55,8 +55,11 @@ def measure(label: str, fn, repeat: int) -> dict:
         "load": (load0 + load1) / 2,
         "rows": getattr(result, "rows_written", None),
     }
-    print(f"{label:58s} wall {out['wall']:8.2f} s   cpu {out['cpu']:8.2f} s   "
-          f"rows {out['rows']}   load {out['load']:.1f}   (median of {repeat})", flush=True)
+    print(
+        f"{label:58s} wall {out['wall']:8.2f} s   cpu {out['cpu']:8.2f} s   "
+        f"rows {out['rows']}   load {out['load']:.1f}   (median of {repeat})",
+        flush=True,
+    )
     return out
 
 
@@ -98,26 +101,45 @@ def main() -> None:
     print(f"formkit table benchmark; cores: {os.cpu_count()}; python {sys.version.split()[0]}")
     print(f"load average at start: {os.getloadavg()}")
     cal = calibrate()
-    print(f"calibration: 2 parallel spinning processes take {cal:.2f}x the wall time of one "
-          "(1.0 = two free cores, 2.0 = no parallelism available)")
+    print(
+        f"calibration: 2 parallel spinning processes take {cal:.2f}x the wall time of one "
+        "(1.0 = two free cores, 2.0 = no parallelism available)"
+    )
     res = {}
-    common = dict(invariants=False, progress=False)
-    res["np1"] = measure(f"numpy,  [-10^6, -3], 1 worker", lambda: build_table(None, -N, -3, workers=1, **common), args.repeat)
-    res["np2"] = measure(f"numpy,  [-10^6, -3], 2 workers", lambda: build_table(None, -N, -3, workers=2, **common), args.repeat)
+    common = {"invariants": False, "progress": False}
+    res["np1"] = measure(
+        "numpy,  [-10^6, -3], 1 worker", lambda: build_table(None, -N, -3, workers=1, **common), args.repeat
+    )
+    res["np2"] = measure(
+        "numpy,  [-10^6, -3], 2 workers", lambda: build_table(None, -N, -3, workers=2, **common), args.repeat
+    )
 
     def to_db():
         with tempfile.TemporaryDirectory() as d:
             return build_table(os.path.join(d, "t.db"), -N, -3, workers=2, **common)
 
-    res["db2"] = measure(f"numpy,  [-10^6, -3], 2 workers, into SQLite", to_db, args.repeat)
+    res["db2"] = measure("numpy,  [-10^6, -3], 2 workers, into SQLite", to_db, args.repeat)
     if not args.skip_python:
-        res["py1"] = measure(f"python, [-10^6, -3], 1 worker", lambda: build_table(None, -N, -3, workers=1, engine="python", **common), 1)
-        res["py2"] = measure(f"python, [-10^6, -3], 2 workers", lambda: build_table(None, -N, -3, workers=2, engine="python", **common), 1)
+        res["py1"] = measure(
+            "python, [-10^6, -3], 1 worker",
+            lambda: build_table(None, -N, -3, workers=1, engine="python", **common),
+            1,
+        )
+        res["py2"] = measure(
+            "python, [-10^6, -3], 2 workers",
+            lambda: build_table(None, -N, -3, workers=2, engine="python", **common),
+            1,
+        )
     if args.invariants:
-        res["inv2"] = measure("with invariants, [-20000, -3], 2 workers",
-                              lambda: build_table(None, -20000, -3, workers=2, progress=False), 1)
+        res["inv2"] = measure(
+            "with invariants, [-20000, -3], 2 workers",
+            lambda: build_table(None, -20000, -3, workers=2, progress=False),
+            1,
+        )
     if args.big:
-        res["big2"] = measure("numpy,  [-10^7, -3], 2 workers", lambda: build_table(None, -10 * N, -3, workers=2, **common), 1)
+        res["big2"] = measure(
+            "numpy,  [-10^7, -3], 2 workers", lambda: build_table(None, -10 * N, -3, workers=2, **common), 1
+        )
 
     print()
     print("summary")
@@ -126,15 +148,23 @@ def main() -> None:
         if f"{key}1" not in res:
             continue
         w1, w2 = res[f"{key}1"]["wall"], res[f"{key}2"]["wall"]
-        print(f"  {key:6s} throughput per worker: 1 worker {nD / w1:12.0f} D/s, "
-              f"2 workers {nD / w2 / 2:12.0f} D/s per worker; speed-up 2 vs 1: {w1 / w2:.2f}x")
+        print(
+            f"  {key:6s} throughput per worker: 1 worker {nD / w1:12.0f} D/s, "
+            f"2 workers {nD / w2 / 2:12.0f} D/s per worker; speed-up 2 vs 1: {w1 / w2:.2f}x"
+        )
     print(f"  calibration at start: {cal:.2f}x; at end: {calibrate():.2f}x (see above)")
-    print(f"  goal [-10^6, -3] <= 30 s on 2 cores: {res['np2']['wall']:.2f} s "
-          f"({'met' if res['np2']['wall'] <= 30 else 'NOT met'})")
-    print(f"  SQLite store overhead (2 workers): {res['db2']['wall'] / res['np2']['wall']:.2f}x the in-memory run")
+    print(
+        f"  goal [-10^6, -3] <= 30 s on 2 cores: {res['np2']['wall']:.2f} s "
+        f"({'met' if res['np2']['wall'] <= 30 else 'NOT met'})"
+    )
+    print(
+        f"  SQLite store overhead (2 workers): {res['db2']['wall'] / res['np2']['wall']:.2f}x the in-memory run"
+    )
     if "py2" in res:
-        print(f"  numpy vs pure Python, 2 workers: {res['py2']['wall'] / res['np2']['wall']:.1f}x faster "
-              f"(cpu {res['py2']['cpu'] / res['np2']['cpu']:.1f}x)")
+        print(
+            f"  numpy vs pure Python, 2 workers: {res['py2']['wall'] / res['np2']['wall']:.1f}x faster "
+            f"(cpu {res['py2']['cpu'] / res['np2']['cpu']:.1f}x)"
+        )
     if "inv2" in res:
         r = res["inv2"]
         print(f"  with invariants: {r['rows'] / r['wall']:.0f} D/s on 2 workers")

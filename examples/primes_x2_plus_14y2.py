@@ -31,11 +31,11 @@ import sys
 
 import sympy
 
-from formkit.representation.class_polynomials import class_polynomial
-from formkit.representation.representations import represent
 from formkit.core.arith import kronecker
+from formkit.representation.class_polynomials import class_polynomial
 from formkit.representation.prime_criteria import prime_criterion, represented_primes
 from formkit.representation.prime_decision import primes_up_to
+from formkit.representation.representations import represent
 
 Q = (1, 0, 14)
 D = -56
@@ -59,7 +59,9 @@ def main(argv: list[str]) -> int:
     x = sympy.Symbol("x")
     disc = int(sympy.discriminant(sympy.Poly(list(H.coefficients), x)))
     bad_primes = sorted(sympy.factorint(abs(disc)))
-    print(f"Primes of the form x^2 + 14y^2 (D = {D}, h = {crit.class_number}, class order {crit.class_order})")
+    print(
+        f"Primes of the form x^2 + 14y^2 (D = {D}, h = {crit.class_number}, class order {crit.class_order})"
+    )
     print(f"criterion kind: {crit.kind}")
     print(f"H(x) = {H}")
     ver = H.verification
@@ -88,14 +90,18 @@ def main(argv: list[str]) -> int:
         if p % 2 and 56 % p and p not in bad_primes and kronecker(D, p) == 1 and H.root_count_mod(p) > 0
     ]
     listed_generic = [p for p in listed if p % 2 and 56 % p and p not in bad_primes]
-    print(f"check 2, class polynomial criterion (odd p not dividing 56*disc(H)): "
-          f"{'agrees' if by_poly == listed_generic else 'DISAGREES'} ({len(by_poly)} primes)")
+    print(
+        f"check 2, class polynomial criterion (odd p not dividing 56*disc(H)): "
+        f"{'agrees' if by_poly == listed_generic else 'DISAGREES'} ({len(by_poly)} primes)"
+    )
 
     residues = sorted({p % 56 for p in listed if 56 % p})
-    other = [p for p in brute_force_form((2, 0, 7), bound)]
+    other = list(brute_force_form((2, 0, 7), bound))
     shared = sorted({p % 56 for p in other if 56 % p})
-    print(f"check 3, genus: p mod 56 lies in {residues}; 2x^2 + 7y^2 gives the same classes: "
-          f"{'yes' if residues == shared else 'no'} -- so no congruence criterion exists")
+    print(
+        f"check 3, genus: p mod 56 lies in {residues}; 2x^2 + 7y^2 gives the same classes: "
+        f"{'yes' if residues == shared else 'no'} -- so no congruence criterion exists"
+    )
 
     # Cox's own form of the criterion for n = 14 (Primes of the Form x^2 + ny^2, the
     # introduction; quoted from memory): for odd p != 7, p = x^2 + 14y^2 iff (-14/p) = 1
@@ -103,13 +109,20 @@ def main(argv: list[str]) -> int:
     by_cox = [
         p
         for p in primes_up_to(bound)
-        if p % 2 and p != 7 and kronecker(-14, p) == 1 and any((t * t + 1) ** 2 % p == 8 % p for t in range(p))
+        if p % 2
+        and p != 7
+        and kronecker(-14, p) == 1
+        and any((t * t + 1) ** 2 % p == 8 % p for t in range(p))
     ]
-    print(f"check 4, (x^2 + 1)^2 = 8 (mod p) as in Cox: {'agrees' if by_cox == [p for p in listed if p % 2 and p != 7] else 'DISAGREES'}")
+    print(
+        f"check 4, (x^2 + 1)^2 = 8 (mod p) as in Cox: {'agrees' if by_cox == [p for p in listed if p % 2 and p != 7] else 'DISAGREES'}"
+    )
 
     total = len(primes_up_to(bound))
-    print(f"\ndensity: {len(listed)}/{total} = {len(listed) / total:.4f} of the primes up to {bound}; "
-          f"Chebotarev density {crit.density} = {float(crit.density):.4f}")
+    print(
+        f"\ndensity: {len(listed)}/{total} = {len(listed) / total:.4f} of the primes up to {bound}; "
+        f"Chebotarev density {crit.density} = {float(crit.density):.4f}"
+    )
     return 0
 
 

@@ -29,9 +29,9 @@ from __future__ import annotations
 import math
 import time
 
-from formkit.core.arith import factorint
 from formkit.classgroups.dispatch import class_group
 from formkit.classgroups.infrastructure import real_class_group, real_class_number
+from formkit.core.arith import factorint
 
 
 def squarefree(n: int) -> bool:
@@ -55,7 +55,9 @@ def main() -> None:
             ones_infra.append(m)
     print(f"   enumeration:    h = 1 for m in {ones_enum}")
     print(f"   infrastructure: h = 1 for m in {ones_infra}")
-    print(f"   Biro's theorem: h = 1 for m in [1, 2, 3, 5, 7, 13]: {verdict(ones_enum == ones_infra == [1, 2, 3, 5, 7, 13])}")
+    print(
+        f"   Biro's theorem: h = 1 for m in [1, 2, 3, 5, 7, 13]: {verdict(ones_enum == ones_infra == [1, 2, 3, 5, 7, 13])}"
+    )
 
     print("\n2. m = 10^k: class number and regulator")
     print(f"   {'k':>2} {'D':>24} {'h':>14} {'R':>12}  {'sqrt(D)/log(D)':>15}  time    check")
@@ -70,9 +72,15 @@ def main() -> None:
         r = real_class_number(D)
         dt = time.perf_counter() - t
         exact_R = math.log(2 * m + math.sqrt(D))
-        ok = abs(r.regulator - exact_R) < 1e-9 * exact_R and r.unit_norm == -1 and r.class_number == r.class_number_wide
-        print(f"   {k:>2} {D:>24} {r.class_number:>14} {r.regulator:>12.6f}  {math.sqrt(D) / math.log(D):>15.0f}"
-              f"  {dt:5.2f}s  {verdict(ok)}")
+        ok = (
+            abs(r.regulator - exact_R) < 1e-9 * exact_R
+            and r.unit_norm == -1
+            and r.class_number == r.class_number_wide
+        )
+        print(
+            f"   {k:>2} {D:>24} {r.class_number:>14} {r.regulator:>12.6f}  {math.sqrt(D) / math.log(D):>15.0f}"
+            f"  {dt:5.2f}s  {verdict(ok)}"
+        )
         last = r
     if last is not None:
         print(f"   how: {last.provenance}")
@@ -81,12 +89,18 @@ def main() -> None:
     D = 4 * 10**8 + 1
     E = class_group(D, method="enumerate")
     G = real_class_group(D)
-    print(f"   D = {D}: enumeration {E.structure}, infrastructure {G.structure}: {verdict(E.invariants == G.invariants)}")
+    print(
+        f"   D = {D}: enumeration {E.structure}, infrastructure {G.structure}: {verdict(E.invariants == G.invariants)}"
+    )
     D = 4 * 10**18 + 1
     G = real_class_group(D)
     gens_ok = [g.order for g in G.generators] == list(G.invariants)
-    print(f"   D = {D}: {G.structure} (order {G.order}); generators have the stated orders: {verdict(gens_ok)}")
-    print(f"   how: {G.provenance.method}, conditional on {G.provenance.assumption} (bound {G.provenance.bound})")
+    print(
+        f"   D = {D}: {G.structure} (order {G.order}); generators have the stated orders: {verdict(gens_ok)}"
+    )
+    print(
+        f"   how: {G.provenance.method}, conditional on {G.provenance.assumption} (bound {G.provenance.bound})"
+    )
 
 
 if __name__ == "__main__":

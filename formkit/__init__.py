@@ -26,29 +26,41 @@ import sys as _sys
 if hasattr(_sys, "set_int_max_str_digits"):
     _sys.set_int_max_str_digits(0)
 
-from ._version import __version__  # noqa: E402
-from .errors import *  # noqa: F401,F403,E402
-from .errors import __all__ as _errors_all  # noqa: E402
-from .core import *  # noqa: F401,F403,E402
-from .core import __all__ as _core_all  # noqa: E402
-from .analytic import *  # noqa: F401,F403,E402
-from .analytic import __all__ as _analytic_all  # noqa: E402
-from .classgroups import *  # noqa: F401,F403,E402
-from .classgroups import __all__ as _classgroups_all  # noqa: E402
-from .representation import *  # noqa: F401,F403,E402
-from .representation import __all__ as _representation_all  # noqa: E402
-from .tables import *  # noqa: F401,F403,E402
-from .tables import __all__ as _tables_all  # noqa: E402
-from .explain import *  # noqa: F401,F403,E402
-from .explain import __all__ as _explain_all  # noqa: E402
+from ._version import __version__
+from .analytic import *  # noqa: F403
+from .analytic import __all__ as _analytic_all
+from .classgroups import *  # noqa: F403
+from .classgroups import __all__ as _classgroups_all
+from .core import *  # noqa: F403
+from .core import __all__ as _core_all
+from .errors import *  # noqa: F403
+from .errors import __all__ as _errors_all
+from .explain import *  # noqa: F403
+from .explain import __all__ as _explain_all
+from .representation import *  # noqa: F403
+from .representation import __all__ as _representation_all
+from .tables import *  # noqa: F403
+from .tables import __all__ as _tables_all
 
 # The graph layer needs networkx, which takes a noticeable time to import; its names
 # are loaded on first use (PEP 562) so that `import formkit` and the CLI stay quick.
 # tests/test_package.py checks that this list equals formkit.graphs.__all__.
 _graphs_all = [
-    "usable_primes", "generating_primes", "cayley_graph", "cycle_graph", "fibre_graph",
-    "generated_subgroup", "cycle_lengths", "prime_orders", "genus_label", "node_label",
-    "graph_to_json", "graph_from_json", "graph_to_graphml", "graph_to_dot", "graph_title",
+    "usable_primes",
+    "generating_primes",
+    "cayley_graph",
+    "cycle_graph",
+    "fibre_graph",
+    "generated_subgroup",
+    "cycle_lengths",
+    "prime_orders",
+    "genus_label",
+    "node_label",
+    "graph_to_json",
+    "graph_from_json",
+    "graph_to_graphml",
+    "graph_to_dot",
+    "graph_title",
     "GRAPH_KINDS",
 ]
 

@@ -21,10 +21,9 @@ no formkit function except the ``Form`` value type for convenience at the call s
 from __future__ import annotations
 
 import math
-from functools import lru_cache
+from functools import cache
 
 import _foundation_strategies as _fs
-
 
 # ---------------------------------------------------------------------------
 # number theory helpers (plain Python)
@@ -110,10 +109,10 @@ def brute_reduced_indefinite(D: int) -> list[tuple[int, int, int]]:
 
 def rho(f: tuple[int, int, int], D: int) -> tuple[int, int, int]:
     """The reduction operator: ``(a, b, c) -> (c, b', ·)``, ``b' ≡ −b (mod 2|c|)`` normalised."""
-    a, b, c = f
+    _a, b, c = f
     s = math.isqrt(D)
     C = abs(c)
-    if C > s:
+    if s < C:
         # -|c| < b' <= |c|
         bp = (-b) % (2 * C)
         if bp > C:
@@ -149,7 +148,7 @@ def reduce_definite(f: tuple[int, int, int]) -> tuple[int, int, int]:
         return (a, b, c)
 
 
-@lru_cache(maxsize=None)
+@cache
 def indefinite_cycles(D: int) -> dict[tuple[int, int, int], int]:
     """Map every reduced form of D > 0 to the index of its ρ-cycle (cycles numbered from 0)."""
     index: dict[tuple[int, int, int], int] = {}
@@ -196,7 +195,7 @@ def _with_positive_a(f: tuple[int, int, int]) -> tuple[int, int, int]:
             v = a * x * x + b * x * y + c * y * y
             if v > 0:
                 # M = [[x, r], [y, s]] with xs − ry = 1
-                g, s0, r0 = _egcd(x, y)  # x*s0 + y*r0 = 1
+                _g, s0, r0 = _egcd(x, y)  # x*s0 + y*r0 = 1
                 p, q, r, s = x, -r0, y, s0
                 return (
                     a * p * p + b * p * r + c * r * r,
@@ -341,7 +340,7 @@ class BruteGroup:
             pparts[p] = sorted(p**v for v in vals)
         rank = max((len(v) for v in pparts.values()), default=0)
         inv = [1] * rank
-        for p, powers in pparts.items():
+        for powers in pparts.values():
             powers = [1] * (rank - len(powers)) + powers
             inv = [x * y for x, y in zip(inv, powers)]
         return tuple(inv)

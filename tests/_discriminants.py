@@ -29,11 +29,14 @@ def built_discriminant(rng, primes_wanted, digits, sign):
     """A fundamental ``D = sign·∏ p_i`` (times 4 when that is ≡ 3 mod 4) and its factorisation;
     the primes are seeded by ``rng`` (sympy.nextprime of random integers)."""
     while True:
-        ps = [int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1)))) for _ in range(primes_wanted)]
+        ps = [
+            int(nextprime(rng.randrange(10 ** (digits - 1), 9 * 10 ** (digits - 1))))
+            for _ in range(primes_wanted)
+        ]
         if len(set(ps)) < primes_wanted:
             continue
         n = sign * math.prod(ps)
-        fac = {p: 1 for p in ps}
+        fac = dict.fromkeys(ps, 1)
         if n % 4 == 1:
             return n, fac
         fac[2] = 2

@@ -11,8 +11,6 @@ import subprocess
 import sys
 from pathlib import Path
 
-import pytest
-
 ROOT = Path(__file__).resolve().parent.parent
 EXAMPLES = ROOT / "examples"
 
@@ -110,7 +108,9 @@ def test_real_fields_beyond_enumeration():
     # Biró (2003), Chowla's conjecture (from memory): h(4m²+1) = 1 only for m = 1, 2, 3, 5, 7, 13
     assert "Biro's theorem: h = 1 for m in [1, 2, 3, 5, 7, 13]: agrees" in out
     # every m = 10^k row: R = log(2m + √D) exactly and N(ε) = −1 (the unit 2m + √D)
-    rows = [ln for ln in out.splitlines() if ln.strip().endswith("agrees") and ln.strip()[:2].strip().isdigit()]
+    rows = [
+        ln for ln in out.splitlines() if ln.strip().endswith("agrees") and ln.strip()[:2].strip().isdigit()
+    ]
     assert len(rows) >= 6
     # enumeration and the infrastructure give the same group at D = 4·10^8 + 1
     assert "D = 400000001: enumeration C1584, infrastructure C1584: agrees" in out

@@ -109,7 +109,7 @@ def layer_problems(graph: nx.DiGraph, layers=LAYERS) -> list:
     for component in nx.strongly_connected_components(graph):
         if len(component) > 1:
             problems.append("import circle: " + " <-> ".join(sorted(component)))
-    for a, b in nx.selfloop_edges(graph):
+    for a, _b in nx.selfloop_edges(graph):
         problems.append(f"{a} imports itself")
     return problems
 
@@ -128,7 +128,9 @@ def test_no_dynamic_imports():
             if isinstance(node, ast.Call):
                 f = node.func
                 called = f.attr if isinstance(f, ast.Attribute) else getattr(f, "id", None)
-                assert called not in ("import_module", "__import__"), f"dynamic import in {name}, line {node.lineno}"
+                assert called not in ("import_module", "__import__"), (
+                    f"dynamic import in {name}, line {node.lineno}"
+                )
 
 
 def test_the_check_finds_upward_imports_and_circles(tmp_path):

@@ -55,7 +55,9 @@ def test_no_two_modules_export_one_name_for_different_objects():
     # a star import would silently let the later module win (this caught a clash once)
     owners = {}
     names = list(_library_modules())
-    assert "formkit.core.forms" in names and "formkit.classgroups" in names  # the walk reaches the subpackages
+    assert (
+        "formkit.core.forms" in names and "formkit.classgroups" in names
+    )  # the walk reaches the subpackages
     for name_of_module in names:
         module = importlib.import_module(name_of_module)
         for name in getattr(module, "__all__", ()):

@@ -13,13 +13,13 @@ This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names
 are re-exported by :mod:`formkit`.
 """
 
-from .averages import *  # noqa: F401,F403
+from .averages import *  # noqa: F403
 from .averages import __all__ as _averages_all
-from .class_number_formula import *  # noqa: F401,F403
+from .class_number_formula import *  # noqa: F403
 from .class_number_formula import __all__ as _formula_all
-from .j_function import *  # noqa: F401,F403
+from .j_function import *  # noqa: F403
 from .j_function import __all__ as _j_all
-from .lseries import *  # noqa: F401,F403
+from .lseries import *  # noqa: F403
 from .lseries import __all__ as _lseries_all
 
 __all__ = [*_formula_all, *_averages_all, *_lseries_all, *_j_all]

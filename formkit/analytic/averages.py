@@ -29,9 +29,9 @@ from typing import Any
 
 from ..core.arith import as_int, isqrt, kronecker
 from ..core.discriminants import unit_count, validate_discriminant
-from ..errors import FormError, FormkitError
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.reduction import reduced
+from ..errors import FormError, FormkitError
 
 __all__ = [
     "LatticeCount",
@@ -135,7 +135,9 @@ def lattice_point_count(form: FormLike, X: object, *, digits: int = 30) -> Latti
     D = _require_nonsquare(Q, "counting lattice points")
     X = as_int(X, "X")
     if not Q.is_positive_definite:
-        raise FormError(f"lattice points are counted in the ellipse of a positive definite form; {Q!r} is {Q.kind}")
+        raise FormError(
+            f"lattice points are counted in the ellipse of a positive definite form; {Q!r} is {Q.kind}"
+        )
     if X < 0:
         raise FormkitError(f"the bound X must be ≥ 0, not {X}")
     R = reduced(Q)

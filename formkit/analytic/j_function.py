@@ -126,7 +126,7 @@ def j_invariant(tau: object, *, digits: int = 30):
         if isinstance(tau, Form):
             if not tau.is_positive_definite:
                 raise FormError(f"j_invariant needs a positive definite form, not {tau!r}")
-            a, b, c = _reduce_definite_raw(tau.a, tau.b, tau.c)
+            a, b, _c = _reduce_definite_raw(tau.a, tau.b, tau.c)
             value = _j_of_form(a, b, tau.discriminant)
         else:
             try:

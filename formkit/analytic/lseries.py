@@ -74,7 +74,6 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 from functools import lru_cache
-from typing import Dict, Optional, Tuple
 
 from ..core.arith import as_int, factorint, isqrt, kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
@@ -231,7 +230,7 @@ def _characters_numpy(d: int, primes):
 class _Sum:
     """A float sum with the data for its rounding bound ``(M + 10)·2^-52·Σ|t|``."""
 
-    __slots__ = ("value", "magnitude", "count")
+    __slots__ = ("count", "magnitude", "value")
 
     def __init__(self) -> None:
         self.value, self.magnitude, self.count = 0.0, 0.0, 0
@@ -246,7 +245,7 @@ class _Sum:
         return (self.count + 10) * _ULP * self.magnitude
 
 
-def _sums(d: int, P: int, backend: Optional[str] = None) -> Tuple[_Sum, Dict[float, _Sum], int]:
+def _sums(d: int, P: int, backend: str | None = None) -> tuple[_Sum, dict[float, _Sum], int]:
     """``S(x)`` with ``x = P/2`` and ``Σ_{p^k ≤ N} χ(p)^k·log p·p^(−kσ)`` for σ in SIGMAS."""
     kind, primes = _primes_upto(P)
     x = P / 2
@@ -303,7 +302,7 @@ def _digamma(v: float) -> float:
     return float(mpmath.digamma(v))
 
 
-def _zero_sum_bound(q: int, odd: bool, T: Dict[float, _Sum], N: int) -> Tuple[float, float]:
+def _zero_sum_bound(q: int, odd: bool, T: dict[float, _Sum], N: int) -> tuple[float, float]:
     """``(Z, σ)`` with ``Σ_ρ 1/(¼ + γ²) ≤ Z`` under GRH (docs/l_value_interval.md, Lemma 3)."""
     a = 1 if odd else 0
     best = (math.inf, 0.0)
@@ -312,7 +311,7 @@ def _zero_sum_bound(q: int, odd: bool, T: Dict[float, _Sum], N: int) -> Tuple[fl
         log_derivative_upper = -part.value + part.rounding + tail
         xi = 0.5 * math.log(q / math.pi) + 0.5 * _digamma((s + a) / 2) + log_derivative_upper
         Z = 4 * (s - 0.5) * xi * (1 + 1e-12) + 1e-12
-        if Z < best[0]:
+        if best[0] > Z:
             best = (Z, s)
     if not best[0] > 0:  # pragma: no cover - Σ_ρ is positive, so a bound ≤ 0 is an error
         raise ArithmeticError(f"bound {best[0]} for a sum of positive terms (q = {q})")
@@ -333,7 +332,9 @@ def _conductor_factor_upper(f: int) -> float:
     return out
 
 
-def l_value_estimate(D: object, prime_bound: Optional[int] = None, *, backend: Optional[str] = None) -> LValueEstimate:
+def l_value_estimate(
+    D: object, prime_bound: int | None = None, *, backend: str | None = None
+) -> LValueEstimate:
     """``L(1, χ_D)`` with an explicit error interval, valid under GRH.
 
     Parameters
@@ -398,7 +399,7 @@ def _unit_count(D: int) -> int:
     return {-3: 6, -4: 4}.get(D, 2) if D < 0 else 2
 
 
-def class_number_estimate(D: object, prime_bound: Optional[int] = None) -> ClassNumberEstimate:
+def class_number_estimate(D: object, prime_bound: int | None = None) -> ClassNumberEstimate:
     """Analytic estimate of ``h(D)`` (``D < 0``) or of ``h(D)·R(D)`` (``D > 0``), with an
     interval valid under GRH.
 
@@ -440,7 +441,12 @@ def class_number_estimate(D: object, prime_bound: Optional[int] = None) -> Class
         return ClassNumberEstimate(D, scale * L.value, lo, hi, math.floor(scale * L.proven_upper) + 1, L)
     scale = math.sqrt(D) / 2
     return ClassNumberEstimate(
-        D, scale * L.value, scale * L.lower * (1 - 1e-12), scale * L.upper * (1 + 1e-12), scale * L.proven_upper, L
+        D,
+        scale * L.value,
+        scale * L.lower * (1 - 1e-12),
+        scale * L.upper * (1 + 1e-12),
+        scale * L.proven_upper,
+        L,
     )
 
 
@@ -476,4 +482,4 @@ def class_number_upper_bound(D: object) -> int:
     value = (
         _unit_count(D) * math.sqrt(-D) * (2.0 + math.log(-d_K)) * _conductor_factor_upper(f) / (2 * math.pi)
     )
-    return int(math.ceil(value * (1 + 1e-9))) + 1
+    return math.ceil(value * (1 + 1e-9)) + 1

@@ -18,21 +18,27 @@ This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formki
 the names below are re-exported by :mod:`formkit`.
 """
 
-from .baby_step_giant_step import *  # noqa: F401,F403
+from .baby_step_giant_step import *  # noqa: F403
 from .baby_step_giant_step import __all__ as _bsgs_all
-from .dispatch import *  # noqa: F401,F403
+from .dispatch import *  # noqa: F403
 from .dispatch import __all__ as _dispatch_all
-from .genus import *  # noqa: F401,F403
+from .genus import *  # noqa: F403
 from .genus import __all__ as _genus_all
-from .group import *  # noqa: F401,F403
+from .group import *  # noqa: F403
 from .group import __all__ as _group_all
-from .infrastructure import *  # noqa: F401,F403
+from .infrastructure import *  # noqa: F403
 from .infrastructure import __all__ as _infrastructure_all
-from .orders import *  # noqa: F401,F403
+from .orders import *  # noqa: F403
 from .orders import __all__ as _orders_all
-from .principal_genus_theorem import *  # noqa: F401,F403
+from .principal_genus_theorem import *  # noqa: F403
 from .principal_genus_theorem import __all__ as _theorem_all
 
 __all__ = [
-    *_group_all, *_dispatch_all, *_genus_all, *_theorem_all, *_orders_all, *_bsgs_all, *_infrastructure_all,
+    *_group_all,
+    *_dispatch_all,
+    *_genus_all,
+    *_theorem_all,
+    *_orders_all,
+    *_bsgs_all,
+    *_infrastructure_all,
 ]

@@ -29,15 +29,14 @@ References
 from __future__ import annotations
 
 import math
-from typing import Dict, List, Optional, Tuple
 
-from ..core.modular_roots import crt
 from ..core.arith import factorint, invert, isqrt
+from ..core.modular_roots import crt
 from ..errors import FormkitError
 
-__all__: List[str] = []
+__all__: list[str] = []
 
-Triple = Tuple[int, int, int]
+Triple = tuple[int, int, int]
 
 #: Largest ℓ-torsion table (number of entries) built for ℓ-adic discrete logarithms.
 TORSION_TABLE_LIMIT = 1 << 16
@@ -48,7 +47,7 @@ BABY_STEP_LIMIT = 1 << 24
 class BSGSStatistics:
     """Counters of one computation: group operations, baby and giant steps."""
 
-    __slots__ = ("operations", "baby_steps", "giant_steps", "searches", "generators_used")
+    __slots__ = ("baby_steps", "generators_used", "giant_steps", "operations", "searches")
 
     def __init__(self) -> None:
         self.operations = 0
@@ -65,7 +64,7 @@ class BSGSStatistics:
         return "BSGSStatistics(" + ", ".join(f"{k}={getattr(self, k)}" for k in self.__slots__) + ")"
 
 
-def _order_from_multiple(ops, x: Triple, k: int, factors: Optional[dict] = None) -> Tuple[int, dict]:
+def _order_from_multiple(ops, x: Triple, k: int, factors: dict | None = None) -> tuple[int, dict]:
     """The exact order of ``x`` given ``x^k = 1``; returns ``(order, factorisation)``."""
     fac = dict(factorint(k) if factors is None else factors)
     n = k
@@ -86,9 +85,9 @@ class _Sylow:
     def __init__(self, ops, ell: int) -> None:
         self.ops = ops
         self.ell = ell
-        self.basis: List[Triple] = []
-        self.exps: List[int] = []
-        self._tables: Dict[int, object] = {}
+        self.basis: list[Triple] = []
+        self.exps: list[int] = []
+        self._tables: dict[int, object] = {}
 
     @property
     def order(self) -> int:
@@ -112,7 +111,7 @@ class _Sylow:
         ops, ell = self.ops, self.ell
         hs = [ops.pow(b, ell ** (c - 1)) for b, c in zip(self.basis[t:], self.exps[t:])]
         r = len(hs)
-        if ell ** r <= TORSION_TABLE_LIMIT:
+        if ell**r <= TORSION_TABLE_LIMIT:
             table = {ops.one: (0,) * r}
             for i, h in enumerate(hs):
                 new = {}
@@ -136,9 +135,7 @@ class _Sylow:
                 head = new
             m = isqrt(ell) + 1
             if len(head) * m > BABY_STEP_LIMIT:
-                raise FormkitError(
-                    f"ℓ-torsion of rank {r} at ℓ = {ell} is too large for this implementation"
-                )
+                raise FormkitError(f"ℓ-torsion of rank {r} at ℓ = {ell} is too large for this implementation")
             last = hs[-1]
             baby = {}
             for elt, vec in head.items():
@@ -150,7 +147,7 @@ class _Sylow:
         self._tables[t] = solver
         return solver
 
-    def _torsion_log(self, t: int, w: Triple) -> Optional[Tuple[int, ...]]:
+    def _torsion_log(self, t: int, w: Triple) -> tuple[int, ...] | None:
         kind, data = self._torsion_solver(t)
         if kind == "table":
             return data.get(w)  # type: ignore[union-attr]
@@ -164,7 +161,7 @@ class _Sylow:
             y = self.ops.mul(y, giant)
         return None
 
-    def dlog(self, x: Triple) -> Optional[List[int]]:
+    def dlog(self, x: Triple) -> list[int] | None:
         """Exponents ``e`` with ``x = ∏ b_i^{e_i}``, or None if ``x`` is not in the subgroup."""
         ops, ell = self.ops, self.ell
         r = len(self.basis)
@@ -253,7 +250,7 @@ class _Sylow:
 class _Structure:
     """Result of the Sylow-basis computation: invariants, generators, dlog."""
 
-    def __init__(self, ops, syl: Dict[int, _Sylow]) -> None:
+    def __init__(self, ops, syl: dict[int, _Sylow]) -> None:
         self.ops = ops
         self.syl = {ell: S for ell, S in sorted(syl.items()) if S.basis}
         self.order = 1
@@ -277,10 +274,10 @@ class _Structure:
             m = n // q
             self.projectors[ell] = (m * int(invert(m % q, q))) % n if q > 1 else 0
 
-    def dlog(self, x: Triple) -> Tuple[int, ...]:
+    def dlog(self, x: Triple) -> tuple[int, ...]:
         ops, k = self.ops, self.rank
-        residues: List[List[int]] = [[] for _ in range(k)]
-        moduli: List[List[int]] = [[] for _ in range(k)]
+        residues: list[list[int]] = [[] for _ in range(k)]
+        moduli: list[list[int]] = [[] for _ in range(k)]
         for ell, S in self.syl.items():
             v = S.dlog(ops.pow(x, self.projectors[ell]))
             if v is None:
@@ -296,5 +293,3 @@ class _Structure:
         for r, m in zip(residues, moduli):
             out.append(int(crt(r, m)[0]) if len(r) > 1 else int(r[0]) % m[0])
         return tuple(out)
-
-

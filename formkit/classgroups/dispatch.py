@@ -11,8 +11,6 @@ Every result says how it was obtained (:class:`formkit.classgroups.group.Provena
 
 from __future__ import annotations
 
-from typing import Dict
-
 from ..core.discriminants import validate_discriminant
 from ..errors import FormkitError
 from .group import ClassGroup
@@ -27,12 +25,14 @@ __all__ = [
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
 #: (about √|D| work); above it the baby-step giant-step path of
 #: :mod:`formkit.classgroups.baby_step_giant_step` is used when present.
-ENUMERATION_LIMIT = 10**11  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
+ENUMERATION_LIMIT = (
+    10**11
+)  # benchmarks/bench_large_discriminants.py: enumeration ≈ 2 s CPU here (unconditional), 13.6 s at 10^12; bsgs < 0.2 s
 #: For D > 0, ``method="auto"`` enumerates up to this D (about 2 s here at 10^9, 10 s at
 #: 10^10, 3 min at 10^12) and uses :func:`formkit.classgroups.infrastructure.real_class_group` above.
 REAL_ENUMERATION_LIMIT = 10**9
 
-_GROUP_CACHE: Dict[int, ClassGroup] = {}
+_GROUP_CACHE: dict[int, ClassGroup] = {}
 
 
 def _infrastructure_path(D: int, method: str) -> bool:
@@ -148,23 +148,35 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
         from .infrastructure import real_class_number
 
         r = real_class_number(D)
-        out = {"discriminant": D, "class_number": r.class_number, "class_number_wide": r.class_number_wide,
-               "regulator": r.regulator, "fundamental_unit_norm": r.unit_norm}
+        out = {
+            "discriminant": D,
+            "class_number": r.class_number,
+            "class_number_wide": r.class_number_wide,
+            "regulator": r.regulator,
+            "fundamental_unit_norm": r.unit_norm,
+        }
         out.update(r.provenance.to_dict())
     else:
         G = class_group(D, method)
         out = {"discriminant": D, "class_number": G.order}
         if D > 0:
             full = G.to_dict()
-            out.update(class_number_wide=full["class_number_wide"], regulator=full["regulator"],
-                       fundamental_unit_norm=full["fundamental_unit_norm"])
+            out.update(
+                class_number_wide=full["class_number_wide"],
+                regulator=full["regulator"],
+                fundamental_unit_norm=full["fundamental_unit_norm"],
+            )
         out.update(G.provenance.to_dict())
     if interval:
         from ..analytic.lseries import class_number_estimate, default_prime_bound
 
         est = class_number_estimate(D, max(default_prime_bound(D), min(2 * 10**6, abs(D))))
         out["analytic_interval"] = {
-            "of": "h" if D < 0 else "h*R", "lower": est.lower, "upper": est.upper,
-            "estimate": est.estimate, "prime_bound": est.l_value.prime_bound, "assumption": est.assumption,
+            "of": "h" if D < 0 else "h*R",
+            "lower": est.lower,
+            "upper": est.upper,
+            "estimate": est.estimate,
+            "prime_bound": est.l_value.prime_bound,
+            "assumption": est.assumption,
         }
     return out

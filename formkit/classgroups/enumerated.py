@@ -17,26 +17,26 @@ References
 
 from __future__ import annotations
 
-from typing import Callable, Dict, Iterator, Sequence, Tuple
+from collections.abc import Callable, Iterator, Sequence
 
 from ..core.arith import isqrt, kronecker
-from .group import ENUMERATED, ClassGroup, Triple
 from ..core.composition import _compose_raw
 from ..core.enumeration import _cycles_cached, _reduced_forms_cached
-from ..errors import FormkitError
 from ..core.forms import Form
 from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from ..errors import FormkitError
+from .group import ENUMERATED, ClassGroup, Triple
 
 __all__ = ["class_group_enumerated"]
 
 
-
-
 def _canonical_function(D: int) -> Callable[[Triple], Triple]:
     if D < 0:
+
         def canon(x: Triple) -> Triple:
             a, b, c = _reduce_definite_raw(*x)
             return (int(a), int(b), int(c))
+
         return canon
     _reps, index = _cycles_cached(D)
     sq = int(isqrt(D))
@@ -48,7 +48,9 @@ def _canonical_function(D: int) -> Callable[[Triple], Triple]:
     return canon_pos
 
 
-def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]) -> Iterator[Triple]:
+def _candidate_generators(
+    D: int, canon: Callable[[Triple], Triple], forms: Sequence[Triple]
+) -> Iterator[Triple]:
     from ..core.arith import next_prime
 
     p = 2
@@ -67,7 +69,7 @@ def _candidate_generators(D: int, canon: Callable[[Triple], Triple], forms: Sequ
 
 def _structure_from_table(
     D: int, forms: Sequence[Triple], canon: Callable[[Triple], Triple], identity: Triple
-) -> tuple[tuple[int, ...], tuple[Triple, ...], Callable[[Triple], Tuple[int, ...]]]:
+) -> tuple[tuple[int, ...], tuple[Triple, ...], Callable[[Triple], tuple[int, ...]]]:
     from sympy import Matrix
     from sympy.matrices.normalforms import smith_normal_decomp
 
@@ -76,7 +78,7 @@ def _structure_from_table(
     def mul(x: Triple, y: Triple) -> Triple:
         return canon(_compose_raw(*x, *y, D))
 
-    table: Dict[Triple, Tuple[int, ...]] = {identity: ()}
+    table: dict[Triple, tuple[int, ...]] = {identity: ()}
     gens: list[Triple] = []
     rels: list[list[int]] = []
     for g in _candidate_generators(D, canon, forms):
@@ -94,7 +96,7 @@ def _structure_from_table(
         rels = [r + [0] for r in rels]
         rels.append([-v for v in vec] + [m])
         gens.append(g)
-        new_table: Dict[Triple, Tuple[int, ...]] = {}
+        new_table: dict[Triple, tuple[int, ...]] = {}
         for y, v in table.items():
             for j in range(m):
                 new_table[mul(y, powers[j]) if j else y] = v + (j,)
@@ -135,7 +137,7 @@ def _structure_from_table(
         new_gens.append(y)
     Vint = [[int(V[i, j]) for j in range(k)] for i in range(k)]
 
-    def dlog(x: Triple) -> Tuple[int, ...]:
+    def dlog(x: Triple) -> tuple[int, ...]:
         v = table[x]
         return tuple(sum(v[i] * Vint[i][j] for i in range(k)) % invariants[t] for t, j in enumerate(keep))
 

@@ -46,14 +46,14 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass
-from typing import Iterable, Optional, Tuple
 
-from ..core.modular_roots import crt
 from ..core.arith import factorint, gcd, kronecker
 from ..core.discriminants import validate_discriminant
-from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.modular_roots import crt
+from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 
 __all__ = [
     "GenusCharacter",
@@ -112,8 +112,7 @@ class GenusCharacter:
         n = int(n)
         if n % self.prime == 0:
             raise FormkitError(
-                f"the genus character {self.name} is evaluated at integers prime to "
-                f"{self.prime}; {n} is not"
+                f"the genus character {self.name} is evaluated at integers prime to {self.prime}; {n} is not"
             )
         if self.kind == "odd prime":
             return kronecker(n, self.prime)
@@ -129,7 +128,7 @@ class GenusCharacter:
         return f"GenusCharacter({self.name})"
 
 
-def _two_adic_kinds(D: int) -> Tuple[str, ...]:
+def _two_adic_kinds(D: int) -> tuple[str, ...]:
     if D % 4 == 1:
         return ()
     m = (D // 4) % 8
@@ -145,7 +144,7 @@ def _two_adic_kinds(D: int) -> Tuple[str, ...]:
     }[m]
 
 
-def assigned_characters(D: object) -> Tuple[GenusCharacter, ...]:
+def assigned_characters(D: object) -> tuple[GenusCharacter, ...]:
     """The assigned characters of the discriminant ``D`` (odd primes first, then 2).
 
     See the module docstring for the table at 2 (Cox, *Primes of the Form x² + ny²*,
@@ -200,7 +199,7 @@ def _primitive_form(form: FormLike, what: str) -> Form:
     return f
 
 
-def value_prime_to(form: FormLike, M: object) -> Tuple[int, int, int]:
+def value_prime_to(form: FormLike, M: object) -> tuple[int, int, int]:
     """A value ``m = Q(x, y)`` of a primitive form with ``gcd(m, M) = 1``: ``(m, x, y)``.
 
     Small pairs ``(x, y)`` are tried first; otherwise ``(x, y)`` is built by the Chinese
@@ -252,7 +251,7 @@ def value_prime_to(form: FormLike, M: object) -> Tuple[int, int, int]:
     return m, x, y
 
 
-def genus_symbol(form: FormLike) -> Tuple[int, ...]:
+def genus_symbol(form: FormLike) -> tuple[int, ...]:
     """The genus symbol ``(χ_1(m), …, χ_μ(m))`` of a primitive form.
 
     ``m`` is a value of the form prime to ``D`` (:func:`value_prime_to`) and the
@@ -305,8 +304,8 @@ def same_genus(F: FormLike, G: FormLike) -> bool:
 class Genus:
     """One genus: its symbol and the reduced forms of its classes."""
 
-    symbol: Tuple[int, ...]
-    forms: Tuple[Form, ...]
+    symbol: tuple[int, ...]
+    forms: tuple[Form, ...]
 
     @property
     def is_principal(self) -> bool:
@@ -330,8 +329,8 @@ class GenusPartition:
     """
 
     discriminant: int
-    characters: Tuple[GenusCharacter, ...]
-    genera: Tuple[Genus, ...]
+    characters: tuple[GenusCharacter, ...]
+    genera: tuple[Genus, ...]
 
     @property
     def count(self) -> int:
@@ -388,13 +387,13 @@ class GenusPartition:
         )
 
 
-def _class_forms(D: int) -> Tuple[Form, ...]:
+def _class_forms(D: int) -> tuple[Form, ...]:
     from ..core.enumeration import class_representatives
 
     return tuple(class_representatives(D))
 
 
-def genera(D: object, forms: Optional[Iterable[FormLike]] = None) -> GenusPartition:
+def genera(D: object, forms: Iterable[FormLike] | None = None) -> GenusPartition:
     """Sort the classes of discriminant ``D`` into genera by their genus symbols.
 
     Parameters
@@ -430,7 +429,7 @@ def genera(D: object, forms: Optional[Iterable[FormLike]] = None) -> GenusPartit
     chars = assigned_characters(D)
     if forms is None:
         forms = _class_forms(D)
-    groups: dict[Tuple[int, ...], list[Form]] = {}
+    groups: dict[tuple[int, ...], list[Form]] = {}
     for item in forms:
         f = as_form(item)
         if f.discriminant != D:

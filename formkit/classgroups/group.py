@@ -24,14 +24,14 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
-from typing import Callable, Iterator, Optional, Sequence, Tuple
 
 from ..core.arith import as_int, lcm, mpz
 from ..core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
 from ..core.discriminants import discriminant_parts, fundamental_unit
-from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 from ..core.forms import Form, FormLike, as_form
+from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 
 __all__ = [
     "Provenance",
@@ -39,7 +39,7 @@ __all__ = [
     "ClassGroupElement",
 ]
 
-Triple = Tuple[int, int, int]
+Triple = tuple[int, int, int]
 
 
 @dataclass(frozen=True)
@@ -54,8 +54,8 @@ class Provenance:
 
     method: str
     certified: bool
-    assumption: Optional[str] = None
-    bound: Optional[int] = None
+    assumption: str | None = None
+    bound: int | None = None
     detail: str = ""
 
     def __str__(self) -> str:
@@ -95,9 +95,9 @@ class ClassGroupElement:
     (ClassGroupElement(Form(2, -1, 3), D=-23), True, 3)
     """
 
-    __slots__ = ("_group", "_form")
+    __slots__ = ("_form", "_group")
 
-    def __init__(self, group: "ClassGroup", form: Triple) -> None:
+    def __init__(self, group: ClassGroup, form: Triple) -> None:
         object.__setattr__(self, "_group", group)
         object.__setattr__(self, "_form", form)
 
@@ -105,7 +105,7 @@ class ClassGroupElement:
         raise AttributeError("ClassGroupElement is immutable")
 
     @property
-    def group(self) -> "ClassGroup":
+    def group(self) -> ClassGroup:
         """The class group this element belongs to."""
         return self._group
 
@@ -114,7 +114,7 @@ class ClassGroupElement:
         """The canonical reduced form of the class."""
         return Form(*self._form)
 
-    def _check(self, other: object) -> "ClassGroupElement":
+    def _check(self, other: object) -> ClassGroupElement:
         if not isinstance(other, ClassGroupElement):
             raise FormkitError(f"cannot compose a class with {other!r} (not a class group element)")
         if other._group.discriminant != self._group.discriminant:
@@ -124,21 +124,21 @@ class ClassGroupElement:
             )
         return other
 
-    def __mul__(self, other: "ClassGroupElement") -> "ClassGroupElement":
+    def __mul__(self, other: ClassGroupElement) -> ClassGroupElement:
         other = self._check(other)
         return ClassGroupElement(self._group, self._group._mul(self._form, other._form))
 
-    def __truediv__(self, other: "ClassGroupElement") -> "ClassGroupElement":
+    def __truediv__(self, other: ClassGroupElement) -> ClassGroupElement:
         return self * self._check(other).inverse()
 
-    def inverse(self) -> "ClassGroupElement":
+    def inverse(self) -> ClassGroupElement:
         """The inverse class (that of ``(a, −b, c)``)."""
         a, b, c = self._form
         return ClassGroupElement(self._group, self._group._canon((a, -b, c)))
 
     __invert__ = inverse
 
-    def __pow__(self, k: int) -> "ClassGroupElement":
+    def __pow__(self, k: int) -> ClassGroupElement:
         k = as_int(k, "exponent")
         if k < 0:
             return self.inverse() ** (-k)
@@ -225,11 +225,11 @@ class ClassGroup:
         *,
         invariants: Sequence[int],
         generators: Sequence[Triple],
-        dlog: Callable[[Triple], Tuple[int, ...]],
+        dlog: Callable[[Triple], tuple[int, ...]],
         canonical: Callable[[Triple], Triple],
         provenance: Provenance,
-        forms: Optional[Sequence[Triple]] = None,
-        units: Optional[Tuple[float, int]] = None,
+        forms: Sequence[Triple] | None = None,
+        units: tuple[float, int] | None = None,
     ) -> None:
         self._D = discriminant
         self._units = units  # (regulator, N(ε)) when D > 0 and the unit itself is not computed
@@ -280,12 +280,12 @@ class ClassGroup:
         return self.order
 
     @property
-    def invariants(self) -> Tuple[int, ...]:
+    def invariants(self) -> tuple[int, ...]:
         """Invariant factors ``(n1, n2, …)`` with ``n1 | n2 | …`` and every ``n_i > 1``."""
         return self._invariants
 
     @property
-    def generators(self) -> Tuple[ClassGroupElement, ...]:
+    def generators(self) -> tuple[ClassGroupElement, ...]:
         """Generators of orders ``n1, n2, …`` (one per invariant factor)."""
         return tuple(ClassGroupElement(self, g) for g in self._generators)
 
@@ -342,10 +342,10 @@ class ClassGroup:
             )
         x = self.identity
         for g, e in zip(self.generators, exps):
-            x = x * g ** e
+            x = x * g**e
         return x
 
-    def discrete_log(self, x: "ClassGroupElement | FormLike") -> Tuple[int, ...]:
+    def discrete_log(self, x: ClassGroupElement | FormLike) -> tuple[int, ...]:
         """Exponents ``(e_1, …)`` with ``x = ∏ g_i^{e_i}``, ``0 ≤ e_i < n_i``.
 
         Examples
@@ -400,7 +400,9 @@ class ClassGroup:
     def ambiguous_classes(self) -> list[ClassGroupElement]:
         """The classes of order ≤ 2 (there are ``2^two_rank`` of them)."""
         halves = [
-            (ClassGroupElement(self, g) ** (n // 2)) for g, n in zip(self._generators, self._invariants) if n % 2 == 0
+            (ClassGroupElement(self, g) ** (n // 2))
+            for g, n in zip(self._generators, self._invariants)
+            if n % 2 == 0
         ]
         out = [self.identity]
         for h in halves:
@@ -420,11 +422,11 @@ class ClassGroup:
                 orders.append(pk)
         out = [self.identity]
         for g, n in zip(gens, orders):
-            powers = [g ** j for j in range(n)]
+            powers = [g**j for j in range(n)]
             out = [x * y for x in out for y in powers]
         return out
 
-    def sylow_invariants(self, p: int) -> Tuple[int, ...]:
+    def sylow_invariants(self, p: int) -> tuple[int, ...]:
         """Invariant factors of the p-Sylow subgroup."""
         p = _require_prime(p)
         out = []

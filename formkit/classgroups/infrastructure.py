@@ -47,18 +47,17 @@ from __future__ import annotations
 
 import math
 from math import isqrt
-from typing import Dict, List, Optional, Tuple
 
-from .group import ClassGroup, Provenance
+from ..analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.enumeration import _prime_forms
 from ..errors import DiscriminantError, FormkitError
 from .abelian_groups import BSGSStatistics
-from ..core.enumeration import _prime_forms
-from ..analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
+from .group import ClassGroup, Provenance
 
 __all__ = ["RealClassNumber", "real_class_number", "real_class_group", "CYCLE_LIMIT"]
 
-Triple = Tuple[int, int, int]
+Triple = tuple[int, int, int]
 
 #: Longest cycle of reduced forms walked to find a class's canonical form (about 2.5 s
 #: at 0.8 million ρ-steps per second; cycles have about R/1.19 forms).
@@ -71,7 +70,7 @@ SIEVE_CANDIDATE_LIMIT = 1 << 40
 CLASSES_PER_ROUND = 24
 
 
-def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) -> Tuple[float, int]:
+def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) -> tuple[float, int]:
     """``(R, N(ε))`` for ``D > 0`` by Shanks' baby-step giant-step in the infrastructure.
 
     The reduced ideals ``[|a|, (−b+√D)/2]`` of the principal cycle are ``θ·O`` with a
@@ -105,7 +104,7 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     # baby range T ≈ 2·√(h·R); at least 4·log D + 20 so that a giant step (T/2 plus the
     # distance moved by reducing a composite, at most about ½·log D) never skips the range
     target = max(4 * math.log(D) + 20.0, math.sqrt(hR_upper) * 2.0)
-    baby: Dict[Tuple[int, int], Tuple[float, int]] = {(1, b0): (0.0, 1)}
+    baby: dict[tuple[int, int], tuple[float, int]] = {(1, b0): (0.0, 1)}
     a, b, c = a0, b0, c0
     dist, sign = 0.0, 1
     half = target / 2
@@ -245,7 +244,7 @@ class _CanonicalOps:
 
 
 #: Candidates ``k, k + step, …`` (``count`` of them): an arithmetic progression.
-Progression = Tuple[int, int, int]
+Progression = tuple[int, int, int]
 
 
 def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
@@ -260,7 +259,7 @@ def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
     u = ops.pow(x, step)
     y = ops.pow(x, k0)
     s = isqrt(count) + 1
-    table: Dict[Tuple[int, int], int] = {}
+    table: dict[tuple[int, int], int] = {}
     uinv = ops.inverse(u)
     z = ops.one
     order = None
@@ -277,7 +276,7 @@ def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
                 return (k0 + step * m, step * order, (count - 1 - m) // order + 1)
             y = ops.mul(y, u)
         return (k0, step, 0)
-    sols: List[int] = []  # ord(u) ≥ s: at most one solution per giant step; find two
+    sols: list[int] = []  # ord(u) ≥ s: at most one solution per giant step; find two
     big = ops.pow(u, s)
     for i in range(count // s + 1):
         j = table.get(ops.key(y))
@@ -300,8 +299,15 @@ class RealClassNumber:
     ``provenance`` (:class:`formkit.classgroups.group.Provenance`), ``statistics``.
     """
 
-    __slots__ = ("discriminant", "class_number", "class_number_wide", "regulator", "unit_norm",
-                 "provenance", "statistics")
+    __slots__ = (
+        "class_number",
+        "class_number_wide",
+        "discriminant",
+        "provenance",
+        "regulator",
+        "statistics",
+        "unit_norm",
+    )
 
     def __init__(self, D, narrow, wide, R, norm, provenance, statistics) -> None:
         self.discriminant = D
@@ -320,13 +326,17 @@ class RealClassNumber:
 
     def _repr_latex_(self) -> str:
         D = self.discriminant
-        return (rf"$h^{{+}}({D}) = {self.class_number},\ h({D}) = {self.class_number_wide},\ "
-                rf"R({D}) \approx {self.regulator:.10g},\ N(\varepsilon) = {self.unit_norm:+d}$")
+        return (
+            rf"$h^{{+}}({D}) = {self.class_number},\ h({D}) = {self.class_number_wide},\ "
+            rf"R({D}) \approx {self.regulator:.10g},\ N(\varepsilon) = {self.unit_norm:+d}$"
+        )
 
     def __repr__(self) -> str:
-        return (f"RealClassNumber(D={self.discriminant}, narrow={self.class_number}, "
-                f"wide={self.class_number_wide}, regulator={self.regulator:.10g}, "
-                f"unit_norm={self.unit_norm:+d}; {self.provenance})")
+        return (
+            f"RealClassNumber(D={self.discriminant}, narrow={self.class_number}, "
+            f"wide={self.class_number_wide}, regulator={self.regulator:.10g}, "
+            f"unit_norm={self.unit_norm:+d}; {self.provenance})"
+        )
 
 
 def _progression(est, R: float, e: int, genera: int) -> Progression:
@@ -349,7 +359,7 @@ def _intersect(a: Progression, b: Progression) -> Progression:
     return (k0 + i0 * step, step, max(0, i1 - i0 + 1))
 
 
-def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealClassNumber:
+def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClassNumber:
     """Narrow and wide class number and regulator for ``D > 0`` without listing the classes.
 
     Parameters
@@ -394,7 +404,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
     D = validate_discriminant(D)
     if D < 0:
         raise DiscriminantError(f"real_class_number needs a positive discriminant, not {D}")
-    d_K, f = discriminant_parts(D)
+    _d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
     P = max(default_prime_bound(D), min(2 * 10**6, D)) if prime_bound is None else prime_bound
     est = class_number_estimate(D, P)
@@ -404,7 +414,7 @@ def real_class_number(D: object, *, prime_bound: Optional[int] = None) -> RealCl
     ops = _NarrowOps(D, stats)
     classes = _prime_forms(D, f)
     cand = _progression(est, R, e, genera)
-    used: List[int] = []
+    used: list[int] = []
     sieving = True
     while True:
         if cand[2] == 0:
@@ -462,9 +472,9 @@ def _genus_structure(D: int, f: int, rank: int):
     def bits(x: Triple) -> int:
         return sum(1 << i for i, e in enumerate(genus_symbol(x)) if e == -1)
 
-    basis: Dict[int, Tuple[int, int]] = {}  # pivot bit -> (vector, combination of generators)
+    basis: dict[int, tuple[int, int]] = {}  # pivot bit -> (vector, combination of generators)
 
-    def eliminate(v: int) -> Tuple[int, int]:
+    def eliminate(v: int) -> tuple[int, int]:
         combo = 0
         while v:
             top = v.bit_length() - 1
@@ -474,7 +484,7 @@ def _genus_structure(D: int, f: int, rank: int):
             combo ^= basis[top][1]
         return v, combo
 
-    gens: List[Triple] = []
+    gens: list[Triple] = []
     for p, x in _prime_forms(D, f):
         if len(gens) == rank:
             break
@@ -485,7 +495,7 @@ def _genus_structure(D: int, f: int, rank: int):
             basis[v.bit_length() - 1] = (v, combo ^ (1 << len(gens)))
             gens.append(x)
 
-    def dlog(x: Triple) -> Tuple[int, ...]:
+    def dlog(x: Triple) -> tuple[int, ...]:
         v, combo = eliminate(bits(x))
         if v:  # pragma: no cover - the genus symbols of forms of D span this space
             raise ArithmeticError(f"genus symbol of {x} outside the span of the generators")
@@ -501,7 +511,7 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
 
     cops = _CanonicalOps(ops)
     fac = factorint(narrow) if narrow > 1 else {}
-    syl: Dict[int, _Sylow] = {}
+    syl: dict[int, _Sylow] = {}
     n, used = 1, []
     for p, x in _prime_forms(D, f):
         if n == narrow:
@@ -522,12 +532,14 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
         for S in syl.values():
             n *= S.order
     St = _Structure(cops, syl)  # type: ignore[arg-type]
-    how = (f"structure from the prime forms at {used[:8]}{'…' if len(used) > 8 else ''}, "
-           f"which reach all {narrow} classes")
+    how = (
+        f"structure from the prime forms at {used[:8]}{'…' if len(used) > 8 else ''}, "
+        f"which reach all {narrow} classes"
+    )
     return St.invariants, St.generators, St.dlog, how
 
 
-def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGroup:
+def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup:
     """The narrow class group ``Cl⁺(D)``, ``D > 0``, without listing the classes.
 
     The class number ``h⁺`` comes from :func:`real_class_number` (conditional on GRH).
@@ -580,7 +592,7 @@ def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
         if narrow > 1 and narrow == genera:  # every genus a single class: C2^rank
             rank = narrow.bit_length() - 1
             gens, dlog = _genus_structure(D, f, rank)
-            invariants: Tuple[int, ...] = (2,) * rank
+            invariants: tuple[int, ...] = (2,) * rank
             generators = tuple(ops.canonical(g) for g in gens)
             how = f"each of the {genera} genera is one class, so Cl⁺(D) ≅ C2^{rank} (Gauss)"
         else:
@@ -598,6 +610,12 @@ def real_class_group(D: object, *, prime_bound: Optional[int] = None) -> ClassGr
 
     prov = Provenance("bsgs", False, "GRH", r.provenance.bound, f"{r.provenance.detail}; {how}")
     return ClassGroup(
-        D, invariants=invariants, generators=generators, dlog=dlog, canonical=canonical,
-        provenance=prov, forms=None, units=(r.regulator, r.unit_norm),
+        D,
+        invariants=invariants,
+        generators=generators,
+        dlog=dlog,
+        canonical=canonical,
+        provenance=prov,
+        forms=None,
+        units=(r.regulator, r.unit_norm),
     )

@@ -25,13 +25,13 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..core.arith import as_int, factorint, invert, kronecker, xgcd
-from .group import ClassGroupElement
-from .dispatch import class_group
 from ..core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
 from ..core.enumeration import class_number
-from ..errors import FormkitError, NotPrimitiveError
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.reduction import reduced
+from ..errors import FormkitError, NotPrimitiveError
+from .dispatch import class_group
+from .group import ClassGroupElement
 
 __all__ = [
     "coprime_representative",
@@ -71,13 +71,13 @@ def coprime_representative(form: FormLike, m: int) -> tuple[Form, tuple]:
 
     bound = 1
     while True:
-        for x in range(0, bound + 1):
+        for x in range(bound + 1):
             for y in (bound, -bound) if x < bound else range(-bound, bound + 1):
                 if gcd(x, y) != 1:
                     continue
                 v = f(x, y)
                 if v != 0 and gcd(v, m) == 1:
-                    g, s0, t0 = xgcd(x, y)
+                    _g, s0, t0 = xgcd(x, y)
                     M = ((x, -int(t0)), (y, int(s0)))
                     return f.transform(M), M
         bound += 1

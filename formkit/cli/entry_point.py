@@ -15,7 +15,7 @@ from __future__ import annotations
 import argparse
 import re
 import sys
-from typing import Sequence
+from collections.abc import Sequence
 
 from ..errors import FormkitError
 from .conventions import _Parser

@@ -5,15 +5,15 @@ from __future__ import annotations
 
 import argparse
 
-from ..core.parse import parse_integer
 from ..core.forms import as_form
+from ..core.parse import parse_integer
 
 _FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
 
 _JSON_NOTE = (
-    "With --json one object is printed: {\"kind\", \"format\", \"text\", \"data\"} where text is the "
+    'With --json one object is printed: {"kind", "format", "text", "data"} where text is the '
     "rendered document and data holds every recorded number (the same as "
-    "formkit.worked_<topic>(...).to_dict()[\"data\"] in Python)."
+    'formkit.worked_<topic>(...).to_dict()["data"] in Python).'
 )
 
 
@@ -58,7 +58,9 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
 def _cmd_compose(args: argparse.Namespace) -> int:
     from ..explain.composition import worked_composition
 
-    return _emit_example(args, worked_composition(as_form(args.first, name="F"), as_form(args.second, name="G")))
+    return _emit_example(
+        args, worked_composition(as_form(args.first, name="F"), as_form(args.second, name="G"))
+    )
 
 
 def _cmd_represent(args: argparse.Namespace) -> int:

@@ -54,7 +54,9 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
             if complete:
                 lines.append(f"cycle ({len(cyc)} reduced forms):")
             else:
-                lines.append(f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --cycle-limit):")
+                lines.append(
+                    f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --cycle-limit):"
+                )
             lines.extend(f"  {g.to_list()}" for g in cyc)
         return "\n".join(lines)
 

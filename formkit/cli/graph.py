@@ -41,9 +41,8 @@ def _format_of(args: argparse.Namespace) -> str:
 
 
 def _cmd_graph(args: argparse.Namespace) -> int:
-    from ..core.parse import parse_integer
-    from .conventions import CommandError, emit
     from ..core.discriminants import validate_discriminant
+    from ..core.parse import parse_integer
     from ..graphs import (
         cayley_graph,
         cycle_graph,
@@ -53,6 +52,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         graph_to_graphml,
         graph_to_json,
     )
+    from .conventions import CommandError, emit
 
     D = validate_discriminant(parse_integer(args.discriminant, "discriminant"))
     fmt = _format_of(args)
@@ -83,9 +83,11 @@ def _cmd_graph(args: argparse.Namespace) -> int:
     if args.kind == "cayley":
         payload["primes"] = list(C.graph["primes"])
     if fmt in TEXT_FORMATS:
-        text = {"json": lambda: graph_to_json(C, indent=1 if args.output else None),
-                "graphml": lambda: graph_to_graphml(C),
-                "dot": lambda: graph_to_dot(C)}[fmt]()
+        text = {
+            "json": lambda: graph_to_json(C, indent=1 if args.output else None),
+            "graphml": lambda: graph_to_graphml(C),
+            "dot": lambda: graph_to_dot(C),
+        }[fmt]()
         if not text.endswith("\n"):
             text += "\n"
         if not args.output:
@@ -111,7 +113,11 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         except OSError as exc:
             raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
 
-    emit(args, payload, f"wrote {fmt}: {graph_title(C)} ({payload['nodes']} nodes, {payload['edges']} edges) to {args.output}")
+    emit(
+        args,
+        payload,
+        f"wrote {fmt}: {graph_title(C)} ({payload['nodes']} nodes, {payload['edges']} edges) to {args.output}",
+    )
     return 0
 
 
@@ -145,12 +151,24 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("discriminant", metavar="D", help="a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4")
+    p.add_argument(
+        "discriminant", metavar="D", help="a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4"
+    )
     which = p.add_mutually_exclusive_group()
-    which.add_argument("--primes", metavar="P,Q,...", help="label the edges by these primes (comma-separated)")
-    which.add_argument("--bound", metavar="B",
-                       help="use every prime p <= B with a primitive prime form (chi_D(p) != -1, p not dividing the conductor)")
-    p.add_argument("--kind", choices=("cayley", "cycles", "fibres"), default="cayley", help="which graph (default cayley)")
+    which.add_argument(
+        "--primes", metavar="P,Q,...", help="label the edges by these primes (comma-separated)"
+    )
+    which.add_argument(
+        "--bound",
+        metavar="B",
+        help="use every prime p <= B with a primitive prime form (chi_D(p) != -1, p not dividing the conductor)",
+    )
+    p.add_argument(
+        "--kind",
+        choices=("cayley", "cycles", "fibres"),
+        default="cayley",
+        help="which graph (default cayley)",
+    )
     p.add_argument("--format", choices=FORMATS, help="output format (default: from --output, else json)")
     p.add_argument("--output", "-o", metavar="FILE", help="write to FILE (needed for png and svg)")
     p.set_defaults(handler=_cmd_graph)

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import argparse
 
-from ..core.parse import parse_integer
 from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
+from ..core.parse import parse_integer
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
@@ -43,7 +43,12 @@ def _cmd_group(args: argparse.Namespace) -> int:
                     f"norm {payload['fundamental_unit_norm']:+d}"
                 )
             lines.append(f"regulator: {payload['regulator']:.15g}")
-        lines.append("generators: " + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants)) if G.invariants else "generators: none (trivial group)")
+        lines.append(
+            "generators: "
+            + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants))
+            if G.invariants
+            else "generators: none (trivial group)"
+        )
         lines.append(f"method: {prov}")
         if payload["forms"] is not None:
             rows = payload["forms"]
@@ -52,7 +57,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
             lines.append(f"{'class':>24}  {'order':>6}  discrete log")
             for f in shown:
                 x = G(f)
-                lines.append(f"{str(f):>24}  {x.order:>6}  {list(G.discrete_log(x))}")
+                lines.append(f"{f!s:>24}  {x.order:>6}  {list(G.discrete_log(x))}")
             if len(rows) > len(shown):
                 lines.append(f"... {len(rows) - len(shown)} more classes (use --max-rows or --json)")
         return "\n".join(lines)
@@ -186,7 +191,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     q.add_argument("first", metavar="F", help="first form")
     q.add_argument("second", metavar="G", help="second form")
-    q.add_argument("--method", choices=("dirichlet", "nucomp"), default="dirichlet", help="composition algorithm")
+    q.add_argument(
+        "--method", choices=("dirichlet", "nucomp"), default="dirichlet", help="composition algorithm"
+    )
     q.set_defaults(handler=_cmd_compose)
 
     r = sub.add_parser(

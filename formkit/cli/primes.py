@@ -5,8 +5,8 @@ from __future__ import annotations
 import argparse
 
 from ..core.arith import as_int
-from ..errors import ParseError
 from ..core.forms import as_form
+from ..errors import ParseError
 
 _SHOWN = 60  # primes listed in the text output (all of them with --json)
 
@@ -22,9 +22,9 @@ def _integer(text: str, name: str) -> int:
 
 
 def _cmd_primes(args: argparse.Namespace) -> int:
-    from .conventions import emit
     from ..representation.prime_criteria import PrimeCriterion, prime_criterion, represented_primes
     from ..representation.prime_decision import primes_up_to
+    from .conventions import emit
 
     Q = as_form(args.form)
     X = _integer(args.upto, "--upto")
@@ -60,12 +60,16 @@ def _cmd_primes(args: argparse.Namespace) -> int:
             if c.polynomial:
                 deg = len(c.polynomial) - 1
                 head = ", ".join(map(str, c.polynomial[:4])) + (", …" if deg > 3 else "")
-                lines.append(f"criterion:     class polynomial of degree {deg}: [{head}]  (formkit hilbert {c.discriminant})")
+                lines.append(
+                    f"criterion:     class polynomial of degree {deg}: [{head}]  (formkit hilbert {c.discriminant})"
+                )
             else:
                 lines.append("criterion:     class of the prime ideal (class polynomial not computed)")
         else:
             lines.append("criterion:     narrow class of the prime ideal above p")
-        lines.append(f"exceptions:    {list(c.exceptions) or 'none'}  (primes dividing D that the form represents)")
+        lines.append(
+            f"exceptions:    {list(c.exceptions) or 'none'}  (primes dividing D that the form represents)"
+        )
         lines.append("statement:     " + c.statement)
         shown = ", ".join(map(str, primes[:_SHOWN])) + (", …" if len(primes) > _SHOWN else "")
         lines.append(f"primes ≤ {X}:  {len(primes)} represented of {count_all} (predicted {expected:.1f})")
@@ -109,7 +113,11 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
         if disc is not None:
             sign = "-" if disc.value < 0 else ""
             fac = " * ".join(f"{p}^{e}" if e > 1 else str(p) for p, e in disc.factors) or "1"
-            rest = "" if disc.complete else f" * {disc.cofactor} (not factored by trial division to {disc.trial_bound})"
+            rest = (
+                ""
+                if disc.complete
+                else f" * {disc.cofactor} (not factored by trial division to {disc.trial_bound})"
+            )
             n = len(str(abs(disc.value)))
             lines.append(f"disc(H) = {sign}{fac}{rest}   ({n} digit{'s' if n != 1 else ''})")
         return "\n".join(lines)
@@ -138,7 +146,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as 'x^2+27y^2'")
-    p.add_argument("--upto", default="1000", metavar="X", help="list the represented primes up to X (default 1000; at most 10^8)")
+    p.add_argument(
+        "--upto",
+        default="1000",
+        metavar="X",
+        help="list the represented primes up to X (default 1000; at most 10^8)",
+    )
     p.add_argument(
         "--no-polynomial",
         action="store_true",

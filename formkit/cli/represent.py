@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import argparse
 
-from ..core.parse import parse_integer
 from ..core.forms import as_form
+from ..core.parse import parse_integer
 
 
 def _nonnegative_int(text: str) -> int:
@@ -31,16 +31,18 @@ def _parse_factors(text: str) -> dict:
     for tok in tokens:
         base, _, exp = tok.partition("^")
         if not (base.isascii() and base.isdigit()) or (exp and not (exp.isascii() and exp.isdigit())):
-            raise CommandError(f"--factors must look like 3^2*5*7 (primes and exponents in digits), not {tok!r}")
+            raise CommandError(
+                f"--factors must look like 3^2*5*7 (primes and exponents in digits), not {tok!r}"
+            )
         p, e = int(base), int(exp) if exp else 1
         out[p] = out.get(p, 0) + e
     return out
 
 
 def _cmd_represent(args: argparse.Namespace) -> int:
-    from .conventions import emit
     from ..core.equivalence import fundamental_automorph
     from ..representation.representations import represent
+    from .conventions import emit
 
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")
@@ -85,8 +87,8 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
 
 def _cmd_genera(args: argparse.Namespace) -> int:
-    from .conventions import emit
     from ..classgroups.genus import genera
+    from .conventions import emit
 
     D = parse_integer(args.discriminant, "discriminant")
     P = genera(D)
@@ -132,9 +134,15 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         formatter_class=raw,
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '2x^2+xy+3y^2'")
-    p.add_argument("n", metavar="N", help="the integer to represent: digits of any length, or a power of ten such as 3*10^20")
+    p.add_argument(
+        "n",
+        metavar="N",
+        help="the integer to represent: digits of any length, or a power of ten such as 3*10^20",
+    )
     p.add_argument("--primitive", action="store_true", help="list only primitive solutions (gcd(x, y) = 1)")
-    p.add_argument("--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)")
+    p.add_argument(
+        "--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)"
+    )
     p.add_argument(
         "--factors",
         metavar="FACTORS",

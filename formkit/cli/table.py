@@ -7,7 +7,7 @@ import csv
 import io
 import sys
 import textwrap
-from typing import List, Sequence
+from collections.abc import Sequence
 
 from ..core.parse import parse_integer
 from ..tables.rows import TableRow
@@ -16,9 +16,9 @@ _FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_pa
 
 
 def _cmd_table(args: argparse.Namespace) -> int:
-    from .conventions import CommandError
     from ..tables.parallel import build_table
     from ..tables.store import query_table, table_info
+    from .conventions import CommandError
 
     fmt = "json" if args.json else args.format
     start = None if args.start is None else parse_integer(args.start, "--from")
@@ -35,16 +35,21 @@ def _cmd_table(args: argparse.Namespace) -> int:
     query = args.query or filters_given or (args.db is not None and start is None and stop is None)
     if query:
         if args.db is None:
-            raise CommandError("querying needs --db FILE (filters such as --class-number read a stored table)")
+            raise CommandError(
+                "querying needs --db FILE (filters such as --class-number read a stored table)"
+            )
         rows = query_table(
             args.db,
             start=start,
             stop=stop,
-            class_number=None if args.class_number is None else parse_integer(args.class_number, "--class-number"),
+            class_number=None
+            if args.class_number is None
+            else parse_integer(args.class_number, "--class-number"),
             invariants=args.invariants,
             conductor=None if args.conductor is None else parse_integer(args.conductor, "--conductor"),
             fundamental=args.fundamental,
-            fundamental_discriminant=None if args.fundamental_part is None
+            fundamental_discriminant=None
+            if args.fundamental_part is None
             else parse_integer(args.fundamental_part, "--fundamental-part"),
             genus_count=None if args.genera is None else parse_integer(args.genera, "--genera"),
             limit=args.limit,
@@ -54,11 +59,13 @@ def _cmd_table(args: argparse.Namespace) -> int:
         return 0
 
     if start is None or stop is None:
-        raise CommandError("a table needs both --from A and --to B (or --db FILE with filters to query a stored one)")
+        raise CommandError(
+            "a table needs both --from A and --to B (or --db FILE with filters to query a stored one)"
+        )
     if args.limit is not None:
         raise CommandError("--limit applies to queries of a stored table (with --db and filters)")
     invariants = not args.no_invariants
-    rows_out: List[TableRow] | None = None if args.db else []
+    rows_out: list[TableRow] | None = None if args.db else []
     try:
         summary = build_table(
             args.db,
@@ -105,6 +112,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
 # output
 # ---------------------------------------------------------------------------
 
+
 def _inv_plain(inv) -> str:
     if inv is None:
         return ""
@@ -129,13 +137,31 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     if fmt == "csv":
         buf = io.StringIO()
         w = csv.writer(buf, lineterminator="\n")
-        w.writerow(["discriminant", "fundamental_discriminant", "conductor", "class_number",
-                    "invariants", "genus_count", "class_number_wide", "regulator"])
+        w.writerow(
+            [
+                "discriminant",
+                "fundamental_discriminant",
+                "conductor",
+                "class_number",
+                "invariants",
+                "genus_count",
+                "class_number_wide",
+                "regulator",
+            ]
+        )
         for r in rows:
-            w.writerow([r.discriminant, r.fundamental_discriminant, r.conductor, r.class_number,
-                        _inv_plain(r.invariants), r.genus_count,
-                        "" if r.class_number_wide is None else r.class_number_wide,
-                        "" if r.regulator is None else repr(r.regulator)])
+            w.writerow(
+                [
+                    r.discriminant,
+                    r.fundamental_discriminant,
+                    r.conductor,
+                    r.class_number,
+                    _inv_plain(r.invariants),
+                    r.genus_count,
+                    "" if r.class_number_wide is None else r.class_number_wide,
+                    "" if r.regulator is None else repr(r.regulator),
+                ]
+            )
         out.write(buf.getvalue())
         return
     if fmt == "tex":
@@ -161,8 +187,11 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     widths = [max(len(row[i]) for row in table) for i in range(len(head))]
     for row in table:
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
-    out.write(f"({len(rows)} rows; class numbers by enumeration, unconditional"
-              + ("; h is the narrow class number for D > 0" if positive else "") + ")\n")
+    out.write(
+        f"({len(rows)} rows; class numbers by enumeration, unconditional"
+        + ("; h is the narrow class number for D > 0" if positive else "")
+        + ")\n"
+    )
 
 
 def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str:
@@ -181,7 +210,12 @@ def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str
         r"\hline",
     ]
     for r in rows:
-        cells = [f"${r.discriminant}$", f"${r.fundamental_discriminant}$", f"${r.conductor}$", f"${r.class_number}$"]
+        cells = [
+            f"${r.discriminant}$",
+            f"${r.fundamental_discriminant}$",
+            f"${r.conductor}$",
+            f"${r.class_number}$",
+        ]
         if with_invariants:
             inv = r.invariants or ()
             cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "1") + "$")
@@ -215,6 +249,7 @@ def _emit_info(args: argparse.Namespace, info: dict) -> None:
 # ---------------------------------------------------------------------------
 # registration
 # ---------------------------------------------------------------------------
+
 
 def _positive_int(text: str) -> int:
     try:
@@ -267,34 +302,59 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("--from", dest="start", metavar="A", help="first discriminant of the range (may be negative)")
+    p.add_argument(
+        "--from", dest="start", metavar="A", help="first discriminant of the range (may be negative)"
+    )
     p.add_argument("--to", dest="stop", metavar="B", help="last discriminant of the range (inclusive)")
-    p.add_argument("--fundamental", action="store_true",
-                   help="only fundamental discriminants (when building, or as a query filter)")
-    p.add_argument("--no-invariants", action="store_true",
-                   help="skip the group structure: class numbers only, far faster (the negative sweep)")
-    p.add_argument("--format", choices=("text", "csv", "json", "tex"), default="text",
-                   help="output: aligned text (default), CSV, one JSON object, or a LaTeX tabular")
+    p.add_argument(
+        "--fundamental",
+        action="store_true",
+        help="only fundamental discriminants (when building, or as a query filter)",
+    )
+    p.add_argument(
+        "--no-invariants",
+        action="store_true",
+        help="skip the group structure: class numbers only, far faster (the negative sweep)",
+    )
+    p.add_argument(
+        "--format",
+        choices=("text", "csv", "json", "tex"),
+        default="text",
+        help="output: aligned text (default), CSV, one JSON object, or a LaTeX tabular",
+    )
     p.add_argument("--db", metavar="FILE", help="SQLite file to build into (resumable) or to query")
-    p.add_argument("--workers", type=_positive_int, metavar="N",
-                   help="worker processes (default: all cores)")
-    p.add_argument("--cluster", metavar="ADDRESS",
-                   help="run the chunks on this Dask distributed scheduler instead of local processes "
-                        "(needs formkit[cluster]; formkit must be importable on the workers)")
-    p.add_argument("--chunk-size", type=_positive_int, metavar="N",
-                   help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, "
-                        "1000 for D > 0)")
-    p.add_argument("--engine", choices=("auto", "numpy", "python"), default="auto",
-                   help="sweep for negative D (default numpy when installed)")
+    p.add_argument("--workers", type=_positive_int, metavar="N", help="worker processes (default: all cores)")
+    p.add_argument(
+        "--cluster",
+        metavar="ADDRESS",
+        help="run the chunks on this Dask distributed scheduler instead of local processes "
+        "(needs formkit[cluster]; formkit must be importable on the workers)",
+    )
+    p.add_argument(
+        "--chunk-size",
+        type=_positive_int,
+        metavar="N",
+        help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, 1000 for D > 0)",
+    )
+    p.add_argument(
+        "--engine",
+        choices=("auto", "numpy", "python"),
+        default="auto",
+        help="sweep for negative D (default numpy when installed)",
+    )
     g = p.add_argument_group("querying a stored table (with --db)")
-    g.add_argument("--query", action="store_true", help="print stored rows (of --from/--to) instead of building")
+    g.add_argument(
+        "--query", action="store_true", help="print stored rows (of --from/--to) instead of building"
+    )
     g.add_argument("--class-number", metavar="H", help="rows with class number H")
     g.add_argument("--invariants", metavar="N1,N2,...", help="rows with this group structure (1 = trivial)")
     g.add_argument("--conductor", metavar="F", help="rows of conductor F")
     g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")
     g.add_argument("--genera", metavar="G", help="rows with G genera")
     g.add_argument("--limit", type=_count, metavar="N", help="at most N rows")
-    g.add_argument("--info", action="store_true", help="describe the stored table: options, coverage, provenance")
+    g.add_argument(
+        "--info", action="store_true", help="describe the stored table: options, coverage, provenance"
+    )
     p.set_defaults(handler=_cmd_table)
 
 

@@ -18,19 +18,19 @@ re-exported by :mod:`formkit`; the integer backend, the parser and the raw reduc
 loops are used by every layer but are not part of the top-level API.
 """
 
-from .composition import *  # noqa: F401,F403
+from .composition import *  # noqa: F403
 from .composition import __all__ as _composition_all
-from .discriminants import *  # noqa: F401,F403
+from .discriminants import *  # noqa: F403
 from .discriminants import __all__ as _discriminants_all
-from .enumeration import *  # noqa: F401,F403
+from .enumeration import *  # noqa: F403
 from .enumeration import __all__ as _enumeration_all
-from .equivalence import *  # noqa: F401,F403
+from .equivalence import *  # noqa: F403
 from .equivalence import __all__ as _equivalence_all
-from .forms import *  # noqa: F401,F403
+from .forms import *  # noqa: F403
 from .forms import __all__ as _forms_all
-from .polynomials_mod_p import *  # noqa: F401,F403
+from .polynomials_mod_p import *  # noqa: F403
 from .polynomials_mod_p import __all__ as _polynomials_all
-from .reduction import *  # noqa: F401,F403
+from .reduction import *  # noqa: F403
 from .reduction import __all__ as _reduction_all
 
 __all__ = [

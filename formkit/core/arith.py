@@ -107,9 +107,7 @@ elif BACKEND == "python":
 
         return int(nextprime(n))
 else:  # pragma: no cover - configuration error
-    raise ImportError(
-        f"FORMKIT_INTEGER_BACKEND must be 'gmpy2' or 'python', not {BACKEND!r}"
-    )
+    raise ImportError(f"FORMKIT_INTEGER_BACKEND must be 'gmpy2' or 'python', not {BACKEND!r}")
 
 
 def _kronecker_python(a: int, n: int) -> int:
@@ -174,18 +172,14 @@ def as_int(value: object, name: str = "value") -> int:
     ...
     formkit.errors.NotAnIntegerError: D must be an integer, not 2.0 (float)
     """
-    if isinstance(value, bool) or isinstance(value, float):
-        raise NotAnIntegerError(
-            f"{name} must be an integer, not {value!r} ({type(value).__name__})"
-        )
+    if isinstance(value, (bool, float)):
+        raise NotAnIntegerError(f"{name} must be an integer, not {value!r} ({type(value).__name__})")
     try:
         return operator.index(value)  # type: ignore[arg-type]
     except TypeError:
         pass
     # sympy Integer has __index__, but sympy Rational etc. do not: refuse them.
-    raise NotAnIntegerError(
-        f"{name} must be an integer, not {value!r} ({type(value).__name__})"
-    )
+    raise NotAnIntegerError(f"{name} must be an integer, not {value!r} ({type(value).__name__})")
 
 
 _INT_TYPES = (int,) if mpz is int else (int, type(mpz(0)))

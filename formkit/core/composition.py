@@ -41,8 +41,8 @@ from __future__ import annotations
 
 from functools import lru_cache
 
-from .arith import as_int, isqrt, mpz, xgcd
 from ..errors import DiscriminantMismatchError, FormError, NotPrimitiveError
+from .arith import as_int, isqrt, mpz, xgcd
 from .forms import Form, FormLike, _require_nonsquare, as_form
 from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 
@@ -88,7 +88,7 @@ def _compose_parts(a1, b1, c1, a2, b2, c2, swap=True):
 
 def _compose_raw(a1, b1, c1, a2, b2, c2, D):
     """Unreduced Dirichlet composite of two primitive forms of discriminant ``D``."""
-    d1, v1, v2, r, b2, c2 = _compose_parts(a1, b1, c1, a2, b2, c2)
+    _d1, v1, v2, r, b2, c2 = _compose_parts(a1, b1, c1, a2, b2, c2)
     a3 = v1 * v2
     b3 = b2 + 2 * v2 * r
     c3 = (b3 * b3 - D) // (4 * a3)
@@ -151,8 +151,7 @@ def _check(F: Form, G: Form) -> int:
     D = _require_nonsquare(F, "composition")
     if G.discriminant != D:
         raise DiscriminantMismatchError(
-            f"composition needs forms of one discriminant: {F!r} has D = {D}, "
-            f"{G!r} has D = {G.discriminant}"
+            f"composition needs forms of one discriminant: {F!r} has D = {D}, {G!r} has D = {G.discriminant}"
         )
     for f in (F, G):
         if not f.is_primitive:
@@ -301,4 +300,3 @@ def power(F: FormLike, k: int, *, method: str = "nucomp") -> Form:
         if bit == "1":
             result = _reduce_indefinite_raw(*_compose_raw(*result, *base, Dz), Dz, sq)
     return Form(*(int(v) for v in result))
-

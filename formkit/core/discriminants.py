@@ -19,12 +19,12 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
 from functools import lru_cache
-from typing import Callable
 
-from .arith import as_int, factorint, is_square, isqrt, kronecker
 from ..errors import DiscriminantError, FormkitError
+from .arith import as_int, factorint, is_square, isqrt, kronecker
 
 __all__ = [
     "validate_discriminant",
@@ -72,9 +72,7 @@ def validate_discriminant(D: object, name: str = "discriminant") -> int:
     if D % 4 not in (0, 1):
         raise DiscriminantError(f"{name} must be ≡ 0 or 1 (mod 4), not {D} (≡ {D % 4})")
     if is_square(D):
-        raise DiscriminantError(
-            f"{name} must not be a perfect square, not {D} = {int(isqrt(D))}²"
-        )
+        raise DiscriminantError(f"{name} must not be a perfect square, not {D} = {int(isqrt(D))}²")
     return D
 
 
@@ -290,9 +288,7 @@ def fundamental_unit(D: object) -> QuadraticUnit:
     """
     D = validate_discriminant(D)
     if D < 0:
-        raise DiscriminantError(
-            f"fundamental_unit needs a positive discriminant, not {D} (use unit_count)"
-        )
+        raise DiscriminantError(f"fundamental_unit needs a positive discriminant, not {D} (use unit_count)")
     t, u = _fundamental_unit(D)
     return QuadraticUnit(D, t, u)
 
@@ -318,7 +314,7 @@ def _fundamental_unit(D: int) -> tuple[int, int]:
             # form0 · P = -(form0 · diag(1, -1))  =>  M = P · diag(1, -1)
             M = (p, -q, r, -s)
             break
-    mp, mq, mr, ms = M
+    mp, _mq, mr, ms = M
     t = abs(mp + ms)
     # M[1][0] = a0 * u with a0 = 1
     u = abs(mr // a0)

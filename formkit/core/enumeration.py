@@ -28,12 +28,11 @@ from __future__ import annotations
 import math
 from functools import lru_cache
 from math import gcd as _gcd
-from typing import Optional
 
-from .modular_roots import _sqrt_mod_prime_power
 from .arith import divisors, isqrt, kronecker, next_prime
 from .discriminants import validate_discriminant
 from .forms import Form
+from .modular_roots import _sqrt_mod_prime_power
 from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw, _rho_indefinite_raw
 
 __all__ = [
@@ -231,7 +230,7 @@ def class_number(D: object) -> int:
 # reduced prime forms of the small primes
 
 
-def _prime_forms(D: int, f: int, stop: Optional[int] = None):
+def _prime_forms(D: int, f: int, stop: int | None = None):
     """Reduced prime forms ``(p, b, c)`` of D for the primes p ≤ stop (all primes if None)
     with p ∤ f and χ_D(p) ≠ −1, in increasing order: the generators from which both
     large-discriminant class-group methods start (baby-step giant-step for D < 0,

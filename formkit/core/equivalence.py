@@ -22,15 +22,15 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Iterator
 from dataclasses import dataclass
-from typing import Iterator, Optional
 
+from ..errors import DiscriminantMismatchError, FormError
 from .arith import isqrt
 from .discriminants import fundamental_unit
-from ..errors import DiscriminantMismatchError, FormError
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from .reduction import _reduce_definite, _reduce_indefinite
 from .raw_reduction import _rho_indefinite_raw, _to_work
+from .reduction import _reduce_definite, _reduce_indefinite
 
 __all__ = [
     "EquivalenceResult",
@@ -58,7 +58,7 @@ class EquivalenceResult:
 
     equivalent: bool
     properly: bool
-    matrix: Optional[Matrix]
+    matrix: Matrix | None
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
@@ -79,7 +79,7 @@ def _check_pair(F: Form, G: Form) -> int:
     return D
 
 
-def proper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> Optional[Matrix]:
+def proper_equivalence(F: FormLike, G: FormLike, *, max_steps: int | None = None) -> Matrix | None:
     """A matrix ``M ∈ SL2(Z)`` with ``F·M = G``, or ``None`` if there is none.
 
     Parameters
@@ -126,7 +126,7 @@ def proper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = N
     return mat_mul(mat_mul(rf.matrix, P), mat_inverse(rg.matrix))
 
 
-def _find_in_cycle(start: Form, target: Form, D: int, max_steps: Optional[int] = None) -> Optional[Matrix]:
+def _find_in_cycle(start: Form, target: Form, D: int, max_steps: int | None = None) -> Matrix | None:
     """Walk the ρ-cycle of the reduced form ``start``; matrix taking it to ``target``.
 
     The first pass only looks for ``target`` (no matrices: the product of the step
@@ -160,7 +160,7 @@ def _find_in_cycle(start: Form, target: Form, D: int, max_steps: Optional[int] =
     return ((int(p), int(q)), (int(r), int(s)))
 
 
-def improper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> Optional[Matrix]:
+def improper_equivalence(F: FormLike, G: FormLike, *, max_steps: int | None = None) -> Matrix | None:
     """A matrix ``M`` of determinant −1 with ``F·M = G``, or ``None``.
 
     ``max_steps`` is as for :func:`proper_equivalence`.
@@ -179,7 +179,7 @@ def improper_equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] =
     return mat_mul(M, _FLIP)
 
 
-def equivalence(F: FormLike, G: FormLike, *, max_steps: Optional[int] = None) -> EquivalenceResult:
+def equivalence(F: FormLike, G: FormLike, *, max_steps: int | None = None) -> EquivalenceResult:
     """Decide whether ``F`` and ``G`` are equivalent, preferring a proper equivalence.
 
     ``max_steps`` is as for :func:`proper_equivalence`.
@@ -228,7 +228,7 @@ class AutomorphismGroup:
 
     form: Form
     generator: Matrix
-    order: Optional[int]
+    order: int | None
 
     @property
     def is_finite(self) -> bool:

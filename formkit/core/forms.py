@@ -18,11 +18,12 @@ References
 
 from __future__ import annotations
 
-from typing import TYPE_CHECKING, Iterator, Sequence, Tuple, Union
+from collections.abc import Iterator, Sequence
+from typing import TYPE_CHECKING
 
+from ..errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker
 from .modular_roots import sqrt_mod_prime
-from ..errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 
 if TYPE_CHECKING:  # pragma: no cover
     import sympy
@@ -39,7 +40,7 @@ __all__ = [
     "mat_inverse",
 ]
 
-Matrix = Tuple[Tuple[int, int], Tuple[int, int]]
+Matrix = tuple[tuple[int, int], tuple[int, int]]
 IDENTITY: Matrix = ((1, 0), (0, 1))
 
 
@@ -202,7 +203,7 @@ class Form:
     def __hash__(self) -> int:
         return hash(("Form", self._a, self._b, self._c))
 
-    def __lt__(self, other: "Form") -> bool:
+    def __lt__(self, other: Form) -> bool:
         if not isinstance(other, Form):
             return NotImplemented
         return self.coefficients < other.coefficients
@@ -262,7 +263,7 @@ class Form:
         y = as_int(y, "y")
         return self._a * x * x + self._b * x * y + self._c * y * y
 
-    def transform(self, matrix: object) -> "Form":
+    def transform(self, matrix: object) -> Form:
         """``Q·M``: the form ``Q(px + qy, rx + sy)`` for ``M = [[p, q], [r, s]]``.
 
         Any integral 2×2 matrix is accepted here (also singular ones); equivalence
@@ -282,28 +283,28 @@ class Form:
 
     __mul__ = transform
 
-    def __neg__(self) -> "Form":
+    def __neg__(self) -> Form:
         return Form(-self._a, -self._b, -self._c)
 
-    def opposite(self) -> "Form":
+    def opposite(self) -> Form:
         """``(a, −b, c)``: the form ``Q·diag(1, −1)``, whose class is the inverse class."""
         return Form(self._a, -self._b, self._c)
 
-    def primitive_part(self) -> "Form":
+    def primitive_part(self) -> Form:
         """The form divided by its content (the zero form stays zero)."""
         g = self.content
         if g <= 1:
             return self
         return Form(self._a // g, self._b // g, self._c // g)
 
-    def scaled(self, k: int) -> "Form":
+    def scaled(self, k: int) -> Form:
         """``k·Q``."""
         k = as_int(k, "k")
         return Form(k * self._a, k * self._b, k * self._c)
 
     # -- constructors -----------------------------------------------------------
     @classmethod
-    def principal(cls, D: object) -> "Form":
+    def principal(cls, D: object) -> Form:
         """The principal form of discriminant ``D``: ``x² + (D mod 2)xy + ((D mod 2) − D)/4 y²``.
 
         Examples
@@ -318,7 +319,7 @@ class Form:
         return cls(1, k, (k - D) // 4)
 
     @classmethod
-    def prime_form(cls, D: object, p: object) -> "Form":
+    def prime_form(cls, D: object, p: object) -> Form:
         """The prime form of discriminant ``D`` at the prime ``p``: ``(p, b, (b² − D)/4p)``.
 
         ``b`` is the least non-negative solution of ``b² ≡ D (mod 4p)`` with
@@ -364,7 +365,7 @@ class Form:
         return cls(p, b, (b * b - D) // (4 * p))
 
     @classmethod
-    def parse(cls, text: str) -> "Form":
+    def parse(cls, text: str) -> Form:
         """Read a form from text, without evaluating it.
 
         Accepts ``a,b,c``, ``[a,b,c]``, ``(a,b,c)`` and polynomials in x and y such as
@@ -387,7 +388,7 @@ class Form:
         return cls(*parse_form_text(text))
 
     # -- sympy -------------------------------------------------------------------
-    def to_sympy(self, x: "sympy.Symbol | None" = None, y: "sympy.Symbol | None" = None) -> "sympy.Poly":
+    def to_sympy(self, x: sympy.Symbol | None = None, y: sympy.Symbol | None = None) -> sympy.Poly:
         """The form as a ``sympy.Poly`` in ``x, y`` (symbols created if not given)."""
         import sympy
 
@@ -396,7 +397,7 @@ class Form:
         return sympy.Poly(self._a * x**2 + self._b * x * y + self._c * y**2, x, y)
 
     @classmethod
-    def from_sympy(cls, poly: object, x: object = None, y: object = None) -> "Form":
+    def from_sympy(cls, poly: object, x: object = None, y: object = None) -> Form:
         """Build a form from a sympy expression or ``Poly``, homogeneous of degree 2 in x, y.
 
         Only sympy objects are accepted: text is never handed to sympy (use
@@ -435,14 +436,16 @@ class Form:
         formkit.errors.FormError: from_sympy takes a sympy expression or Poly, not the text 'x**2 + y**2'; use Form.parse for text
         """
         import sympy
-        from sympy.polys.polyerrors import PolynomialError, GeneratorsError
+        from sympy.polys.polyerrors import GeneratorsError, PolynomialError
 
         if isinstance(poly, str):
             raise FormError(
                 f"from_sympy takes a sympy expression or Poly, not the text {poly!r}; use Form.parse for text"
             )
         if not isinstance(poly, sympy.Basic):
-            raise FormError(f"from_sympy takes a sympy expression or Poly, not {poly!r} ({type(poly).__name__})")
+            raise FormError(
+                f"from_sympy takes a sympy expression or Poly, not {poly!r} ({type(poly).__name__})"
+            )
         if (x is None) != (y is None):
             raise FormError("from_sympy: give both variables x and y, or neither")
         for v in (x, y):
@@ -472,7 +475,7 @@ class Form:
             raise FormError(f"a binary form needs exactly two variables, not {P.gens}")
         if P.is_zero:
             return cls(0, 0, 0)
-        coeffs = {m: cf for m, cf in P.terms()}
+        coeffs = dict(P.terms())
         if any(sum(m) != 2 for m in coeffs):
             raise FormError(f"not homogeneous of degree 2: {P.as_expr()}")
         out = []
@@ -515,7 +518,7 @@ class Form:
         return [self._a, self._b, self._c]
 
 
-FormLike = Union[Form, Sequence[int], str]
+FormLike = Form | Sequence[int] | str
 
 
 def as_form(value: object, *, name: str = "form") -> Form:

@@ -14,8 +14,8 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Iterable, Sequence
 from functools import lru_cache
-from typing import Iterable, Sequence
 
 from ..errors import FormkitError, NotPrimeError
 from .arith import _int, _powmod, as_int, factorint, gcd, invert, is_probable_prime, kronecker, mpz

@@ -27,8 +27,8 @@ from __future__ import annotations
 import operator
 import re
 
-from .arith import _int_from_digits
 from ..errors import ParseError
+from .arith import _int_from_digits
 
 __all__ = ["parse_form_text", "parse_integer"]
 

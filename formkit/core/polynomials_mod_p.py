@@ -16,10 +16,10 @@ References
 
 from __future__ import annotations
 
-from typing import Sequence
+from collections.abc import Sequence
 
-from .arith import as_int, is_probable_prime
 from ..errors import FormError, NotPrimeError
+from .arith import as_int, is_probable_prime
 
 __all__ = ["root_count_mod_prime", "is_squarefree_mod_prime"]
 
@@ -40,7 +40,7 @@ def _pack(f: list[int], width: int) -> int:
 
 def _unpack(n: int, width: int, count: int, p: int) -> list[int]:
     raw = n.to_bytes(width * count, "little")
-    return [int.from_bytes(raw[i * width:(i + 1) * width], "little") % p for i in range(count)]
+    return [int.from_bytes(raw[i * width : (i + 1) * width], "little") % p for i in range(count)]
 
 
 def _mul(f: list[int], g: list[int], p: int) -> list[int]:
@@ -121,7 +121,9 @@ def _check_prime(p: object) -> int:
 def _check_monic(coefficients: Sequence[int]) -> list[int]:
     coeffs = [as_int(c, "coefficient") for c in coefficients]
     if not coeffs or coeffs[0] != 1:
-        raise FormError(f"the polynomial must be monic (leading coefficient 1 first), not {list(coefficients)[:3]}…")
+        raise FormError(
+            f"the polynomial must be monic (leading coefficient 1 first), not {list(coefficients)[:3]}…"
+        )
     return coeffs
 
 

@@ -36,7 +36,6 @@ def _to_work(*values):
     return tuple(int(v) for v in values)
 
 
-
 def _is_reduced_definite_raw(a: int, b: int, c: int) -> bool:
     if a < 0:
         a, b, c = -a, -b, -c
@@ -97,5 +96,3 @@ def _principal_reduced_indefinite(D: int) -> tuple[int, int, int]:
     sq = int(isqrt(D))
     b = sq if (sq - D) % 2 == 0 else sq - 1
     return 1, b, (b * b - D) // 4
-
-

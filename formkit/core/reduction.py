@@ -28,10 +28,9 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Tuple
 
-from .arith import isqrt
 from ..errors import FormError
+from .arith import isqrt
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
 from .raw_reduction import (
     _is_reduced_definite_raw,
@@ -76,7 +75,7 @@ class ReductionResult:
     form: Form
     reduced: Form
     matrix: Matrix
-    steps: Tuple[ReductionStep, ...] = field(default=(), repr=False)
+    steps: tuple[ReductionStep, ...] = field(default=(), repr=False)
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
@@ -96,8 +95,8 @@ class FormCycle:
     the product of all of them is an automorph of ``forms[0]``.
     """
 
-    forms: Tuple[Form, ...]
-    matrices: Tuple[Matrix, ...] = field(repr=False)
+    forms: tuple[Form, ...]
+    matrices: tuple[Matrix, ...] = field(repr=False)
 
     def __len__(self) -> int:
         return len(self.forms)
@@ -250,9 +249,7 @@ def _reduce_indefinite(f: Form, D: int, record: bool) -> ReductionResult:
         p, q, r, s = q, -p + t * q, s, -r + t * s
         if record:
             trace.append(
-                ReductionStep(
-                    "rho", Form(*before), ((0, -1), (1, int(t))), Form(int(a), int(b), int(c))
-                )
+                ReductionStep("rho", Form(*before), ((0, -1), (1, int(t))), Form(int(a), int(b), int(c)))
             )
     matrix = ((int(p), int(q)), (int(r), int(s)))
     return ReductionResult(f, Form(int(a), int(b), int(c)), matrix, tuple(trace))

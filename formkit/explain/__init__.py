@@ -21,14 +21,14 @@ command ``formkit explain``).  This layer imports :mod:`formkit.core`,
 :mod:`formkit`.
 """
 
-from .class_group import *  # noqa: F401,F403
+from .class_group import *  # noqa: F403
 from .class_group import __all__ as _class_group_all
-from .composition import *  # noqa: F401,F403
+from .composition import *  # noqa: F403
 from .composition import __all__ as _composition_all
 from .document import EXPLAIN_FORMATS, WorkedExample
-from .reduction import *  # noqa: F401,F403
+from .reduction import *  # noqa: F403
 from .reduction import __all__ as _reduction_all
-from .representation import *  # noqa: F401,F403
+from .representation import *  # noqa: F403
 from .representation import __all__ as _representation_all
 
 __all__ = [

@@ -16,7 +16,6 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Optional, Tuple
 
 from ..core.arith import xgcd
 from ..core.forms import Form, FormLike, as_form
@@ -41,6 +40,7 @@ __all__ = [
     "worked_composition",
     "explain_composition",
 ]
+
 
 def _p(x: int) -> str:
     """An integer for substitution into a formula: negative ones in parentheses."""
@@ -70,10 +70,10 @@ class CompositionTrace:
     second: Form
     s: int
     n: int
-    euclid1: Optional[Tuple[int, int, int]]
+    euclid1: tuple[int, int, int] | None
     y1: int
     d: int
-    euclid2: Optional[Tuple[int, int, int]]
+    euclid2: tuple[int, int, int] | None
     x2: int
     y2: int
     d1: int
@@ -170,8 +170,12 @@ def composition_trace(F: FormLike, G: FormLike) -> CompositionTrace:
         from ..core.equivalence import proper_equivalence
 
         if proper_equivalence(check, red.reduced) is None:  # pragma: no cover - would be a bug
-            raise ArithmeticError(f"traced composition {red.reduced!r} not equivalent to compose() = {check!r}")
-    return CompositionTrace(F, G, D, swapped, P1, P2, s, n, e1, y1, d, e2, x2, y2, d1, v1, v2, r, composite, red)
+            raise ArithmeticError(
+                f"traced composition {red.reduced!r} not equivalent to compose() = {check!r}"
+            )
+    return CompositionTrace(
+        F, G, D, swapped, P1, P2, s, n, e1, y1, d, e2, x2, y2, d1, v1, v2, r, composite, red
+    )
 
 
 def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
@@ -190,13 +194,15 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
     """
     t = composition_trace(F, G)
     D = t.discriminant
-    a1, b1, c1 = t.first.coefficients
+    a1, b1, _c1 = t.first.coefficients
     a2, b2, c2 = t.second.coefficients
     title = f"Composition of {t.F.to_list()} and {t.G.to_list()}"
     blocks: list[Block] = [
         Heading(1, title),
         Paragraph(
-            text(f"Both forms have discriminant @D = {D}@: @F = @") + (m_poly(t.F),) + text(" and @G = @")
+            text(f"Both forms have discriminant @D = {D}@: @F = @")
+            + (m_poly(t.F),)
+            + text(" and @G = @")
             + (m_poly(t.G), ".")
         ),
         para(
@@ -208,12 +214,17 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
         Heading(2, "Intermediate values"),
     ]
     steps = [
-        text("Order: @(a1, b1, c1) = @") + (m_form(t.first),) + text(", @(a2, b2, c2) = @") + (m_form(t.second),)
+        text("Order: @(a1, b1, c1) = @")
+        + (m_form(t.first),)
+        + text(", @(a2, b2, c2) = @")
+        + (m_form(t.second),)
         + (" (the two forms were exchanged)." if t.swapped else " (already in this order).",),
         text(f"@s = (b1 + b2)/2 = ({b1} + {_p(b2)})/2 = {t.s}@ and @n = b2 - s = {t.n}@."),
     ]
     if t.euclid1 is None:
-        steps.append(text(f"First Euclid step: @a1 = {a1}@ divides @a2 = {a2}@, so @y1 = 0@ and @d = a1 = {t.d}@."))
+        steps.append(
+            text(f"First Euclid step: @a1 = {a1}@ divides @a2 = {a2}@, so @y1 = 0@ and @d = a1 = {t.d}@.")
+        )
     else:
         d, u, v = t.euclid1
         steps.append(
@@ -224,7 +235,9 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
         )
     if t.euclid2 is None:
         steps.append(
-            text(f"Second Euclid step: @d = {t.d}@ divides @s = {t.s}@, so @x2 = 0@, @y2 = -1@ and @d1 = d = {t.d1}@.")
+            text(
+                f"Second Euclid step: @d = {t.d}@ divides @s = {t.s}@, so @x2 = 0@, @y2 = -1@ and @d1 = d = {t.d1}@."
+            )
         )
     else:
         d1, u, v = t.euclid2
@@ -236,7 +249,9 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
         )
     steps.append(text(f"@v1 = a1/d1 = {t.v1}@ and @v2 = a2/d1 = {t.v2}@."))
     steps.append(
-        text(f"@r = (y1 y2 n - x2 c2) mod v1 = ({_p(t.y1)}·{_p(t.y2)}·{_p(t.n)} - {_p(t.x2)}·{_p(c2)}) mod {t.v1} = {t.r}@.")
+        text(
+            f"@r = (y1 y2 n - x2 c2) mod v1 = ({_p(t.y1)}·{_p(t.y2)}·{_p(t.n)} - {_p(t.x2)}·{_p(c2)}) mod {t.v1} = {t.r}@."
+        )
     )
     a3, b3, c3 = t.composite.coefficients
     steps.append(
@@ -257,7 +272,10 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
     red_blocks, recs = reduction_blocks(t.reduction)
     blocks.extend(red_blocks)
     blocks.append(
-        Paragraph(text("So @F * G@ is the class of ") + (m_poly(t.result), ", the reduced form ", m_form(t.result), "."))
+        Paragraph(
+            text("So @F * G@ is the class of ")
+            + (m_poly(t.result), ", the reduced form ", m_form(t.result), ".")
+        )
     )
     if D > 0:
         blocks.append(

@@ -15,8 +15,8 @@ unless a fragment is asked for.
 from __future__ import annotations
 
 import re
+from collections.abc import Sequence
 from dataclasses import dataclass, field
-from typing import Sequence, Tuple, Union
 
 from ..core.arith import as_int
 from ..errors import FormkitError
@@ -56,8 +56,8 @@ class Math:
     plain: str
 
 
-Inline = Union[str, Math]
-Line = Tuple[Inline, ...]
+Inline = str | Math
+Line = tuple[Inline, ...]
 
 
 @dataclass(frozen=True)
@@ -79,7 +79,7 @@ class Paragraph:
 class Items:
     """A numbered (``numbered=True``) or bulleted list; each item is a line."""
 
-    items: Tuple[Line, ...]
+    items: tuple[Line, ...]
     numbered: bool = True
 
 
@@ -87,8 +87,8 @@ class Items:
 class Table:
     """A table: header cells and rows of cells (each cell a line)."""
 
-    header: Tuple[Line, ...]
-    rows: Tuple[Tuple[Line, ...], ...]
+    header: tuple[Line, ...]
+    rows: tuple[tuple[Line, ...], ...]
 
 
 @dataclass(frozen=True)
@@ -98,7 +98,7 @@ class Display:
     math: Math
 
 
-Block = Union[Heading, Paragraph, Items, Table, Display]
+Block = Heading | Paragraph | Items | Table | Display
 
 
 def line(*parts: Inline) -> Line:
@@ -189,7 +189,7 @@ def text(src: str) -> Line:
     return tuple(formula(p) if i % 2 else p for i, p in enumerate(parts) if p)
 
 
-def para(src: str) -> "Paragraph":
+def para(src: str) -> Paragraph:
     """A paragraph from :func:`text` markup."""
     return Paragraph(text(src))
 
@@ -216,7 +216,7 @@ class WorkedExample:
     kind: str
     title: str
     data: dict = field(repr=False)
-    blocks: Tuple["Block", ...] = field(repr=False)
+    blocks: tuple[Block, ...] = field(repr=False)
 
     def render(self, format: str = "md", *, fragment: bool = False) -> str:
         """The example as ``"md"`` (Markdown) or ``"tex"`` (LaTeX; ``fragment=True``
@@ -457,17 +457,19 @@ def matrix_list(M) -> list:
 def _step_line(step, running) -> Line:
     b, a = step.before, step.after
     if step.kind == "translate":
-        how = text(
-            f"translate by @k = {step.matrix[0][1]}@: @b + 2ak = {a.b}@, @ak^2 + bk + c = {a.c}@"
-        )
+        how = text(f"translate by @k = {step.matrix[0][1]}@: @b + 2ak = {a.b}@, @ak^2 + bk + c = {a.c}@")
     elif step.kind == "swap":
         why = "@|a| > |c|@" if abs(b.a) != abs(b.c) else "@a = c@ and b has the wrong sign"
         how = text(f"swap @(a, b, c) -> (c, -b, a)@ since {why}")
     else:
         how = text(f"rho with @t = {step.matrix[1][1]}@: @b' = -b + 2ct = {a.b}@, @(b'^2 - D)/4c = {a.c}@")
-    return (m_form(b), " to ", m_form(a), " by ", m_matrix(step.matrix), ": ") + how + (
-        "; running product ",
-        m_matrix(running),
+    return (
+        (m_form(b), " to ", m_form(a), " by ", m_matrix(step.matrix), ": ")
+        + how
+        + (
+            "; running product ",
+            m_matrix(running),
+        )
     )
 
 
@@ -482,7 +484,9 @@ def why_reduced(f) -> Line:
         extra = ""
         if abs(b) == a or a == c:
             extra = f", and @b = {b} >= 0@ as @|b| = a@ or @a = c@"
-        return text(f"The form is reduced: for {pre}@({a}, {b}, {c})@, @|b| = {abs(b)} <= a = {a} <= c = {c}@{extra}.")
+        return text(
+            f"The form is reduced: for {pre}@({a}, {b}, {c})@, @|b| = {abs(b)} <= a = {a} <= c = {c}@{extra}."
+        )
     s = int(isqrt(D))
     return text(
         f"The form is reduced: with @s = floor(sqrt(D)) = {s}@ we have @0 < b = {f.b} <= s@ and "
@@ -520,8 +524,15 @@ def reduction_blocks(res) -> tuple[list, list]:
         raise ArithmeticError(f"reduction of {res.form!r}: the matrix does not give the reduced form")
     blocks.append(
         Paragraph(
-            ("Result: ", m_form(res.form), " transformed by ", m_matrix(res.matrix), " is ", m_form(res.reduced),
-             " (checked by substituting the matrix into the form).")
+            (
+                "Result: ",
+                m_form(res.form),
+                " transformed by ",
+                m_matrix(res.matrix),
+                " is ",
+                m_form(res.reduced),
+                " (checked by substituting the matrix into the form).",
+            )
         )
     )
     blocks.append(Paragraph(why_reduced(res.reduced)))

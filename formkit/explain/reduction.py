@@ -69,7 +69,9 @@ def worked_reduction(form: FormLike) -> WorkedExample:
     title = f"Reduction of {f.to_list()}"
     blocks: list[Block] = [
         Heading(1, title),
-        Paragraph(("The form ", m_poly(f)) + text(f" has discriminant @D = b^2 - 4ac = {D}@; it is {f.kind}.")),
+        Paragraph(
+            ("The form ", m_poly(f)) + text(f" has discriminant @D = b^2 - 4ac = {D}@; it is {f.kind}.")
+        ),
     ]
     if D < 0:
         blocks.append(
@@ -106,7 +108,11 @@ def worked_reduction(form: FormLike) -> WorkedExample:
         blocks.append(
             para(
                 "Applying rho to a reduced form gives a reduced form; the reduced forms of the class form one cycle"
-                + (f" of length {len(forms)}:" if complete else f", longer than {CYCLE_SHOWN}; its first {len(forms)} forms:")
+                + (
+                    f" of length {len(forms)}:"
+                    if complete
+                    else f", longer than {CYCLE_SHOWN}; its first {len(forms)} forms:"
+                )
             )
         )
         blocks.append(Items(tuple((m_form(g),) for g in forms)))

@@ -23,8 +23,8 @@ References
 from __future__ import annotations
 
 from ..core.arith import as_int, factorint, gcd
-from ..core.modular_roots import sqrt_mod
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.modular_roots import sqrt_mod
 from ..core.reduction import reduce_form
 from .document import (
     Block,
@@ -131,7 +131,9 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         none = f"The coefficients of Q have common divisor {k}, which does not divide {m}: no solutions."
     elif k > 1:
         P, m = Form(P.a // k, P.b // k, P.c // k), m // k
-        note.append(f"The coefficients have common divisor @{k}@: we solve @{P.a}x^2 + ({P.b})xy + ({P.c})y^2 = {m}@.")
+        note.append(
+            f"The coefficients have common divisor @{k}@: we solve @{P.a}x^2 + ({P.b})xy + ({P.c})y^2 = {m}@."
+        )
     if none is None and D < 0 and m < 0:
         none = f"A positive definite form takes no negative value such as {m}: no solutions."
     for t in note:
@@ -184,15 +186,22 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     for g in _square_divisors(m):
         mm = m // (g * g)
         am = abs(mm)
-        blocks.append(Heading(2, f"g = {g}: proper solutions of Q(x, y) = {mm}" + (f", times {g}" if g > 1 else "")))
+        blocks.append(
+            Heading(2, f"g = {g}: proper solutions of Q(x, y) = {mm}" + (f", times {g}" if g > 1 else ""))
+        )
         roots = [int(b) for b in sqrt_mod(DP, 4 * am) if b < 2 * am]
         if not roots:
-            blocks.append(para(f"No b in @[0, {2 * am})@ has @b^2 ≡ {DP} (mod {4 * am})@: {DP} is not a square modulo {4 * am}."))
+            blocks.append(
+                para(
+                    f"No b in @[0, {2 * am})@ has @b^2 ≡ {DP} (mod {4 * am})@: {DP} is not a square modulo {4 * am}."
+                )
+            )
             continue
         blocks.append(
             para(
                 f"The b in @[0, {2 * am})@ with @b^2 ≡ {DP} (mod {4 * am})@: "
-                + ", ".join(f"@{b}@" for b in roots) + "."
+                + ", ".join(f"@{b}@" for b in roots)
+                + "."
             )
         )
         rows = []
@@ -218,10 +227,14 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
                 if P.transform(M) != F or P(x, y) != mm:  # pragma: no cover - would be a bug
                     raise ArithmeticError(f"representation of {mm} by {P!r}: matrix check failed")
                 sol = (g * x, g * y)
-                rows.append((m_int(b), m_form(F), ("yes",), (m_form(rf.reduced),), ("yes",), (m_vector(sol),)))
+                rows.append(
+                    (m_int(b), m_form(F), ("yes",), (m_form(rf.reduced),), ("yes",), (m_vector(sol),))
+                )
                 rec.update(equivalent=True, matrix=matrix_list(M), solution=list(sol))
                 if automorphs:
-                    solutions.extend((g * (A[0][0] * x + A[0][1] * y), g * (A[1][0] * x + A[1][1] * y)) for A in automorphs)
+                    solutions.extend(
+                        (g * (A[0][0] * x + A[0][1] * y), g * (A[1][0] * x + A[1][1] * y)) for A in automorphs
+                    )
                 else:
                     solutions.append(sol)
             roots_rec.append(rec)
@@ -234,21 +247,42 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             rec["steps"] = steps_rec
             details.extend(steps_blocks)
             if N is None:
-                details.append(Paragraph(("The reduced form ", m_form(rf.reduced), " is not that of Q: no solution from this b.")))
+                details.append(
+                    Paragraph(
+                        (
+                            "The reduced form ",
+                            m_form(rf.reduced),
+                            " is not that of Q: no solution from this b.",
+                        )
+                    )
+                )
             else:
                 details.append(
                     Paragraph(
-                        ("It is " + ("on the cycle of Q" if DP > 0 else "the reduced form of Q") + ", so ",
-                         m_form(F), " = Q·M with ", m_matrix(M))
-                        + text(" (the matrix taking Q to that reduced form times the inverse of this reduction "
-                               f"matrix); its first column "
-                               f"@({x}, {y})@ gives @Q({x}, {y}) = {mm}@")
+                        (
+                            "It is " + ("on the cycle of Q" if DP > 0 else "the reduced form of Q") + ", so ",
+                            m_form(F),
+                            " = Q·M with ",
+                            m_matrix(M),
+                        )
+                        + text(
+                            " (the matrix taking Q to that reduced form times the inverse of this reduction "
+                            f"matrix); its first column "
+                            f"@({x}, {y})@ gives @Q({x}, {y}) = {mm}@"
+                        )
                         + (text(f"; scaled by g: @{sol}@.") if g > 1 else (".",))
                     )
                 )
         blocks.append(
             Table(
-                (("b",), ("form (m, b, c)",), ("primitive",), ("reduced",), ("equivalent to Q",), ("solution (x, y)",)),
+                (
+                    ("b",),
+                    ("form (m, b, c)",),
+                    ("primitive",),
+                    ("reduced",),
+                    ("equivalent to Q",),
+                    ("solution (x, y)",),
+                ),
                 tuple(rows),
             )
         )
@@ -266,7 +300,8 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             blocks.append(
                 para(
                     f"{len(solutions)} solutions ({len(prim)} of them proper): "
-                    + ", ".join(f"@{v}@" for v in solutions) + "."
+                    + ", ".join(f"@{v}@" for v in solutions)
+                    + "."
                 )
             )
         else:

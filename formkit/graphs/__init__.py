@@ -12,11 +12,11 @@ the names below.  This layer imports :mod:`formkit.core`, :mod:`formkit.classgro
 :mod:`formkit.errors`.
 """
 
-from .construction import *  # noqa: F401,F403
+from .construction import *  # noqa: F403
 from .construction import __all__ as _construction_all
-from .export import *  # noqa: F401,F403
+from .export import *  # noqa: F403
 from .export import __all__ as _export_all
-from .labels import *  # noqa: F401,F403
+from .labels import *  # noqa: F403
 from .labels import __all__ as _labels_all
 
 __all__ = [*_construction_all, *_labels_all, *_export_all]

@@ -11,7 +11,7 @@ References
 from __future__ import annotations
 
 import colorsys
-from typing import Dict, Hashable, List
+from collections.abc import Hashable
 
 import networkx as nx
 
@@ -24,21 +24,33 @@ __all__ = [
 ]
 
 # ColorBrewer Set3 (pastel fills for genera) and Dark2 (strong strokes for primes).
-_FILLS = ["#8dd3c7", "#ffffb3", "#bebada", "#fb8072", "#80b1d3", "#fdb462",
-          "#b3de69", "#fccde5", "#d9d9d9", "#bc80bd", "#ccebc5", "#ffed6f"]
+_FILLS = [
+    "#8dd3c7",
+    "#ffffb3",
+    "#bebada",
+    "#fb8072",
+    "#80b1d3",
+    "#fdb462",
+    "#b3de69",
+    "#fccde5",
+    "#d9d9d9",
+    "#bc80bd",
+    "#ccebc5",
+    "#ffed6f",
+]
 _STROKES = ["#1b9e77", "#d95f02", "#7570b3", "#e7298a", "#66a61e", "#e6ab02", "#a6761d", "#666666"]
 
 
-def _extra_colours(n: int, light: bool) -> List[str]:
+def _extra_colours(n: int, light: bool) -> list[str]:
     out = []
     for i in range(n):
         h = (i * 0.618033988749895) % 1.0
         r, g, b = colorsys.hls_to_rgb(h, 0.78 if light else 0.38, 0.65)
-        out.append("#%02x%02x%02x" % (round(r * 255), round(g * 255), round(b * 255)))
+        out.append(f"#{round(r * 255):02x}{round(g * 255):02x}{round(b * 255):02x}")
     return out
 
 
-def _palette(base: List[str], n: int, light: bool) -> List[str]:
+def _palette(base: list[str], n: int, light: bool) -> list[str]:
     return base[:n] + (_extra_colours(n - len(base), light) if n > len(base) else [])
 
 
@@ -61,7 +73,7 @@ def genus_key(C: nx.Graph, node: Hashable) -> str:
     return label
 
 
-def genus_colours(C: nx.Graph) -> Dict[str, str]:
+def genus_colours(C: nx.Graph) -> dict[str, str]:
     """Fill colour (hex) per genus key (:func:`genus_key`), the principal genus first.
 
     In a fibre graph each group has its own list, both starting at the first colour.
@@ -72,12 +84,12 @@ def genus_colours(C: nx.Graph) -> Dict[str, str]:
     >>> genus_colours(cayley_graph(-84, [2, 3]))     # characters (n/3), (n/7), delta
     {'+++': '#8dd3c7', '+--': '#ffffb3', '-+-': '#bebada', '--+': '#fb8072'}
     """
-    groups: Dict[str, set] = {}
+    groups: dict[str, set] = {}
     for v in C.nodes:
         key = genus_key(C, v)
         prefix, _, label = key.rpartition(" ")
         groups.setdefault(prefix, set()).add(label)
-    out: Dict[str, str] = {}
+    out: dict[str, str] = {}
     for prefix in sorted(groups, key=lambda t: (len(t), t)):
         ordered = sorted(groups[prefix], key=lambda s: (s.count("-"), s.count("?"), s))
         for label, colour in zip(ordered, _palette(_FILLS, len(ordered), True)):
@@ -85,7 +97,7 @@ def genus_colours(C: nx.Graph) -> Dict[str, str]:
     return out
 
 
-def edge_colours(C: nx.Graph) -> Dict[int, str]:
+def edge_colours(C: nx.Graph) -> dict[int, str]:
     """Stroke colour (hex) per prime of a Cayley graph (empty for other graphs).
 
     Examples

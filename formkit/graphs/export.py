@@ -22,7 +22,6 @@ References
 from __future__ import annotations
 
 import json
-from typing import Optional, Tuple
 
 import networkx as nx
 
@@ -36,7 +35,7 @@ __all__ = [
     "graph_to_dot",
 ]
 
-Triple = Tuple[int, int, int]
+Triple = tuple[int, int, int]
 
 
 def _jsonable(v: object) -> object:
@@ -62,7 +61,7 @@ def _relabelled(C: nx.Graph) -> nx.Graph:
     return H
 
 
-def graph_to_json(C: nx.Graph, indent: Optional[int] = None) -> str:
+def graph_to_json(C: nx.Graph, indent: int | None = None) -> str:
     """The graph as networkx node-link JSON, nodes keyed ``"a,b,c"`` (edges under ``"edges"``).
 
     ``networkx.node_link_graph(json.loads(text))`` reads it back (with text keys);
@@ -214,6 +213,8 @@ def graph_to_dot(C: nx.Graph) -> str:
         elif "matrix" in d:
             m = d["matrix"]
             attrs = {"label": f"t={m[1][1]}", "matrix": json.dumps(m, separators=(",", ":"))}
-        lines.append(f"  {_dot_quote(node_label(u))} {arrow} {_dot_quote(node_label(v))} {_dot_attrs(attrs)};")
+        lines.append(
+            f"  {_dot_quote(node_label(u))} {arrow} {_dot_quote(node_label(v))} {_dot_attrs(attrs)};"
+        )
     lines.append("}")
     return "\n".join(lines) + "\n"

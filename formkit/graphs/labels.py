@@ -6,7 +6,7 @@ Shared by the export (:mod:`formkit.graphs.export`), the colour tables
 
 from __future__ import annotations
 
-from typing import Optional, Sequence, Tuple
+from collections.abc import Sequence
 
 import networkx as nx
 
@@ -16,7 +16,7 @@ __all__ = [
     "graph_title",
 ]
 
-Triple = Tuple[int, int, int]
+Triple = tuple[int, int, int]
 
 
 def node_label(node: Sequence[int]) -> str:
@@ -30,7 +30,7 @@ def node_label(node: Sequence[int]) -> str:
     return ",".join(str(int(v)) for v in node)
 
 
-def genus_label(symbol: Optional[Sequence[int]]) -> str:
+def genus_label(symbol: Sequence[int] | None) -> str:
     """A genus symbol ``(±1, …)`` as a short string of signs, ``'?'`` if unknown.
 
     Examples

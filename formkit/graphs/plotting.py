@@ -32,7 +32,7 @@ from __future__ import annotations
 
 import math
 import os
-from typing import Dict, Hashable, List, Optional, Tuple, Union
+from collections.abc import Hashable
 
 import networkx as nx
 
@@ -49,28 +49,31 @@ __all__ = [
 #: Picture formats written by :func:`save_picture`.
 PICTURE_FORMATS = ("png", "svg")
 
-Point = Tuple[float, float]
+Point = tuple[float, float]
 
 
 # ---------------------------------------------------------------------------
 # layout
 
 
-def _ring(m: int, centre: Point, r: float, phase: float = 0.0) -> List[Point]:
+def _ring(m: int, centre: Point, r: float, phase: float = 0.0) -> list[Point]:
     if m == 1:
         return [centre]
     return [
-        (centre[0] + r * math.sin(2 * math.pi * j / m + phase), centre[1] + r * math.cos(2 * math.pi * j / m + phase))
+        (
+            centre[0] + r * math.sin(2 * math.pi * j / m + phase),
+            centre[1] + r * math.cos(2 * math.pi * j / m + phase),
+        )
         for j in range(m)
     ]
 
 
-def _grid_centres(R: int) -> List[Point]:
+def _grid_centres(R: int) -> list[Point]:
     cols = math.ceil(math.sqrt(R))
     return [(float(k % cols), -float(k // cols)) for k in range(R)]
 
 
-def _ring_prime(C: nx.Graph) -> Optional[int]:
+def _ring_prime(C: nx.Graph) -> int | None:
     """The prime of largest class order (smallest such prime), None without primes."""
     from .construction import prime_orders
 
@@ -81,7 +84,7 @@ def _ring_prime(C: nx.Graph) -> Optional[int]:
     return max(primes, key=lambda p: (orders[p], -p))
 
 
-def _cayley_rings(C: nx.Graph) -> List[List[Hashable]]:
+def _cayley_rings(C: nx.Graph) -> list[list[Hashable]]:
     primes = list(C.graph.get("primes", []))
     nodes = list(C.nodes)
     p1 = _ring_prime(C)
@@ -90,8 +93,8 @@ def _cayley_rings(C: nx.Graph) -> List[List[Hashable]]:
     step = {p: {} for p in primes}
     for u, v, q in C.edges(data="prime"):
         step[q][u] = v
-    ring_of: Dict[Hashable, int] = {}
-    rings: List[List[Hashable]] = []
+    ring_of: dict[Hashable, int] = {}
+    rings: list[list[Hashable]] = []
 
     def make_ring(base: Hashable) -> None:
         ring, x = [base], step[p1][base]
@@ -119,8 +122,8 @@ def _cayley_rings(C: nx.Graph) -> List[List[Hashable]]:
     return rings
 
 
-def _place_rings(rings: List[List[Hashable]], scale_by_size: bool) -> Dict[Hashable, Point]:
-    pos: Dict[Hashable, Point] = {}
+def _place_rings(rings: list[list[Hashable]], scale_by_size: bool) -> dict[Hashable, Point]:
+    pos: dict[Hashable, Point] = {}
     R = len(rings)
     m = max(len(r) for r in rings)
     if R == 1:
@@ -139,7 +142,7 @@ def _place_rings(rings: List[List[Hashable]], scale_by_size: bool) -> Dict[Hasha
     return pos
 
 
-def _cycle_rings(C: nx.Graph) -> List[List[Hashable]]:
+def _cycle_rings(C: nx.Graph) -> list[list[Hashable]]:
     rings = []
     seen = set()
     starts = sorted(C.nodes, key=lambda n: (tuple(C.nodes[n].get("class_form", n)) != tuple(n), n))
@@ -157,9 +160,9 @@ def _cycle_rings(C: nx.Graph) -> List[List[Hashable]]:
     return rings
 
 
-def _fibre_layout(C: nx.Graph) -> Dict[Hashable, Point]:
+def _fibre_layout(C: nx.Graph) -> dict[Hashable, Point]:
     top = [n for n, s in C.nodes(data="bipartite") if s == 1]
-    pos: Dict[Hashable, Point] = {}
+    pos: dict[Hashable, Point] = {}
     for y, c in zip(top, _grid_centres(len(top))):
         pos[y] = c
         fibre = sorted(C.predecessors(y))
@@ -171,7 +174,7 @@ def _fibre_layout(C: nx.Graph) -> Dict[Hashable, Point]:
     return pos
 
 
-def graph_layout(C: nx.Graph) -> Dict[Hashable, Point]:
+def graph_layout(C: nx.Graph) -> dict[Hashable, Point]:
     """Node positions for a graph of :mod:`formkit.graphs` (see the module docstring).
 
     Examples
@@ -214,7 +217,7 @@ def _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale) -> None:
     edge), shortened to stop at the node rims; used for large graphs."""
     if not el:
         return
-    rim = (math.sqrt(node_size) / 2 + 1.5)  # points
+    rim = math.sqrt(node_size) / 2 + 1.5  # points
     X, Y, U, V = [], [], [], []
     for u, v in el:
         (x0, y0), (x1, y1) = pos[u], pos[v]
@@ -229,15 +232,25 @@ def _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale) -> None:
         V.append(dy * (1 - 2 * t))
     if X:
         ax.quiver(
-            X, Y, U, V, angles="xy", scale_units="xy", scale=1, color=colour, alpha=alpha,
-            units="inches", width=max(0.6, width) / 72, headwidth=4.5, headlength=5.5, headaxislength=5,
+            X,
+            Y,
+            U,
+            V,
+            angles="xy",
+            scale_units="xy",
+            scale=1,
+            color=colour,
+            alpha=alpha,
+            units="inches",
+            width=max(0.6, width) / 72,
+            headwidth=4.5,
+            headlength=5.5,
+            headaxislength=5,
             zorder=1,
         )
 
 
-def draw_graph(
-    C: nx.Graph, *, labels: Optional[bool] = None, title: Optional[str] = None, edges: str = "auto"
-):
+def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = None, edges: str = "auto"):
     """Draw a graph of :mod:`formkit.graphs` on a new matplotlib ``Figure`` (no pyplot state).
 
     Parameters
@@ -303,8 +316,17 @@ def draw_graph(
             _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale)
         else:
             nx.draw_networkx_edges(
-                C, pos, edgelist=el, ax=ax, edge_color=colour, width=width, arrows=True, arrowsize=arrow,
-                node_size=node_size, connectionstyle=f"arc3,rad={rad:.2f}", alpha=alpha,
+                C,
+                pos,
+                edgelist=el,
+                ax=ax,
+                edge_color=colour,
+                width=width,
+                arrows=True,
+                arrowsize=arrow,
+                node_size=node_size,
+                connectionstyle=f"arc3,rad={rad:.2f}",
+                alpha=alpha,
             )
 
     if kind == "cayley":
@@ -318,22 +340,35 @@ def draw_graph(
 
     # nodes, by genus and (fibres) by side
     identity = tuple(C.graph.get("identity", ())) or None
-    groups: Dict[Tuple[str, str], List] = {}
+    groups: dict[tuple[str, str], list] = {}
     for v, d in C.nodes(data=True):
         shape = "s" if d.get("bipartite") == 1 else "o"
         groups.setdefault((genus_key(C, v), shape), []).append(v)
     for (g, shape), nodes in groups.items():
         nx.draw_networkx_nodes(
-            C, pos, nodelist=nodes, ax=ax, node_color=gcol[g], node_shape=shape,
-            node_size=node_size * (1.6 if shape == "s" else 1.0), edgecolors="#444444",
+            C,
+            pos,
+            nodelist=nodes,
+            ax=ax,
+            node_color=gcol[g],
+            node_shape=shape,
+            node_size=node_size * (1.6 if shape == "s" else 1.0),
+            edgecolors="#444444",
             linewidths=0.6 if n > 40 else 0.9,
         )
     for e in (identity, tuple(C.graph.get("identity_maximal", ())) or None):
         if e in pos:
             big_e = C.nodes[e].get("bipartite") == 1
             nx.draw_networkx_nodes(
-                C, pos, nodelist=[e], ax=ax, node_color=gcol[genus_key(C, e)], node_shape="s" if big_e else "o",
-                node_size=node_size * (1.6 if big_e else 1.0), edgecolors="black", linewidths=2.0 if n <= 40 else 1.2,
+                C,
+                pos,
+                nodelist=[e],
+                ax=ax,
+                node_color=gcol[genus_key(C, e)],
+                node_shape="s" if big_e else "o",
+                node_size=node_size * (1.6 if big_e else 1.0),
+                edgecolors="black",
+                linewidths=2.0 if n <= 40 else 1.2,
             )
     if labels:
         fs = 9 if n <= 12 else (7 if n <= 24 else 6)
@@ -346,7 +381,9 @@ def draw_graph(
             cy = sum(pos[v][1] for v in ring) / len(ring)
             if len(ring) <= 2:  # no room inside: write the class below the pair
                 cy = min(pos[v][1] for v in ring) - 0.08
-            ax.text(cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333")
+            ax.text(
+                cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333"
+            )
 
     # legends
     handles = []
@@ -355,8 +392,18 @@ def draw_graph(
     for g, colour in shown:
         prefix, _, label = g.rpartition(" ")
         text = f"genus {label}" + (f" in Cl({prefix})" if prefix else "")
-        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor=colour,
-                              markeredgecolor="#444444", markersize=8, label=text))
+        handles.append(
+            Line2D(
+                [],
+                [],
+                marker="o",
+                linestyle="",
+                markerfacecolor=colour,
+                markeredgecolor="#444444",
+                markersize=8,
+                label=text,
+            )
+        )
     if len(genera) > len(shown):
         handles.append(Line2D([], [], linestyle="", label=f"… {len(genera)} genera in all"))
     if kind == "cayley":
@@ -366,13 +413,44 @@ def draw_graph(
         for p, colour in ecol.items():
             handles.append(Line2D([], [], color=colour, linewidth=2, label=f"·[{p}]  (order {orders[p]})"))
     if kind == "fibres":
-        handles.append(Line2D([], [], marker="s", linestyle="", markerfacecolor="white", markeredgecolor="#444444",
-                              markersize=9, label=f"class of Cl({C.graph['fundamental_discriminant']})"))
-        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor="white", markeredgecolor="#444444",
-                              markersize=8, label=f"class of Cl({C.graph['discriminant']})"))
+        handles.append(
+            Line2D(
+                [],
+                [],
+                marker="s",
+                linestyle="",
+                markerfacecolor="white",
+                markeredgecolor="#444444",
+                markersize=9,
+                label=f"class of Cl({C.graph['fundamental_discriminant']})",
+            )
+        )
+        handles.append(
+            Line2D(
+                [],
+                [],
+                marker="o",
+                linestyle="",
+                markerfacecolor="white",
+                markeredgecolor="#444444",
+                markersize=8,
+                label=f"class of Cl({C.graph['discriminant']})",
+            )
+        )
     if identity in pos:
-        handles.append(Line2D([], [], marker="o", linestyle="", markerfacecolor="white", markeredgecolor="black",
-                              markeredgewidth=2, markersize=8, label="principal class"))
+        handles.append(
+            Line2D(
+                [],
+                [],
+                marker="o",
+                linestyle="",
+                markerfacecolor="white",
+                markeredgecolor="black",
+                markeredgewidth=2,
+                markersize=8,
+                label="principal class",
+            )
+        )
     fig.legend(handles=handles, loc="upper right", fontsize=8, frameon=False, borderaxespad=0.8)
     fig.suptitle(title if title is not None else graph_title(C), fontsize=10, x=0.02, ha="left")
     return fig
@@ -380,10 +458,10 @@ def draw_graph(
 
 def save_picture(
     C: nx.Graph,
-    path: Union[str, "os.PathLike[str]"],
-    format: Optional[str] = None,
+    path: str | os.PathLike[str],
+    format: str | None = None,
     *,
-    labels: Optional[bool] = None,
+    labels: bool | None = None,
     edges: str = "auto",
     dpi: int = 150,
 ) -> str:
@@ -409,7 +487,9 @@ def save_picture(
     if fmt is None:
         fmt = os.path.splitext(os.fspath(path))[1].lstrip(".").lower()
     if fmt not in PICTURE_FORMATS:
-        raise FormkitError(f"picture format must be one of {', '.join(PICTURE_FORMATS)}, not {fmt!r} (from {os.fspath(path)!r})")
+        raise FormkitError(
+            f"picture format must be one of {', '.join(PICTURE_FORMATS)}, not {fmt!r} (from {os.fspath(path)!r})"
+        )
     fig = draw_graph(C, labels=labels, edges=edges)
     fig.savefig(path, format=fmt, dpi=dpi)
     return fmt

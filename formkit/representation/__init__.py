@@ -26,19 +26,19 @@ This layer imports :mod:`formkit.core`, :mod:`formkit.analytic`,
 :mod:`formkit`.
 """
 
-from .class_polynomials import *  # noqa: F401,F403
+from .class_polynomials import *  # noqa: F403
 from .class_polynomials import __all__ as _class_polynomials_all
-from .cornacchia import *  # noqa: F401,F403
+from .cornacchia import *  # noqa: F403
 from .cornacchia import __all__ as _cornacchia_all
-from .genus_congruences import *  # noqa: F401,F403
+from .genus_congruences import *  # noqa: F403
 from .genus_congruences import __all__ as _genus_congruences_all
-from .orbits import *  # noqa: F401,F403
+from .orbits import *  # noqa: F403
 from .orbits import __all__ as _orbits_all
-from .prime_criteria import *  # noqa: F401,F403
+from .prime_criteria import *  # noqa: F403
 from .prime_criteria import __all__ as _prime_criteria_all
-from .prime_decision import *  # noqa: F401,F403
+from .prime_decision import *  # noqa: F403
 from .prime_decision import __all__ as _prime_decision_all
-from .representations import *  # noqa: F401,F403
+from .representations import *  # noqa: F403
 from .representations import __all__ as _representations_all
 
 __all__ = [

@@ -57,20 +57,20 @@ References
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
-from typing import Sequence
 
 import mpmath
 
 from ..analytic.j_function import _J_TAIL, _fixed, _j_of_form
 from ..core.arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
 from ..core.discriminants import discriminant_parts, validate_discriminant
-from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
 from ..core.enumeration import _reduced_forms_cached
-from ..errors import DiscriminantError
 from ..core.forms import Form
+from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
 from ..core.raw_reduction import _reduce_definite_raw
+from ..errors import DiscriminantError
 
 __all__ = [
     "ClassPolynomial",
@@ -190,7 +190,7 @@ class ClassPolynomial:
     coefficients: tuple[int, ...]
     forms: tuple[Form, ...]
     working_digits: int
-    verification: "ClassPolynomialCheck | None"
+    verification: ClassPolynomialCheck | None
 
     @property
     def degree(self) -> int:
@@ -299,7 +299,7 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
     h = len(forms)
     bound = class_polynomial_bound(D)
     digits = _working_digits(bound, h)
-    for attempt in range(2):
+    for _attempt in range(2):
         coeffs, res1 = _product(D, forms, digits)
         if not verify:
             break
@@ -467,12 +467,18 @@ class PolynomialDiscriminant:
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary (the value itself as an exact integer)."""
-        return {"discriminant": self.discriminant, "value": self.value, "digits": len(str(abs(self.value))),
-                "factors": [list(f) for f in self.factors], "cofactor": self.cofactor,
-                "complete": self.complete, "trial_bound": self.trial_bound}
+        return {
+            "discriminant": self.discriminant,
+            "value": self.value,
+            "digits": len(str(abs(self.value))),
+            "factors": [list(f) for f in self.factors],
+            "cofactor": self.cofactor,
+            "complete": self.complete,
+            "trial_bound": self.trial_bound,
+        }
 
 
-def class_polynomial_discriminant(D: object, *, trial_bound: "int | None" = None) -> PolynomialDiscriminant:
+def class_polynomial_discriminant(D: object, *, trial_bound: int | None = None) -> PolynomialDiscriminant:
     """The discriminant of the class polynomial ``H_D`` and its prime factors.
 
     For monic ``H`` of degree ``h``, ``disc(H) = (−1)^(h(h−1)/2)·Res(H, H')``, computed

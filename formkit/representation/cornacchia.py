@@ -30,14 +30,13 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Optional, Tuple
 
-from ..core.modular_roots import _sqrt_mod_prime
 from ..core.arith import as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
 from ..core.equivalence import proper_equivalence
-from ..errors import FormkitError, NotPrimeError
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.modular_roots import _sqrt_mod_prime
 from ..core.reduction import _reduce_definite
+from ..errors import FormkitError, NotPrimeError
 
 __all__ = [
     "RepresentationDecision",
@@ -46,10 +45,10 @@ __all__ = [
     "prime_representation",
 ]
 
-Vector = Tuple[int, int]
+Vector = tuple[int, int]
 
 
-def cornacchia(n: object, p: object) -> Optional[Vector]:
+def cornacchia(n: object, p: object) -> Vector | None:
     """Solve ``x² + n y² = p`` for a prime ``p`` and ``n ≥ 1`` by Cornacchia's algorithm.
 
     Cohen, GTM 138, Algorithm 1.5.2: take ``x₀² ≡ −n (mod p)``, run the Euclidean
@@ -82,7 +81,7 @@ def cornacchia(n: object, p: object) -> Optional[Vector]:
     return _cornacchia(n, p)
 
 
-def _cornacchia(n: int, p: int) -> Optional[Vector]:
+def _cornacchia(n: int, p: int) -> Vector | None:
     if n >= p:
         return (0, 1) if n == p else None
     if p == 2:
@@ -105,7 +104,7 @@ def _cornacchia(n: int, p: int) -> Optional[Vector]:
     return int(b), int(isqrt(c))
 
 
-def cornacchia_4p(D: object, p: object) -> Optional[Vector]:
+def cornacchia_4p(D: object, p: object) -> Vector | None:
     """Solve ``x² + |D| y² = 4p`` for a prime ``p`` and a discriminant ``D < 0``.
 
     The modified Cornacchia algorithm (Cohen, GTM 138, Algorithm 1.5.3): ``x₀² ≡ D
@@ -137,14 +136,14 @@ def cornacchia_4p(D: object, p: object) -> Optional[Vector]:
     return _cornacchia_4p(D, p)
 
 
-def _cornacchia_4p(D: int, p: int) -> Optional[Vector]:
+def _cornacchia_4p(D: int, p: int) -> Vector | None:
     N = -D
     if p == 2:
         r = 8 + D
         if r >= 0 and is_square(r):
             return int(isqrt(r)), 1
         return None
-    if N > 4 * p:
+    if 4 * p < N:
         return None
     if kronecker(D, p) == -1:
         return None
@@ -177,7 +176,7 @@ class RepresentationDecision:
     form: Form
     n: int
     represented: bool
-    solution: Optional[Vector]
+    solution: Vector | None
     method: str
     prime: bool
 
@@ -267,9 +266,7 @@ def prime_representation(
     is_prime = n >= 2 and (assume_prime or is_probable_prime(n))
     principal_kind = D < 0 and Q.a == 1 and Q.b in (0, 1) and Q.c >= 1
     if method == "cornacchia" and not principal_kind:
-        raise FormkitError(
-            f"Cornacchia's algorithm covers x² + ny² and x² + xy + ky² (n, k ≥ 1), not {Q!r}"
-        )
+        raise FormkitError(f"Cornacchia's algorithm covers x² + ny² and x² + xy + ky² (n, k ≥ 1), not {Q!r}")
     if not is_prime or not Q.is_primitive or (D < 0 and Q.a < 0):
         if method == "cornacchia" and not is_prime:
             raise NotPrimeError(f"Cornacchia's algorithm needs a prime, and {n} is not one")
@@ -289,7 +286,7 @@ def prime_representation(
     return RepresentationDecision(Q, n, sol is not None, sol, "reduction", True)
 
 
-def _reduction_test(Q: Form, D: int, p: int) -> Optional[Vector]:
+def _reduction_test(Q: Form, D: int, p: int) -> Vector | None:
     if D < 0:
         rq = _reduce_definite(Q, False)
         for b in _roots_mod_4p(D, p):

@@ -34,11 +34,11 @@ References
 
 from __future__ import annotations
 
-from ..core.arith import as_int, factorint, kronecker
-from ..core.modular_roots import crt
 from ..classgroups.dispatch import class_group
-from ..errors import FormkitError
+from ..core.arith import as_int, factorint, kronecker
 from ..core.forms import Form, FormLike
+from ..core.modular_roots import crt
+from ..errors import FormkitError
 from .prime_decision import _check_form
 
 __all__ = [

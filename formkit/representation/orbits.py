@@ -29,14 +29,14 @@ References
 
 from __future__ import annotations
 
-from typing import Dict, Iterator, List, Optional, Tuple
+from collections.abc import Iterator
 
 from ..core.arith import as_int, gcd, isqrt, mpz
 from ..core.equivalence import fundamental_automorph
-from ..errors import FormError
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
-from ..core.reduction import _reduce_indefinite
 from ..core.raw_reduction import _rho_indefinite_raw
+from ..core.reduction import _reduce_indefinite
+from ..errors import FormError
 from .square_root_method import (
     _content_and_sign,
     _factor_abs,
@@ -52,7 +52,7 @@ __all__ = [
     "walk_orbit",
 ]
 
-Vector = Tuple[int, int]
+Vector = tuple[int, int]
 
 
 class _CycleIndex:
@@ -64,7 +64,7 @@ class _CycleIndex:
         self.sq = isqrt(D)
         start = _reduce_indefinite(P, D, False)
         self.to_start = start.matrix  # P · to_start = start
-        self.index: Dict[Tuple[int, int, int], Matrix] = {}
+        self.index: dict[tuple[int, int, int], Matrix] = {}
         a, b, c = mpz(start.reduced.a), mpz(start.reduced.b), mpz(start.reduced.c)
         M: Matrix = ((1, 0), (0, 1))
         first = (int(a), int(b), int(c))
@@ -77,7 +77,7 @@ class _CycleIndex:
             self.index[key] = mat_mul(self.to_start, M)
         self.index[first] = self.to_start
 
-    def matrix_to(self, F: Form) -> Optional[Matrix]:
+    def matrix_to(self, F: Form) -> Matrix | None:
         """``M ∈ SL2(Z)`` with ``P·M = F`` or ``None``."""
         rf = _reduce_indefinite(F, self.D, False)
         N = self.index.get(rf.reduced.coefficients)
@@ -115,7 +115,7 @@ def _orbit_key(v: Vector):
     return (x * x + y * y, x < 0 or (x == 0 and y < 0), y < 0, abs(y), x)
 
 
-def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> Tuple[List[Vector], int]:
+def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> tuple[list[Vector], int]:
     if n == 0:
         return [(0, 0)], 0
     P, m = _primitive_target(Q, k, 1, n)
@@ -126,7 +126,7 @@ def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> Tuple[List[Vector],
     idx = _CycleIndex(P)
     A = fundamental_automorph(P)
     Ainv = mat_inverse(A)
-    reps: List[Vector] = []
+    reps: list[Vector] = []
     prim = 0
     for g, rest in _square_divisors(fac):
         mm = m // (g * g)
@@ -143,8 +143,8 @@ def _all_orbits(Q: Form, D: int, k: int, n: int, factors) -> Tuple[List[Vector],
 
 
 def representation_orbits(
-    form: FormLike, n: object, *, primitive: bool = False, factors: Optional[Dict[int, int]] = None
-) -> Tuple[Vector, ...]:
+    form: FormLike, n: object, *, primitive: bool = False, factors: dict[int, int] | None = None
+) -> tuple[Vector, ...]:
     """One solution of ``Q(x, y) = n`` per orbit of the proper automorphs (indefinite ``Q``).
 
     The solutions of ``Q(x, y) = n ≠ 0`` fall into finitely many orbits
@@ -170,7 +170,7 @@ def representation_orbits(
     >>> representation_orbits((1, 0, -3), 2)       # x² − 3y² = 2 has no solution
     ()
     """
-    Q, D, k, sign, n = _content_and_sign(form, n)
+    Q, D, k, _sign, n = _content_and_sign(form, n)
     if D < 0:
         raise FormError(f"{Q!r} is definite: use representations() for the full list of solutions")
     reps, _ = _all_orbits(Q, D, k, n, factors)
@@ -179,7 +179,7 @@ def representation_orbits(
     return tuple(reps)
 
 
-def _orbit_matrices(form: FormLike) -> Tuple[Form, Matrix, Matrix]:
+def _orbit_matrices(form: FormLike) -> tuple[Form, Matrix, Matrix]:
     Q = as_form(form)
     D = _require_nonsquare(Q, "orbits of solutions")
     if D < 0:
@@ -188,7 +188,7 @@ def _orbit_matrices(form: FormLike) -> Tuple[Form, Matrix, Matrix]:
     return Q, A, mat_inverse(A)
 
 
-def orbit_representative(form: FormLike, solution: Tuple[int, int]) -> Vector:
+def orbit_representative(form: FormLike, solution: tuple[int, int]) -> Vector:
     """The representative (least ``x² + y²``) of the orbit of ``solution`` under the proper
     automorphs of the indefinite form ``Q`` — the vector :func:`representation_orbits` returns.
 
@@ -197,12 +197,12 @@ def orbit_representative(form: FormLike, solution: Tuple[int, int]) -> Vector:
     >>> orbit_representative((1, 0, -2), (17, 12))   # 17² − 2·12² = 1
     (1, 0)
     """
-    Q, A, Ainv = _orbit_matrices(form)
+    _Q, A, Ainv = _orbit_matrices(form)
     x, y = (as_int(v, "solution entry") for v in solution)
     return _canonical(A, Ainv, (x, y))
 
 
-def walk_orbit(form: FormLike, solution: Tuple[int, int]) -> Iterator[Vector]:
+def walk_orbit(form: FormLike, solution: tuple[int, int]) -> Iterator[Vector]:
     """Walk the orbit of ``solution`` under the proper automorphs of an indefinite form.
 
     Yields ``v, −v, Av, −Av, A⁻¹v, −A⁻¹v, A²v, …`` without end (``A`` the fundamental
@@ -215,7 +215,7 @@ def walk_orbit(form: FormLike, solution: Tuple[int, int]) -> Iterator[Vector]:
     >>> list(islice(walk_orbit((1, 0, -2), (1, 0)), 6))
     [(1, 0), (-1, 0), (3, 2), (-3, -2), (3, -2), (-3, 2)]
     """
-    Q, A, Ainv = _orbit_matrices(form)
+    _Q, A, Ainv = _orbit_matrices(form)
     v0 = tuple(as_int(v, "solution entry") for v in solution)
     if v0 == (0, 0):
         yield (0, 0)

@@ -31,18 +31,16 @@ References
 .. [3] L. Euler, on numeri idonei (1778); the list of 65 idoneal numbers (from memory).
 """
 
-
 from __future__ import annotations
 
 from dataclasses import dataclass, field
 from fractions import Fraction
-from typing import Optional
 
 from ..classgroups.dispatch import class_group
-from ..errors import FormkitError
 from ..core.forms import Form, FormLike
+from ..errors import FormkitError
 from .genus_congruences import genus_residues
-from .prime_decision import _Decider, _check_bound, _check_form, primes_up_to
+from .prime_decision import _check_bound, _check_form, _Decider, primes_up_to
 
 __all__ = [
     "PrimeCriterion",
@@ -159,7 +157,7 @@ class PrimeCriterion:
     class_order: int
     density: Fraction
     kind: str
-    modulus: Optional[int] = None
+    modulus: int | None = None
     residues: tuple[int, ...] = ()
     polynomial: tuple[int, ...] = ()
     exceptions: tuple[int, ...] = ()
@@ -267,24 +265,36 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
     h = dec.G.order
     order = dec.C.order
     density = Fraction(1, 2 * h) if order <= 2 else Fraction(1, h)
-    common = dict(form=Q, discriminant=D, class_number=h, class_order=order, density=density,
-                  exceptions=dec.exceptions)
+    common = {
+        "form": Q,
+        "discriminant": D,
+        "class_number": h,
+        "class_order": order,
+        "density": density,
+        "exceptions": dec.exceptions,
+    }
     if dec.G.exponent <= 2:
         try:
             m, residues = genus_residues(Q)
         except FormkitError:
             pass  # too many residues to list: fall through to the class description
         else:
-            return PrimeCriterion(kind="congruence", modulus=m, residues=residues,
-                                  statement=_congruence_text(Q, m, residues), **common)
+            return PrimeCriterion(
+                kind="congruence",
+                modulus=m,
+                residues=residues,
+                statement=_congruence_text(Q, m, residues),
+                **common,
+            )
     if D < 0:
         poly: tuple[int, ...] = ()
         if polynomial:
             from .class_polynomials import class_polynomial
 
             poly = class_polynomial(D).coefficients
-        return PrimeCriterion(kind="class_polynomial", polynomial=poly,
-                              statement=_class_text(Q, D, order, bool(poly)), **common)
+        return PrimeCriterion(
+            kind="class_polynomial", polynomial=poly, statement=_class_text(Q, D, order, bool(poly)), **common
+        )
     return PrimeCriterion(kind="ideal_class", statement=_class_text(Q, D, order, False), **common)
 
 

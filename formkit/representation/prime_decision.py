@@ -26,13 +26,13 @@ from __future__ import annotations
 
 import math
 
-from ..core.arith import as_int, factorint, isqrt, kronecker
-from ..core.modular_roots import sqrt_mod, sqrt_mod_prime
 from ..classgroups.dispatch import class_group
-from ..errors import FormError, FormkitError, NotPrimitiveError
-from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.arith import as_int, factorint, isqrt, kronecker
 from ..core.enumeration import _cycles_cached
+from ..core.forms import Form, FormLike, _require_nonsquare, as_form
+from ..core.modular_roots import sqrt_mod, sqrt_mod_prime
 from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from ..errors import FormError, FormkitError, NotPrimitiveError
 
 __all__ = [
     "represents_prime",

@@ -47,14 +47,13 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Dict, List, Optional, Tuple
 
 from ..core.arith import as_int, factorint, gcd, kronecker, mpz
 from ..core.discriminants import discriminant_parts, unit_count, validate_discriminant
 from ..core.equivalence import automorphism_group
-from ..errors import DiscriminantError, FormError, FormkitError
 from ..core.forms import Form, FormLike, mat_inverse, mat_mul
 from ..core.reduction import _reduce_definite
+from ..errors import DiscriminantError, FormError, FormkitError
 from .square_root_method import (
     _content_and_sign,
     _factor_abs,
@@ -74,19 +73,19 @@ __all__ = [
     "dirichlet_count",
 ]
 
-Vector = Tuple[int, int]
+Vector = tuple[int, int]
 
 
 # ---------------------------------------------------------------------------
 # definite forms
 
 
-def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorphs) -> List[Vector]:
+def _definite_primitive_solutions(P: Form, m: int, fac: dict[int, int], automorphs) -> list[Vector]:
     """All proper representations of m > 0 by the primitive positive definite P."""
     D = P.discriminant
     red_P = _reduce_definite(P, False)
     target = red_P.reduced
-    out: List[Vector] = []
+    out: list[Vector] = []
     for b in _proper_roots(D, m, fac):
         F = Form(m, b, (b * b - D) // (4 * m))
         rf = _reduce_definite(F, False)
@@ -99,7 +98,7 @@ def _definite_primitive_solutions(P: Form, m: int, fac: Dict[int, int], automorp
     return out
 
 
-def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> int:
+def _definite_primitive_count(P: Form, m: int, fac: dict[int, int], w: int) -> int:
     from ..core.raw_reduction import _reduce_definite_raw
 
     D = P.discriminant
@@ -112,11 +111,11 @@ def _definite_primitive_count(P: Form, m: int, fac: Dict[int, int], w: int) -> i
     return count
 
 
-def _definite_solutions(P: Form, m: int, fac: Dict[int, int], primitive: bool) -> List[Vector]:
+def _definite_solutions(P: Form, m: int, fac: dict[int, int], primitive: bool) -> list[Vector]:
     automorphs = list(automorphism_group(P).elements())
     if primitive:
         return _definite_primitive_solutions(P, m, fac, automorphs)
-    out: List[Vector] = []
+    out: list[Vector] = []
     for g, rest in _square_divisors(fac):
         for x, y in _definite_primitive_solutions(P, m // (g * g), rest, automorphs):
             out.append((g * x, g * y))
@@ -139,12 +138,12 @@ class RepresentationResult:
     form: Form
     n: int
     definite: bool
-    count: Optional[int]
-    primitive_count: Optional[int]
-    solutions: Tuple[Vector, ...]
-    orbits: Tuple[Vector, ...] = ()
-    orbit_count: Optional[int] = None
-    primitive_orbit_count: Optional[int] = None
+    count: int | None
+    primitive_count: int | None
+    solutions: tuple[Vector, ...]
+    orbits: tuple[Vector, ...] = ()
+    orbit_count: int | None = None
+    primitive_orbit_count: int | None = None
     primitive_only: bool = False
     truncated: bool = False
 
@@ -155,8 +154,12 @@ class RepresentationResult:
 
     def to_dict(self) -> dict:
         """The JSON shape of ``formkit represent``."""
-        d: dict = {"form": self.form.to_list(), "n": self.n, "count": self.count,
-                   "primitive_count": self.primitive_count}
+        d: dict = {
+            "form": self.form.to_list(),
+            "n": self.n,
+            "count": self.count,
+            "primitive_count": self.primitive_count,
+        }
         if self.definite:
             d["solutions"] = [list(v) for v in self.solutions]
         else:
@@ -173,8 +176,8 @@ def represent(
     n: object,
     *,
     primitive: bool = False,
-    limit: Optional[int] = None,
-    factors: Optional[Dict[int, int]] = None,
+    limit: int | None = None,
+    factors: dict[int, int] | None = None,
 ) -> RepresentationResult:
     """All solutions of ``Q(x, y) = n`` (definite ``Q``) or their orbits (indefinite ``Q``).
 
@@ -224,8 +227,9 @@ def represent(
         truncated = limit is not None and len(listed) > limit
         if truncated:
             listed = listed[:limit]
-        return RepresentationResult(Q, n, True, len(sols), len(prim), tuple(listed),
-                                    primitive_only=primitive, truncated=truncated)
+        return RepresentationResult(
+            Q, n, True, len(sols), len(prim), tuple(listed), primitive_only=primitive, truncated=truncated
+        )
     from .orbits import _all_orbits
 
     orbs, prim_count = _all_orbits(Q, D, k, n, factors)
@@ -233,11 +237,22 @@ def represent(
     truncated = limit is not None and len(listed) > limit
     if truncated:
         listed = listed[:limit]
-    return RepresentationResult(Q, n, False, None, None, (), tuple(listed), len(orbs), prim_count,
-                                primitive_only=primitive, truncated=truncated)
+    return RepresentationResult(
+        Q,
+        n,
+        False,
+        None,
+        None,
+        (),
+        tuple(listed),
+        len(orbs),
+        prim_count,
+        primitive_only=primitive,
+        truncated=truncated,
+    )
 
 
-def _all_definite(Q, D, k, sign, n, factors, primitive: bool) -> List[Vector]:
+def _all_definite(Q, D, k, sign, n, factors, primitive: bool) -> list[Vector]:
     if n == 0:
         return [] if primitive else [(0, 0)]
     P, m = _primitive_target(Q, k, sign, n)
@@ -248,8 +263,8 @@ def _all_definite(Q, D, k, sign, n, factors, primitive: bool) -> List[Vector]:
 
 
 def representations(
-    form: FormLike, n: object, *, primitive: bool = False, factors: Optional[Dict[int, int]] = None
-) -> Tuple[Vector, ...]:
+    form: FormLike, n: object, *, primitive: bool = False, factors: dict[int, int] | None = None
+) -> tuple[Vector, ...]:
     """All ``(x, y)`` with ``Q(x, y) = n`` for a definite form ``Q``, sorted.
 
     Parameters
@@ -283,7 +298,7 @@ def representations(
     return tuple(_all_definite(Q, D, k, sign, n, factors, primitive))
 
 
-def representation_count(form: FormLike, n: object, *, factors: Optional[Dict[int, int]] = None) -> int:
+def representation_count(form: FormLike, n: object, *, factors: dict[int, int] | None = None) -> int:
     """``r_Q(n)``: the number of all ``(x, y) ∈ Z²`` with ``Q(x, y) = n`` (definite ``Q``).
 
     Counted without listing the solutions: ``w`` times the number of roots ``b`` whose
@@ -300,7 +315,7 @@ def representation_count(form: FormLike, n: object, *, factors: Optional[Dict[in
 
 
 def primitive_representation_count(
-    form: FormLike, n: object, *, factors: Optional[Dict[int, int]] = None
+    form: FormLike, n: object, *, factors: dict[int, int] | None = None
 ) -> int:
     """The number of ``(x, y)`` with ``gcd(x, y) = 1`` and ``Q(x, y) = n`` (definite ``Q``).
 
@@ -332,7 +347,7 @@ def _count(form, n, factors, primitive: bool) -> int:
 # sums over classes
 
 
-def total_representation_count(D: object, n: object, *, factors: Optional[Dict[int, int]] = None) -> int:
+def total_representation_count(D: object, n: object, *, factors: dict[int, int] | None = None) -> int:
     """``Σ_Q r_Q(n)`` over one primitive form per class (``D < 0``), or ``Σ_Q`` of the number
     of solution orbits (``D > 0``, narrow classes), for ``n ≥ 1``.
 

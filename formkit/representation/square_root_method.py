@@ -20,8 +20,6 @@ References
 
 from __future__ import annotations
 
-from typing import Dict, List, Optional, Tuple
-
 from ..core.arith import as_int, factorint, gcd, is_probable_prime
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.modular_roots import sqrt_mod
@@ -30,14 +28,14 @@ from ..errors import FormkitError
 __all__: list = []
 
 
-def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
+def _factor_abs(n: int, factors: dict[int, int] | None) -> dict[int, int]:
     """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
     n = abs(n)
     if factors is None:
         if n > 1 and is_probable_prime(n):
             return {n: 1}  # skip sympy's trial division on large primes
         return factorint(n) if n > 1 else {}
-    fac: Dict[int, int] = {}
+    fac: dict[int, int] = {}
     prod = 1
     for p, e in dict(factors).items():
         p = as_int(p, "prime factor")
@@ -57,9 +55,9 @@ def _factor_abs(n: int, factors: Optional[Dict[int, int]]) -> Dict[int, int]:
     return dict(sorted(fac.items()))
 
 
-def _square_divisors(fac: Dict[int, int]) -> List[Tuple[int, Dict[int, int]]]:
+def _square_divisors(fac: dict[int, int]) -> list[tuple[int, dict[int, int]]]:
     """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²``."""
-    out: List[Tuple[int, Dict[int, int]]] = [(1, dict(fac))]
+    out: list[tuple[int, dict[int, int]]] = [(1, dict(fac))]
     for p, e in fac.items():
         new = []
         for g, rest in out:
@@ -73,7 +71,7 @@ def _square_divisors(fac: Dict[int, int]) -> List[Tuple[int, Dict[int, int]]]:
     return out
 
 
-def _proper_roots(D: int, m: int, fac: Dict[int, int]) -> List[int]:
+def _proper_roots(D: int, m: int, fac: dict[int, int]) -> list[int]:
     """The ``b`` in ``[0, 2|m|)`` with ``b² ≡ D (mod 4|m|)`` and ``(m, b, ·)`` primitive."""
     am = abs(m)
     fac4 = dict(fac)
@@ -90,7 +88,7 @@ def _proper_roots(D: int, m: int, fac: Dict[int, int]) -> List[int]:
     return out
 
 
-def _content_and_sign(form: FormLike, n: object) -> Tuple[Form, int, int, int, int]:
+def _content_and_sign(form: FormLike, n: object) -> tuple[Form, int, int, int, int]:
     """Return ``(Q, D, k, sign, n)``; ``Q`` the original form, ``k`` its content and
     ``sign = −1`` for negative definite forms."""
     Q = as_form(form)
@@ -100,7 +98,7 @@ def _content_and_sign(form: FormLike, n: object) -> Tuple[Form, int, int, int, i
     return Q, D, Q.content, sign, n
 
 
-def _primitive_target(Q: Form, k: int, sign: int, n: int) -> Tuple[Optional[Form], int]:
+def _primitive_target(Q: Form, k: int, sign: int, n: int) -> tuple[Form | None, int]:
     """The primitive positive-or-indefinite form and the value it must take, or ``None``
     when no representation is possible (content does not divide n)."""
     if n % k:

@@ -13,11 +13,11 @@ Every row comes from complete enumeration and is unconditional.  This layer impo
 :mod:`formkit`.
 """
 
-from .parallel import *  # noqa: F401,F403
+from .parallel import *  # noqa: F403
 from .parallel import __all__ as _parallel_all
-from .rows import *  # noqa: F401,F403
+from .rows import *  # noqa: F403
 from .rows import __all__ as _rows_all
-from .store import *  # noqa: F401,F403
+from .store import *  # noqa: F403
 from .store import __all__ as _store_all
 
 __all__ = [*_rows_all, *_parallel_all, *_store_all]

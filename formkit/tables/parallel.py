@@ -19,8 +19,8 @@ import os
 import sys
 import threading
 import time
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass
-from typing import Callable, Iterable, List, Optional, Tuple
 
 from ..core.arith import as_int
 from ..errors import FormkitError
@@ -43,7 +43,7 @@ CHUNK_POSITIVE = 1_000
 class BuildSummary:
     """What a :func:`build_table` run did."""
 
-    path: Optional[str]
+    path: str | None
     start: int
     stop: int
     chunks_total: int
@@ -52,7 +52,7 @@ class BuildSummary:
     rows_written: int
     seconds: float
     workers: int
-    cluster: Optional[str]
+    cluster: str | None
 
     def to_dict(self) -> dict:
         return dict(self.__dict__)
@@ -74,7 +74,7 @@ def _worker_init(parent: int) -> None:  # pragma: no cover - runs in pool worker
     threading.Thread(target=_watch_parent, args=(parent,), daemon=True).start()
 
 
-def _run_chunks(specs: List[ChunkSpec], workers: int, cluster, sink: Callable, bar) -> None:
+def _run_chunks(specs: list[ChunkSpec], workers: int, cluster, sink: Callable, bar) -> None:
     if not specs:
         return
     if cluster is not None:
@@ -93,13 +93,11 @@ def _run_chunks(specs: List[ChunkSpec], workers: int, cluster, sink: Callable, b
                 bar.update(1)
 
 
-def _run_on_cluster(specs: List[ChunkSpec], cluster, sink: Callable, bar) -> None:
+def _run_on_cluster(specs: list[ChunkSpec], cluster, sink: Callable, bar) -> None:
     try:
         from distributed import Client, as_completed
     except ImportError:
-        raise FormkitError(
-            "--cluster needs Dask distributed: pip install 'formkit[cluster]'"
-        ) from None
+        raise FormkitError("--cluster needs Dask distributed: pip install 'formkit[cluster]'") from None
     own = isinstance(cluster, str)
     try:
         client = Client(cluster) if own else cluster
@@ -136,7 +134,7 @@ class _NoBar:
         pass
 
 
-def _progress_bar(total: int, show: Optional[bool], desc: str):
+def _progress_bar(total: int, show: bool | None, desc: str):
     if show is None:
         show = sys.stderr.isatty()
     if not show:
@@ -146,8 +144,15 @@ def _progress_bar(total: int, show: Optional[bool], desc: str):
     return tqdm(total=total, desc=desc, unit="chunk", file=sys.stderr, dynamic_ncols=True)
 
 
-def _plan(start: int, stop: int, missing: Iterable[Tuple[int, int]], fundamental: bool,
-          invariants: bool, engine: str, chunk_size: Optional[int]) -> List[ChunkSpec]:
+def _plan(
+    start: int,
+    stop: int,
+    missing: Iterable[tuple[int, int]],
+    fundamental: bool,
+    invariants: bool,
+    engine: str,
+    chunk_size: int | None,
+) -> list[ChunkSpec]:
     specs = []
     for lo, hi in missing:
         if chunk_size is not None:
@@ -165,7 +170,7 @@ def _plan(start: int, stop: int, missing: Iterable[Tuple[int, int]], fundamental
     return specs
 
 
-def _check_workers(workers: Optional[int]) -> int:
+def _check_workers(workers: int | None) -> int:
     if workers is None:
         return os.cpu_count() or 1
     workers = as_int(workers, "workers")
@@ -175,18 +180,18 @@ def _check_workers(workers: Optional[int]) -> int:
 
 
 def build_table(
-    path: Optional[str],
+    path: str | None,
     start: int,
     stop: int,
     *,
     fundamental: bool = False,
     invariants: bool = True,
-    workers: Optional[int] = None,
+    workers: int | None = None,
     cluster=None,
-    chunk_size: Optional[int] = None,
+    chunk_size: int | None = None,
     engine: str = "auto",
-    progress: Optional[bool] = None,
-    rows_out: Optional[list] = None,
+    progress: bool | None = None,
+    rows_out: list | None = None,
 ) -> BuildSummary:
     """Compute the table of ``start ≤ D ≤ stop`` into the SQLite file ``path``, resumably.
 
@@ -261,7 +266,7 @@ def build_table(
     specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
     written = [0]
 
-    def sink(spec: ChunkSpec, rows: List[RawRow], seconds: float) -> None:
+    def sink(spec: ChunkSpec, rows: list[RawRow], seconds: float) -> None:
         if conn is not None:
             _write_chunk(conn, spec, rows, seconds)
         if rows_out is not None:
@@ -287,5 +292,3 @@ def build_table(
         workers=workers,
         cluster=cluster if isinstance(cluster, str) or cluster is None else repr(cluster),
     )
-
-

@@ -35,8 +35,8 @@ from __future__ import annotations
 
 import math
 import time
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
-from typing import Iterator, List, Optional, Sequence, Tuple
 
 from ..core.arith import as_int
 from ..errors import FormkitError
@@ -61,7 +61,7 @@ ENGINES = ("numpy", "python")
 
 #: A row in transit between workers and the store (plain tuple, cheap to pickle):
 #: (D, d_K, f, h, h_wide, invariants-or-None, genera, regulator-or-None).
-RawRow = Tuple[int, int, int, int, Optional[int], Optional[Tuple[int, ...]], int, Optional[float]]
+RawRow = tuple[int, int, int, int, int | None, tuple[int, ...] | None, int, float | None]
 
 
 @dataclass(frozen=True)
@@ -79,13 +79,13 @@ class TableRow:
     fundamental_discriminant: int
     conductor: int
     class_number: int
-    invariants: Optional[Tuple[int, ...]]
+    invariants: tuple[int, ...] | None
     genus_count: int
-    class_number_wide: Optional[int] = None
-    regulator: Optional[float] = None
+    class_number_wide: int | None = None
+    regulator: float | None = None
 
     @classmethod
-    def _from_raw(cls, raw: Sequence) -> "TableRow":
+    def _from_raw(cls, raw: Sequence) -> TableRow:
         D, dk, f, h, hw, inv, g, reg = raw
         return cls(D, dk, f, h, None if inv is None else tuple(inv), g, hw, reg)
 
@@ -107,6 +107,7 @@ class TableRow:
 # public: class numbers of a range of negative discriminants
 # ---------------------------------------------------------------------------
 
+
 def _check_engine(engine: str) -> str:
     if engine == "auto":
         return "numpy" if _numpy() is not None else "python"
@@ -117,7 +118,7 @@ def _check_engine(engine: str) -> str:
     return engine
 
 
-def _check_range(start: object, stop: object) -> Tuple[int, int]:
+def _check_range(start: object, stop: object) -> tuple[int, int]:
     start = as_int(start, "start")
     stop = as_int(stop, "stop")
     if start > stop:
@@ -174,6 +175,7 @@ def class_numbers(start: int, stop: int, *, engine: str = "auto") -> dict:
 # chunks: the unit of work for the store and the parallel runners
 # ---------------------------------------------------------------------------
 
+
 @dataclass(frozen=True)
 class ChunkSpec:
     """A contiguous range ``lo ≤ D ≤ hi`` (same sign throughout) and how to fill it."""
@@ -185,7 +187,7 @@ class ChunkSpec:
     engine: str = "auto"
 
 
-def _invariants_from_order(h: int, genera: int) -> Optional[Tuple[int, ...]]:
+def _invariants_from_order(h: int, genera: int) -> tuple[int, ...] | None:
     """The invariants when ``h`` and the 2-rank alone decide them, else ``None``.
 
     A Sylow subgroup of prime order is cyclic, so a square-free odd part of ``h`` gives
@@ -225,7 +227,7 @@ def _invariants_from_order(h: int, genera: int) -> Optional[Tuple[int, ...]]:
     return tuple(twos)
 
 
-def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
+def _invariants_of(D: int, h: int, genera: int) -> tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
@@ -233,7 +235,9 @@ def _invariants_of(D: int, h: int, genera: int) -> Tuple[int, ...]:
 
     G = class_group(D, method="enumerate")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range
-        raise FormkitError(f"class group of {D} is not certified ({G.provenance}); tables store only certified rows")
+        raise FormkitError(
+            f"class group of {D} is not certified ({G.provenance}); tables store only certified rows"
+        )
     inv = tuple(int(x) for x in G.invariants)
     if math.prod(inv) != h:  # two independent computations must agree
         raise ArithmeticError(f"class number {h} of {D} from counting disagrees with the group {inv}")
@@ -244,7 +248,7 @@ class RowColumns:
     """The rows of a negative chunk as columns (numpy arrays pickle as plain memory, so
     workers hand results to the parent cheaply); iterating yields row tuples."""
 
-    __slots__ = ("D", "dK", "f", "h", "genera", "inv")
+    __slots__ = ("D", "dK", "f", "genera", "h", "inv")
 
     def __init__(self, D, dK, f, h, genera, inv) -> None:
         self.D, self.dK, self.f, self.h, self.genera, self.inv = D, dK, f, h, genera, inv
@@ -261,8 +265,16 @@ class RowColumns:
     def __iter__(self) -> Iterator[RawRow]:
         from itertools import repeat
 
-        return zip(self.D.tolist(), self.dK.tolist(), self.f.tolist(), self.h.tolist(), repeat(None),
-                   repeat(None) if self.inv is None else iter(self.inv), self.genera.tolist(), repeat(None))
+        return zip(
+            self.D.tolist(),
+            self.dK.tolist(),
+            self.f.tolist(),
+            self.h.tolist(),
+            repeat(None),
+            repeat(None) if self.inv is None else iter(self.inv),
+            self.genera.tolist(),
+            repeat(None),
+        )
 
 
 def _negative_rows(spec: ChunkSpec):
@@ -281,12 +293,14 @@ def _negative_rows(spec: ChunkSpec):
             keep &= f == 1
         cols = RowColumns(-n[keep], dK[keep], f[keep], h[keep], gen[keep], None)
         if spec.invariants:
-            cols.inv = [_invariants_of(D, hD, g) for D, hD, g in
-                        zip(cols.D.tolist(), cols.h.tolist(), cols.genera.tolist())]
+            cols.inv = [
+                _invariants_of(D, hD, g)
+                for D, hD, g in zip(cols.D.tolist(), cols.h.tolist(), cols.genera.tolist())
+            ]
         return cols
     h_list = _class_numbers_py(L, H)
     dK_list, f_list, gen_list = _chunk_arith_py(L, H)
-    rows: List[RawRow] = []
+    rows: list[RawRow] = []
     for i in range(H - L + 1):
         n_i = L + i
         if n_i % 4 not in (0, 3):
@@ -299,13 +313,13 @@ def _negative_rows(spec: ChunkSpec):
     return rows
 
 
-def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
+def _positive_rows(spec: ChunkSpec) -> list[RawRow]:
+    from ..classgroups.genus import genus_count
     from ..core.arith import is_square
     from ..core.discriminants import discriminant_parts, fundamental_unit
     from ..core.enumeration import class_number
-    from ..classgroups.genus import genus_count
 
-    rows: List[RawRow] = []
+    rows: list[RawRow] = []
     for D in range(max(spec.lo, 5), spec.hi + 1):
         if D % 4 not in (0, 1) or is_square(D):
             continue
@@ -322,7 +336,7 @@ def _positive_rows(spec: ChunkSpec) -> List[RawRow]:
     return rows
 
 
-def compute_chunk(spec: ChunkSpec) -> Tuple[ChunkSpec, Sequence[RawRow], float]:
+def compute_chunk(spec: ChunkSpec) -> tuple[ChunkSpec, Sequence[RawRow], float]:
     """Compute the rows of one chunk; returns ``(spec, rows, seconds)``.
 
     ``rows`` is a list of row tuples or a :class:`RowColumns` (iterating gives tuples).
@@ -339,7 +353,7 @@ def compute_chunk(spec: ChunkSpec) -> Tuple[ChunkSpec, Sequence[RawRow], float]:
     return spec, rows, time.perf_counter() - t0
 
 
-def split_range(start: int, stop: int, size: int) -> Iterator[Tuple[int, int]]:
+def split_range(start: int, stop: int, size: int) -> Iterator[tuple[int, int]]:
     """Split ``[start, stop]`` (minus 0) into pieces aligned to multiples of ``size``.
 
     Examples
@@ -364,7 +378,7 @@ def table_rows(
     fundamental: bool = False,
     invariants: bool = True,
     engine: str = "auto",
-) -> List[TableRow]:
+) -> list[TableRow]:
     """The table rows of all discriminants ``start ≤ D ≤ stop``, in this process.
 
     For large ranges, parallel runs and a resumable file use
@@ -408,7 +422,7 @@ def table_rows(
     """
     start, stop = _check_range(start, stop)
     engine = _check_engine(engine)
-    raw: List[RawRow] = []
+    raw: list[RawRow] = []
     for lo, hi in split_range(start, stop, 1 << 20):
         raw.extend(compute_chunk(ChunkSpec(lo, hi, bool(fundamental), bool(invariants), engine))[1])
     raw.sort(key=lambda t: (abs(t[0]), t[0]))

@@ -19,12 +19,14 @@ References
 .. [1] SQLite documentation, "Atomic Commit In SQLite" and "Write-Ahead Logging"
        (transactions are atomic across process crashes).
 """
+
 from __future__ import annotations
 
+import itertools
 import os
 import sqlite3
 import time
-from typing import List, Optional, Sequence, Tuple
+from collections.abc import Sequence
 
 from ..core.arith import as_int
 from ..errors import FormkitError
@@ -37,8 +39,16 @@ __all__ = [
 ]
 
 _FORMAT = "formkit-table-1"
-_COLUMNS = ("discriminant", "fundamental_discriminant", "conductor", "class_number",
-            "class_number_wide", "invariants", "genus_count", "regulator")
+_COLUMNS = (
+    "discriminant",
+    "fundamental_discriminant",
+    "conductor",
+    "class_number",
+    "class_number_wide",
+    "invariants",
+    "genus_count",
+    "regulator",
+)
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE IF NOT EXISTS chunks (
@@ -59,7 +69,8 @@ CREATE TABLE IF NOT EXISTS rows (
 # invariants text
 # ---------------------------------------------------------------------------
 
-def parse_invariants(value: object) -> Tuple[int, ...]:
+
+def parse_invariants(value: object) -> tuple[int, ...]:
     """Canonical invariants ``n1 | n2 | … | nk`` (factors 1 dropped) from text or a sequence.
 
     Parameters
@@ -98,18 +109,20 @@ def parse_invariants(value: object) -> Tuple[int, ...]:
     if any(n < 1 for n in nums):
         raise FormkitError(f"invariants must be positive integers, not {nums}")
     nums = [n for n in nums if n != 1]
-    for x, y in zip(nums, nums[1:]):
+    for x, y in itertools.pairwise(nums):
         if y % x:
             shown = ",".join(map(str, nums))
-            raise FormkitError(f"invariants must form a chain n1 | n2 | …, not {shown} ({x} does not divide {y})")
+            raise FormkitError(
+                f"invariants must form a chain n1 | n2 | …, not {shown} ({x} does not divide {y})"
+            )
     return tuple(nums)
 
 
-def _inv_text(inv: Optional[Sequence[int]]) -> Optional[str]:
+def _inv_text(inv: Sequence[int] | None) -> str | None:
     return None if inv is None else ",".join(str(int(x)) for x in inv)
 
 
-def _inv_from_text(text: Optional[str]) -> Optional[Tuple[int, ...]]:
+def _inv_from_text(text: str | None) -> tuple[int, ...] | None:
     if text is None:
         return None
     return tuple(int(x) for x in text.split(",")) if text else ()
@@ -118,6 +131,7 @@ def _inv_from_text(text: Optional[str]) -> Optional[Tuple[int, ...]]:
 # ---------------------------------------------------------------------------
 # the SQLite file
 # ---------------------------------------------------------------------------
+
 
 def _connect(path: str, *, create: bool) -> sqlite3.Connection:
     path = os.fspath(path)
@@ -132,7 +146,9 @@ def _connect(path: str, *, create: bool) -> sqlite3.Connection:
         else:
             names = {r[0] for r in conn.execute("SELECT name FROM sqlite_master WHERE type='table'")}
             if not {"meta", "chunks", "rows"} <= names:
-                raise FormkitError(f"{path!r} is not a formkit table store (tables meta, chunks, rows missing)")
+                raise FormkitError(
+                    f"{path!r} is not a formkit table store (tables meta, chunks, rows missing)"
+                )
     except sqlite3.DatabaseError as exc:
         raise FormkitError(f"{path!r} is not a usable SQLite table store: {exc}") from None
     return conn
@@ -175,11 +191,11 @@ def _check_or_record_meta(conn: sqlite3.Connection, path: str, fundamental: bool
     conn.execute("COMMIT")
 
 
-def _done_intervals(conn: sqlite3.Connection) -> List[Tuple[int, int]]:
+def _done_intervals(conn: sqlite3.Connection) -> list[tuple[int, int]]:
     return sorted(conn.execute("SELECT lo, hi FROM chunks"))
 
 
-def _missing(start: int, stop: int, done: Sequence[Tuple[int, int]]) -> List[Tuple[int, int]]:
+def _missing(start: int, stop: int, done: Sequence[tuple[int, int]]) -> list[tuple[int, int]]:
     """[start, stop] minus the union of the done intervals."""
     out, x = [], start
     for lo, hi in done:
@@ -220,7 +236,8 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
 # reading back
 # ---------------------------------------------------------------------------
 
-def _int_filter(name: str, value: object, minimum: Optional[int] = None) -> int:
+
+def _int_filter(name: str, value: object, minimum: int | None = None) -> int:
     v = as_int(value, name)
     if minimum is not None and v < minimum:
         raise FormkitError(f"{name} must be at least {minimum}, not {v}")
@@ -230,16 +247,16 @@ def _int_filter(name: str, value: object, minimum: Optional[int] = None) -> int:
 def query_table(
     path: str,
     *,
-    start: Optional[int] = None,
-    stop: Optional[int] = None,
-    class_number: Optional[int] = None,
+    start: int | None = None,
+    stop: int | None = None,
+    class_number: int | None = None,
     invariants: object = None,
-    conductor: Optional[int] = None,
+    conductor: int | None = None,
     fundamental: bool = False,
-    fundamental_discriminant: Optional[int] = None,
-    genus_count: Optional[int] = None,
-    limit: Optional[int] = None,
-) -> List[TableRow]:
+    fundamental_discriminant: int | None = None,
+    genus_count: int | None = None,
+    limit: int | None = None,
+) -> list[TableRow]:
     """Rows of the table store ``path`` that pass every given filter.
 
     Parameters
@@ -344,7 +361,7 @@ def table_info(path: str) -> dict:
         meta = _meta(conn)
         nrows = conn.execute("SELECT count(*) FROM rows").fetchone()[0]
         done = _done_intervals(conn)
-        covered: List[List[int]] = []
+        covered: list[list[int]] = []
         for lo, hi in done:
             if covered and lo <= covered[-1][1] + 1 + (1 if covered[-1][1] == -1 else 0):
                 covered[-1][1] = max(covered[-1][1], hi)

@@ -43,7 +43,6 @@ from __future__ import annotations
 
 import math
 from functools import lru_cache
-from typing import List, Tuple
 
 from ..errors import FormkitError
 
@@ -60,6 +59,7 @@ def _numpy():
         _NUMPY.append(numpy)
     return _NUMPY[0]
 
+
 __all__: list = []  # private helpers of formkit.tables.rows
 
 
@@ -67,12 +67,13 @@ __all__: list = []  # private helpers of formkit.tables.rows
 # small sieves shared by both engines
 # ---------------------------------------------------------------------------
 
+
 @lru_cache(maxsize=8)
-def _mobius_table(n: int) -> Tuple[int, ...]:
+def _mobius_table(n: int) -> tuple[int, ...]:
     """μ(0..n) by a linear sieve."""
     mu = [1] * (n + 1)
     is_comp = [False] * (n + 1)
-    primes: List[int] = []
+    primes: list[int] = []
     if n >= 0:
         mu[0] = 0
     for i in range(2, n + 1):
@@ -91,7 +92,7 @@ def _mobius_table(n: int) -> Tuple[int, ...]:
 
 
 @lru_cache(maxsize=8)
-def _primes_upto(n: int) -> Tuple[int, ...]:
+def _primes_upto(n: int) -> tuple[int, ...]:
     if n < 2:
         return ()
     sieve = bytearray([1]) * (n + 1)
@@ -122,6 +123,7 @@ def _genus_count_from_parts(D: int, r: int) -> int:
 # ---------------------------------------------------------------------------
 # numpy engine
 # ---------------------------------------------------------------------------
+
 
 def _need_numpy() -> None:
     if _numpy() is None:  # pragma: no cover
@@ -172,7 +174,7 @@ def _count_class_np(kL: int, kH: int, t: int):
         smin, full, ext, Pm = _periodic_plan(a, t)
         S = max(kL, full)  # from S on every b counts
         B = max(kL, smin)
-        if B < S and B <= kH:  # the band where forms switch on one b at a time
+        if B < S and kH >= B:  # the band where forms switch on one b at a time
             P = a
             res, start = _form_starts(a, t)
             top = min(kH, S - 1)
@@ -188,7 +190,7 @@ def _count_class_np(kL: int, kH: int, t: int):
             for i in range(1, rows):  # running sum down each column
                 grid[i] += grid[i - 1]
             r[B - kL : top - kL + 1] += grid.ravel()[B - G0 : top - G0 + 1]
-        if S <= kH:
+        if kH >= S:
             o = S % a
             pat = ext[o : o + Pm]
             seg = r[S - kL :]
@@ -275,9 +277,11 @@ def _chunk_arith_np(L: int, H: int):
     omega += cof > 1
     D = -n
     m = D // 4  # floor division: exact where 4 | D
-    mu_r = np.where(m % 4 == 1, omega,
-                    np.where((m % 4 == 2) | (m % 4 == 3), omega + 1,
-                             np.where(m % 8 == 4, omega + 1, omega + 2)))
+    mu_r = np.where(
+        m % 4 == 1,
+        omega,
+        np.where((m % 4 == 2) | (m % 4 == 3), omega + 1, np.where(m % 8 == 4, omega + 1, omega + 2)),
+    )
     mu_all = np.where(D % 4 == 1, omega, mu_r)
     genera = np.left_shift(1, np.maximum(mu_all - 1, 0))
     return dK, f, genera
@@ -287,7 +291,8 @@ def _chunk_arith_np(L: int, H: int):
 # pure-Python engine
 # ---------------------------------------------------------------------------
 
-def _squarefree_divisors_mu(g: int) -> List[Tuple[int, int]]:
+
+def _squarefree_divisors_mu(g: int) -> list[tuple[int, int]]:
     ps = []
     x, p = g, 2
     while p * p <= x:
@@ -304,7 +309,7 @@ def _squarefree_divisors_mu(g: int) -> List[Tuple[int, int]]:
     return out
 
 
-def _class_numbers_py(L: int, H: int) -> List[int]:
+def _class_numbers_py(L: int, H: int) -> list[int]:
     """h(−n) for n in [L, H] by sweeping primitive reduced forms directly."""
     W = H - L + 1
     cnt = [0] * W
@@ -312,7 +317,7 @@ def _class_numbers_py(L: int, H: int) -> List[int]:
     a = 1
     while 3 * a * a <= H:
         fa = 4 * a
-        for b in range(0, a + 1):
+        for b in range(a + 1):
             bb = b * b
             # b and −b give the same D; both reduced iff 0 < b < a and c > a
             w = 1 if (b == 0 or b == a) else 2

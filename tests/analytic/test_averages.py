@@ -13,14 +13,15 @@ from math import isqrt
 
 import mpmath
 import pytest
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
+from formkit.analytic.averages import class_lattice_total, l_value_at_one, lattice_point_count
 from formkit.core.arith import kronecker
 from formkit.core.discriminants import is_discriminant, is_fundamental_discriminant, unit_count
-from formkit.core.enumeration import class_number, class_representatives
-from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError
+from formkit.core.enumeration import class_number
 from formkit.core.forms import Form
-from formkit.analytic.averages import class_lattice_total, l_value_at_one, lattice_point_count
+from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError
 from formkit.representation.representations import representation_count
 
 
@@ -38,14 +39,25 @@ def test_gauss_circle_values():
     assert [lattice_point_count((1, 0, 1), r * r).count for r in range(11)] == expected
 
 
-@pytest.mark.parametrize("f", [Form(1, 0, 1), Form(2, 1, 3), Form(10, 37, 35), Form(3, 2, 7), Form(1, 1, 1),
-                               Form(2, 0, 2), Form(7, 12, 6), Form(5, -3, 11)])
+@pytest.mark.parametrize(
+    "f",
+    [
+        Form(1, 0, 1),
+        Form(2, 1, 3),
+        Form(10, 37, 35),
+        Form(3, 2, 7),
+        Form(1, 1, 1),
+        Form(2, 0, 2),
+        Form(7, 12, 6),
+        Form(5, -3, 11),
+    ],
+)
 def test_count_equals_brute_force_and_sum_of_r(f):
     for X in (0, 1, 2, 7, 30, 61, 100):
         r = lattice_point_count(f, X)
         assert r.count == brute_points(f, X)
         # N_Q(X) = Σ_{0 ≤ n ≤ X} r_Q(n)
-        assert r.count == sum(representation_count(f, n) for n in range(0, X + 1))
+        assert r.count == sum(representation_count(f, n) for n in range(X + 1))
 
 
 @given(st.integers(1, 30), st.integers(-30, 30), st.integers(1, 30), st.integers(0, 300))
@@ -62,7 +74,7 @@ def test_property_count(a, b, c, X):
 
 def test_error_is_small_compared_with_main_term():
     r = lattice_point_count((2, 1, 3), 10**8)
-    assert abs(r.error) < 10 * (10**8) ** 0.5          # O(√X) (Gauss), generous constant
+    assert abs(r.error) < 10 * (10**8) ** 0.5  # O(√X) (Gauss), generous constant
     assert abs(float(r.error) / float(r.main_term)) < 1e-3
 
 
@@ -101,14 +113,18 @@ def test_l_value_references():
         assert abs(l_value_at_one(-4, digits=25) - mpmath.pi / 4) < mpmath.mpf(10) ** -24
         assert abs(l_value_at_one(-3, digits=25) - mpmath.pi / (3 * mpmath.sqrt(3))) < mpmath.mpf(10) ** -24
         phi = (1 + mpmath.sqrt(5)) / 2
-        assert abs(l_value_at_one(5, digits=25) - 2 * mpmath.log(phi) / mpmath.sqrt(5)) < mpmath.mpf(10) ** -24
+        assert (
+            abs(l_value_at_one(5, digits=25) - 2 * mpmath.log(phi) / mpmath.sqrt(5)) < mpmath.mpf(10) ** -24
+        )
     # against the series Σ χ(n)/n summed period by period with mpmath.nsum (the terms
     # of the outer sum decay like 1/k², so nsum's extrapolation converges)
     for D in (-23, -20, 13):
         q = abs(D)
         chi = [kronecker(D, a) for a in range(q + 1)]
         with mpmath.workdps(25):
-            ref = mpmath.nsum(lambda k: mpmath.fsum(chi[a] / (q * k + a) for a in range(1, q + 1)), [0, mpmath.inf])
+            ref = mpmath.nsum(
+                lambda k: mpmath.fsum(chi[a] / (q * k + a) for a in range(1, q + 1)), [0, mpmath.inf]
+            )
             assert abs(l_value_at_one(D) - ref) < mpmath.mpf(10) ** -15
 
 

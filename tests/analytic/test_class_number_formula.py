@@ -13,6 +13,7 @@ import random
 
 import pytest
 import sympy
+from _classgroup_reference import brute_class_number, is_fundamental, wide_class_number
 
 from formkit import (
     MAX_ANALYTIC_DISCRIMINANT,
@@ -23,8 +24,6 @@ from formkit import (
     class_number,
     class_number_dirichlet,
 )
-
-from _classgroup_reference import brute_class_number, is_fundamental, wide_class_number
 
 
 def discriminants(lo: int, hi: int) -> list[int]:
@@ -86,8 +85,13 @@ def test_huge_conductor_over_small_field():
 
 
 def test_bad_input():
-    for bad, exc in [(-5, DiscriminantError), (16, DiscriminantError), (0, DiscriminantError),
-                     ("x", NotAnIntegerError), (-23.0, NotAnIntegerError)]:
+    for bad, exc in [
+        (-5, DiscriminantError),
+        (16, DiscriminantError),
+        (0, DiscriminantError),
+        ("x", NotAnIntegerError),
+        (-23.0, NotAnIntegerError),
+    ]:
         with pytest.raises(exc):
             class_number_dirichlet(bad)
     # a fundamental discriminant beyond the limit of the finite sums

@@ -2,7 +2,8 @@
 
 import mpmath
 import pytest
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit import errors
 from formkit.analytic.j_function import j_invariant

@@ -10,31 +10,32 @@ here against enumeration first) at 20- to 28-digit D built from known primes; th
 fundamental unit (formkit.core.discriminants) for regulators.
 """
 
+import itertools
 import random
 
 import pytest
-
-from formkit.classgroups import dispatch as cg
-from formkit.analytic.class_number_formula import class_number_dirichlet
-from formkit.core.arith import factorint
-from formkit.classgroups.dispatch import class_group
-from formkit.core.discriminants import (
-    fundamental_unit,
-    is_discriminant,
-    is_fundamental_discriminant,
-    regulator,
-)
-from formkit.errors import DiscriminantError, FormError, FormkitError, NotPrimitiveError
-from formkit.core.forms import Form
-from formkit.classgroups.genus import genus_count
 from _discriminants import built_discriminant, random_discriminants
+
+from formkit.analytic.class_number_formula import class_number_dirichlet
+from formkit.classgroups import dispatch as cg
 from formkit.classgroups.baby_step_giant_step import (
     bach_bound,
     class_group_bsgs,
     last_statistics,
     order_of_class,
 )
+from formkit.classgroups.dispatch import class_group
+from formkit.classgroups.genus import genus_count
 from formkit.classgroups.infrastructure import real_class_number
+from formkit.core.arith import factorint
+from formkit.core.discriminants import (
+    fundamental_unit,
+    is_discriminant,
+    is_fundamental_discriminant,
+    regulator,
+)
+from formkit.core.forms import Form
+from formkit.errors import DiscriminantError, FormError, FormkitError, NotPrimitiveError
 
 
 def _random_elements(G, rng, k):
@@ -64,7 +65,7 @@ def _check_against_enumeration(D, rng, n_elements=4):
         ex = G.discrete_log(x)
         assert G.element(ex) == x
     xs = _random_elements(G, rng, n_elements)
-    for x, y in zip(xs, xs[1:]):
+    for x, y in itertools.pairwise(xs):
         ex, ey, exy = G.discrete_log(x), G.discrete_log(y), G.discrete_log(x * y)
         assert all((a + b - c) % n == 0 for a, b, c, n in zip(ex, ey, exy, G.invariants))
     return G
@@ -98,7 +99,10 @@ def test_agrees_with_enumeration_random_large():
         _check_against_enumeration(D, rng, 10)
 
 
-@pytest.mark.parametrize("D", [-4004, -4 * 5 * 7 * 11 * 13 * 17, -3 * 4 * 5 * 7 * 11 * 13 + 0, -10**6 - 3, -(3**8) * 4, -4 * 3**10])
+@pytest.mark.parametrize(
+    "D",
+    [-4004, -4 * 5 * 7 * 11 * 13 * 17, -3 * 4 * 5 * 7 * 11 * 13 + 0, -(10**6) - 3, -(3**8) * 4, -4 * 3**10],
+)
 def test_structured_examples(D):
     if not is_discriminant(D):
         D *= 4
@@ -120,7 +124,9 @@ def test_against_character_sums():
         assert class_group_bsgs(D).order == class_number_dirichlet(D)
 
 
-@pytest.mark.parametrize("digits", [18, pytest.param(20, marks=pytest.mark.slow), pytest.param(25, marks=pytest.mark.slow)])
+@pytest.mark.parametrize(
+    "digits", [18, pytest.param(20, marks=pytest.mark.slow), pytest.param(25, marks=pytest.mark.slow)]
+)
 def test_genus_theory_at_large_discriminants(digits):
     # the 2-rank is fixed by genus theory: 2^(2-rank) = number of genera (Gauss)
     rng = random.Random(digits)
@@ -134,7 +140,7 @@ def test_genus_theory_at_large_discriminants(digits):
         _check_structure(G)
         # a random class has order dividing h, and its discrete log round-trips
         x = G.prime_form(next(p for p in range(3, 500) if _split(D, p)))
-        assert (x ** G.order).is_identity()
+        assert (x**G.order).is_identity()
         assert G.element(G.discrete_log(x)) == x
         assert order_of_class(x.form) == x.order
 
@@ -170,10 +176,10 @@ def test_provenance_and_statistics():
 
 
 def test_class_group_dispatch(monkeypatch):
-    G = class_group(-10**8 - 7, method="bsgs")
+    G = class_group(-(10**8) - 7, method="bsgs")
     assert G.provenance.method == "bsgs"
     monkeypatch.setattr(cg, "ENUMERATION_LIMIT", 10**6)
-    H = class_group(-10**7 - 1 if is_discriminant(-10**7 - 1) else -10**7 - 3)
+    H = class_group(-(10**7) - 1 if is_discriminant(-(10**7) - 1) else -(10**7) - 3)
     assert H.provenance.method == "bsgs"
 
 
@@ -269,10 +275,73 @@ def test_non_fundamental_with_field_beyond_enumeration_limit(monkeypatch):
 # Euler's 65 idoneal numbers (from memory; Cox, Primes of the form x² + ny², §3.C): n is
 # idoneal iff every genus of forms of discriminant −4n is a single class, i.e. iff Cl(−4n)
 # has exponent ≤ 2.  Complete below 10^4 at least (any further one would be far larger).
-IDONEAL = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 13, 15, 16, 18, 21, 22, 24, 25, 28, 30, 33, 37,
-           40, 42, 45, 48, 57, 58, 60, 70, 72, 78, 85, 88, 93, 102, 105, 112, 120, 130, 133, 165,
-           168, 177, 190, 210, 232, 240, 253, 273, 280, 312, 330, 345, 357, 385, 408, 462, 520,
-           760, 840, 1320, 1365, 1848]
+IDONEAL = [
+    1,
+    2,
+    3,
+    4,
+    5,
+    6,
+    7,
+    8,
+    9,
+    10,
+    12,
+    13,
+    15,
+    16,
+    18,
+    21,
+    22,
+    24,
+    25,
+    28,
+    30,
+    33,
+    37,
+    40,
+    42,
+    45,
+    48,
+    57,
+    58,
+    60,
+    70,
+    72,
+    78,
+    85,
+    88,
+    93,
+    102,
+    105,
+    112,
+    120,
+    130,
+    133,
+    165,
+    168,
+    177,
+    190,
+    210,
+    232,
+    240,
+    253,
+    273,
+    280,
+    312,
+    330,
+    345,
+    357,
+    385,
+    408,
+    462,
+    520,
+    760,
+    840,
+    1320,
+    1365,
+    1848,
+]
 
 
 def test_idoneal_numbers():
@@ -295,11 +364,20 @@ def test_idoneal_numbers_complete_below_3000():
 
 def test_group_operations_match_formkit_composition():
     # the inlined NUCOMP/NUDUPL (all gcd cases) against formkit.core.composition.compose/square
-    from formkit.core.composition import compose, square
     from formkit.classgroups.baby_step_giant_step import BSGSStatistics, _Ops
+    from formkit.core.composition import compose, square
 
     rng = random.Random(17)
-    for D in (-3, -4, -23, -4 * 3 * 5 * 7 * 11, -(10**9) - 7, -4 * (10**19 + 1), -(10**31) - 3 * 9, -(3**40) * 4):
+    for D in (
+        -3,
+        -4,
+        -23,
+        -4 * 3 * 5 * 7 * 11,
+        -(10**9) - 7,
+        -4 * (10**19 + 1),
+        -(10**31) - 3 * 9,
+        -(3**40) * 4,
+    ):
         if not is_discriminant(D):
             continue
         ops = _Ops(D, BSGSStatistics())

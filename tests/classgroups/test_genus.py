@@ -12,22 +12,11 @@ from __future__ import annotations
 from math import gcd
 
 import pytest
-from hypothesis import given, strategies as st
-
 from _foundation_strategies import brute_reduced_definite
+from hypothesis import given
+from hypothesis import strategies as st
 
-from formkit.core.arith import kronecker
 from formkit.classgroups.dispatch import class_group
-from formkit.core.discriminants import is_discriminant
-from formkit.errors import (
-    DiscriminantError,
-    DiscriminantMismatchError,
-    FormError,
-    FormkitError,
-    NotAnIntegerError,
-    NotPrimitiveError,
-)
-from formkit.core.forms import Form
 from formkit.classgroups.genus import (
     assigned_characters,
     genera,
@@ -38,8 +27,18 @@ from formkit.classgroups.genus import (
     value_prime_to,
 )
 from formkit.classgroups.principal_genus_theorem import principal_genus_is_squares
+from formkit.core.arith import kronecker
+from formkit.core.discriminants import is_discriminant
+from formkit.core.forms import Form
 from formkit.core.reduction import reduced, reduced_cycle
-
+from formkit.errors import (
+    DiscriminantError,
+    DiscriminantMismatchError,
+    FormError,
+    FormkitError,
+    NotAnIntegerError,
+    NotPrimitiveError,
+)
 
 # ---------------------------------------------------------------------------
 # brute force: reduced positive definite forms, and narrow classes for D > 0
@@ -60,7 +59,7 @@ def brute_classes_positive(D):
     for a in range(-lim, lim + 1):
         if a == 0:
             continue
-        for b in range(0, lim + 1):
+        for b in range(lim + 1):
             if (b * b - D) % (4 * a):
                 continue
             c = (b * b - D) // (4 * a)
@@ -134,7 +133,7 @@ def test_character_values_match_formulas():
         assert chars["delta"](m) == (-1) ** (((m - 1) // 2) % 2)
         assert chars["epsilon"](m) == (-1) ** (((m * m - 1) // 8) % 2)
         assert chars["(n/3)"](m) == (1 if pow(m % 3, 1, 3) == 1 else -1)
-    de = [c for c in assigned_characters(-8) if c.name == "delta*epsilon"][0]
+    de = next(c for c in assigned_characters(-8) if c.name == "delta*epsilon")
     assert [de(m) for m in (1, 3, 5, 7)] == [1, 1, -1, -1]  # x² + 2y² takes 1, 3 mod 8
     with pytest.raises(FormkitError, match="prime to 2"):
         chars["delta"](4)
@@ -234,10 +233,73 @@ def test_gauss_theorem_and_genus_is_homomorphism(absD):
 def test_euler_idoneal_numbers():
     # Source (from memory): Euler's 65 idoneal numbers; n is idoneal iff every genus of
     # forms of discriminant −4n has a single class (Cox Prop. 3.24 and §3).
-    idoneal = {1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 13, 15, 16, 18, 21, 22, 24, 25, 28, 30, 33, 37, 40,
-               42, 45, 48, 57, 58, 60, 70, 72, 78, 85, 88, 93, 102, 105, 112, 120, 130, 133, 165, 168,
-               177, 190, 210, 232, 240, 253, 273, 280, 312, 330, 345, 357, 385, 408, 462, 520, 760,
-               840, 1320, 1365, 1848}
+    idoneal = {
+        1,
+        2,
+        3,
+        4,
+        5,
+        6,
+        7,
+        8,
+        9,
+        10,
+        12,
+        13,
+        15,
+        16,
+        18,
+        21,
+        22,
+        24,
+        25,
+        28,
+        30,
+        33,
+        37,
+        40,
+        42,
+        45,
+        48,
+        57,
+        58,
+        60,
+        70,
+        72,
+        78,
+        85,
+        88,
+        93,
+        102,
+        105,
+        112,
+        120,
+        130,
+        133,
+        165,
+        168,
+        177,
+        190,
+        210,
+        232,
+        240,
+        253,
+        273,
+        280,
+        312,
+        330,
+        345,
+        357,
+        385,
+        408,
+        462,
+        520,
+        760,
+        840,
+        1320,
+        1365,
+        1848,
+    }
     assert len(idoneal) == 65
     found = set()
     for n in range(1, 1900):

@@ -15,18 +15,19 @@ import math
 import random
 
 import pytest
-from hypothesis import given, settings, strategies as st
+from _discriminants import built_discriminant, random_discriminants
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 import formkit.classgroups.infrastructure as infra
-from _discriminants import built_discriminant, random_discriminants
 from formkit.analytic.class_number_formula import class_number_dirichlet
-from formkit.core.arith import factorint
+from formkit.classgroups.abelian_groups import BSGSStatistics
 from formkit.classgroups.dispatch import class_group, class_number_summary
-from formkit.core.discriminants import fundamental_unit, is_discriminant, regulator
-from formkit.errors import DiscriminantError, FormkitError
 from formkit.classgroups.genus import genus_count
 from formkit.classgroups.infrastructure import _intersect, _progression, real_class_group, real_class_number
-from formkit.classgroups.abelian_groups import BSGSStatistics
+from formkit.core.arith import factorint
+from formkit.core.discriminants import fundamental_unit, is_discriminant, regulator
+from formkit.errors import DiscriminantError, FormkitError
 
 
 def _squarefree(n):
@@ -62,10 +63,16 @@ def test_against_character_sums(D):
 def test_chowla_and_yokoi_theorems():
     # Biró 2003 (from memory): for squarefree 4m²+1 (m ≥ 1) h = 1 iff m ∈ {1,2,3,5,7,13};
     # for squarefree m²+4 (m odd) h = 1 iff m ∈ {1,3,5,7,13,17}
-    chowla = [m for m in range(1, 60) if _squarefree(4 * m * m + 1)
-              and real_class_number(4 * m * m + 1).class_number_wide == 1]
-    yokoi = [m for m in range(1, 60, 2) if _squarefree(m * m + 4)
-             and real_class_number(m * m + 4).class_number_wide == 1]
+    chowla = [
+        m
+        for m in range(1, 60)
+        if _squarefree(4 * m * m + 1) and real_class_number(4 * m * m + 1).class_number_wide == 1
+    ]
+    yokoi = [
+        m
+        for m in range(1, 60, 2)
+        if _squarefree(m * m + 4) and real_class_number(m * m + 4).class_number_wide == 1
+    ]
     assert chowla == [1, 2, 3, 5, 7, 13]
     assert yokoi == [1, 3, 5, 7, 13, 17]
 
@@ -125,7 +132,9 @@ def test_bad_input():
 # candidates as arithmetic progressions
 
 
-@given(st.integers(1, 500), st.integers(1, 20), st.integers(0, 60), st.integers(-50, 600), st.integers(0, 600))
+@given(
+    st.integers(1, 500), st.integers(1, 20), st.integers(0, 60), st.integers(-50, 600), st.integers(0, 600)
+)
 def test_intersect_against_brute_force(k0, step, count, lo, width):
     a = (k0, step, count)
     b = (lo, 1, width)

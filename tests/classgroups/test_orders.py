@@ -15,6 +15,17 @@ import math
 import random
 
 import pytest
+from _classgroup_reference import (
+    brute_class_number,
+    brute_reduced_definite,
+    class_key,
+    class_product,
+    extend_to_maximal,
+    fundamental_part,
+    indefinite_cycles,
+    wide_class_number,
+)
+from _foundation_strategies import act
 from hypothesis import given
 from hypothesis import strategies as st
 
@@ -34,18 +45,6 @@ from formkit import (
     projection_kernel,
     unit_index,
 )
-
-from _classgroup_reference import (
-    brute_class_number,
-    brute_reduced_definite,
-    class_key,
-    class_product,
-    extend_to_maximal,
-    fundamental_part,
-    indefinite_cycles,
-    wide_class_number,
-)
-from _foundation_strategies import act
 
 
 def discriminants(lo: int, hi: int) -> list[int]:
@@ -118,7 +117,7 @@ def test_unit_index_positive():
         eK, eD = fundamental_unit(d), fundamental_unit(D)
         T, U = _unit_power(eK.t, eK.u, d, k)
         # (t_D + u_D·√D)/2 with √D = f·√d
-        assert (T, U) == (eD.t, eD.u * f), D
+        assert (eD.t, eD.u * f) == (T, U), D
         for j in range(1, k):  # no smaller power lies in the order
             T, U = _unit_power(eK.t, eK.u, d, j)
             assert not (U % f == 0 and (T - (U // f) * D) % 2 == 0), (D, j)

@@ -149,7 +149,7 @@ def test_internal_error_exit_1_without_traceback(path, sp, capsys, monkeypatch):
         return parser
 
     monkeypatch.setattr(cli, "build_parser", patched)
-    code, out, err = _run(argv, capsys)
+    code, _out, err = _run(argv, capsys)
     assert code == 1
     assert "Traceback" not in err and len(err.splitlines()) == 1
     assert "internal error" in err and "simulated failure" in err and "--debug" in err
@@ -166,7 +166,9 @@ def _form_slots(sp, argv, path):
             value = getattr(ns, a.dest)
             used = {i for i, _ in slots}
             idx = [
-                i for i, t in enumerate(argv) if t.strip() == str(value).strip() and i >= len(path) and i not in used
+                i
+                for i, t in enumerate(argv)
+                if t.strip() == str(value).strip() and i >= len(path) and i not in used
             ]
             if idx:
                 slots.append((idx[0], Form.parse(str(value))))
@@ -209,7 +211,6 @@ def test_negative_forms_are_not_options(path, sp):
                 assert Form.parse(getattr(ns, a.dest)) == Form.parse(text)
 
 
-
 @pytest.mark.slow
 @pytest.mark.parametrize("path,sp", LEAVES, ids=IDS)
 def test_every_help_example_runs(path, sp, capsys, monkeypatch, tmp_path):
@@ -226,5 +227,5 @@ def test_every_help_example_runs(path, sp, capsys, monkeypatch, tmp_path):
             continue
         if db is not None and db in unbuilt:
             continue  # queries the store of a skipped cluster example
-        code, out, err = _run(argv, capsys)
+        code, _out, err = _run(argv, capsys)
         assert code == 0, (argv, err)

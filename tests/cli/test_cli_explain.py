@@ -77,7 +77,7 @@ def test_negative_forms_and_notations(capsys):
 @pytest.mark.parametrize(
     "argv,needle",
     [
-        (["explain", "reduce", "1,2,1"], "square"),                      # D = 0
+        (["explain", "reduce", "1,2,1"], "square"),  # D = 0
         (["explain", "reduce", "x^3"], "x^3"),
         (["explain", "compose", "1,0,1", "1,1,1"], "discriminant"),
         (["explain", "represent", "1,0,1", "2.5"], "2.5"),

@@ -13,11 +13,8 @@ import subprocess
 import sys
 
 import pytest
-
-from _foundation_strategies import act, brute_reduced_indefinite, det
-
-
 from _cli import run, run_json
+from _foundation_strategies import act, brute_reduced_indefinite, det
 
 REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix"}
 EQUIVALENT_KEYS = {"equivalent", "properly", "matrix"}
@@ -97,7 +94,7 @@ def test_reduce_steps(capsys):
         current = act(current, s["matrix"])
         assert list(current) == s["form"]
     assert list(current) == d["reduced"]
-    code, out, err = run(capsys, "reduce", "10,37,35", "--steps")
+    code, out, _err = run(capsys, "reduce", "10,37,35", "--steps")
     assert code == 0 and "translate" in out and "swap" in out and "[1, 1, 8]" in out
 
 
@@ -119,7 +116,7 @@ def test_reduce_huge_form_exact(capsys):
 def test_reduce_cycle_limit(capsys):
     d = run_json(capsys, "reduce", "1,1,-10000000000000000000001", "--cycle-limit", "3")
     assert len(d["cycle"]) == 3 and d["cycle_complete"] is False
-    code, out, err = run(capsys, "reduce", "1,1,-10000000000000000000001", "--cycle-limit", "3")
+    code, out, _err = run(capsys, "reduce", "1,1,-10000000000000000000001", "--cycle-limit", "3")
     assert code == 0 and "more than 3" in out
     d = run_json(capsys, "reduce", "1,0,-7", "--cycle-limit", "0")
     assert len(d["cycle"]) == 4 and d["cycle_complete"] is True
@@ -158,9 +155,9 @@ def test_equivalent_json(capsys, F, G, equivalent, properly):
 
 
 def test_equivalent_human_output(capsys):
-    code, out, err = run(capsys, "equivalent", "2,1,3", "2,-1,3")
+    code, out, _err = run(capsys, "equivalent", "2,1,3", "2,-1,3")
     assert code == 0 and "only improperly" in out
-    code, out, err = run(capsys, "equivalent", "2,1,3", "1,1,6")
+    code, out, _err = run(capsys, "equivalent", "2,1,3", "1,1,6")
     assert code == 0 and "not equivalent" in out
 
 
@@ -209,7 +206,11 @@ def test_real_subprocess():
     assert d["form"] == [-1, 0, 13] and act((-1, 0, 13), d["matrix"]) == tuple(d["reduced"])
     assert "cycle" in d
     proc = subprocess.run(
-        [sys.executable, "-m", "formkit", "reduce", "1,2"], capture_output=True, text=True, timeout=120, env=env
+        [sys.executable, "-m", "formkit", "reduce", "1,2"],
+        capture_output=True,
+        text=True,
+        timeout=120,
+        env=env,
     )
     assert proc.returncode == 2 and proc.stdout == ""
     assert len(proc.stderr.splitlines()) == 1 and proc.stderr.startswith("formkit: error: ")
@@ -218,7 +219,12 @@ def test_real_subprocess():
 
 def test_equivalent_max_steps(capsys):
     code, out, err = run(
-        capsys, "equivalent", "1,1,-250000000000000000000003", "-1,1,250000000000000000000003", "--max-steps", "1000"
+        capsys,
+        "equivalent",
+        "1,1,-250000000000000000000003",
+        "-1,1,250000000000000000000003",
+        "--max-steps",
+        "1000",
     )
     assert_usage_error(code, out, err)
     assert "not decided" in err

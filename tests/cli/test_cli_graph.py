@@ -110,7 +110,7 @@ def test_json_flag_to_stdout_is_one_object(capsys):
 def test_picture_output(ext, tmp_path, capsys):
     pytest.importorskip("matplotlib")
     path = tmp_path / f"g.{ext}"
-    code, out, err = run(["graph", "-455", "--output", str(path)], capsys)
+    code, _out, err = run(["graph", "-455", "--output", str(path)], capsys)
     assert code == 0, err
     data = path.read_bytes()
     if ext == "png":
@@ -157,5 +157,5 @@ def test_picture_without_matplotlib_is_a_clean_error(monkeypatch, tmp_path, caps
     import sys
 
     monkeypatch.setitem(sys.modules, "matplotlib", None)
-    code, out, err = run(["graph", "-23", "--output", str(tmp_path / "x.png")], capsys)
+    code, _out, err = run(["graph", "-23", "--output", str(tmp_path / "x.png")], capsys)
     assert code == 2 and "formkit[plot]" in err and len(err.splitlines()) == 1

@@ -14,9 +14,6 @@ import subprocess
 import sys
 
 import pytest
-
-from formkit.cli import main
-
 from _classgroup_reference import (
     BruteGroup,
     brute_reduced_definite,
@@ -27,8 +24,19 @@ from _classgroup_reference import (
     wide_class_number,
 )
 
-ISSUE_KEYS = {"discriminant", "fundamental_discriminant", "conductor", "class_number", "invariants",
-              "generators", "forms", "method", "certified"}
+from formkit.cli import main
+
+ISSUE_KEYS = {
+    "discriminant",
+    "fundamental_discriminant",
+    "conductor",
+    "class_number",
+    "invariants",
+    "generators",
+    "forms",
+    "method",
+    "certified",
+}
 REAL_KEYS = {"class_number_wide", "regulator", "fundamental_unit"}
 # Extra keys present in the output beyond those the issue names (honesty fields for
 # conditional results, and the norm of the unit); allowed, nothing else.
@@ -134,7 +142,9 @@ def test_compose_json(capsys):
         for F in reps:
             for G in reps:
                 for method in ("dirichlet", "nucomp"):
-                    d = run_json(["compose", ",".join(map(str, F)), ",".join(map(str, G)), "--method", method], capsys)
+                    d = run_json(
+                        ["compose", ",".join(map(str, F)), ",".join(map(str, G)), "--method", method], capsys
+                    )
                     assert set(d) == {"result"}
                     assert tuple(d["result"]) == class_product(F, G, D)
 
@@ -165,7 +175,7 @@ def test_power_json_against_brute_force(capsys):
     for F in brute_reduced_definite(D)[::8]:
         key = class_key(F, D)
         x = B.one
-        for k in range(0, 6):
+        for k in range(6):
             d = run_json(["power", ",".join(map(str, F)), str(k)], capsys)
             assert tuple(d["result"]) == x
             x = B.mul(x, key)
@@ -219,8 +229,13 @@ def test_real_subprocess():
     env = dict(os.environ)
     root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
     env["PYTHONPATH"] = root + os.pathsep + env.get("PYTHONPATH", "")
-    bad = subprocess.run([sys.executable, "-m", "formkit", "group", "-5", "--json"],
-                         capture_output=True, text=True, env=env, timeout=120)
+    bad = subprocess.run(
+        [sys.executable, "-m", "formkit", "group", "-5", "--json"],
+        capture_output=True,
+        text=True,
+        env=env,
+        timeout=120,
+    )
     assert bad.returncode == 2 and bad.stdout == ""
     assert bad.stderr.startswith("formkit: error: ") and bad.stderr.count("\n") == 1
     assert "-5" in bad.stderr and "Traceback" not in bad.stderr
@@ -252,9 +267,9 @@ def test_class_number_json_and_text(capsys):
     assert (d["class_number"], d["class_number_wide"], d["fundamental_unit_norm"]) == (50280, 50280, -1)
     assert d["assumption"] == "GRH" and not d["certified"]
     assert abs(d["regulator"] - math.log(10**6 + math.sqrt(10**12 + 1))) < 1e-9  # unit 10^6 + √D
-    code, out, err = run(["class-number", "-23"], capsys)
+    code, out, _err = run(["class-number", "-23"], capsys)
     assert code == 0 and "class number: 3" in out and "unconditional" in out
-    code, out, err = run(["class-number", "316", "--method", "bsgs"], capsys)
+    code, out, _err = run(["class-number", "316", "--method", "bsgs"], capsys)
     assert "narrow class number h+: 6" in out and "(wide sense): 3" in out and "GRH" in out
 
 

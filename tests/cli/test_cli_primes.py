@@ -1,10 +1,7 @@
 """Tests for the ``primes`` and ``hilbert`` commands (in-process through formkit.cli.main)."""
 
-
 import pytest
 import sympy
-
-
 from _cli import run, run_json
 
 
@@ -72,7 +69,12 @@ def test_primes_default_bound_and_power_notation(capsys):
 
 def test_hilbert_json(capsys):
     d = run_json(capsys, "hilbert", "-23")
-    assert d == {**d, "discriminant": -23, "degree": 3, "coefficients": [1, 3491750, -5151296875, 12771880859375]}
+    assert d == {
+        **d,
+        "discriminant": -23,
+        "degree": 3,
+        "coefficients": [1, 3491750, -5151296875, 12771880859375],
+    }
     d = run_json(capsys, "hilbert", "-163")
     assert d["coefficients"] == [1, 640320**3]  # j = −640320³ (classical)
     d = run_json(capsys, "hilbert", "-16", "--no-verify")
@@ -112,8 +114,9 @@ def test_bad_input_one_line_exit_2(capsys, argv, words):
 
 
 def test_hilbert_discriminant_factors(capsys):
-    from formkit.cli import main
     import json
+
+    from formkit.cli import main
 
     code = main(["hilbert", "-15", "--discriminant-factors", "--json"])
     out, err = capsys.readouterr()

@@ -11,8 +11,6 @@ from math import gcd
 
 import pytest
 import sympy
-
-
 from _cli import run, run_json
 
 
@@ -20,7 +18,7 @@ def test_represent_definite_json(capsys):
     d = run_json(capsys, "represent", "x^2+y^2", "325")
     assert set(d) >= {"form", "n", "count", "primitive_count", "solutions"}
     assert d["form"] == [1, 0, 1] and d["n"] == 325
-    assert d["count"] == 24 == len(d["solutions"])          # Jacobi: 4·(6 − 0)
+    assert d["count"] == 24 == len(d["solutions"])  # Jacobi: 4·(6 − 0)
     assert d["primitive_count"] == sum(1 for x, y in d["solutions"] if gcd(x, y) == 1) == 16
     assert all(x * x + y * y == 325 for x, y in d["solutions"])
 
@@ -34,9 +32,11 @@ def test_represent_primitive_and_limit(capsys):
 
 
 def test_represent_brute_force(capsys):
-    for n in range(0, 40):
+    for n in range(40):
         d = run_json(capsys, "represent", "2x^2+xy+3y^2", str(n))
-        brute = sorted([x, y] for x in range(-10, 11) for y in range(-10, 11) if 2 * x * x + x * y + 3 * y * y == n)
+        brute = sorted(
+            [x, y] for x in range(-10, 11) for y in range(-10, 11) if 2 * x * x + x * y + 3 * y * y == n
+        )
         assert d["solutions"] == brute and d["count"] == len(brute)
 
 
@@ -64,13 +64,13 @@ def test_represent_indefinite_json(capsys):
 
 
 def test_represent_human_text(capsys):
-    code, out, err = run(capsys, "represent", "x^2+y^2", "25")
+    code, out, _err = run(capsys, "represent", "x^2+y^2", "25")
     assert code == 0 and "12 solutions in all, 8 primitive" in out and "(3, 4)" in out
-    code, out, err = run(capsys, "represent", "-x^2+3y^2", "11")
+    code, out, _err = run(capsys, "represent", "-x^2+3y^2", "11")
     assert code == 0 and "orbit" in out and "A = [[" in out
-    code, out, err = run(capsys, "represent", "1,0,-2", "0")
+    code, out, _err = run(capsys, "represent", "1,0,-2", "0")
     assert code == 0 and "(0, 0)" in out
-    code, out, err = run(capsys, "represent", "1,0,-2", "3")
+    code, out, _err = run(capsys, "represent", "1,0,-2", "3")
     assert code == 0 and "no solutions" in out
 
 
@@ -93,19 +93,19 @@ def test_genera_json(capsys):
 
 
 def test_genera_human(capsys):
-    code, out, err = run(capsys, "genera", "-56")
+    code, out, _err = run(capsys, "genera", "-56")
     assert code == 0 and "principal genus [+ +]" in out and "epsilon" in out
 
 
 @pytest.mark.parametrize(
     "argv",
     [
-        ("represent", "1,2,1", "5"),          # square discriminant
-        ("represent", "x^2 + ", "5"),         # unreadable form
-        ("represent", "1,0,1", "five"),       # N not an integer
+        ("represent", "1,2,1", "5"),  # square discriminant
+        ("represent", "x^2 + ", "5"),  # unreadable form
+        ("represent", "1,0,1", "five"),  # N not an integer
         ("represent", "1,0,1", "5", "--limit", "-2"),
         ("represent", "1,0,1", "5", "--limit", "x"),
-        ("genera", "-22"),                    # not a discriminant
+        ("genera", "-22"),  # not a discriminant
         ("genera", "16"),
         ("genera", "abc"),
     ],
@@ -137,8 +137,15 @@ def test_factors_option_for_a_large_n(capsys):
 
 @pytest.mark.parametrize(
     "factors, needle",
-    [("5^3*11", "multiply to 1375"), ("5^x", "5^x"), ("25^2*13", "25"), ("", "--factors"), ("5^3*13*-1", "-1"),
-     ("5²*13", "5²"), ("5^99999999999", "exceeds")],
+    [
+        ("5^3*11", "multiply to 1375"),
+        ("5^x", "5^x"),
+        ("25^2*13", "25"),
+        ("", "--factors"),
+        ("5^3*13*-1", "-1"),
+        ("5²*13", "5²"),
+        ("5^99999999999", "exceeds"),
+    ],
 )
 def test_factors_option_bad_input(factors, needle, capsys):
     code, out, err = run(capsys, "represent", "1,0,1", "1625", "--factors", factors)

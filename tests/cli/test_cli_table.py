@@ -29,7 +29,7 @@ def test_text_table(capsys):
     assert code == 0 and err == ""
     lines = out.splitlines()
     assert lines[0].split() == ["D", "d_K", "f", "h", "invariants", "genera"]
-    body = {int(l.split()[0]): l.split() for l in lines[1:-1]}
+    body = {int(line.split()[0]): line.split() for line in lines[1:-1]}
     # h(−23) = 3, cyclic, one genus; h(−12) = 1 with conductor 2 over −3 (Cox §7, from memory)
     assert body[-23] == ["-23", "-23", "1", "3", "3", "1"]
     assert body[-12] == ["-12", "-3", "2", "1", "1", "1"]
@@ -40,7 +40,9 @@ def test_csv_and_positive_columns(capsys):
     code, out, _ = run(["table", "--from", "5", "--to", "100", "--fundamental", "--format", "csv"], capsys)
     assert code == 0
     rows = list(csv.DictReader(io.StringIO(out)))
-    assert [int(r["discriminant"]) for r in rows] == [d for d in range(5, 101) if is_fundamental_discriminant(d)]
+    assert [int(r["discriminant"]) for r in rows] == [
+        d for d in range(5, 101) if is_fundamental_discriminant(d)
+    ]
     by = {int(r["discriminant"]): r for r in rows}
     # Q(√3): narrow class number 2, wide 1, regulator log(2+√3) = 1.3169578969… (from memory)
     assert (by[12]["class_number"], by[12]["class_number_wide"]) == ("2", "1")
@@ -61,7 +63,9 @@ def test_json_object(capsys):
     assert all(r["invariants"] is None for r in payload["rows"])
     by = {r["discriminant"]: r for r in payload["rows"]}
     assert by[-47]["class_number"] == 5 and by[-71]["class_number"] == 7  # Cohen GTM 138 App. B (from memory)
-    code2, out2, _ = run(["table", "--from", "-100", "--to", "-3", "--no-invariants", "--format", "json"], capsys)
+    _code2, out2, _ = run(
+        ["table", "--from", "-100", "--to", "-3", "--no-invariants", "--format", "json"], capsys
+    )
     assert json.loads(out2) == payload
 
 
@@ -76,18 +80,37 @@ def test_tex_fragment(capsys):
 
 def test_build_store_then_query(tmp_path, capsys):
     db = str(tmp_path / "t.db")
-    code, out, err = run(["table", "--from", "-3000", "--to", "-3", "--no-invariants", "--db", db,
-                          "--workers", "1", "--chunk-size", "1000"], capsys)
+    code, out, err = run(
+        [
+            "table",
+            "--from",
+            "-3000",
+            "--to",
+            "-3",
+            "--no-invariants",
+            "--db",
+            db,
+            "--workers",
+            "1",
+            "--chunk-size",
+            "1000",
+        ],
+        capsys,
+    )
     assert code == 0 and err == ""  # not a terminal: no progress bar
     assert "3 chunks computed (1500 rows), 0 already done" in out
-    code, out, _ = run(["table", "--from", "-3000", "--to", "-3", "--no-invariants", "--db", db, "--json"], capsys)
+    code, out, _ = run(
+        ["table", "--from", "-3000", "--to", "-3", "--no-invariants", "--db", db, "--json"], capsys
+    )
     s = json.loads(out)
     assert (s["chunks_computed"], s["chunks_already_done"], s["rows_written"]) == (0, 3, 0)
     # h = 1 among fundamental discriminants (Baker–Heegner–Stark; Cox Thm 7.30)
     code, out, _ = run(["table", "--db", db, "--class-number", "1", "--fundamental", "--json"], capsys)
     assert [r["discriminant"] for r in json.loads(out)["rows"]] == [-3, -4, -7, -8, -11, -19, -43, -67, -163]
     # h = 3: 16 fields, the largest |d_K| is 907 (Watkins 2004, from memory)
-    code, out, _ = run(["table", "--db", db, "--class-number", "3", "--fundamental", "--format", "csv"], capsys)
+    code, out, _ = run(
+        ["table", "--db", db, "--class-number", "3", "--fundamental", "--format", "csv"], capsys
+    )
     found = [int(r["discriminant"]) for r in csv.DictReader(io.StringIO(out))]
     assert len(found) == 16 and found[-1] == -907
     code, out, _ = run(["table", "--db", db, "--query", "--from", "-20", "--to", "-15", "--json"], capsys)
@@ -106,10 +129,12 @@ def test_build_store_then_query(tmp_path, capsys):
 def test_structure_query(tmp_path, capsys):
     db = str(tmp_path / "g.db")
     assert run(["table", "--from", "-500", "--to", "-3", "--db", db, "--workers", "1"], capsys)[0] == 0
-    code, out, _ = run(["table", "--db", db, "--invariants", "2,2,2", "--json"], capsys)
+    _code, out, _ = run(["table", "--db", db, "--invariants", "2,2,2", "--json"], capsys)
     got = [r["discriminant"] for r in json.loads(out)["rows"]]
     assert -420 in got  # 105 is idoneal: Cl(−420) = (Z/2)³ (Euler's idoneal numbers, from memory)
-    assert got == [D for D in range(-3, -501, -1) if D % 4 in (0, 1) and class_group(D).invariants == (2, 2, 2)]
+    assert got == [
+        D for D in range(-3, -501, -1) if D % 4 in (0, 1) and class_group(D).invariants == (2, 2, 2)
+    ]
 
 
 @pytest.mark.parametrize(
@@ -142,7 +167,7 @@ def test_bad_query_values(tmp_path, capsys):
         (["--class-number", "0"], "at least 1"),
         (["--class-number", "seven"], "class-number"),
     ]:
-        code, out, err = run(["table", "--db", db, *argv], capsys)
+        code, _out, err = run(["table", "--db", db, *argv], capsys)
         assert code == 2 and len(err.splitlines()) == 1 and words in err, err
     code, _, err = run(["table", "--from", "-200", "--to", "-3", "--db", db], capsys)  # with invariants
     assert code == 2 and "built without invariants" in err
@@ -152,9 +177,27 @@ def test_pipe_is_quiet_subprocess(tmp_path):
     db = str(tmp_path / "p.db")
     env = dict(os.environ, PYTHONPATH=str(ROOT) + os.pathsep + os.environ.get("PYTHONPATH", ""))
     proc = subprocess.run(
-        [sys.executable, "-m", "formkit", "table", "--from", "-20000", "--to", "-3", "--no-invariants",
-         "--db", db, "--workers", "2", "--chunk-size", "5000"],
-        capture_output=True, text=True, env=env, timeout=300,
+        [
+            sys.executable,
+            "-m",
+            "formkit",
+            "table",
+            "--from",
+            "-20000",
+            "--to",
+            "-3",
+            "--no-invariants",
+            "--db",
+            db,
+            "--workers",
+            "2",
+            "--chunk-size",
+            "5000",
+        ],
+        capture_output=True,
+        text=True,
+        env=env,
+        timeout=300,
     )
     assert proc.returncode == 0 and proc.stderr == "", proc.stderr  # no progress bar into a pipe
     assert "4 chunks computed (10000 rows)" in proc.stdout, proc.stdout
@@ -165,11 +208,28 @@ def test_cluster_option_and_probe(tmp_path, capsys, monkeypatch):
     import formkit.tables.parallel as store
 
     db = str(tmp_path / "c.db")
-    with distributed.LocalCluster(n_workers=1, threads_per_worker=2, processes=False,
-                                  dashboard_address="127.0.0.1:0") as cluster:
+    with distributed.LocalCluster(
+        n_workers=1, threads_per_worker=2, processes=False, dashboard_address="127.0.0.1:0"
+    ) as cluster:
         addr = cluster.scheduler_address
-        code, out, err = run(["table", "--from", "-5000", "--to", "-3", "--no-invariants", "--db", db,
-                              "--cluster", addr, "--chunk-size", "1000", "--json"], capsys)
+        code, out, err = run(
+            [
+                "table",
+                "--from",
+                "-5000",
+                "--to",
+                "-3",
+                "--no-invariants",
+                "--db",
+                db,
+                "--cluster",
+                addr,
+                "--chunk-size",
+                "1000",
+                "--json",
+            ],
+            capsys,
+        )
         assert code == 0, err
         s = json.loads(out)
         assert s["cluster"] == addr and s["chunks_computed"] == 5 and s["rows_written"] == 2500

@@ -18,8 +18,7 @@ import pytest
 import sympy
 from hypothesis import given
 from hypothesis import strategies as st
-from sympy.functions.combinatorial.numbers import kronecker_symbol
-from sympy.functions.combinatorial.numbers import jacobi_symbol
+from sympy.functions.combinatorial.numbers import jacobi_symbol, kronecker_symbol
 from sympy.ntheory.modular import crt as sympy_crt
 from sympy.ntheory.residue_ntheory import sqrt_mod as sympy_sqrt_mod
 
@@ -254,7 +253,7 @@ def test_crt_against_sympy(pairs):
             residues.append(r)
             moduli.append(m)
     x, M = crt(residues, moduli)
-    assert M == math.prod(moduli) and 0 <= x < M
+    assert math.prod(moduli) == M and 0 <= x < M
     assert all((x - r) % m == 0 for r, m in zip(residues, moduli))
     if moduli:
         assert x == int(sympy_crt(moduli, residues)[0]) % M
@@ -267,7 +266,7 @@ def test_crt_small_brute_force():
                 continue
             for r1 in range(m1):
                 for r2 in range(m2):
-                    x, M = crt([r1, r2], [m1, m2])
+                    x, _M = crt([r1, r2], [m1, m2])
                     assert x == next(y for y in range(m1 * m2) if y % m1 == r1 and y % m2 == r2)
 
 

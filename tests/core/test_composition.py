@@ -15,6 +15,16 @@ import random
 
 import pytest
 import sympy
+from _classgroup_reference import (
+    brute_reduced_definite,
+    class_key,
+    class_product,
+    ideal_compose,
+    indefinite_cycles,
+    is_reduced_indefinite,
+    reduce_definite,
+)
+from _foundation_strategies import act, sl2_matrices
 from hypothesis import given
 from hypothesis import strategies as st
 
@@ -34,17 +44,6 @@ from formkit import (
     power,
     square,
 )
-
-from _classgroup_reference import (
-    brute_reduced_definite,
-    class_key,
-    class_product,
-    ideal_compose,
-    indefinite_cycles,
-    is_reduced_indefinite,
-    reduce_definite,
-)
-from _foundation_strategies import act, sl2_matrices
 
 
 def discriminants(lo: int, hi: int) -> list[int]:
@@ -208,8 +207,11 @@ def test_nucomp_equals_dirichlet_on_large_discriminants(data, M):
     assert square(F, method="dirichlet") == square(F, method="nucomp")
 
 
-@given(large_negative_discriminant_with_forms(max_digits=60), st.integers(-(10**30), 10**30),
-       st.integers(-(10**6), 10**6))
+@given(
+    large_negative_discriminant_with_forms(max_digits=60),
+    st.integers(-(10**30), 10**30),
+    st.integers(-(10**6), 10**6),
+)
 def test_power_laws_on_large_discriminants(data, j, k):
     # source: the group law — F^(j+k) = F^j·F^k, F^(jk) = (F^j)^k, F^(−k) = (F^k)^(−1),
     # F^1 = reduced F, F^0 = principal; both powering methods agree

@@ -50,7 +50,9 @@ def brute_is_fundamental(D: int) -> bool:
 
 def brute_conductor(D: int) -> int:
     """The largest f with D/f² ≡ 0, 1 (mod 4) (then D/f² is fundamental)."""
-    return max(f for f in range(1, math.isqrt(abs(D)) + 1) if D % (f * f) == 0 and (D // (f * f)) % 4 in (0, 1))
+    return max(
+        f for f in range(1, math.isqrt(abs(D)) + 1) if D % (f * f) == 0 and (D // (f * f)) % 4 in (0, 1)
+    )
 
 
 # --- validation ----------------------------------------------------------------------
@@ -90,7 +92,7 @@ def test_validate_refuses_non_integers(bad):
 def test_parts_against_brute_force():
     for D in NONSQUARE:
         dK, f = discriminant_parts(D)
-        assert D == f * f * dK
+        assert f * f * dK == D
         assert f == brute_conductor(D) == conductor(D)
         assert dK == fundamental_discriminant(D)
         assert brute_is_fundamental(dK)
@@ -101,10 +103,48 @@ def test_fundamental_discriminants_published_lists():
     # OEIS A003657 (negative fundamental discriminants, absolute values) and A003658
     # (positive ones), initial terms from memory
     assert [-d for d in range(-60, 0) if is_fundamental_discriminant(d)][::-1] == [
-        3, 4, 7, 8, 11, 15, 19, 20, 23, 24, 31, 35, 39, 40, 43, 47, 51, 52, 55, 56, 59,
+        3,
+        4,
+        7,
+        8,
+        11,
+        15,
+        19,
+        20,
+        23,
+        24,
+        31,
+        35,
+        39,
+        40,
+        43,
+        47,
+        51,
+        52,
+        55,
+        56,
+        59,
     ]
     assert [d for d in range(1, 62) if is_fundamental_discriminant(d)] == [
-        5, 8, 12, 13, 17, 21, 24, 28, 29, 33, 37, 40, 41, 44, 53, 56, 57, 60, 61,
+        5,
+        8,
+        12,
+        13,
+        17,
+        21,
+        24,
+        28,
+        29,
+        33,
+        37,
+        40,
+        41,
+        44,
+        53,
+        56,
+        57,
+        60,
+        61,
     ]
 
 
@@ -113,7 +153,7 @@ def test_parts_large(D):
     if not is_discriminant(D):
         return
     dK, f = discriminant_parts(D)
-    assert D == f * f * dK and brute_is_fundamental(dK)
+    assert f * f * dK == D and brute_is_fundamental(dK)
 
 
 def test_parts_of_known_orders():
@@ -310,8 +350,14 @@ def test_regulator_classical_values():
     R5 = regulator(5, digits=50)
     R8 = regulator(8, digits=50)
     with mpmath.workdps(60):
-        assert abs(R5 - mpmath.mpf("0.48121182505960344749775891342436842313518433438566")) < mpmath.mpf(10) ** -49
-        assert abs(R8 - mpmath.mpf("0.88137358701954302523260932497979230902816032826163")) < mpmath.mpf(10) ** -49
+        assert (
+            abs(R5 - mpmath.mpf("0.48121182505960344749775891342436842313518433438566"))
+            < mpmath.mpf(10) ** -49
+        )
+        assert (
+            abs(R8 - mpmath.mpf("0.88137358701954302523260932497979230902816032826163"))
+            < mpmath.mpf(10) ** -49
+        )
 
 
 @pytest.mark.parametrize("D", [5, 12, 13, 61 * 4, 229, 991 * 4, 4 * 10000141, 4 * 10000139])

@@ -14,17 +14,15 @@ import pickle
 
 import pytest
 import sympy
+from _foundation_strategies import act, det, gl2_matrices
 from hypothesis import given
 from hypothesis import strategies as st
-
-from _foundation_strategies import act, det, gl2_matrices, mul
 
 from formkit import (
     IDENTITY,
     DiscriminantError,
     Form,
     FormError,
-    FormkitError,
     MatrixError,
     NotAnIntegerError,
     NotPrimeError,
@@ -41,7 +39,8 @@ from formkit import (
 coef = st.integers(-(10**30), 10**30)
 forms = st.builds(Form, coef, coef, coef)
 small_matrices = st.tuples(
-    st.tuples(st.integers(-50, 50), st.integers(-50, 50)), st.tuples(st.integers(-50, 50), st.integers(-50, 50))
+    st.tuples(st.integers(-50, 50), st.integers(-50, 50)),
+    st.tuples(st.integers(-50, 50), st.integers(-50, 50)),
 )
 
 
@@ -78,7 +77,11 @@ def test_immutable_hashable_picklable():
     assert {f: 1}[Form(2, 1, 3)] == 1 and hash(f) == hash(Form(2, 1, 3))
     assert f != Form(2, -1, 3) and f != (2, 1, 3)
     assert pickle.loads(pickle.dumps(f)) == f and copy.deepcopy(f) == f
-    assert sorted([Form(2, 1, 3), Form(1, 1, 6), Form(2, -1, 3)]) == [Form(1, 1, 6), Form(2, -1, 3), Form(2, 1, 3)]
+    assert sorted([Form(2, 1, 3), Form(1, 1, 6), Form(2, -1, 3)]) == [
+        Form(1, 1, 6),
+        Form(2, -1, 3),
+        Form(2, 1, 3),
+    ]
 
 
 def test_display():
@@ -212,7 +215,10 @@ def test_principal_forms():
         assert f.a == 1 and f.b in (0, 1) and f.discriminant == D
 
 
-@pytest.mark.parametrize("bad, err", [(-22, DiscriminantError), (0, DiscriminantError), (9, DiscriminantError), (-23.0, NotAnIntegerError)])
+@pytest.mark.parametrize(
+    "bad, err",
+    [(-22, DiscriminantError), (0, DiscriminantError), (9, DiscriminantError), (-23.0, NotAnIntegerError)],
+)
 def test_principal_bad_input(bad, err):
     with pytest.raises(err):
         Form.principal(bad)
@@ -221,7 +227,7 @@ def test_principal_bad_input(bad, err):
 def brute_prime_forms(D: int, p: int) -> list[Form]:
     """Primitive forms (p, b, c) of discriminant D with 0 ≤ b ≤ p, by brute force."""
     out = []
-    for b in range(0, p + 1):
+    for b in range(p + 1):
         if (b * b - D) % (4 * p) == 0:
             f = Form(p, b, (b * b - D) // (4 * p))
             if f.is_primitive:
@@ -332,7 +338,7 @@ def test_from_sympy_never_sympifies_text(monkeypatch):
     monkeypatch.setattr(sys.modules["sympy.core.sympify"], "sympify", forbidden)
     monkeypatch.setattr(sympy_parser, "parse_expr", forbidden)
     for text in ("x**2 + y**2", "__import__('os').system('echo unsafe')"):
-        with pytest.raises(FormError, match="Form.parse"):
+        with pytest.raises(FormError, match=r"Form\.parse"):
             Form.from_sympy(text)
 
 
@@ -343,10 +349,17 @@ def test_from_sympy_bad_variables():
         Form.from_sympy(X**2, "x", "y")
 
 
-@pytest.mark.parametrize("fn", [mat_det, mat_inverse, lambda m: mat_mul(m, IDENTITY), lambda m: mat_mul(IDENTITY, m)])
+@pytest.mark.parametrize(
+    "fn", [mat_det, mat_inverse, lambda m: mat_mul(m, IDENTITY), lambda m: mat_mul(IDENTITY, m)]
+)
 @pytest.mark.parametrize(
     "bad, err",
-    [(None, MatrixError), ([1, 2, 3, 4], MatrixError), ([[1, 2], [3]], MatrixError), ([[1.0, 0], [0, 1]], NotAnIntegerError)],
+    [
+        (None, MatrixError),
+        ([1, 2, 3, 4], MatrixError),
+        ([[1, 2], [3]], MatrixError),
+        ([[1.0, 0], [0, 1]], NotAnIntegerError),
+    ],
 )
 def test_matrix_helpers_bad_input(fn, bad, err):
     with pytest.raises(err):

@@ -19,8 +19,8 @@ from hypothesis import assume, given
 from hypothesis import strategies as st
 
 from formkit import Form, ParseError, as_form
-from formkit.core.parse import MAX_TEXT, parse_form_text, parse_integer
 from formkit.core.arith import mpz
+from formkit.core.parse import MAX_TEXT, parse_form_text, parse_integer
 
 coef = st.integers(-(10**40), 10**40)
 
@@ -246,7 +246,24 @@ def test_parse_integer(text, value):
 
 @pytest.mark.parametrize(
     "bad",
-    ["", "-", "1.5", "1e6", "0x10", "1_000", "10^", "10^1000000", "٣", "１２", "2**x", "3*", "abc", None, 2.5, True],
+    [
+        "",
+        "-",
+        "1.5",
+        "1e6",
+        "0x10",
+        "1_000",
+        "10^",
+        "10^1000000",
+        "٣",
+        "１２",
+        "2**x",
+        "3*",
+        "abc",
+        None,
+        2.5,
+        True,
+    ],
 )
 def test_parse_integer_bad_input(bad):
     with pytest.raises(ParseError):

@@ -14,9 +14,6 @@ import math
 import random
 
 import pytest
-from hypothesis import given
-from hypothesis import strategies as st
-
 from _foundation_strategies import (
     act,
     brute_reduced_definite,
@@ -29,6 +26,7 @@ from _foundation_strategies import (
     reduced_definite_forms,
     sl2_matrices,
 )
+from hypothesis import given
 
 from formkit import (
     DiscriminantError,
@@ -49,11 +47,50 @@ IDENT = ((1, 0), (0, 1))
 # Class numbers h(D) of primitive positive definite forms (Buell 1989 table / Cohen GTM 138
 # Appendix B; from memory).  Includes non-fundamental D (−12, −16, −27, −28, −36, ...).
 CLASS_NUMBERS = {
-    -3: 1, -4: 1, -7: 1, -8: 1, -11: 1, -12: 1, -15: 2, -16: 1, -19: 1, -20: 2, -23: 3,
-    -24: 2, -27: 1, -28: 1, -31: 3, -35: 2, -36: 2, -39: 4, -40: 2, -43: 1, -47: 5,
-    -48: 2, -51: 2, -52: 2, -55: 4, -56: 4, -59: 3, -60: 2, -63: 4, -64: 2, -67: 1,
-    -71: 7, -72: 2, -75: 2, -79: 5, -84: 4, -87: 6, -88: 2, -95: 8, -99: 2, -100: 2,
-    -103: 5, -104: 6, -163: 1,
+    -3: 1,
+    -4: 1,
+    -7: 1,
+    -8: 1,
+    -11: 1,
+    -12: 1,
+    -15: 2,
+    -16: 1,
+    -19: 1,
+    -20: 2,
+    -23: 3,
+    -24: 2,
+    -27: 1,
+    -28: 1,
+    -31: 3,
+    -35: 2,
+    -36: 2,
+    -39: 4,
+    -40: 2,
+    -43: 1,
+    -47: 5,
+    -48: 2,
+    -51: 2,
+    -52: 2,
+    -55: 4,
+    -56: 4,
+    -59: 3,
+    -60: 2,
+    -63: 4,
+    -64: 2,
+    -67: 1,
+    -71: 7,
+    -72: 2,
+    -75: 2,
+    -79: 5,
+    -84: 4,
+    -87: 6,
+    -88: 2,
+    -95: 8,
+    -99: 2,
+    -100: 2,
+    -103: 5,
+    -104: 6,
+    -163: 1,
 }
 
 # Narrow class numbers h⁺(D) of real quadratic orders (= number of cycles of primitive
@@ -62,8 +99,21 @@ CLASS_NUMBERS = {
 # 12, 21, 24, 28 (h = 1, N(ε) = +1); 40, 65 (h = 2, N(ε) = −1); 60, 136 (h = 2,
 # N(ε) = +1; 34 has no solution of x² − 34y² = −1); 229 (h = 3, N(ε) = −1).
 NARROW_CLASS_NUMBERS = {
-    5: 1, 8: 1, 13: 1, 17: 1, 29: 1, 37: 1, 12: 2, 21: 2, 24: 2, 28: 2,
-    40: 2, 65: 2, 60: 4, 136: 4, 229: 3,
+    5: 1,
+    8: 1,
+    13: 1,
+    17: 1,
+    29: 1,
+    37: 1,
+    12: 2,
+    21: 2,
+    24: 2,
+    28: 2,
+    40: 2,
+    65: 2,
+    60: 4,
+    136: 4,
+    229: 3,
 }
 
 
@@ -349,7 +399,13 @@ def test_definite_forms_refused_where_indefinite_needed(fn):
 @pytest.mark.parametrize("fn", [reduce_form, reduced, is_reduced, reduced_cycle, rho])
 @pytest.mark.parametrize(
     "bad, err",
-    [((1.0, 2, 3), NotAnIntegerError), ((1, 2), FormError), ("x^3", ParseError), (None, FormError), ("1,2", ParseError)],
+    [
+        ((1.0, 2, 3), NotAnIntegerError),
+        ((1, 2), FormError),
+        ("x^3", ParseError),
+        (None, FormError),
+        ("1,2", ParseError),
+    ],
 )
 def test_bad_forms_refused(fn, bad, err):
     with pytest.raises(err):

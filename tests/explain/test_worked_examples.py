@@ -11,7 +11,8 @@ import shutil
 import subprocess
 
 import pytest
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit import (
     DiscriminantError,
@@ -25,14 +26,14 @@ from formkit import (
     is_reduced,
     reduced,
 )
-from formkit.core.forms import Form, mat_mul
 from formkit.classgroups.genus import genus_count
-from formkit.representation.representations import represent
-from formkit.explain.composition import composition_trace, explain_composition, worked_composition
+from formkit.core.forms import Form, mat_mul
 from formkit.explain.class_group import explain_class_group, worked_class_group
+from formkit.explain.composition import composition_trace, explain_composition, worked_composition
+from formkit.explain.document import escape_tex, formula, text
 from formkit.explain.reduction import explain_reduction, worked_reduction
 from formkit.explain.representation import explain_representation, worked_representation
-from formkit.explain.document import escape_tex, formula, text
+from formkit.representation.representations import represent
 
 # ---------------------------------------------------------------------------
 # helpers
@@ -120,7 +121,10 @@ EXAMPLES = [
     ("reduce-indefinite", lambda fmt, frag: explain_reduction("-x^2 + 13y^2", format=fmt, fragment=frag)),
     ("compose", lambda fmt, frag: explain_composition((3, 2, 5), (5, 2, 3), format=fmt, fragment=frag)),
     ("represent", lambda fmt, frag: explain_representation((2, 1, 3), 18, format=fmt, fragment=frag)),
-    ("represent-indefinite", lambda fmt, frag: explain_representation((1, 0, -2), 49, format=fmt, fragment=frag)),
+    (
+        "represent-indefinite",
+        lambda fmt, frag: explain_representation((1, 0, -2), 49, format=fmt, fragment=frag),
+    ),
     ("group", lambda fmt, frag: explain_class_group(-4 * 65, format=fmt, fragment=frag)),
     ("group-real", lambda fmt, frag: explain_class_group(316, format=fmt, fragment=frag)),
 ]
@@ -210,7 +214,7 @@ def test_composition_trace_values(D, i, j, moves):
     G = forms[j % len(forms)]
     t = composition_trace(F, G)
     a1, b1, _ = t.first.coefficients
-    a2, b2, c2 = t.second.coefficients
+    a2, b2, _c2 = t.second.coefficients
     assert a1 <= a2 and {t.first, t.second} == {F, G}
     # Bézout identities of the two Euclid steps
     if t.euclid1 is not None:
@@ -222,8 +226,8 @@ def test_composition_trace_values(D, i, j, moves):
         d1, u, v = t.euclid2
         assert d1 == u * t.s + v * t.d
     assert t.d1 == math.gcd(a1, a2, (b1 + b2) // 2)
-    A, B, C = t.composite.coefficients
-    assert A == a1 * a2 // t.d1**2 and t.composite.discriminant == D
+    A, B, _C = t.composite.coefficients
+    assert a1 * a2 // t.d1**2 == A and t.composite.discriminant == D
     assert (B - b1) % (2 * t.v1) == 0 and (B - b2) % (2 * t.v2) == 0
     assert t.result == compose(F, G)
     if t.d1 == 1:
@@ -266,8 +270,20 @@ def test_composition_bad_input():
 
 @pytest.mark.parametrize(
     "form,n",
-    [((1, 0, 1), 25), ((1, 0, 1), 65), ((1, 1, 1), 49), ((2, 1, 3), 18), ((1, 0, 5), 21), ((2, 2, 3), 63),
-     ((1, 0, 14), 15 * 9), ((3, 2, 5), 56), ((2, 0, 2), 20), ((-1, 0, -5), -21), ((1, 0, 1), 7), ((1, 0, 1), -5)],
+    [
+        ((1, 0, 1), 25),
+        ((1, 0, 1), 65),
+        ((1, 1, 1), 49),
+        ((2, 1, 3), 18),
+        ((1, 0, 5), 21),
+        ((2, 2, 3), 63),
+        ((1, 0, 14), 15 * 9),
+        ((3, 2, 5), 56),
+        ((2, 0, 2), 20),
+        ((-1, 0, -5), -21),
+        ((1, 0, 1), 7),
+        ((1, 0, 1), -5),
+    ],
 )
 def test_representation_solutions_match_brute_force(form, n):
     ex = worked_representation(form, n)

@@ -16,6 +16,7 @@ References used here:
 from __future__ import annotations
 
 import io
+import itertools
 import json
 import re
 import sys
@@ -23,12 +24,14 @@ from math import isqrt
 
 import networkx as nx
 import pytest
-from hypothesis import given, strategies as st
+from _foundation_strategies import brute_reduced_indefinite as _brute_reduced_indefinite
+from hypothesis import given
+from hypothesis import strategies as st
 from sympy import factorint, kronecker_symbol
 
-from _foundation_strategies import brute_reduced_indefinite as _brute_reduced_indefinite
-
 from formkit.classgroups.dispatch import class_group
+from formkit.classgroups.genus import genus_symbol
+from formkit.core.forms import Form
 from formkit.errors import (
     DiscriminantError,
     FormError,
@@ -37,9 +40,6 @@ from formkit.errors import (
     NotPrimeError,
     NotPrimitiveError,
 )
-from formkit.core.forms import Form
-from formkit.classgroups.genus import genus_symbol
-from formkit.graphs.export import _dot_quote
 from formkit.graphs import (
     cayley_graph,
     cycle_graph,
@@ -57,8 +57,8 @@ from formkit.graphs import (
     usable_primes,
 )
 from formkit.graphs.colours import genus_colours
+from formkit.graphs.export import _dot_quote
 from formkit.graphs.plotting import graph_layout, save_picture
-
 
 # ---------------------------------------------------------------------------
 # brute-force references
@@ -99,7 +99,9 @@ POS = st.sampled_from(discriminants(5, 700))
 # Cayley graphs against networkx generators
 
 
-@pytest.mark.parametrize("D,h", [(-23, 3), (-47, 5), (-71, 7), (-199, 9)])  # class numbers from memory (Buell's table)
+@pytest.mark.parametrize(
+    "D,h", [(-23, 3), (-47, 5), (-71, 7), (-199, 9)]
+)  # class numbers from memory (Buell's table)
 def test_one_generator_of_order_h_gives_the_directed_cycle(D, h):
     G = class_group(D)
     assert G.order == h
@@ -126,7 +128,7 @@ def test_two_generators_of_a_cyclic_group_give_a_circulant_graph():
     # the circulant graph C_7(1, k) (networkx.circulant_graph as the reference)
     G = class_group(-71)
     two, three = G.prime_form(2), G.prime_form(3)
-    k = next(k for k in range(1, 7) if two ** k == three)
+    k = next(k for k in range(1, 7) if two**k == three)
     C = cayley_graph(-71, [2, 3])
     assert nx.is_isomorphic(nx.Graph(C), nx.circulant_graph(7, [1, k]))
 
@@ -309,7 +311,13 @@ def test_fibre_map_is_a_homomorphism(D):
 
 
 def _graphs():
-    return [cayley_graph(-455), cayley_graph(-4620, bound=11), cayley_graph(316), cycle_graph(136), fibre_graph(-207)]
+    return [
+        cayley_graph(-455),
+        cayley_graph(-4620, bound=11),
+        cayley_graph(316),
+        cycle_graph(136),
+        fibre_graph(-207),
+    ]
 
 
 @pytest.mark.parametrize("C", _graphs(), ids=lambda C: C.graph["kind"] + str(C.graph["discriminant"]))
@@ -354,7 +362,7 @@ def test_dot_text_structure(C):
     assert re.fullmatch(rf"digraph {_QUOTED} \{{", lines[0]) and lines[-1] == "}"
     nodes, edges = set(), []
     for ln in lines[1:-1]:
-        if ln.startswith("  graph [") or ln.startswith("  node ["):
+        if ln.startswith(("  graph [", "  node [")):
             continue
         m = _EDGE_RE.match(ln)
         if m:
@@ -379,12 +387,14 @@ def test_dot_quoting():
 # layout and pictures
 
 
-@pytest.mark.parametrize("C", _graphs() + [cayley_graph(-60896)], ids=lambda C: C.graph["kind"] + str(C.graph["discriminant"]))
+@pytest.mark.parametrize(
+    "C", _graphs() + [cayley_graph(-60896)], ids=lambda C: C.graph["kind"] + str(C.graph["discriminant"])
+)
 def test_layout_places_every_node_apart(C):
     pos = graph_layout(C)
     assert set(pos) == set(C.nodes)
     pts = sorted(pos.values())
-    assert all(abs(p[0] - q[0]) + abs(p[1] - q[1]) > 1e-6 for p, q in zip(pts, pts[1:]))
+    assert all(abs(p[0] - q[0]) + abs(p[1] - q[1]) > 1e-6 for p, q in itertools.pairwise(pts))
 
 
 def test_genus_colours_distinct_and_principal_first():
@@ -397,7 +407,9 @@ def test_genus_colours_distinct_and_principal_first():
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"  # PNG specification (RFC 2083, §3.1)
 
 
-@pytest.mark.parametrize("C", [cayley_graph(-455), cycle_graph(316), fibre_graph(-207)], ids=["cayley", "cycles", "fibres"])
+@pytest.mark.parametrize(
+    "C", [cayley_graph(-455), cycle_graph(316), fibre_graph(-207)], ids=["cayley", "cycles", "fibres"]
+)
 def test_png_picture_is_a_valid_image(C, tmp_path):
     pytest.importorskip("matplotlib")
     import matplotlib.image

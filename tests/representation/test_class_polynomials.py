@@ -5,17 +5,17 @@ import math
 import mpmath
 import pytest
 import sympy
-from hypothesis import given, strategies as st
-
 from _foundation_strategies import brute_reduced_definite
+from hypothesis import given
+from hypothesis import strategies as st
 from sympy.polys.domains import ZZ
 from sympy.polys.galoistools import gf_factor_sqf, gf_from_int_poly, gf_gcd, gf_pow_mod, gf_sub
 
 from formkit import errors
 from formkit.analytic.j_function import j_invariant
-from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound
-from formkit.core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
 from formkit.core.forms import Form
+from formkit.core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
+from formkit.representation.class_polynomials import class_polynomial, class_polynomial_bound
 
 # j-invariants of the thirteen imaginary quadratic orders of class number one
 # (classical, from memory: Cox, Primes of the Form x² + ny², §12; -163: j = -640320³).
@@ -187,7 +187,7 @@ def test_bound_dominates_coefficients(D):
 
 
 @given(
-    coeffs=st.lists(st.integers(min_value=-10**6, max_value=10**6), min_size=1, max_size=12),
+    coeffs=st.lists(st.integers(min_value=-(10**6), max_value=10**6), min_size=1, max_size=12),
     p=st.sampled_from([2, 3, 5, 7, 101, 1009, 10007, 65537, 1000003]),
 )
 def test_root_count_against_sympy(coeffs, p):
@@ -219,8 +219,14 @@ def test_text_and_dict():
 
 @pytest.mark.parametrize(
     "bad,exc",
-    [(5, errors.DiscriminantError), (-22, errors.DiscriminantError), (-4 * 4 + 16, errors.DiscriminantError),
-     ("x", errors.NotAnIntegerError), (-23.0, errors.NotAnIntegerError), (True, errors.NotAnIntegerError)],
+    [
+        (5, errors.DiscriminantError),
+        (-22, errors.DiscriminantError),
+        (-4 * 4 + 16, errors.DiscriminantError),
+        ("x", errors.NotAnIntegerError),
+        (-23.0, errors.NotAnIntegerError),
+        (True, errors.NotAnIntegerError),
+    ],
 )
 def test_bad_discriminants(bad, exc):
     with pytest.raises(exc):
@@ -291,8 +297,8 @@ def test_discriminant_against_numerical_roots(D):
 
 
 def test_discriminant_partial_factorisation_and_bad_bound():
-    from formkit.representation.class_polynomials import class_polynomial_discriminant
     from formkit.errors import FormkitError
+    from formkit.representation.class_polynomials import class_polynomial_discriminant
 
     full = class_polynomial_discriminant(-56)
     part = class_polynomial_discriminant(-56, trial_bound=7)

@@ -14,20 +14,21 @@ from math import isqrt
 
 import pytest
 import sympy
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit.core.arith import next_prime
 from formkit.core.discriminants import is_discriminant
 from formkit.core.enumeration import class_representatives
-from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError, NotPrimeError
 from formkit.core.forms import Form
+from formkit.errors import DiscriminantError, FormkitError, NotAnIntegerError, NotPrimeError
 from formkit.representation.cornacchia import cornacchia, cornacchia_4p, prime_representation
 
 PRIMES = list(sympy.primerange(2, 3000))
 
 
 def brute_represents(f, p):
-    a, b, c = f.a, f.b, f.c
+    a, _b, c = f.a, f.b, f.c
     D = -f.discriminant
     ym = isqrt(4 * a * p // D) + 1
     xm = isqrt(4 * c * p // D) + 1
@@ -108,8 +109,11 @@ def test_cornacchia_4p_even_discriminants():
     for D in (-4, -8, -20, -56, -84):
         for p in PRIMES[:100]:
             sol = cornacchia_4p(D, p)
-            brute = any(x * x - D * y * y == 4 * p for x in range(0, 2 * isqrt(p) + 2)
-                        for y in range(0, isqrt(4 * p // -D) + 2))
+            brute = any(
+                x * x - D * y * y == 4 * p
+                for x in range(2 * isqrt(p) + 2)
+                for y in range(isqrt(4 * p // -D) + 2)
+            )
             assert (sol is not None) == brute, (D, p)
 
 
@@ -128,7 +132,7 @@ def test_huge_primes(digits):
         q = int(next_prime(q))
     assert not prime_representation((1, 0, 1), q).represented
     # a form of discriminant ≈ −10^5 (h > 1): the solution must be exact
-    f = Form(13, 11, 1925)   # D = 121 − 100100 = −99979
+    f = Form(13, 11, 1925)  # D = 121 − 100100 = −99979
     for r in (p, q, int(next_prime(q))):
         d = prime_representation(f, r)
         if d.represented:
@@ -154,10 +158,10 @@ def test_non_primes_are_routed_to_general_method():
     assert prime_representation((1, 0, 1), 1).solution is not None
     d = prime_representation((1, 0, -2), 7 * 17)
     assert d.represented and d.method == "square-root method"
-    assert prime_representation((2, 0, 2), 2).represented        # non-primitive: general method
-    assert prime_representation((-1, 0, -1), -5).represented     # negative definite: general
+    assert prime_representation((2, 0, 2), 2).represented  # non-primitive: general method
+    assert prime_representation((-1, 0, -1), -5).represented  # negative definite: general
     assert prime_representation((1, 0, 1), 0).solution == (0, 0)
-    d = prime_representation((1, 0, 1), 10**40 + 1)             # composite, factorable
+    d = prime_representation((1, 0, 1), 10**40 + 1)  # composite, factorable
     assert d.method == "square-root method" and not d.prime
 
 
@@ -165,8 +169,14 @@ def test_character_shortcut_and_dict():
     d = prime_representation((2, 1, 3), 5)
     assert d.method == "character" and not d.represented
     d = prime_representation((1, 0, 1), 13).to_dict()
-    assert d == {"form": [1, 0, 1], "n": 13, "represented": True, "solution": [3, 2],
-                 "method": "cornacchia", "prime": True}
+    assert d == {
+        "form": [1, 0, 1],
+        "n": 13,
+        "represented": True,
+        "solution": [3, 2],
+        "method": "cornacchia",
+        "prime": True,
+    }
     # assume_prime skips the test: on a prime the answer is the same
     p = 10**100 + 949
     assert prime_representation((1, 0, 1), p, assume_prime=True) == prime_representation((1, 0, 1), p)

@@ -19,8 +19,8 @@ from formkit.core.arith import kronecker
 from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.core.enumeration import class_representatives
 from formkit.core.equivalence import fundamental_automorph
-from formkit.errors import FormError, NotAnIntegerError
 from formkit.core.forms import Form
+from formkit.errors import FormError, NotAnIntegerError
 from formkit.representation.orbits import orbit_representative, representation_orbits, walk_orbit
 from formkit.representation.representations import dirichlet_count, represent, total_representation_count
 
@@ -58,8 +58,20 @@ def box_solutions(f, n, B):
     return out
 
 
-INDEF = [Form(1, 0, -2), Form(1, 1, -1), Form(1, 0, -3), Form(-1, 0, 3), Form(2, 1, -4), Form(3, 4, -2),
-         Form(1, 0, -7), Form(5, 7, -3), Form(4, 2, -1), Form(2, 0, -6), Form(1, 5, -3), Form(7, 11, -5)]
+INDEF = [
+    Form(1, 0, -2),
+    Form(1, 1, -1),
+    Form(1, 0, -3),
+    Form(-1, 0, 3),
+    Form(2, 1, -4),
+    Form(3, 4, -2),
+    Form(1, 0, -7),
+    Form(5, 7, -3),
+    Form(4, 2, -1),
+    Form(2, 0, -6),
+    Form(1, 5, -3),
+    Form(7, 11, -5),
+]
 
 
 @pytest.mark.parametrize("f", INDEF)
@@ -91,7 +103,9 @@ def test_indefinite_dirichlet_orbit_count():
         forms = class_representatives(D)
         for n in range(1, 60):
             total = sum(len(representation_orbits(g, n)) for g in forms)
-            assert total == sum(kronecker(D, d) for d in range(1, n + 1) if n % d == 0) == dirichlet_count(D, n)
+            assert (
+                total == sum(kronecker(D, d) for d in range(1, n + 1) if n % d == 0) == dirichlet_count(D, n)
+            )
             assert total == total_representation_count(D, n)
 
 
@@ -126,7 +140,7 @@ def test_indefinite_against_sympy():
         reps = set(representation_orbits(f, n))
         seen = set()
         for sol in fam:
-            for k in range(0, 3):
+            for k in range(3):
                 u, v = (int(sympy.nsimplify(sympy.expand(e.subs(t, k)))) for e in sol)
                 assert f(u, v) == n
                 seen.add(orbit_representative(f, (u, v)))

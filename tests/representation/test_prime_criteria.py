@@ -7,29 +7,92 @@ from fractions import Fraction
 import numpy as np
 import pytest
 import sympy
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit import errors
 from formkit.classgroups.dispatch import class_group
 from formkit.core.forms import Form
+from formkit.representation.genus_congruences import genus_residues, is_idoneal, one_class_per_genus
 from formkit.representation.prime_criteria import (
     density_count,
     prime_criterion,
     prime_density,
     represented_primes,
 )
-from formkit.representation.genus_congruences import genus_residues, is_idoneal, one_class_per_genus
 from formkit.representation.prime_decision import primes_up_to, represents_prime
 
 # Euler's 65 idoneal numbers (from memory; Euler 1778, Cox §3 / Exercise on idoneal numbers).
 EULER_IDONEAL = [
-    1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 13, 15, 16, 18, 21, 22, 24, 25, 28, 30, 33, 37, 40, 42, 45,
-    48, 57, 58, 60, 70, 72, 78, 85, 88, 93, 102, 105, 112, 120, 130, 133, 165, 168, 177, 190, 210,
-    232, 240, 253, 273, 280, 312, 330, 345, 357, 385, 408, 462, 520, 760, 840, 1320, 1365, 1848,
+    1,
+    2,
+    3,
+    4,
+    5,
+    6,
+    7,
+    8,
+    9,
+    10,
+    12,
+    13,
+    15,
+    16,
+    18,
+    21,
+    22,
+    24,
+    25,
+    28,
+    30,
+    33,
+    37,
+    40,
+    42,
+    45,
+    48,
+    57,
+    58,
+    60,
+    70,
+    72,
+    78,
+    85,
+    88,
+    93,
+    102,
+    105,
+    112,
+    120,
+    130,
+    133,
+    165,
+    168,
+    177,
+    190,
+    210,
+    232,
+    240,
+    253,
+    273,
+    280,
+    312,
+    330,
+    345,
+    357,
+    385,
+    408,
+    462,
+    520,
+    760,
+    840,
+    1320,
+    1365,
+    1848,
 ]
 
 
-@functools.lru_cache(maxsize=None)
+@functools.cache
 def _prime_set(N):
     return frozenset(sympy.primerange(2, N + 1))
 
@@ -40,7 +103,7 @@ def brute_primes_definite(form, N):
     D = b * b - 4 * a * c
     seen = set()
     ymax = math.isqrt(4 * a * N // -D) + 1
-    for y in range(0, ymax + 1):
+    for y in range(ymax + 1):
         # Q(x, y) ≤ N  ⇒  |2ax + by| ≤ √(4aN + D y²)
         r = 4 * a * N + D * y * y
         if r < 0:
@@ -64,9 +127,28 @@ def brute_unit_values(form, m):
 # positive definite forms of many kinds: principal and not, fundamental and not,
 # one class per genus and not, classes of order 2 and of higher order
 DEFINITE_FORMS = [
-    (1, 0, 1), (1, 1, 1), (1, 0, 5), (2, 2, 3), (1, 0, 14), (2, 0, 7), (3, 2, 5), (1, 1, 6), (2, 1, 3),
-    (1, 0, 27), (4, 2, 7), (1, 0, 26), (3, 2, 9), (5, 4, 6), (1, 1, 17), (3, 1, 6), (1, 0, 21), (3, 0, 7),
-    (2, 2, 11), (1, 0, 64), (5, 2, 13), (1, 1, 41),
+    (1, 0, 1),
+    (1, 1, 1),
+    (1, 0, 5),
+    (2, 2, 3),
+    (1, 0, 14),
+    (2, 0, 7),
+    (3, 2, 5),
+    (1, 1, 6),
+    (2, 1, 3),
+    (1, 0, 27),
+    (4, 2, 7),
+    (1, 0, 26),
+    (3, 2, 9),
+    (5, 4, 6),
+    (1, 1, 17),
+    (3, 1, 6),
+    (1, 0, 21),
+    (3, 0, 7),
+    (2, 2, 11),
+    (1, 0, 64),
+    (5, 2, 13),
+    (1, 1, 41),
 ]
 
 
@@ -106,12 +188,20 @@ def test_fermat_and_euler_congruences():
     assert genus_residues((1, 0, 3)) == (12, (1, 7))  # ≡ 1 mod 3 and odd
     assert genus_residues((1, 0, 5)) == (20, (1, 9))
     assert genus_residues((2, 2, 3)) == (20, (3, 7))  # 2x² + 2xy + 3y²: p = 2 or p ≡ 3, 7 mod 20
-    for form, exc in [((1, 0, 1), (2,)), ((1, 0, 2), (2,)), ((1, 0, 3), (3,)), ((1, 0, 5), (5,)), ((2, 2, 3), (2,))]:
+    for form, exc in [
+        ((1, 0, 1), (2,)),
+        ((1, 0, 2), (2,)),
+        ((1, 0, 3), (3,)),
+        ((1, 0, 5), (5,)),
+        ((2, 2, 3), (2,)),
+    ]:
         c = prime_criterion(form)
         assert c.kind == "congruence" and c.exceptions == exc
 
 
-@pytest.mark.parametrize("form", DEFINITE_FORMS + [(1, 1, -1), (1, 0, -3), (3, 3, -1), (1, 4, -1), (2, 4, -3), (1, 1, -7)])
+@pytest.mark.parametrize(
+    "form", DEFINITE_FORMS + [(1, 1, -1), (1, 0, -3), (3, 3, -1), (1, 4, -1), (2, 4, -3), (1, 1, -7)]
+)
 def test_genus_residues_against_definition(form):
     m = abs(Form(*form).discriminant)
     assert genus_residues(form) == (m, brute_unit_values(form, m))
@@ -121,7 +211,7 @@ def test_genus_residues_against_definition(form):
 def test_genus_residues_property(a, b, c):
     f = Form(a, b, c)
     D = f.discriminant
-    if D == 0 or sympy.sqrt(abs(D)).is_integer and D > 0 or not f.is_primitive or abs(D) > 400:
+    if D == 0 or (sympy.sqrt(abs(D)).is_integer and D > 0) or not f.is_primitive or abs(D) > 400:
         return
     if D < 0 and c < 0:
         return
@@ -137,7 +227,9 @@ def test_genus_residues_match_genus_characters(D):
     for f in class_group(D).forms():
         m, res = genus_residues(f)
         sym = genus_symbol(f)
-        expected = tuple(r for r in range(1, m) if math.gcd(r, m) == 1 and tuple(ch(r) for ch in chars) == sym)
+        expected = tuple(
+            r for r in range(1, m) if math.gcd(r, m) == 1 and tuple(ch(r) for ch in chars) == sym
+        )
         assert res == expected
 
 
@@ -145,11 +237,15 @@ def test_congruence_equals_class_method_on_idoneal_discriminants():
     # one class per genus: the congruence gives exactly what the prime-form classes give
     for n in (5, 6, 13, 21, 30, 60, 210, 1848):
         for f in class_group(-4 * n).forms()[:4]:
-            assert represented_primes(f, 5000, method="congruence") == represented_primes(f, 5000, method="classes")
+            assert represented_primes(f, 5000, method="congruence") == represented_primes(
+                f, 5000, method="classes"
+            )
     for D in (-15, -35, -51, 8, 12, 60, 4 * 35):  # odd and positive discriminants too
         assert one_class_per_genus(D)
         for f in class_group(D).forms():
-            assert represented_primes(f, 5000, method="congruence") == represented_primes(f, 5000, method="classes")
+            assert represented_primes(f, 5000, method="congruence") == represented_primes(
+                f, 5000, method="classes"
+            )
 
 
 def test_no_congruence_when_genus_has_several_classes():
@@ -225,8 +321,19 @@ def test_exceptions_brute_force(form):
     assert prime_criterion(form, polynomial=False).exceptions == expected
 
 
-INDEFINITE_FORMS = [(1, 0, -2), (1, 0, -3), (-1, 0, 3), (1, 1, -1), (3, 2, -2), (1, 0, -10), (2, 0, -5), (1, 0, -79),
-                    (3, 4, -5), (1, 0, -34), (2, 2, -5)]
+INDEFINITE_FORMS = [
+    (1, 0, -2),
+    (1, 0, -3),
+    (-1, 0, 3),
+    (1, 1, -1),
+    (3, 2, -2),
+    (1, 0, -10),
+    (2, 0, -5),
+    (1, 0, -79),
+    (3, 4, -5),
+    (1, 0, -34),
+    (2, 2, -5),
+]
 
 
 @pytest.mark.parametrize("form", INDEFINITE_FORMS)

@@ -14,13 +14,14 @@ from math import gcd, isqrt
 
 import pytest
 import sympy
-from hypothesis import given, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit.core.arith import kronecker
 from formkit.core.discriminants import conductor, is_discriminant, is_fundamental_discriminant, unit_count
 from formkit.core.enumeration import class_representatives
-from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError, ParseError
 from formkit.core.forms import Form
+from formkit.errors import DiscriminantError, FormError, FormkitError, NotAnIntegerError, ParseError
 from formkit.representation.representations import (
     dirichlet_count,
     primitive_representation_count,
@@ -30,14 +31,13 @@ from formkit.representation.representations import (
     total_representation_count,
 )
 
-
 # ---------------------------------------------------------------------------
 # brute force
 
 
 def brute_definite(f, n):
     """All (x, y) with f(x, y) = n for positive definite f, by scanning the ellipse's box."""
-    a, b, c = f.a, f.b, f.c
+    a, _b, c = f.a, f.b, f.c
     D = -f.discriminant
     if n < 0:
         return []
@@ -63,7 +63,7 @@ NEG = [d for d in range(-3, -120, -1) if is_discriminant(d)]
 @pytest.mark.parametrize("D", NEG)
 def test_all_solutions_equal_brute_force(D):
     for f in class_representatives(D):
-        for n in range(0, 45):
+        for n in range(45):
             got = representations(f, n)
             assert list(got) == brute_definite(f, n), (f, n)
             assert representation_count(f, n) == len(got)
@@ -104,7 +104,7 @@ def test_jacobi_for_large_n():
             expect *= e + 1
         elif e % 2:
             expect = 0
-    assert 10**50 < n
+    assert n > 10**50
     sols = representations((1, 0, 1), n, factors=primes)
     assert len(sols) == expect == representation_count((1, 0, 1), n, factors=primes)
     assert all(x * x + y * y == n for x, y in sols)
@@ -137,9 +137,7 @@ def test_dirichlet_formula_non_fundamental():
                     dirichlet_count(D, n)
     # the formula really fails there: D = −36, n = 9
     forms = class_representatives(-36)
-    assert sum(representation_count(g, 9) for g in forms) != 2 * sum(
-        kronecker(-36, d) for d in (1, 3, 9)
-    )
+    assert sum(representation_count(g, 9) for g in forms) != 2 * sum(kronecker(-36, d) for d in (1, 3, 9))
 
 
 @given(
@@ -167,8 +165,17 @@ def test_properties_random_forms(a, b, c, plist):
 def test_sympy_diophantine_reference():
     # sympy's general Diophantine solver on sample equations Q(x, y) = n
     x, y = sympy.symbols("x y", integer=True)
-    samples = [((1, 0, 5), 29), ((1, 0, 1), 325), ((2, 1, 3), 6), ((1, 1, 1), 49), ((3, 2, 7), 1155),
-               ((1, 0, 2), 2 * 3 * 11 * 17), ((5, 4, 7), 31 * 43), ((1, 0, 1), 3), ((4, 4, 5), 4 * 13)]
+    samples = [
+        ((1, 0, 5), 29),
+        ((1, 0, 1), 325),
+        ((2, 1, 3), 6),
+        ((1, 1, 1), 49),
+        ((3, 2, 7), 1155),
+        ((1, 0, 2), 2 * 3 * 11 * 17),
+        ((5, 4, 7), 31 * 43),
+        ((1, 0, 1), 3),
+        ((4, 4, 5), 4 * 13),
+    ]
     for (a, b, c), n in samples:
         ref = sympy.diophantine(a * x**2 + b * x * y + c * y**2 - n, syms=(x, y))
         ref = sorted((int(u), int(v)) for u, v in ref)
@@ -180,7 +187,7 @@ def test_zero_negative_and_sign_conventions():
     assert representation_count((1, 0, 1), 0) == 1
     assert primitive_representation_count((1, 0, 1), 0) == 0
     assert representations((1, 0, 1), -5) == ()
-    assert representation_count((2, 1, 3), -10**30) == 0
+    assert representation_count((2, 1, 3), -(10**30)) == 0
     # negative definite: Q(x, y) = n iff (−Q)(x, y) = −n
     assert representations((-1, 0, -1), -25) == representations((1, 0, 1), 25)
     assert representations((-1, 0, -1), 25) == ()
@@ -190,7 +197,7 @@ def test_zero_negative_and_sign_conventions():
 def test_non_primitive_forms_by_content():
     # content k: Q represents n iff k | n and Q/k represents n/k; compared with brute force
     f = Form(6, 0, 6)
-    for n in range(0, 120):
+    for n in range(120):
         assert list(representations(f, n)) == brute_definite(f, n)
     assert representation_count((2, 2, 2), 7) == 0
     assert representation_count((3, 3, 3), 21) == representation_count((1, 1, 1), 7) == 12
@@ -222,7 +229,7 @@ def test_class_sum_for_large_n_and_large_discriminant():
     # classes of r_Q(n) equals Dirichlet's w·Σ_{d|n} χ_D(d) (D fundamental).
     D = -100003
     primes = [p for p in sympy.primerange(10**9, 10**9 + 2000) if kronecker(D, p) == 1][:4]
-    fac = {p: 1 for p in primes}
+    fac = dict.fromkeys(primes, 1)
     fac[3] = 2 if kronecker(D, 3) == 1 else 0
     n = 1
     for p, e in fac.items():

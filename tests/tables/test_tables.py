@@ -3,6 +3,7 @@ brute force and independent implementations; the resumable store is killed for r
 
 from __future__ import annotations
 
+import contextlib
 import math
 import os
 import signal
@@ -13,9 +14,9 @@ import time
 from pathlib import Path
 
 import pytest
-from hypothesis import given, strategies as st
-
 from _foundation_strategies import brute_reduced_definite
+from hypothesis import given
+from hypothesis import strategies as st
 
 from formkit import (
     DiscriminantError,
@@ -30,10 +31,10 @@ from formkit import (
     table_info,
     table_rows,
 )
-from formkit.core.arith import kronecker
 from formkit.classgroups.genus import genus_count
-from formkit.tables.store import parse_invariants
+from formkit.core.arith import kronecker
 from formkit.tables.rows import ChunkSpec, compute_chunk, split_range
+from formkit.tables.store import parse_invariants
 from formkit.tables.sweep import _chunk_arith_np, _chunk_arith_py, _class_numbers_np, _class_numbers_py
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -42,6 +43,7 @@ ROOT = Path(__file__).resolve().parents[2]
 # ---------------------------------------------------------------------------
 # independent brute force: primitive reduced forms of one D, by the definition
 # ---------------------------------------------------------------------------
+
 
 def brute_reduced(D: int) -> list[tuple[int, int, int]]:
     """All primitive reduced forms of D < 0: |b| <= a <= c, b >= 0 if |b| = a or a = c."""
@@ -54,9 +56,36 @@ def brute_reduced(D: int) -> list[tuple[int, int, int]]:
 
 # h(D) of fundamental D < 0; Cohen GTM 138, Appendix B table / Buell 1989 tables (from memory).
 PUBLISHED_H = {
-    -3: 1, -4: 1, -7: 1, -8: 1, -15: 2, -20: 2, -23: 3, -24: 2, -31: 3, -35: 2, -39: 4,
-    -47: 5, -55: 4, -56: 4, -71: 7, -79: 5, -84: 4, -95: 8, -104: 6, -199: 9, -167: 11,
-    -191: 13, -239: 15, -311: 19, -383: 17, -479: 25, -1555: 4, -2683: 5, -907: 3, -427: 2,
+    -3: 1,
+    -4: 1,
+    -7: 1,
+    -8: 1,
+    -15: 2,
+    -20: 2,
+    -23: 3,
+    -24: 2,
+    -31: 3,
+    -35: 2,
+    -39: 4,
+    -47: 5,
+    -55: 4,
+    -56: 4,
+    -71: 7,
+    -79: 5,
+    -84: 4,
+    -95: 8,
+    -104: 6,
+    -199: 9,
+    -167: 11,
+    -191: 13,
+    -239: 15,
+    -311: 19,
+    -383: 17,
+    -479: 25,
+    -1555: 4,
+    -2683: 5,
+    -907: 3,
+    -427: 2,
 }
 
 
@@ -103,7 +132,9 @@ def test_order_class_number_formula():
             continue
         units = {-3: 3, -4: 2}.get(dK, 1)
         num, den = hs[dK] * f, units
-        for p in {p for p in range(2, f + 1) if f % p == 0 and all(p % q for q in range(2, math.isqrt(p) + 1))}:
+        for p in {
+            p for p in range(2, f + 1) if f % p == 0 and all(p % q for q in range(2, math.isqrt(p) + 1))
+        }:
             num *= p - kronecker(dK, p)
             den *= p
         assert num % den == 0 and h == num // den, D
@@ -114,6 +145,7 @@ def test_order_class_number_formula():
 # ---------------------------------------------------------------------------
 # brute force and independent implementations
 # ---------------------------------------------------------------------------
+
 
 def test_sweep_equals_brute_force_per_D():
     L, H = 3, 2500
@@ -175,7 +207,7 @@ def test_rows_with_invariants_match_class_group():
         G = class_group(r.discriminant)
         assert r.invariants == tuple(G.invariants)
         assert r.class_number == G.order == math.prod(r.invariants)
-        assert r.genus_count == 2 ** G.two_rank  # genera = Cl/Cl² (Gauss; Cox Thm 3.15)
+        assert r.genus_count == 2**G.two_rank  # genera = Cl/Cl² (Gauss; Cox Thm 3.15)
 
 
 def test_positive_rows():
@@ -209,6 +241,7 @@ def test_mixed_range_and_fundamental_filter():
 # ---------------------------------------------------------------------------
 # bad input
 # ---------------------------------------------------------------------------
+
 
 def test_bad_input(tmp_path):
     with pytest.raises(FormkitError, match="start must not exceed"):
@@ -251,6 +284,7 @@ def test_bad_input(tmp_path):
 # the store
 # ---------------------------------------------------------------------------
 
+
 def _rows_of(db):
     return [r.to_dict() for r in query_table(db)]
 
@@ -274,13 +308,16 @@ def test_store_resume_and_queries(tmp_path):
     # queries
     sevens = [r.discriminant for r in query_table(db, class_number=7, fundamental=True)]
     assert sevens[:4] == [-71, -151, -223, -251]  # smallest |d_K| with h = 7 (Watkins 2004, from memory)
-    assert sevens == [r.discriminant for r in rows if r.class_number == 7 and is_fundamental_discriminant(r.discriminant)]
+    assert sevens == [
+        r.discriminant for r in rows if r.class_number == 7 and is_fundamental_discriminant(r.discriminant)
+    ]
     c222 = [r.discriminant for r in query_table(db, invariants="2,2,2")]
     assert -420 in c222  # x² + 105y²: 105 is idoneal, Cl(−420) = (Z/2)³ (Cox §3, from memory)
     assert c222 == [r.discriminant for r in rows if r.invariants == (2, 2, 2)]
     assert [r.discriminant for r in query_table(db, invariants="1", conductor=2)] == [-12, -16, -28]
     assert [r.discriminant for r in query_table(db, genus_count=8, stop=-400, start=-500)] == [
-        r.discriminant for r in rows if r.genus_count == 8 and -500 <= r.discriminant <= -400]
+        r.discriminant for r in rows if r.genus_count == 8 and -500 <= r.discriminant <= -400
+    ]
     assert len(query_table(db, limit=3)) == 3
     assert all(r.fundamental_discriminant == -3 for r in query_table(db, fundamental_discriminant=-3))
     info = table_info(db)
@@ -324,8 +361,22 @@ def test_python_engine_store_equals_numpy(tmp_path):
 
 
 def _table_cmd(db, *extra):
-    return [sys.executable, "-m", "formkit", "table", "--from", "-230000", "--to", "-200001",
-            "--no-invariants", "--db", db, "--chunk-size", "500", *extra]
+    return [
+        sys.executable,
+        "-m",
+        "formkit",
+        "table",
+        "--from",
+        "-230000",
+        "--to",
+        "-200001",
+        "--no-invariants",
+        "--db",
+        db,
+        "--chunk-size",
+        "500",
+        *extra,
+    ]
 
 
 def _chunk_count(db):
@@ -343,8 +394,14 @@ def test_interrupted_build_resumes(tmp_path, sig):
     """Start a real build, stop it with kill -9 (or Ctrl-C) mid-run, rerun, compare."""
     db = str(tmp_path / "k.db")
     env = dict(os.environ, PYTHONPATH=str(ROOT) + os.pathsep + os.environ.get("PYTHONPATH", ""))
-    proc = subprocess.Popen(_table_cmd(db, "--workers", "2"), cwd=tmp_path, env=env,
-                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, start_new_session=True)
+    proc = subprocess.Popen(
+        _table_cmd(db, "--workers", "2"),
+        cwd=tmp_path,
+        env=env,
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        start_new_session=True,
+    )
     try:
         deadline = time.monotonic() + 120
         while _chunk_count(db) < 3:
@@ -371,14 +428,18 @@ def test_interrupted_build_resumes(tmp_path, sig):
             assert time.monotonic() < deadline, "orphaned workers still running"
             time.sleep(0.1)
     finally:
-        try:
+        with contextlib.suppress(ProcessLookupError):
             os.killpg(proc.pid, signal.SIGKILL)
-        except ProcessLookupError:
-            pass
         proc.stdout.close()
         proc.stderr.close()
-    rerun = subprocess.run(_table_cmd(db, "--workers", "2", "--json"), cwd=tmp_path, env=env,
-                           capture_output=True, text=True, timeout=300)
+    rerun = subprocess.run(
+        _table_cmd(db, "--workers", "2", "--json"),
+        cwd=tmp_path,
+        env=env,
+        capture_output=True,
+        text=True,
+        timeout=300,
+    )
     assert rerun.returncode == 0, rerun.stderr
     import json
 
@@ -397,12 +458,14 @@ def test_interrupted_build_resumes(tmp_path, sig):
 # Dask cluster
 # ---------------------------------------------------------------------------
 
+
 def test_dask_cluster_same_results_same_store(tmp_path):
     distributed = pytest.importorskip("distributed")
     db, ref = str(tmp_path / "c.db"), str(tmp_path / "ref.db")
     build_table(ref, -40_000, -3, invariants=False, workers=1, chunk_size=5_000)
-    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=False,
-                                  dashboard_address="127.0.0.1:0") as cluster:
+    with distributed.LocalCluster(
+        n_workers=2, threads_per_worker=1, processes=False, dashboard_address="127.0.0.1:0"
+    ) as cluster:
         address = cluster.scheduler_address
         build_table(db, -20_000, -3, invariants=False, chunk_size=5_000, cluster=address)
         s = build_table(db, -40_000, -3, invariants=False, chunk_size=5_000, cluster=address)
@@ -419,9 +482,11 @@ def test_cluster_unreachable_is_a_clean_error(tmp_path):
     pytest.importorskip("distributed")
     import dask
 
-    with dask.config.set({"distributed.comm.timeouts.connect": "1s"}):
-        with pytest.raises(FormkitError, match="could not connect"):
-            build_table(None, -100, -3, cluster="tcp://127.0.0.1:1", invariants=False)
+    with (
+        dask.config.set({"distributed.comm.timeouts.connect": "1s"}),
+        pytest.raises(FormkitError, match="could not connect"),
+    ):
+        build_table(None, -100, -3, cluster="tcp://127.0.0.1:1", invariants=False)
 
 
 def test_invariants_shortcut_agrees_with_class_group():
@@ -430,7 +495,9 @@ def test_invariants_shortcut_agrees_with_class_group():
     from formkit.tables.rows import _invariants_from_order
 
     decided = 0
-    for D in [d for d in range(-3, -3001, -1) if d % 4 in (0, 1)] + [d for d in range(5, 1500) if d % 4 in (0, 1)]:
+    for D in [d for d in range(-3, -3001, -1) if d % 4 in (0, 1)] + [
+        d for d in range(5, 1500) if d % 4 in (0, 1)
+    ]:
         try:
             G = class_group(D)
         except DiscriminantError:  # squares
