@@ -18,6 +18,7 @@ __all__ = [
     "DiscriminantMismatchError",
     "NotPrimeError",
     "MatrixError",
+    "NotInOrderError",
 ]
 
 
@@ -55,3 +56,7 @@ class NotPrimeError(FormkitError):
 
 class MatrixError(FormkitError):
     """A matrix is not in the group required (SL2(Z) or GL2(Z))."""
+
+
+class NotInOrderError(FormkitError):
+    """A number of the field is not an element of the order asked for."""

@@ -18,7 +18,7 @@ import sys
 from collections.abc import Sequence
 
 from ..errors import FormkitError
-from .conventions import _Parser
+from .conventions import NUMBER_SYNTAX, _Parser
 
 __all__ = ["main", "build_parser"]
 
@@ -36,7 +36,7 @@ def build_parser() -> argparse.ArgumentParser:
             "Binary quadratic forms ax^2+bxy+cy^2: reduction, equivalence, class groups, genera, "
             "representations and prime criteria. Forms are written a,b,c or [a,b,c] or as "
             "polynomials such as '3x^2 + 7xy - 5y^2'; negative numbers and forms may be given "
-            "directly (formkit group -23)."
+            "directly (formkit group -23). " + NUMBER_SYNTAX
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )

@@ -8,16 +8,13 @@ from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
+from .conventions import add_discriminant_argument, discriminant_of, integer_type
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
     from .conventions import emit
 
-    D = parse_integer(args.discriminant, "discriminant")
-    if args.max_rows < 0:
-        from .conventions import CommandError
-
-        raise CommandError(f"--max-rows must be >= 0, not {args.max_rows}")
+    D = discriminant_of(args)
     G = class_group(D, method=args.method)
     payload = G.to_dict()
 
@@ -69,7 +66,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
 def _cmd_class_number(args: argparse.Namespace) -> int:
     from .conventions import emit
 
-    D = parse_integer(args.discriminant, "discriminant")
+    D = discriminant_of(args)
     payload = class_number_summary(D, method=args.method, interval=args.interval)
 
     def human() -> str:
@@ -138,7 +135,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("discriminant", help="the discriminant D (negative or positive, e.g. -4004, 316, -4*10^9)")
+    add_discriminant_argument(p, "the discriminant D (negative or positive, e.g. -4004, 316, -4*3*10^2)")
     p.add_argument(
         "--method",
         choices=("auto", "enumerate", "bsgs"),
@@ -146,7 +143,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="enumerate (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
         "or auto (enumeration for small |D|)",
     )
-    p.add_argument("--max-rows", type=int, default=200, help="classes listed in the text table (default 200)")
+    p.add_argument(
+        "--max-rows",
+        type=integer_type("--max-rows", 0),
+        default=200,
+        help="classes listed in the text table (default 200)",
+    )
     p.set_defaults(handler=_cmd_group)
 
     c = sub.add_parser(
@@ -166,7 +168,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    c.add_argument("discriminant", help="the discriminant D (negative or positive)")
+    add_discriminant_argument(c, "the discriminant D (negative or positive)")
     c.add_argument(
         "--method",
         choices=("auto", "enumerate", "bsgs"),
