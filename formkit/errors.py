@@ -19,6 +19,7 @@ __all__ = [
     "NotPrimeError",
     "MatrixError",
     "NotInOrderError",
+    "NotInvertibleIdealError",
 ]
 
 
@@ -60,3 +61,7 @@ class MatrixError(FormkitError):
 
 class NotInOrderError(FormkitError):
     """A number of the field is not an element of the order asked for."""
+
+
+class NotInvertibleIdealError(FormkitError):
+    """An ideal of a non-maximal order is not invertible (not proper), or is the zero ideal."""
