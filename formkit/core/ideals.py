@@ -51,6 +51,7 @@ from .quadratic_orders import Order
 __all__ = [
     "QuadraticIdeal",
     "ideal_from_generators",
+    "parse_ideal",
     "principal_ideal",
     "ideal_from_form",
     "form_from_ideal",
@@ -347,6 +348,52 @@ def ideal_from_generators(D: object, generators: Iterable[object]) -> QuadraticI
     if A == 0 or C == 0:
         raise NotInvertibleIdealError("the generators generate the zero ideal, which is not invertible")
     return QuadraticIdeal._from_hnf(D, A, B, C)
+
+
+def parse_ideal(D: object, text: object, name: str = "ideal") -> QuadraticIdeal:
+    """The ideal written as generators, ``'(2, 1 + √-5)'`` or ``'[2, 1+sqrt(-5)]'`` (or one element).
+
+    Each generator is read by :meth:`formkit.core.quadratic_orders.Order.element` (by
+    hand, never evaluated) and must lie in the order.
+
+    Examples
+    --------
+    >>> parse_ideal(-20, "(3, 1 + sqrt(-5))").norm, parse_ideal(-20, "1+√-5").norm
+    (3, 6)
+    """
+    from .parse import MAX_TEXT
+
+    D = validate_discriminant(D)
+    if isinstance(text, QuadraticIdeal):
+        return text
+    if not isinstance(text, str):
+        return principal_ideal(D, text)
+    if len(text) > MAX_TEXT:
+        raise FormkitError(f"{name} is too long ({len(text)} characters, at most {MAX_TEXT})")
+    t = text.strip()
+    if len(t) >= 2 and (t[0], t[-1]) in (("(", ")"), ("[", "]")):
+        inner = t[1:-1]
+        depth, ok = 0, True
+        for ch in inner:  # '(1+√5)/(2)' is one element, not a list in parentheses
+            depth += {"(": 1, ")": -1}.get(ch, 0)
+            if depth < 0:
+                ok = False
+                break
+        if ok and depth == 0:
+            t = inner
+    parts, depth, start = [], 0, 0
+    for i, ch in enumerate(t):
+        depth += {"(": 1, ")": -1}.get(ch, 0)
+        if ch == "," and depth == 0:
+            parts.append(t[start:i])
+            start = i + 1
+    parts.append(t[start:])
+    if any(not p.strip() for p in parts):
+        raise FormkitError(
+            f"{name}: cannot read {text!r}: write generators separated by commas, as in (2, 1 + √-5)"
+        )
+    order = Order(D)
+    return ideal_from_generators(D, [order.element(p, f"{name} generator {p.strip()!r}") for p in parts])
 
 
 def principal_ideal(D: object, element: object) -> QuadraticIdeal:
