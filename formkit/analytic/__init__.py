@@ -12,7 +12,8 @@
   their exact values at s = 0, −1, −2, … (generalised Bernoulli numbers);
 * :mod:`~formkit.analytic.eta` — Dedekind's η(τ), certified;
 * :mod:`~formkit.analytic.epstein` — the Epstein zeta function Z_Q(s) of a positive definite
-  form (Chowla–Selberg expansion) and Kronecker's first limit formula.
+  form (Chowla–Selberg expansion) and Kronecker's first limit formula;
+* :mod:`~formkit.analytic.theta_series` — θ_Q = Σ r_Q(n) qⁿ of one positive definite form.
 
 Floating point appears here only with a stated precision and a verification step.
 This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names below
@@ -35,6 +36,8 @@ from .l_series import *  # noqa: F403
 from .l_series import __all__ as _l_series_all
 from .lseries import *  # noqa: F403
 from .lseries import __all__ as _lseries_all
+from .theta_series import *  # noqa: F403
+from .theta_series import __all__ as _theta_all
 
 __all__ = [
     *_formula_all,
@@ -45,4 +48,5 @@ __all__ = [
     *_l_series_all,
     *_eta_all,
     *_epstein_all,
+    *_theta_all,
 ]

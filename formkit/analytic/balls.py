@@ -38,6 +38,7 @@ __all__ = [
     "ComplexArgument",
     "as_complex_argument",
     "CertifiedValue",
+    "as_ball",
 ]
 
 #: The largest number of decimal digits any analytic function of formkit certifies.
@@ -193,7 +194,7 @@ def as_complex_argument(s: object, name: str = "s") -> ComplexArgument:
             for x in (z.real, z.imag):
                 if not mpmath.isfinite(x):
                     raise FormkitError(f"{name} must be finite, not {s!r}")
-                man, exp = mpmath.mpf(x).man_exp
+                man, exp = _signed_man_exp(mpmath.mpf(x))
                 parts.append(Fraction(man) * Fraction(2) ** exp if man else Fraction(0))
             return ComplexArgument(*parts)
     except ImportError:  # pragma: no cover - mpmath is a dependency
@@ -237,6 +238,12 @@ def ball_lower(x) -> float:
     if isinstance(x, acb):
         return float(x.abs_lower()) * (1 - 2.0**-40)
     return float(abs(x).lower()) * (1 - 2.0**-40)
+
+
+def _signed_man_exp(x) -> tuple[int, int]:
+    """``(m, e)`` with ``x = m·2^e`` for a finite mpmath mpf (``man_exp`` drops the sign)."""
+    sign, man, exp, _bc = x._mpf_
+    return (-int(man) if sign else int(man)), int(exp)
 
 
 def _arb_to_mpf(x):
@@ -356,6 +363,21 @@ class CertifiedValue:
             rf"$\text{{{self.quantity}}} = {value}$"
             rf"\quad\text{{(error $\le$ {self.error_bound:.1e}; {self.method})}}"
         )
+
+
+def as_ball(value: CertifiedValue):
+    """A ball (acb) containing the exact value behind a :class:`CertifiedValue`, at the current precision."""
+    import mpmath
+    from flint import acb, arb
+
+    with mpmath.workdps(value.digits + 10):
+        z = mpmath.mpc(value.value)
+        parts = []
+        for x in (z.real, z.imag):
+            man, exp = _signed_man_exp(mpmath.mpf(x))
+            parts.append(arb(0) if not man else arb(man) * arb(2) ** exp)
+    r = value.error_bound * (1 + 1e-9)
+    return acb(parts[0] + arb(0, r), parts[1] + arb(0, r))
 
 
 def certified(
