@@ -272,14 +272,21 @@ def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedVal
         D = Q.discriminant
         raise FormkitError(
             f"s = 1 is the pole of Z_Q(s) for Q = {Q.to_list()} (residue 2π/√{-D}); "
-            "kronecker_limit gives the constant term there"
+            "the constant term there is given by kronecker_limit (formkit epstein Q --limit-formula)"
         )
     if s.is_integer and s.real <= 0:
         import mpmath
 
         exact = Fraction(-1) if s.real == 0 else Fraction(0)
         return CertifiedValue(
-            quantity, s, mpmath.mpf(int(exact)), 0.0, digits, "exact (2ζ(2s)·a^(−s), 1/Γ(s) = 0)", 0, exact
+            quantity,
+            s,
+            mpmath.mpf(int(exact)),
+            0.0,
+            digits,
+            "value 2ζ(2s)·a^(−s) of the expansion, the other terms vanishing with 1/Γ(s)",
+            0,
+            exact,
         )
     R = reduced(Q)
     a, b, c = R.a, R.b, R.c

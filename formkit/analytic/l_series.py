@@ -56,6 +56,7 @@ References
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from fractions import Fraction
 from functools import lru_cache
 
@@ -82,6 +83,8 @@ __all__ = [
     "bernoulli_number",
     "generalised_bernoulli",
     "l_series_at_nonpositive_integer",
+    "CriticalLineSamples",
+    "critical_line_samples",
 ]
 
 #: The largest number of series terms ``N`` accepted (about ``|d_K|·digits/40``).
@@ -501,7 +504,9 @@ def l_series(D: object, s: object, *, digits: int = 30) -> CertifiedValue:
     quantity = f"L(s, χ_{D})"
     if s.is_integer and s.real <= 0:
         exact = l_series_at_nonpositive_integer(D, -int(s.real))
-        return _exact_value(exact, quantity, s, digits, "generalised Bernoulli number (exact)")
+        return _exact_value(
+            exact, quantity, s, digits, "generalised Bernoulli number B_{k,χ}: L(1 − k, χ) = −B_{k,χ}/k"
+        )
     value, N = _series_value(d_K, s, digits)
     if f > 1:
         from flint import ctx
@@ -543,7 +548,9 @@ def riemann_zeta(s: object, *, digits: int = 30) -> CertifiedValue:
     if s.is_integer and s.real == 1:
         raise FormkitError("s = 1 is the pole of ζ(s) (residue 1); ζ is defined at every other s")
     if s.is_integer and s.real <= 0:
-        return _exact_value(_zeta_nonpositive(-int(s.real)), "ζ(s)", s, digits, "Bernoulli number (exact)")
+        return _exact_value(
+            _zeta_nonpositive(-int(s.real)), "ζ(s)", s, digits, "Bernoulli number: ζ(1 − k) = −B_k/k"
+        )
     value, N = _series_value(1, s, digits)
     return certified(value, digits, quantity="ζ(s)", s=s, method=_method(N), terms=N)
 
@@ -572,7 +579,7 @@ def quadratic_field_zeta(D: object, s: object, *, digits: int = 30) -> Certified
     s = as_complex_argument(s)
     digits = check_digits(digits)
     d_K, _f = discriminant_parts(D)
-    quantity = f"ζ_K(s), K = Q(√{d_K})"
+    quantity = f"ζ_K(s) for K = Q(√{d_K})"
     if s.is_integer and s.real == 1:
         raise FormkitError(
             f"s = 1 is the pole of ζ_K(s) for K = Q(√{d_K}) (residue L(1, χ_{d_K})); any other s is fine"
@@ -580,7 +587,13 @@ def quadratic_field_zeta(D: object, s: object, *, digits: int = 30) -> Certified
     if s.is_integer and s.real <= 0:
         n = -int(s.real)
         exact = _zeta_nonpositive(n) * l_series_at_nonpositive_integer(d_K, n)
-        return _exact_value(exact, quantity, s, digits, "Bernoulli and generalised Bernoulli numbers (exact)")
+        return _exact_value(
+            exact,
+            quantity,
+            s,
+            digits,
+            "Bernoulli and generalised Bernoulli numbers: ζ_K(1 − k) = ζ(1 − k)·L(1 − k, χ)",
+        )
     from flint import ctx
 
     z, N1 = _series_value(1, s, digits + 2)
@@ -592,7 +605,82 @@ def quadratic_field_zeta(D: object, s: object, *, digits: int = 30) -> Certified
         digits,
         quantity=quantity,
         s=s,
-        method="ζ(s)·L(s, χ_d_K), each by " + _method(max(N1, N2)),
+        method=f"ζ(s)·L(s, χ_{d_K}), each by " + _method(max(N1, N2)),
         terms=N1 + N2,
         discriminant=d_K,
     )
+
+
+@dataclass(frozen=True)
+class CriticalLineSamples:
+    """``|L(½ + it, χ_D)|`` (or ``|ζ(½ + it)|`` for ``D = 1``) at equally spaced ``t`` in ``[0, height]``.
+
+    ``heights[i]`` are the exact rationals ``t_i`` (as floats here) and ``values[i]`` the
+    certified absolute values rounded to floats; ``error_bound`` is the largest
+    certified error of the complex values (before rounding to floats).
+    """
+
+    discriminant: int
+    heights: tuple[float, ...]
+    values: tuple[float, ...]
+    digits: int
+    error_bound: float
+    method: str
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary."""
+        return {
+            "discriminant": self.discriminant,
+            "t": list(self.heights),
+            "abs_value": list(self.values),
+            "digits": self.digits,
+            "error_bound": f"{self.error_bound:.3e}",
+            "method": self.method,
+        }
+
+    def __repr__(self) -> str:
+        return (
+            f"CriticalLineSamples(D={self.discriminant}, {len(self.values)} points on 0 ≤ t ≤ "
+            f"{self.heights[-1] if self.heights else 0}, max |L| = {max(self.values, default=0):.6g})"
+        )
+
+
+def critical_line_samples(
+    D: object, height: object, *, points: int = 200, digits: int = 10
+) -> CriticalLineSamples:
+    """``|L(½ + it, χ_D)|`` for ``t = k·height/(points − 1)``, ``k = 0 … points − 1``.
+
+    ``D = 1`` gives ``|ζ(½ + it)|``.  Each value is certified by :func:`l_series`
+    (or :func:`riemann_zeta`) to ``digits`` digits.
+
+    Raises
+    ------
+    FormkitError
+        If ``height`` is not a positive number ≤ 10^4 or ``points`` is not in ``[2, 10^5]``.
+
+    Examples
+    --------
+    >>> c = critical_line_samples(-4, 20, points=5, digits=8)
+    >>> [round(v, 5) for v in c.values]
+    [0.66769, 1.09321, 0.44393, 2.45837, 2.87431]
+    """
+    from ..core.arith import as_int
+
+    h = as_complex_argument(height, "height")
+    if not h.is_real or not 0 < h.real <= 10**4:
+        raise FormkitError(f"height must be a real number in (0, 10^4], not {height!r}")
+    points = as_int(points, "points")
+    if not 2 <= points <= 10**5:
+        raise FormkitError(f"points must lie in [2, 10^5], not {points}")
+    digits = check_digits(digits)
+    D_int = 1 if D == 1 else validate_discriminant(D)
+    ts, vals, err, method = [], [], 0.0, ""
+    for k in range(points):
+        t = h.real * k / (points - 1)
+        s = ComplexArgument(Fraction(1, 2), Fraction(t))
+        v = riemann_zeta(s, digits=digits) if D_int == 1 else l_series(D_int, s, digits=digits)
+        ts.append(float(t))
+        vals.append(float(abs(complex(v.value))))
+        err = max(err, v.error_bound)
+        method = v.method
+    return CriticalLineSamples(D_int, tuple(ts), tuple(vals), digits, err, method)
