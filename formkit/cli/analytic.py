@@ -244,7 +244,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "The Dirichlet L-series L(s, chi_D) of the Kronecker character chi_D(n) = (D/n) at any complex s, "
             "by the functional equation and the incomplete-gamma series, in ball arithmetic with an explicit "
             "tail bound (unconditional); at s = 0, -1, -2, ... the exact rational value from generalised "
-            "Bernoulli numbers. --field-zeta gives zeta_K(s) = zeta(s) L(s, chi_dK) of K = Q(sqrt D); "
+            "Bernoulli numbers. --field-zeta gives the Dedekind zeta function zeta(s) L(s, chi_dK) of K = Q(sqrt D); "
             "--class-character K1,K2,... the L-series of the character of Cl(D) (D < 0) sending the i-th "
             "generator of 'formkit group D' to exp(2 pi i K_i/n_i), as (1/w) sum over classes of psi(C) Z_C(s); "
             "--genus D1 the genus character for D = D1*D2 (fundamental D < 0), computed by the classes and as "
@@ -296,7 +296,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     e.add_argument("--digits", default="30", help=digits_help)
     mode = e.add_mutually_exclusive_group()
     mode.add_argument("--limit-formula", action="store_true", help="residue and constant term at s = 1")
-    mode.add_argument("--classes", action="store_true", help="sum over the classes of D against w zeta_K(s)")
+    mode.add_argument(
+        "--classes",
+        action="store_true",
+        help="sum over the classes of D against w times the Dedekind zeta function of Q(sqrt D)",
+    )
     mode.add_argument(
         "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula"
     )

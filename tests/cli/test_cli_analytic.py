@@ -60,7 +60,7 @@ def test_theta(capsys):
 def test_pictures(capsys, tmp_path):
     pytest.importorskip("matplotlib")
     png = tmp_path / "r.png"
-    code, out, err = run(capsys, "theta", "1,1,6", "--upto", "30", "--genus", "-o", str(png))
+    code, _out, _err = run(capsys, "theta", "1,1,6", "--upto", "30", "--genus", "-o", str(png))
     assert code == 0 and png.read_bytes()[:4] == b"\x89PNG"
     svg = tmp_path / "c.svg"
     code, _out, _err = run(capsys, "critical-line", "-4", "--height", "10", "--points", "12", "-o", str(svg))
