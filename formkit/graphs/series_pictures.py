@@ -18,11 +18,9 @@ import os
 from ..analytic.l_series import CriticalLineSamples
 from ..classgroups.genus_theta import ThetaDecomposition
 from ..errors import FormkitError
+from .plotting import PICTURE_FORMATS
 
-__all__ = ["PICTURE_FORMATS", "critical_line_picture", "genus_average_picture"]
-
-#: The picture formats written (chosen by the file suffix).
-PICTURE_FORMATS = ("png", "svg")
+__all__ = ["critical_line_picture", "genus_average_picture"]
 
 
 def _figure():
