@@ -59,6 +59,7 @@ import math
 from dataclasses import dataclass
 from fractions import Fraction
 from functools import lru_cache
+from typing import Any
 
 from ..core.arith import factorint, kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
@@ -314,7 +315,7 @@ def _block_sum(chi, q: int, a: int, lo: int, hi: int, sigmas, sr: tuple[float, f
     x0 = arb.pi() * n0 * n0 / q
     e = (-x0).exp()
     step = -arb.pi() / q
-    total = None
+    total: Any = None
     for sigma in sigmas:
         g = _expint(x0, sigma)  # g_k = E_{1−σ−k}(x0)
         coeff = arb(1)  # (−π/q)^k / k!
@@ -642,6 +643,19 @@ class CriticalLineSamples:
         return (
             f"CriticalLineSamples(D={self.discriminant}, {len(self.values)} points on 0 ≤ t ≤ "
             f"{self.heights[-1] if self.heights else 0}, max |L| = {max(self.values, default=0):.6g})"
+        )
+
+    def _repr_html_(self) -> str:
+        return (
+            f"<p>|L(½ + it, χ<sub>{self.discriminant}</sub>)| at {len(self.values)} points, "
+            f"0 ≤ t ≤ {self.heights[-1]:g}: max {max(self.values, default=0):.6g}<br>"
+            f"<small>each value certified to {self.digits} digits; {self.method}</small></p>"
+        )
+
+    def _repr_latex_(self) -> str:
+        return (
+            rf"$\max_{{0 \le t \le {self.heights[-1]:g}}} |L(\tfrac12 + it, \chi_{{{self.discriminant}}})| "
+            rf"\approx {max(self.values, default=0):.6g}$ \quad(\text{{{len(self.values)} certified samples}})"
         )
 
 

@@ -49,7 +49,7 @@ from ..analytic.balls import (
 )
 from ..analytic.epstein import epstein_zeta
 from ..analytic.l_series import l_series, quadratic_field_zeta, riemann_zeta
-from ..core.arith import factorint, kronecker
+from ..core.arith import as_int, factorint, kronecker
 from ..core.discriminants import (
     is_fundamental_discriminant,
     unit_count,
@@ -348,7 +348,7 @@ def genus_character_l_series(D: object, d1: object, s: object, *, digits: int = 
     D = _negative(D, "a genus character L-series", fundamental=True)
     s = as_complex_argument(s)
     digits = check_digits(digits)
-    d1 = int(d1)
+    d1 = as_int(d1, "d1")
     pairs = {frozenset(p) for p in genus_character_discriminants(D)}
     pair = next((p for p in pairs if d1 in p), None)
     if pair is None:
