@@ -9,7 +9,8 @@
 * :mod:`~formkit.analytic.j_function` — the modular invariant j(τ) (for class polynomials);
 * :mod:`~formkit.analytic.balls` — exact arguments and certified values in ball arithmetic;
 * :mod:`~formkit.analytic.l_series` — L(s, χ_D) and ζ(s) at any complex s, certified, and
-  their exact values at s = 0, −1, −2, … (generalised Bernoulli numbers);
+  their exact values at s = 0, −1, −2, … (generalised Bernoulli numbers, in
+  :mod:`~formkit.analytic.special_values`);
 * :mod:`~formkit.analytic.eta` — Dedekind's η(τ), certified;
 * :mod:`~formkit.analytic.epstein` — the Epstein zeta function Z_Q(s) of a positive definite
   form (Chowla–Selberg expansion) and Kronecker's first limit formula;
@@ -36,6 +37,8 @@ from .l_series import *  # noqa: F403
 from .l_series import __all__ as _l_series_all
 from .lseries import *  # noqa: F403
 from .lseries import __all__ as _lseries_all
+from .special_values import *  # noqa: F403
+from .special_values import __all__ as _special_values_all
 from .theta_series import *  # noqa: F403
 from .theta_series import __all__ as _theta_all
 
@@ -46,6 +49,7 @@ __all__ = [
     *_j_all,
     *_balls_all,
     *_l_series_all,
+    *_special_values_all,
     *_eta_all,
     *_epstein_all,
     *_theta_all,

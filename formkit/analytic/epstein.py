@@ -88,7 +88,7 @@ def _zeta_ball(u: ComplexArgument, digits: int):
     from flint import arb, fmpq
 
     if u.is_integer and u.real <= 0:
-        from .l_series import _zeta_nonpositive
+        from .special_values import _zeta_nonpositive
 
         z = _zeta_nonpositive(-int(u.real))
         return arb(fmpq(z.numerator, z.denominator))

@@ -19,13 +19,11 @@ from hypothesis import strategies as st
 
 from formkit import class_number, is_fundamental_discriminant, unit_count
 from formkit.analytic.balls import as_complex_argument
-from formkit.analytic.l_series import (
+from formkit.analytic.l_series import l_series, quadratic_field_zeta, riemann_zeta
+from formkit.analytic.special_values import (
     bernoulli_number,
     generalised_bernoulli,
-    l_series,
     l_series_at_nonpositive_integer,
-    quadratic_field_zeta,
-    riemann_zeta,
 )
 from formkit.core.arith import kronecker
 from formkit.errors import DiscriminantError, FormkitError
