@@ -7,8 +7,10 @@ down the layers (``tests/test_layers.py`` checks it):
 * :mod:`formkit.core` — integers, forms, discriminants, reduction, equivalence,
   composition, enumeration;
 * :mod:`formkit.analytic` — L(1, χ_D) with its GRH interval, the class number formula,
-  lattice-point averages, j(τ);
-* :mod:`formkit.classgroups` — ``ClassGroup`` and its methods, genera, orders;
+  lattice-point averages, j(τ); certified L(s, χ_D), ζ(s), η, Epstein zeta functions and
+  theta series;
+* :mod:`formkit.classgroups` — ``ClassGroup`` and its methods, genera, orders; series over
+  the classes (ζ_K, class group and genus characters, Chowla–Selberg, Siegel's genus average);
 * :mod:`formkit.representation` — representations, orbits, Cornacchia, class
   polynomials, prime criteria;
 * :mod:`formkit.graphs`, :mod:`formkit.tables`, :mod:`formkit.explain` — graphs, tables

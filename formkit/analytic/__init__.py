@@ -6,7 +6,15 @@
 * :mod:`~formkit.analytic.class_number_formula` — h(D) from Dirichlet's class number
   formula as finite character sums;
 * :mod:`~formkit.analytic.averages` — lattice-point counts N_Q(X) beside 2πX/√|D|;
-* :mod:`~formkit.analytic.j_function` — the modular invariant j(τ) (for class polynomials).
+* :mod:`~formkit.analytic.j_function` — the modular invariant j(τ) (for class polynomials);
+* :mod:`~formkit.analytic.balls` — exact arguments and certified values in ball arithmetic;
+* :mod:`~formkit.analytic.l_series` — L(s, χ_D) and ζ(s) at any complex s, certified, and
+  their exact values at s = 0, −1, −2, … (generalised Bernoulli numbers, in
+  :mod:`~formkit.analytic.special_values`);
+* :mod:`~formkit.analytic.eta` — Dedekind's η(τ), certified;
+* :mod:`~formkit.analytic.epstein` — the Epstein zeta function Z_Q(s) of a positive definite
+  form (Chowla–Selberg expansion) and Kronecker's first limit formula;
+* :mod:`~formkit.analytic.theta_series` — θ_Q = Σ r_Q(n) qⁿ of one positive definite form.
 
 Floating point appears here only with a stated precision and a verification step.
 This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names below
@@ -15,11 +23,34 @@ are re-exported by :mod:`formkit`.
 
 from .averages import *  # noqa: F403
 from .averages import __all__ as _averages_all
+from .balls import *  # noqa: F403
+from .balls import __all__ as _balls_all
 from .class_number_formula import *  # noqa: F403
 from .class_number_formula import __all__ as _formula_all
+from .epstein import *  # noqa: F403
+from .epstein import __all__ as _epstein_all
+from .eta import *  # noqa: F403
+from .eta import __all__ as _eta_all
 from .j_function import *  # noqa: F403
 from .j_function import __all__ as _j_all
+from .l_series import *  # noqa: F403
+from .l_series import __all__ as _l_series_all
 from .lseries import *  # noqa: F403
 from .lseries import __all__ as _lseries_all
+from .special_values import *  # noqa: F403
+from .special_values import __all__ as _special_values_all
+from .theta_series import *  # noqa: F403
+from .theta_series import __all__ as _theta_all
 
-__all__ = [*_formula_all, *_averages_all, *_lseries_all, *_j_all]
+__all__ = [
+    *_formula_all,
+    *_averages_all,
+    *_lseries_all,
+    *_j_all,
+    *_balls_all,
+    *_l_series_all,
+    *_special_values_all,
+    *_eta_all,
+    *_epstein_all,
+    *_theta_all,
+]

@@ -12,7 +12,11 @@
 * :mod:`~formkit.classgroups.dispatch` — ``class_group(D)``: chooses the method by size;
 * :mod:`~formkit.classgroups.orders` — orders of conductor f: Cl(D) → Cl(d_K), the class
   number formula for orders;
-* :mod:`~formkit.classgroups.principal_genus_theorem` — Gauss's theorem checked on Cl(D).
+* :mod:`~formkit.classgroups.principal_genus_theorem` — Gauss's theorem checked on Cl(D);
+* :mod:`~formkit.classgroups.class_series` — Dirichlet series over the classes: Σ Z_C = w·ζ_K,
+  L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
+* :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
+  Eisenstein series from the genus characters, the cusp part.
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -20,10 +24,14 @@ the names below are re-exported by :mod:`formkit`.
 
 from .baby_step_giant_step import *  # noqa: F403
 from .baby_step_giant_step import __all__ as _bsgs_all
+from .class_series import *  # noqa: F403
+from .class_series import __all__ as _class_series_all
 from .dispatch import *  # noqa: F403
 from .dispatch import __all__ as _dispatch_all
 from .genus import *  # noqa: F403
 from .genus import __all__ as _genus_all
+from .genus_theta import *  # noqa: F403
+from .genus_theta import __all__ as _genus_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
 from .infrastructure import *  # noqa: F403
@@ -41,4 +49,6 @@ __all__ = [
     *_orders_all,
     *_bsgs_all,
     *_infrastructure_all,
+    *_class_series_all,
+    *_genus_theta_all,
 ]

@@ -42,9 +42,9 @@ def build_parser() -> argparse.ArgumentParser:
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     # the modules providing commands, in the order they appear in ``formkit --help``
-    from . import explain, forms, graph, groups, ideals, primes, represent, table
+    from . import analytic, explain, forms, graph, groups, ideals, primes, represent, table
 
-    for module in (forms, groups, ideals, explain, primes, table, graph, represent):
+    for module in (forms, groups, ideals, explain, primes, table, graph, represent, analytic):
         module.register(sub, parent)
     return parser
 

@@ -1,0 +1,134 @@
+"""Exact values of ζ(s) and L(s, χ_D) at s = 0, −1, −2, …: Bernoulli and generalised Bernoulli numbers.
+
+``L(1 − k, χ) = −B_{k,χ}/k`` with the generalised Bernoulli number
+``B_{k,χ} = F^(k−1)·Σ_{a=1}^{F} χ(a)·B_k(a/F)`` for any period ``F`` of ``χ``, and
+``ζ(1 − k) = −B_k/k`` (``B_1 = +1/2`` there, so ``ζ(0) = −1/2``) (Washington,
+*Introduction to Cyclotomic Fields*, §4.1, Theorem 4.2; from memory).  For
+``D = f²·d_K`` the primitive character's value is multiplied by the Euler factors
+``∏_{p | f}(1 − χ_{d_K}(p)·p^(k−1))``.  Exact rational arithmetic throughout; these are
+the values :func:`formkit.analytic.l_series.l_series` returns at non-positive integers.
+
+References
+----------
+.. [1] L. C. Washington, *Introduction to Cyclotomic Fields*, 2nd ed., GTM 83, §4.1.
+.. [2] H. Cohen, *Number Theory, Volume II*, GTM 240, §9.4 and §10.3 (from memory).
+"""
+
+from __future__ import annotations
+
+import math
+from fractions import Fraction
+from functools import lru_cache
+
+from ..core.arith import factorint, kronecker
+from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..errors import FormkitError
+
+__all__ = ["bernoulli_number", "generalised_bernoulli", "l_series_at_nonpositive_integer"]
+
+
+# ---------------------------------------------------------------------------------------
+
+
+@lru_cache(maxsize=8)
+def _bernoulli_list(n: int) -> tuple[Fraction, ...]:
+    """``B_0, …, B_n`` (``B_1 = −1/2``) from ``Σ_{j<m+1} C(m+1, j)·B_j = 0``."""
+    B = [Fraction(1)]
+    for m in range(1, n + 1):
+        s = sum((math.comb(m + 1, j) * B[j] for j in range(m)), Fraction(0))
+        B.append(-s / (m + 1))
+    return tuple(B)
+
+
+def bernoulli_number(k: object) -> Fraction:
+    """The Bernoulli number ``B_k`` (with ``B_1 = −1/2``), exactly.
+
+    Examples
+    --------
+    >>> [str(bernoulli_number(k)) for k in (0, 1, 2, 4, 12)]
+    ['1', '-1/2', '1/6', '-1/30', '-691/2730']
+    """
+    from ..core.arith import as_int
+
+    k = as_int(k, "k")
+    if k < 0 or k > 5000:
+        raise FormkitError(f"Bernoulli numbers are computed for 0 ≤ k ≤ 5000, not {k}")
+    return _bernoulli_list(k)[k]
+
+
+def generalised_bernoulli(D: object, k: object) -> Fraction:
+    """The generalised Bernoulli number ``B_{k, χ_D}``, from the definition over a period.
+
+    ``B_{k,χ} = F^(k−1)·Σ_{a=1}^{F} χ(a)·B_k(a/F)`` with ``F = |D|`` (a period of
+    ``χ_D``) and the Bernoulli polynomial ``B_k(x) = Σ_j C(k, j)·B_j·x^(k−j)``; it costs
+    ``O(|D|·k)`` integer operations.
+
+    Raises
+    ------
+    FormkitError
+        If ``k < 1`` or ``|D|·k > 2·10^7``.
+
+    Examples
+    --------
+    >>> generalised_bernoulli(-4, 1), generalised_bernoulli(-23, 1)   # −2h/w
+    (Fraction(-1, 2), Fraction(-3, 1))
+    """
+    from ..core.arith import as_int
+
+    D = validate_discriminant(D)
+    k = as_int(k, "k")
+    F = abs(D)
+    if k < 1 or F * k > 2 * 10**7:
+        raise FormkitError(f"generalised_bernoulli needs k ≥ 1 and |D|·k ≤ 2·10^7, not D = {D}, k = {k}")
+    B = _bernoulli_list(k)
+    power_sums = [0] * (k + 1)  # Σ χ(a)·a^m
+    for a in range(1, F + 1):
+        c = kronecker(D, a)
+        if c:
+            p = c
+            for m in range(k + 1):
+                power_sums[m] += p
+                p *= a
+    total = Fraction(0)
+    for j in range(k + 1):
+        total += math.comb(k, j) * B[j] * Fraction(F) ** (j - 1) * power_sums[k - j]
+    return total
+
+
+def l_series_at_nonpositive_integer(D: object, n: object) -> Fraction:
+    """``L(−n, χ_D)`` for ``n ≥ 0``, exactly: ``−B_{n+1,χ}/(n+1)`` with Euler factors.
+
+    The generalised Bernoulli number of the primitive character ``χ_{d_K}`` is used and
+    ``∏_{p | f}(1 − χ_{d_K}(p)·p^n)`` multiplied in (``D = f²·d_K``).
+
+    Raises
+    ------
+    FormkitError
+        If ``n < 0`` or ``|d_K|·(n+1) > 2·10^7``.
+
+    Examples
+    --------
+    >>> l_series_at_nonpositive_integer(-23, 0)     # 2h/w = 3
+    Fraction(3, 1)
+    >>> l_series_at_nonpositive_integer(5, 1)       # ζ_K(−1) = ζ(−1)·L(−1, χ_5) = 1/30
+    Fraction(-2, 5)
+    >>> l_series_at_nonpositive_integer(-4, 2)      # Euler number E_2/2 = −1/2
+    Fraction(-1, 2)
+    """
+    from ..core.arith import as_int
+
+    D = validate_discriminant(D)
+    n = as_int(n, "n")
+    if n < 0:
+        raise FormkitError(f"n must be ≥ 0 for L(−n, χ_D), not {n}")
+    d_K, f = discriminant_parts(D)
+    value = -generalised_bernoulli(d_K, n + 1) / (n + 1)
+    for p in factorint(f) if f > 1 else ():
+        value *= 1 - kronecker(d_K, p) * Fraction(p) ** n
+    return value
+
+
+def _zeta_nonpositive(n: int) -> Fraction:
+    if n == 0:
+        return Fraction(-1, 2)
+    return -_bernoulli_list(n + 1)[n + 1] / (n + 1)

@@ -1,0 +1,363 @@
+"""Commands ``l-value``, ``epstein``, ``theta`` and ``critical-line``: the analytic side."""
+
+from __future__ import annotations
+
+import argparse
+
+from ..core.parse import parse_integer
+from ..core.quadratic_orders import parse_discriminant
+
+
+def _digits(args: argparse.Namespace) -> int:
+    from .conventions import CommandError
+
+    try:
+        return parse_integer(args.digits, "--digits")
+    except Exception as exc:
+        raise CommandError(f"--digits must be a positive integer, not {args.digits!r}") from exc
+
+
+def _value_lines(v, name: str) -> list[str]:
+    lines = [f"{name} = {v.text()}"]
+    if v.exact is not None:
+        lines.append(f"  exact rational value, from the {v.method}")
+    else:
+        lines.append(f"  certified: |error| <= {v.error_bound:.1e}  ({v.digits} significant digits)")
+        lines.append(f"  method: {v.method}")
+    return lines
+
+
+def _identity_lines(r) -> list[str]:
+    at = "" if r.statement.startswith("Chowla") else f", s = {r.s}"
+    plural = "class" if r.class_number == 1 else "classes"
+    return [
+        f"{r.statement}   (D = {r.discriminant}{at}, {r.class_number} {plural})",
+        f"  by the classes: {r.left.text()}   (|error| <= {r.left.error_bound:.1e})",
+        f"  by the formula: {r.right.text()}   (|error| <= {r.right.error_bound:.1e})",
+        f"  the two certified values {'agree' if r.agrees else 'DISAGREE'}; classes: {r.provenance}",
+    ]
+
+
+def _cmd_l_value(args: argparse.Namespace) -> int:
+    from ..analytic.l_series import l_series, quadratic_field_zeta
+    from ..classgroups.class_series import class_character_l_series, genus_character_l_series
+    from .conventions import CommandError, emit
+
+    D = parse_discriminant(args.discriminant, "discriminant")
+    digits = _digits(args)
+    chosen = [x for x in (args.class_character, args.genus, args.field_zeta or None) if x is not None]
+    if len(chosen) > 1:
+        raise CommandError("choose at most one of --class-character, --genus and --field-zeta")
+    if args.genus is not None:
+        d1 = parse_integer(args.genus, "--genus")
+        r = genus_character_l_series(D, d1, args.s, digits=digits)
+        payload = {"kind": "genus_character", **r.to_dict()}
+        emit(args, payload, lambda: "\n".join(_identity_lines(r)))
+        return 0
+    if args.class_character is not None:
+        try:
+            k = [int(t) for t in args.class_character.replace(" ", "").split(",") if t != ""]
+        except ValueError as exc:
+            raise CommandError(
+                f"--class-character takes exponents such as 1 or 1,0, not {args.class_character!r}"
+            ) from exc
+        v = class_character_l_series(D, k, args.s, digits=digits)
+        name = v.quantity.replace("L(s, ψ)", f"L({v.s}, ψ)")
+        payload = {"kind": "class_character", "discriminant": D, "character": k, **v.to_dict()}
+    elif args.field_zeta:
+        v = quadratic_field_zeta(D, args.s, digits=digits)
+        name = v.quantity.replace("ζ_K(s)", f"ζ_K({v.s})", 1)
+        payload = {"kind": "field_zeta", "discriminant": D, "character": None, **v.to_dict()}
+    else:
+        v = l_series(D, args.s, digits=digits)
+        name = f"L({v.s}, χ_{D})"
+        payload = {"kind": "kronecker_character", "discriminant": D, "character": None, **v.to_dict()}
+    emit(args, payload, lambda: "\n".join(_value_lines(v, name)))
+    return 0
+
+
+def _cmd_epstein(args: argparse.Namespace) -> int:
+    from ..analytic.epstein import epstein_zeta, kronecker_limit
+    from ..classgroups.class_series import chowla_selberg, class_zeta_sum
+    from ..core.forms import as_form
+    from .conventions import CommandError, emit
+
+    digits = _digits(args)
+    if args.classes or args.chowla_selberg:
+        D = parse_discriminant(args.target, "D")
+        if args.chowla_selberg:
+            if args.s is not None:
+                raise CommandError("--chowla-selberg takes no S")
+            r = chowla_selberg(D, digits=digits)
+        else:
+            if args.s is None:
+                raise CommandError("--classes needs S (the point s)")
+            r = class_zeta_sum(D, args.s, digits=digits)
+        emit(args, {"kind": "identity", **r.to_dict()}, lambda: "\n".join(_identity_lines(r)))
+        return 0
+    Q = as_form(args.target)
+    if args.limit_formula:
+        if args.s is not None:
+            raise CommandError("--limit-formula is about s = 1 and takes no S")
+        k = kronecker_limit(Q, digits=digits)
+
+        def human() -> str:
+            tau = k.tau
+            return "\n".join(
+                [
+                    f"Kronecker's first limit formula for Q = {Q.to_list()} (D = {Q.discriminant}):",
+                    f"  Z_Q(s) = R/(s - 1) + C + O(s - 1) with R = 2*pi/sqrt({-Q.discriminant}) = {k.residue.text()}",
+                    f"  C = {k.constant_term.text()}   (through eta(tau_Q), tau_Q = {float(tau.real):.6g} + "
+                    f"{float(tau.imag):.6g}i, |eta(tau_Q)| = {abs(complex(k.eta.value)):.15g})",
+                    f"  C from the Chowla-Selberg expansion: {k.constant_term_series.text()} "
+                    f"({'agrees' if k.agrees else 'DISAGREES'})",
+                ]
+            )
+
+        emit(args, {"kind": "limit_formula", **k.to_dict()}, human)
+        return 0
+    if args.s is None:
+        raise CommandError("epstein needs S (the point s), or --limit-formula")
+    v = epstein_zeta(Q, args.s, digits=digits)
+    payload = {"kind": "epstein", **v.to_dict()}
+    emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {Q.to_list()}")))
+    return 0
+
+
+def _cmd_theta(args: argparse.Namespace) -> int:
+    from ..analytic.theta_series import theta_series
+    from ..core.forms import as_form
+    from .conventions import CommandError, emit
+
+    Q = as_form(args.form)
+    N = parse_integer(args.upto, "--upto")
+    show = parse_integer(args.show, "--show")
+    if show < 0:
+        raise CommandError(f"--show must be >= 0, not {show}")
+    if args.output and not args.genus:
+        raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
+    if not args.genus:
+        th = theta_series(Q, N)
+        payload = {"kind": "theta", **th.to_dict(limit=show)}
+
+        def human() -> str:
+            m = min(N, show)
+            nonzero = sum(1 for n in range(1, N + 1) if th[n])
+            lines = [
+                f"theta series of Q = {Q.to_list()} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
+                f"of (x, y) with Q(x, y) = n",
+                f"  r_Q(n) > 0 for {nonzero} of the n in 1..{N}; first coefficients (n: r_Q(n)):",
+            ]
+            row = [f"{n}: {th[n]}" for n in range(m + 1)]
+            for i in range(0, len(row), 10):
+                lines.append("  " + ", ".join(row[i : i + 10]))
+            return "\n".join(lines)
+
+        emit(args, payload, human)
+        return 0
+    from ..classgroups.genus_theta import theta_decomposition
+
+    t = theta_decomposition(Q, N)
+    if args.output:
+        from ..graphs.series_pictures import genus_average_picture
+
+        try:
+            genus_average_picture(t, args.output)
+        except OSError as exc:
+            raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
+    payload = {"kind": "theta_decomposition", "output": args.output, **t.to_dict(limit=show)}
+
+    def human_genus() -> str:
+        m = min(N, show)
+        siegel = {
+            True: f"equals the Eisenstein series from the genus characters (checked up to q^{N})",
+            False: "DIFFERS from the genus-character Eisenstein series",
+            None: "(D is not fundamental: no Eisenstein comparison)",
+        }[t.siegel_agrees]
+        lines = [
+            f"Q = {Q.to_list()} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
+            f"{'es' if len(t.genus_forms) != 1 else ''}: "
+            + ", ".join(str(f.to_list()) for f in t.genus_forms),
+            f"Siegel's weighted average of theta over the genus (weights 1/|Aut|, |Aut| = "
+            f"{sorted(set(t.automorphism_orders))}) {siegel}",
+            f"{'n':>5}  {'r_Q(n)':>7}  {'genus average':>14}  {'cusp part':>10}",
+        ]
+        for n in range(m + 1):
+            lines.append(
+                f"{n:>5}  {t.theta[n]:>7}  {t.genus_average(n)!s:>14}  {t.cusp_coefficient(n)!s:>10}"
+            )
+        lines.append(f"classes: {t.provenance}")
+        if args.output:
+            lines.append(f"wrote the picture to {args.output}")
+        return "\n".join(lines)
+
+    emit(args, payload, human_genus)
+    return 0
+
+
+def _cmd_critical_line(args: argparse.Namespace) -> int:
+    from ..analytic.l_series import critical_line_samples
+    from .conventions import CommandError, emit
+
+    D = parse_discriminant(args.discriminant, "D")
+    points = parse_integer(args.points, "--points")
+    c = critical_line_samples(D, args.height, points=points, digits=_digits(args))
+    if args.output:
+        from ..graphs.series_pictures import critical_line_picture
+
+        try:
+            critical_line_picture(c, args.output)
+        except OSError as exc:
+            raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
+    payload = {"output": args.output, **c.to_dict()}
+    name = "zeta(1/2 + it)" if c.discriminant == 1 else f"L(1/2 + it, chi_{c.discriminant})"
+
+    def human() -> str:
+        i = max(range(len(c.values)), key=lambda j: c.values[j])
+        lines = [
+            f"|{name}| at {len(c.values)} points 0 <= t <= {c.heights[-1]:g} (each certified to "
+            f"{c.digits} digits; largest error {c.error_bound:.1e})",
+            f"  largest sampled value {c.values[i]:.10g} at t = {c.heights[i]:.6g}",
+        ]
+        if args.output:
+            lines.append(f"wrote the picture to {args.output}")
+        else:
+            step = max(1, len(c.values) // 20)
+            lines.extend(
+                f"  t = {c.heights[j]:>10.5g}   |L| = {c.values[j]:.10g}"
+                for j in range(0, len(c.values), step)
+            )
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
+def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
+    """Add the ``l-value``, ``epstein``, ``theta`` and ``critical-line`` commands."""
+    raw = argparse.RawDescriptionHelpFormatter
+    digits_help = "significant digits certified (default 30, at most 1000)"
+    p = sub.add_parser(
+        "l-value",
+        parents=[parent],
+        help="L(s, chi_D) at any complex s, certified; exact at s = 0, -1, -2, ...",
+        description=(
+            "The Dirichlet L-series L(s, chi_D) of the Kronecker character chi_D(n) = (D/n) at any complex s, "
+            "by the functional equation and the incomplete-gamma series, in ball arithmetic with an explicit "
+            "tail bound (unconditional); at s = 0, -1, -2, ... the exact rational value from generalised "
+            "Bernoulli numbers. --field-zeta gives the Dedekind zeta function zeta(s) L(s, chi_dK) of K = Q(sqrt D); "
+            "--class-character K1,K2,... the L-series of the character of Cl(D) (D < 0) sending the i-th "
+            "generator of 'formkit group D' to exp(2 pi i K_i/n_i), as (1/w) sum over classes of psi(C) Z_C(s); "
+            "--genus D1 the genus character for D = D1*D2 (fundamental D < 0), computed by the classes and as "
+            "L(s, chi_D1) L(s, chi_D2). s is written 2, -3, 0.5, 1/2 or 1/2+14.1347i. "
+            "Python: formkit.l_series(D, s, digits=...), formkit.quadratic_field_zeta, "
+            "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s)."
+        ),
+        epilog=(
+            "examples:\n  formkit l-value -23 1\n  formkit l-value -4 1/2+6i --digits 20\n"
+            "  formkit l-value 5 -1\n  formkit l-value 5 2 --field-zeta\n"
+            "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3"
+        ),
+        formatter_class=raw,
+    )
+    p.add_argument("discriminant", metavar="D", help="the discriminant of the character (e.g. -23, 5, 12)")
+    p.add_argument("s", metavar="S", help="the point s: 2, -3, 0.5, 1/2 or 1/2+14.1347i")
+    p.add_argument("--digits", default="30", help=digits_help)
+    p.add_argument(
+        "--field-zeta", action="store_true", help="the Dedekind zeta function of Q(sqrt D) instead"
+    )
+    p.add_argument("--class-character", metavar="K1,K2,...", help="a character of Cl(D), D < 0, by exponents")
+    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D < 0)")
+    p.set_defaults(handler=_cmd_l_value)
+
+    e = sub.add_parser(
+        "epstein",
+        parents=[parent],
+        help="the Epstein zeta function Z_Q(s) of a positive definite form; limit formula; class sums",
+        description=(
+            "Z_Q(s) = sum over (x, y) != (0, 0) of Q(x, y)^(-s) for a positive definite form Q, at any s != 1, by "
+            "the Chowla-Selberg expansion (zeta terms and a K-Bessel series with an explicit tail bound) in ball "
+            "arithmetic. --limit-formula: the residue 2 pi/sqrt|D| and the constant term at s = 1 by Kronecker's "
+            "first limit formula through Dedekind's eta at the root of Q, checked against the expansion. "
+            "--classes: the target is a fundamental D < 0 and the sum of Z_C(s) over its classes is set beside "
+            "w zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D (the product "
+            "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product). "
+            "Python: formkit.epstein_zeta(Q, s), formkit.kronecker_limit(Q), formkit.class_zeta_sum(D, s), "
+            "formkit.chowla_selberg(D)."
+        ),
+        epilog=(
+            "examples:\n  formkit epstein 1,0,1 2\n  formkit epstein 2,1,3 1/2+3i --digits 20\n"
+            "  formkit epstein 1,1,1 --limit-formula\n  formkit epstein -23 2 --classes\n"
+            "  formkit epstein -163 --chowla-selberg"
+        ),
+        formatter_class=raw,
+    )
+    e.add_argument("target", metavar="Q_OR_D", help="a positive definite form (a,b,c), or D with --classes")
+    e.add_argument("s", metavar="S", nargs="?", default=None, help="the point s (any complex s != 1)")
+    e.add_argument("--digits", default="30", help=digits_help)
+    mode = e.add_mutually_exclusive_group()
+    mode.add_argument("--limit-formula", action="store_true", help="residue and constant term at s = 1")
+    mode.add_argument(
+        "--classes",
+        action="store_true",
+        help="sum over the classes of D against w times the Dedekind zeta function of Q(sqrt D)",
+    )
+    mode.add_argument(
+        "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula"
+    )
+    e.set_defaults(handler=_cmd_epstein)
+
+    t = sub.add_parser(
+        "theta",
+        parents=[parent],
+        help="theta series of a positive definite form; genus average (Siegel) and cusp part",
+        description=(
+            "The theta series sum r_Q(n) q^n of a positive definite form up to q^N, by an exact count of the "
+            "lattice points of the ellipse Q <= N. --genus adds Siegel's weighted average over the genus of Q "
+            "(classes by complete enumeration), its comparison with the Eisenstein series given by the genus "
+            "characters (fundamental D), and the cusp part theta_Q - average; with --output FILE.png|svg also "
+            "a picture of r_Q(n) against the genus average (needs matplotlib). --show K prints the first K+1 "
+            "coefficients (the computation goes to N). "
+            "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N)."
+        ),
+        epilog=(
+            "examples:\n  formkit theta 1,0,1 --upto 20\n  formkit theta 2,1,3 --upto 30 --genus\n"
+            "  formkit theta 1,1,6 --upto 60 --genus --output cusp23.png\n"
+            "  formkit theta 1,0,1 --upto 10^6 --show 5"
+        ),
+        formatter_class=raw,
+    )
+    t.add_argument("form", help="a positive definite form: a,b,c or a polynomial such as 'x^2+xy+6y^2'")
+    t.add_argument(
+        "--upto", metavar="N", required=True, help="the last exponent N (at most 10^8; 2*10^6 with --genus)"
+    )
+    t.add_argument("--show", metavar="K", default="20", help="print the first K+1 coefficients (default 20)")
+    t.add_argument("--genus", action="store_true", help="genus average, Eisenstein comparison and cusp part")
+    t.add_argument("--output", "-o", metavar="FILE", help="with --genus: write a PNG/SVG picture")
+    t.set_defaults(handler=_cmd_theta)
+
+    c = sub.add_parser(
+        "critical-line",
+        parents=[parent],
+        help="|L(1/2 + it, chi_D)| for 0 <= t <= T, as numbers or a picture",
+        description=(
+            "Samples |L(1/2 + it, chi_D)| (D = 1: |zeta(1/2 + it)|) at equally spaced t in [0, T], each value "
+            "certified to --digits digits (default 10); with --output FILE.png|svg a picture (needs "
+            "matplotlib). Python: formkit.critical_line_samples(D, T, points=...)."
+        ),
+        epilog=(
+            "examples:\n  formkit critical-line -4 --height 30 --points 60\n"
+            "  formkit critical-line -23 --height 40 --output critical23.png\n"
+            "  formkit critical-line 1 --height 50 --points 400 -o zeta.svg"
+        ),
+        formatter_class=raw,
+    )
+    c.add_argument("discriminant", metavar="D", help="the discriminant of chi_D, or 1 for zeta")
+    c.add_argument("--height", metavar="T", required=True, help="the largest t")
+    c.add_argument("--points", metavar="M", default="200", help="number of sample points (default 200)")
+    c.add_argument("--digits", default="10", help="significant digits certified per value (default 10)")
+    c.add_argument("--output", "-o", metavar="FILE", help="write a PNG/SVG picture")
+    c.set_defaults(handler=_cmd_critical_line)
+
+
+__all__ = ["register"]

@@ -1,0 +1,90 @@
+"""The commands l-value, epstein, theta and critical-line.
+
+Outside references: mpmath (general-purpose library), Jacobi's r₂(n) (from memory), the
+class number formula L(0, χ_D) = 2h/w (theorem), and the house CLI conventions (common
+practice).
+"""
+
+from __future__ import annotations
+
+import mpmath
+import pytest
+
+from tests._cli import run, run_json
+
+
+def test_l_value_json(capsys):
+    out = run_json(capsys, "l-value", "-4", "2", "--digits", "25")
+    assert out["kind"] == "kronecker_character" and out["discriminant"] == -4
+    with mpmath.workdps(30):
+        catalan = mpmath.catalan  # L(2, χ_−4) = Catalan's constant (classical)
+        assert abs(mpmath.mpf(out["value"]["real"]) - catalan) < 10**-24
+    assert out["value"]["imag"] == "0.0" and out["exact"] is None
+
+
+def test_l_value_exact_and_text(capsys):
+    out = run_json(capsys, "l-value", "-23", "0")
+    assert out["exact"] == "3"  # 2h/w for D = −23
+    code, text, _err = run(capsys, "l-value", "-23", "0")
+    assert code == 0 and "= 3" in text and "exact rational" in text
+
+
+def test_other_series(capsys):
+    assert run_json(capsys, "l-value", "5", "-1", "--field-zeta")["exact"] == "1/30"
+    g = run_json(capsys, "l-value", "-84", "2", "--genus", "-3", "--digits", "15")
+    assert g["kind"] == "genus_character" and g["agrees"] is True
+    c = run_json(capsys, "l-value", "-23", "2", "--class-character", "1", "--digits", "15")
+    assert c["kind"] == "class_character" and c["character"] == [1]
+
+
+def test_epstein(capsys):
+    z = run_json(capsys, "epstein", "1,0,1", "3", "--digits", "20")
+    with mpmath.workdps(30):
+        ref = 4 * mpmath.zeta(3) * mpmath.dirichlet(3, [0, 1, 0, -1])  # 4ζ(3)β(3)
+        assert abs(mpmath.mpf(z["value"]["real"]) - ref) < 10**-18
+    k = run_json(capsys, "epstein", "x^2+xy+y^2", "--limit-formula", "--digits", "15")
+    assert k["agrees"] is True and k["form"] == [1, 1, 1]
+    c = run_json(capsys, "epstein", "-23", "2", "--classes", "--digits", "15")
+    assert c["agrees"] is True and c["class_number"] == 3
+    cs = run_json(capsys, "epstein", "-4", "--chowla-selberg", "--digits", "15")
+    assert cs["agrees"] is True
+
+
+def test_theta(capsys):
+    t = run_json(capsys, "theta", "1,0,1", "--upto", "12", "--show", "12")
+    assert t["coefficients"] == [1, 4, 4, 0, 4, 8, 0, 0, 4, 4, 8, 0, 0]  # Jacobi's r₂(n)
+    g = run_json(capsys, "theta", "2,1,3", "--upto", "10", "--genus")
+    assert g["siegel_agrees"] is True and g["cusp_part"][:3] == ["0", "-2/3", "2/3"]
+
+
+def test_pictures(capsys, tmp_path):
+    pytest.importorskip("matplotlib")
+    png = tmp_path / "r.png"
+    code, _out, _err = run(capsys, "theta", "1,1,6", "--upto", "30", "--genus", "-o", str(png))
+    assert code == 0 and png.read_bytes()[:4] == b"\x89PNG"
+    svg = tmp_path / "c.svg"
+    code, _out, _err = run(capsys, "critical-line", "-4", "--height", "10", "--points", "12", "-o", str(svg))
+    assert code == 0 and "<svg" in svg.read_text()
+
+
+@pytest.mark.parametrize(
+    "argv, words",
+    [
+        (("epstein", "1,0,1", "1"), "pole"),
+        (("epstein", "1,0,-2", "2"), "positive definite"),
+        (("l-value", "-4", "2", "--digits", "5000"), "digits"),
+        (("l-value", "-4", "2+"), "s must be"),
+        (("l-value", "-23", "2", "--class-character", "x"), "--class-character"),
+        (("l-value", "-23", "2", "--genus", "5", "--field-zeta"), "at most one"),
+        (("theta", "1,0,1", "--upto", "-3"), "N must"),
+        (("theta", "1,0,1", "--upto", "5", "-o", "x.png"), "--genus"),
+        (("theta", "1,0,1", "--upto", "5", "--genus", "-o", "x.pdf"), ".png or .svg"),
+        (("critical-line", "-4", "--height", "0"), "height"),
+        (("epstein", "-23", "--classes"), "needs S"),
+    ],
+)
+def test_bad_input(capsys, argv, words, tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    code, out, err = run(capsys, *argv)
+    assert code == 2 and out == ""
+    assert err.startswith("formkit: error: ") and err.count("\n") == 1 and words in err
