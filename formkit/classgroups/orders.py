@@ -32,7 +32,7 @@ from ..core.quadratic_orders import Order
 from ..core.reduction import reduced
 from ..errors import FormkitError, NotPrimitiveError
 from .dispatch import class_group
-from .group import ClassGroupElement, Provenance
+from .group import ClassGroup, ClassGroupElement, Provenance
 
 __all__ = [
     "OrderClassNumber",
@@ -392,7 +392,7 @@ def _relations(G) -> list[list[int]]:
     return [[n if i == j else 0 for j in range(r)] for i, n in enumerate(G.invariants)]
 
 
-def ideal_class_group(D: object, method: str = "auto") -> IdealClassGroup:
+def ideal_class_group(D: object, method: str = "auto", *, group: ClassGroup | None = None) -> IdealClassGroup:
     """The class group of ideal classes ``Cl(O)`` of the order of discriminant ``D``.
 
     Examples
@@ -404,7 +404,7 @@ def ideal_class_group(D: object, method: str = "auto") -> IdealClassGroup:
     """
     from .finite_abelian import subquotient
 
-    G = class_group(D, method)
+    G = group if group is not None and group.discriminant == D else class_group(D, method)
     if G.discriminant < 0 or not G.invariants:
         return IdealClassGroup(G, G.invariants, [g.form for g in G.generators])
     r = len(G.invariants)
@@ -479,7 +479,9 @@ class OrderKernel:
         )
 
 
-def projection_kernel_structure(D: object, method: str = "auto", element_limit: int = 1000) -> OrderKernel:
+def projection_kernel_structure(
+    D: object, method: str = "auto", element_limit: int = 1000, *, group: ClassGroup | None = None
+) -> OrderKernel:
     """The kernel of ``Cl(O) → Cl(O_K)`` with its structure, generators and (when small) its elements.
 
     Computed as the kernel of the homomorphism on exponent vectors (Smith normal form,
@@ -496,7 +498,8 @@ def projection_kernel_structure(D: object, method: str = "auto", element_limit: 
 
     D = validate_discriminant(D)
     d_K, _f = discriminant_parts(D)
-    G, H = class_group(D, method), class_group(d_K, method)
+    G = group if group is not None and group.discriminant == D else class_group(D, method)
+    H = class_group(d_K, method)
     r = len(G.invariants)
 
     def solve(src_rel, tgt_rel, images):

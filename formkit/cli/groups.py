@@ -29,16 +29,21 @@ def _order_lines(D: int) -> list[str]:
     ]
 
 
-def _order_payload(D: int, method: str, digits: int | None, kernel: bool, known: dict) -> tuple[dict, object]:
+def _order_payload(
+    D: int, method: str, digits: int | None, kernel: bool, known: dict, group=None
+) -> tuple[dict, object]:
     """The keys shared by ``group`` and ``class-number``: the order, units, formula, kernel."""
     from ..classgroups.orders import order_class_number, projection_kernel_structure
     from ..core.quadratic_orders import Order
 
     order = Order(D)
     out: dict = {"order": order.to_dict()}
-    formula = order_class_number(
-        D, method, summaries={D: known} if "fundamental_unit_norm" in known else None
-    )
+    keys = ("class_number", "class_number_narrow", "method", "certified", "assumption", "bound")
+    summary = {k: known[k] for k in keys}
+    summary["detail"] = known.get("detail") or ""
+    if D > 0:
+        summary.update(regulator=known["regulator"], fundamental_unit_norm=known["fundamental_unit_norm"])
+    formula = order_class_number(D, method, summaries={D: summary})
     out["class_number_formula"] = {
         k: v
         for k, v in formula.to_dict().items()
@@ -66,7 +71,7 @@ def _order_payload(D: int, method: str, digits: int | None, kernel: bool, known:
         out["regulator_text"] = mpmath.nstr(order.regulator(digits or 15), digits or 15)
     out["kernel"] = None
     if kernel and order.conductor > 1:
-        out["kernel"] = projection_kernel_structure(D, method).to_dict()
+        out["kernel"] = projection_kernel_structure(D, method, group=group).to_dict()
     return out, formula
 
 
@@ -125,9 +130,10 @@ def _cmd_group(args: argparse.Namespace) -> int:
     D = discriminant_of(args)
     G = class_group(D, method=args.method)
     payload = G.to_dict()
-    extra, _formula = _order_payload(D, args.method, _digits(args), kernel=True, known=payload)
+    known = dict(payload, detail=G.provenance.detail)
+    extra, _formula = _order_payload(D, args.method, _digits(args), kernel=True, known=known, group=G)
     payload.update(extra)
-    wide = ideal_class_group(D, args.method) if D > 0 else None
+    wide = ideal_class_group(D, args.method, group=G) if D > 0 else None
     payload["ideal_class_group"] = (
         wide.to_dict()
         if wide is not None
