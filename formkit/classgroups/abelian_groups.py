@@ -12,7 +12,8 @@ values).
   orders ``ℓ^{c_1} ≤ … ≤ ℓ^{c_r}``, enlarged one element at a time: the element's
   relation ``z^{ℓ^j} = ∏ b_i^{d_i}`` (``j`` minimal) comes from an ℓ-adic discrete
   logarithm (Pohlig–Hellman digit by digit, the digits read off in the ℓ-torsion by a
-  table or baby-step giant-step) and a Smith normal form (sympy) of the relation matrix
+  table or baby-step giant-step) and a Smith normal form
+  (:func:`formkit.core.lattice.lattice_quotient`) of the relation matrix
   gives the new basis (Cohen GTM 138, §2.4.3 and §5.5; Teske, "A space efficient
   algorithm for group structure computation", Math. Comp. 67 (1998)).
 * :class:`_Structure`: the Sylow bases put together: invariant factors, generators of
@@ -31,6 +32,7 @@ from __future__ import annotations
 import math
 
 from ..core.arith import factorint, invert, isqrt
+from ..core.lattice import lattice_quotient
 from ..core.modular_roots import crt
 from ..errors import FormkitError
 
@@ -190,9 +192,6 @@ class _Sylow:
 
     def add(self, z: Triple) -> bool:
         """Enlarge the subgroup by ``z`` (of ℓ-power order); True if it grew."""
-        from sympy import Matrix
-        from sympy.matrices.normalforms import smith_normal_decomp
-
         ops, ell = self.ops, self.ell
         a = self.log_order(z)
         if a == 0:
@@ -221,16 +220,12 @@ class _Sylow:
         orders = [ell**c for c in self.exps] + [ell**a]
         rows = [[orders[i] if col == i else 0 for col in range(k + 1)] for i in range(k)]
         rows.append([-v for v in d_hi] + [ell**j])
-        S, _U, V = smith_normal_decomp(Matrix(rows))
-        Vinv = V.inv()
+        quotient = lattice_quotient(rows, ncols=k + 1)
         new_basis, new_exps = [], []
-        for col in range(k + 1):
-            n = abs(int(S[col, col]))
-            if n <= 1:
-                continue
+        for n, vec in zip(quotient.invariants, quotient.generators):
             y = ops.one
             for i in range(k + 1):
-                ex = int(Vinv[col, i]) % orders[i]
+                ex = vec[i] % orders[i]
                 if ex:
                     y = ops.mul(y, ops.pow(gens[i], ex))
             c = round(math.log(n, ell))

@@ -4,7 +4,7 @@ Starting from prime forms of small primes, then any class not yet reached, the g
 built one generator at a time; the new generator ``g`` contributes the relation
 ``g^m = (a product of earlier generators)`` with ``m`` minimal, and every class gets its
 exponent vector on those generators.  A Smith normal form ``U·R·V = diag(n_i)`` of the
-relation matrix ``R`` (sympy's ``smith_normal_decomp``) then gives the invariant factors,
+relation matrix ``R`` (:func:`formkit.core.lattice.lattice_quotient`) then gives the invariant factors,
 generators of exactly those orders and the discrete logarithm of every class (Cohen GTM
 138, §2.4.3 and §5.5).  Used by :func:`formkit.classgroups.dispatch.class_group` for enumerated
 groups; the results are unconditional.
@@ -23,6 +23,7 @@ from ..core.arith import isqrt, kronecker
 from ..core.composition import _compose_raw
 from ..core.enumeration import _cycles_cached, _reduced_forms_cached
 from ..core.forms import Form
+from ..core.lattice import lattice_quotient
 from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
 from ..errors import FormkitError
 from .group import ENUMERATED, ClassGroup, Triple
@@ -70,9 +71,6 @@ def _candidate_generators(
 def _structure_from_table(
     D: int, forms: Sequence[Triple], canon: Callable[[Triple], Triple], identity: Triple
 ) -> tuple[tuple[int, ...], tuple[Triple, ...], Callable[[Triple], tuple[int, ...]]]:
-    from sympy import Matrix
-    from sympy.matrices.normalforms import smith_normal_decomp
-
     h = len(forms)
 
     def mul(x: Triple, y: Triple) -> Triple:
@@ -106,12 +104,10 @@ def _structure_from_table(
     k = len(gens)
     if k == 0:
         return (), (), lambda x: ()
-    R = Matrix(rels)
-    S, _U, V = smith_normal_decomp(R)
-    diag = [int(S[i, i]) for i in range(k)]
-    Vinv = V.inv()
-    keep = [i for i in range(k) if abs(diag[i]) > 1]
-    invariants = tuple(abs(diag[i]) for i in keep)
+    quotient = lattice_quotient(rels, ncols=k)
+    invariants = quotient.invariants
+    if quotient.order != h or not quotient.is_finite:  # pragma: no cover - internal check
+        raise ArithmeticError(f"structure of Cl({D}): the relations give order {quotient.order}, not {h}")
 
     def power(x: Triple, e: int) -> Triple:
         if e < 0:
@@ -128,18 +124,15 @@ def _structure_from_table(
         return result
 
     new_gens = []
-    for j in keep:
+    for vec in quotient.generators:
         y = identity
         for i in range(k):
-            e = int(Vinv[j, i])
-            if e:
-                y = mul(y, power(gens[i], e))
+            if vec[i]:
+                y = mul(y, power(gens[i], vec[i]))
         new_gens.append(y)
-    Vint = [[int(V[i, j]) for j in range(k)] for i in range(k)]
 
     def dlog(x: Triple) -> tuple[int, ...]:
-        v = table[x]
-        return tuple(sum(v[i] * Vint[i][j] for i in range(k)) % invariants[t] for t, j in enumerate(keep))
+        return quotient.coordinates(table[x])
 
     return invariants, tuple(new_gens), dlog
 

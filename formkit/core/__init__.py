@@ -18,9 +18,12 @@
 * :mod:`~formkit.core.composition` — Dirichlet composition, NUCOMP and NUDUPL;
 * :mod:`~formkit.core.enumeration` — all reduced forms of D, class numbers by listing, the
   reduced prime forms of the small primes;
-* :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime.
+* :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime;
+* :mod:`~formkit.core.lattice` — Hermite and Smith normal forms with transformations and
+  quotients Zⁿ/L of integer lattices (python-flint's integer matrices).
 
-This layer imports nothing from formkit but :mod:`formkit.errors`.  The names below are
+This layer imports nothing from formkit but :mod:`formkit.errors` (and, from outside,
+gmpy2, sympy and python-flint for arithmetic).  The names below are
 re-exported by :mod:`formkit`; the integer backend, the parser and the raw reduction
 loops are used by every layer but are not part of the top-level API.
 """
@@ -37,6 +40,8 @@ from .forms import *  # noqa: F403
 from .forms import __all__ as _forms_all
 from .ideals import *  # noqa: F403
 from .ideals import __all__ as _ideals_all
+from .lattice import *  # noqa: F403
+from .lattice import __all__ as _lattice_all
 from .polynomials_mod_p import *  # noqa: F403
 from .polynomials_mod_p import __all__ as _polynomials_all
 from .principal_ideals import *  # noqa: F403
@@ -60,4 +65,5 @@ __all__ = [
     *_quadratic_orders_all,
     *_ideals_all,
     *_principal_ideals_all,
+    *_lattice_all,
 ]
