@@ -18,6 +18,8 @@ __all__ = [
     "DiscriminantMismatchError",
     "NotPrimeError",
     "MatrixError",
+    "NotInOrderError",
+    "NotInvertibleIdealError",
 ]
 
 
@@ -55,3 +57,11 @@ class NotPrimeError(FormkitError):
 
 class MatrixError(FormkitError):
     """A matrix is not in the group required (SL2(Z) or GL2(Z))."""
+
+
+class NotInOrderError(FormkitError):
+    """A number of the field is not an element of the order asked for."""
+
+
+class NotInvertibleIdealError(FormkitError):
+    """An ideal of a non-maximal order is not invertible (not proper), or is the zero ideal."""

@@ -79,7 +79,7 @@ def class_number_dirichlet(D: object) -> int:
 
     For ``D < 0`` this is the number of classes of primitive positive definite forms;
     for ``D > 0`` it is the *wide* class number (compare with
-    ``class_group(D).class_number_wide``).
+    ``class_group(D).class_number``, the number of ideal classes).
 
     Raises
     ------

@@ -70,7 +70,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     >>> G.order, G.invariants, G.structure
     (4, (4,), 'C4')
     >>> H = class_group(4 * 79)
-    >>> H.order, H.class_number_wide, H.invariants
+    >>> H.class_number_narrow, H.class_number, H.invariants
     (6, 3, (6,))
     """
     D = validate_discriminant(D)
@@ -121,8 +121,9 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     Returns
     -------
     dict
-        ``discriminant``, ``class_number`` (narrow for ``D > 0``) and, for ``D > 0``,
-        ``class_number_wide``, ``regulator`` (float) and ``fundamental_unit_norm``; then
+        ``discriminant``, ``class_number`` (``h``: ideal classes of the order),
+        ``class_number_narrow`` (``h⁺``: forms up to proper equivalence; ``= h`` for
+        ``D < 0``) and, for ``D > 0``, ``regulator`` (float) and ``fundamental_unit_norm``; then
         ``method``, ``certified``, ``assumption``, ``bound`` and ``detail`` saying how
         the result was obtained.
 
@@ -136,7 +137,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     Examples
     --------
     >>> r = class_number_summary(4 * 79)
-    >>> r["class_number"], r["class_number_wide"], r["fundamental_unit_norm"], r["method"]
+    >>> r["class_number_narrow"], r["class_number"], r["fundamental_unit_norm"], r["method"]
     (6, 3, 1, 'enumeration')
     >>> class_number_summary(-23)["class_number"]
     3
@@ -151,18 +152,17 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
         out = {
             "discriminant": D,
             "class_number": r.class_number,
-            "class_number_wide": r.class_number_wide,
+            "class_number_narrow": r.class_number_narrow,
             "regulator": r.regulator,
             "fundamental_unit_norm": r.unit_norm,
         }
         out.update(r.provenance.to_dict())
     else:
         G = class_group(D, method)
-        out = {"discriminant": D, "class_number": G.order}
+        out = {"discriminant": D, "class_number": G.class_number, "class_number_narrow": G.order}
         if D > 0:
             full = G.to_dict()
             out.update(
-                class_number_wide=full["class_number_wide"],
                 regulator=full["regulator"],
                 fundamental_unit_norm=full["fundamental_unit_norm"],
             )

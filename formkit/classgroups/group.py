@@ -203,8 +203,10 @@ def _gcd(a: int, b: int) -> int:
 class ClassGroup:
     """The class group ``Cl(D)`` with its structure and how it was obtained.
 
-    Obtain one with :func:`class_group`.  ``len(G)`` and ``G.order`` are the class
-    number (narrow for ``D > 0``); ``G.invariants`` are ``n1 | n2 | …``;
+    Obtain one with :func:`class_group`.  ``len(G)`` and ``G.order`` are the order of
+    the group: for ``D > 0`` this is the *narrow* class group (forms up to proper
+    equivalence, ``G.class_number_narrow = h⁺``), and ``G.class_number`` is the class
+    number ``h`` of ideal classes of the order; ``G.invariants`` are ``n1 | n2 | …``;
     ``G.generators`` have exactly those orders; ``G.discrete_log(x)`` gives the
     exponents of ``x`` on them; ``G.provenance`` says how the result was obtained.
 
@@ -268,13 +270,13 @@ class ClassGroup:
 
     @property
     def order(self) -> int:
-        """The class number (narrow for D > 0)."""
+        """The order of this group: the narrow class number ``h⁺`` for D > 0 (``h`` for D < 0)."""
         n = 1
         for k in self._invariants:
             n *= k
         return n
 
-    class_number = order
+    class_number_narrow = order
 
     def __len__(self) -> int:
         return self.order
@@ -440,13 +442,20 @@ class ClassGroup:
 
     # -- real quadratic extras ---------------------------------------------------
     @property
-    def class_number_wide(self) -> int:
-        """For D > 0: classes up to a unit of norm −1 (``h⁺`` if N(ε) = −1, else ``h⁺/2``);
-        for D < 0 the class number itself."""
+    def class_number(self) -> int:
+        """The class number ``h``: ideal classes of the order (invertible ideals modulo principal ideals).
+
+        For D < 0 this is the order of the group.  For D > 0 the group is the narrow one
+        (forms up to proper equivalence, ``h⁺ = order``) and ``h = h⁺`` if the fundamental
+        unit has norm −1, else ``h⁺/2``.
+        """
         if self._D < 0:
             return self.order
         norm = self._units[1] if self._units is not None else fundamental_unit(self._D).norm
         return self.order if norm == -1 else self.order // 2
+
+    #: The older name of :attr:`class_number` (``h``), kept for existing code.
+    class_number_wide = class_number
 
     # -- output --------------------------------------------------------------------
     def to_dict(self) -> dict:
@@ -456,7 +465,8 @@ class ClassGroup:
             "discriminant": self._D,
             "fundamental_discriminant": d_K,
             "conductor": f,
-            "class_number": self.order,
+            "class_number": self.class_number,
+            "class_number_narrow": self.order,
             "invariants": list(self._invariants),
             "generators": [list(g) for g in self._generators],
             "forms": [list(g) for g in self._forms] if self._forms is not None else None,
@@ -466,26 +476,32 @@ class ClassGroup:
             "bound": self._provenance.bound,
         }
         if self._D > 0 and self._units is not None and self._units[0] > 2000:  # the unit has > 860 digits
-            out["class_number_wide"] = self.class_number_wide
             out["regulator"] = self._units[0]
             out["fundamental_unit"] = None
             out["fundamental_unit_norm"] = self._units[1]
         elif self._D > 0:
             unit = fundamental_unit(self._D)
-            out["class_number_wide"] = self.class_number_wide
             out["regulator"] = float(unit.regulator(20))
             out["fundamental_unit"] = [unit.t, unit.u]
             out["fundamental_unit_norm"] = unit.norm
         return out
 
     def __repr__(self) -> str:
-        kind = "narrow class group" if self._D > 0 else "class group"
-        return f"<{kind} Cl({self._D}) ≅ {self.structure}, h = {self.order}; {self._provenance}>"
+        if self._D > 0:
+            return (
+                f"<narrow class group Cl⁺({self._D}) ≅ {self.structure} (forms up to proper equivalence), "
+                f"h⁺ = {self.order}, h = {self.class_number}; {self._provenance}>"
+            )
+        return f"<class group Cl({self._D}) ≅ {self.structure}, h = {self.order}; {self._provenance}>"
 
     def _repr_latex_(self) -> str:
         parts = r" \times ".join(rf"\mathbb{{Z}}/{n}\mathbb{{Z}}" for n in self._invariants) or "1"
-        sup = "^{+}" if self._D > 0 else ""
-        return rf"$\mathrm{{Cl}}{sup}({self._D}) \cong {parts}$"
+        if self._D > 0:
+            return (
+                rf"$\mathrm{{Cl}}^{{+}}({self._D}) \cong {parts},\ h^{{+}} = {self.order},\ h = {self.class_number}$"
+                rf" (narrow: forms up to proper equivalence; {self._provenance})"
+            )
+        return rf"$\mathrm{{Cl}}({self._D}) \cong {parts},\ h = {self.order}$ ({self._provenance})"
 
     def __eq__(self, other: object) -> bool:
         if isinstance(other, ClassGroup):

@@ -294,14 +294,15 @@ def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
 class RealClassNumber:
     """Narrow and wide class numbers and regulator of the order of discriminant ``D > 0``.
 
-    Attributes: ``discriminant``, ``class_number`` (narrow, ``h⁺``),
-    ``class_number_wide`` (``h``), ``regulator`` (float), ``unit_norm`` (``N(ε) = ±1``),
+    Attributes: ``discriminant``, ``class_number_narrow`` (``h⁺``, forms up to proper
+    equivalence), ``class_number`` (``h``, ideal classes of the order; also under its older
+    name ``class_number_wide``), ``regulator`` (float), ``unit_norm`` (``N(ε) = ±1``),
     ``provenance`` (:class:`formkit.classgroups.group.Provenance`), ``statistics``.
     """
 
     __slots__ = (
         "class_number",
-        "class_number_wide",
+        "class_number_narrow",
         "discriminant",
         "provenance",
         "regulator",
@@ -311,30 +312,41 @@ class RealClassNumber:
 
     def __init__(self, D, narrow, wide, R, norm, provenance, statistics) -> None:
         self.discriminant = D
-        self.class_number = narrow
-        self.class_number_wide = wide
+        self.class_number_narrow = narrow
+        self.class_number = wide
         self.regulator = R
         self.unit_norm = norm
         self.provenance = provenance
         self.statistics = statistics
 
+    @property
+    def class_number_wide(self) -> int:
+        """The older name of :attr:`class_number` (``h``)."""
+        return self.class_number
+
     def to_dict(self) -> dict:
-        """JSON-ready dictionary."""
-        out = {k: getattr(self, k) for k in self.__slots__[:5]}
+        """JSON-ready dictionary (``class_number`` is ``h``, ``class_number_narrow`` is ``h⁺``)."""
+        out = {
+            "discriminant": self.discriminant,
+            "class_number": self.class_number,
+            "class_number_narrow": self.class_number_narrow,
+            "regulator": self.regulator,
+            "unit_norm": self.unit_norm,
+        }
         out.update(self.provenance.to_dict())
         return out
 
     def _repr_latex_(self) -> str:
         D = self.discriminant
         return (
-            rf"$h^{{+}}({D}) = {self.class_number},\ h({D}) = {self.class_number_wide},\ "
+            rf"$h^{{+}}({D}) = {self.class_number_narrow},\ h({D}) = {self.class_number},\ "
             rf"R({D}) \approx {self.regulator:.10g},\ N(\varepsilon) = {self.unit_norm:+d}$"
         )
 
     def __repr__(self) -> str:
         return (
-            f"RealClassNumber(D={self.discriminant}, narrow={self.class_number}, "
-            f"wide={self.class_number_wide}, regulator={self.regulator:.10g}, "
+            f"RealClassNumber(D={self.discriminant}, h⁺={self.class_number_narrow} (narrow), "
+            f"h={self.class_number} (ideal classes), regulator={self.regulator:.10g}, "
             f"unit_norm={self.unit_norm:+d}; {self.provenance})"
         )
 
@@ -389,7 +401,7 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     Examples
     --------
     >>> r = real_class_number(4 * 79)          # h⁺(316) = 6, h = 3 (enumeration, formkit)
-    >>> r.class_number, r.class_number_wide, r.unit_norm, r.provenance.assumption
+    >>> r.class_number_narrow, r.class_number, r.unit_norm, r.provenance.assumption
     (6, 3, 1, 'GRH')
     >>> round(r.regulator, 6) == round(float(__import__("formkit").regulator(316)), 6)
     True
@@ -585,7 +597,7 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
     r = real_class_number(D, prime_bound=prime_bound)
     D = r.discriminant
     f = discriminant_parts(D)[1]
-    narrow = r.class_number
+    narrow = r.class_number_narrow
     ops = _NarrowOps(D, r.statistics)
     genera = genus_count(D)
     try:
@@ -601,7 +613,7 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
         raise FormkitError(
             f"the cycles of reduced forms of D = {D} are longer than {CYCLE_LIMIT} forms "
             f"(regulator {r.regulator:.6g}), too long for the class group structure here; "
-            f"h⁺ = {narrow}, h = {r.class_number_wide} and R come from real_class_number "
+            f"h⁺ = {narrow}, h = {r.class_number} and R come from real_class_number "
             f"('formkit class-number {D}')"
         ) from None
 

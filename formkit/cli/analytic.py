@@ -5,6 +5,7 @@ from __future__ import annotations
 import argparse
 
 from ..core.parse import parse_integer
+from ..core.quadratic_orders import parse_discriminant
 
 
 def _digits(args: argparse.Namespace) -> int:
@@ -42,7 +43,7 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     from ..classgroups.class_series import class_character_l_series, genus_character_l_series
     from .conventions import CommandError, emit
 
-    D = parse_integer(args.discriminant, "discriminant")
+    D = parse_discriminant(args.discriminant, "discriminant")
     digits = _digits(args)
     chosen = [x for x in (args.class_character, args.genus, args.field_zeta or None) if x is not None]
     if len(chosen) > 1:
@@ -83,7 +84,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
 
     digits = _digits(args)
     if args.classes or args.chowla_selberg:
-        D = parse_integer(args.target, "D")
+        D = parse_discriminant(args.target, "D")
         if args.chowla_selberg:
             if args.s is not None:
                 raise CommandError("--chowla-selberg takes no S")
@@ -198,7 +199,7 @@ def _cmd_critical_line(args: argparse.Namespace) -> int:
     from ..analytic.l_series import critical_line_samples
     from .conventions import CommandError, emit
 
-    D = parse_integer(args.discriminant, "D")
+    D = parse_discriminant(args.discriminant, "D")
     points = parse_integer(args.points, "--points")
     c = critical_line_samples(D, args.height, points=points, digits=_digits(args))
     if args.output:

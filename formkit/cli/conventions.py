@@ -15,9 +15,29 @@ import sys
 from collections.abc import Callable
 from typing import Any
 
+from ..core.parse import MAX_INTEGER_BITS
 from ..errors import FormkitError
 
-__all__ = ["CommandError", "emit"]
+__all__ = [
+    "CommandError",
+    "emit",
+    "integer_type",
+    "add_discriminant_argument",
+    "discriminant_of",
+    "NUMBER_SYNTAX",
+]
+
+#: One paragraph on how numbers and discriminants are written, shown by ``formkit --help``.
+NUMBER_SYNTAX = (
+    "Numbers: every integer argument is an expression of decimal integers with + - * ^ and "
+    "parentheses (** is the same as ^; ^ binds tightest and to the right, so -3^2 = -9 and "
+    "2^3^2 = 2^9; no decimal points, no e-notation), such as -4*3*10^2, 10^12+1 or -(10^40+27); "
+    f"results over {MAX_INTEGER_BITS} bits (about {MAX_INTEGER_BITS * 3 // 10} digits) are refused "
+    "before they are computed. Discriminants may also be "
+    "written as a field, Q(sqrt(m)) or Q(√m) with m square-free (its maximal order), and "
+    "'Q(sqrt(m)), f=F' or the option --conductor F gives the order of conductor F in that field "
+    "(beside a fundamental discriminant too: -3 --conductor 6 is D = -108)."
+)
 
 
 class CommandError(FormkitError):
@@ -30,6 +50,48 @@ class _Parser(argparse.ArgumentParser):
     def error(self, message: str) -> None:  # type: ignore[override]
         sys.stderr.write(f"formkit: error: {message}\n")
         raise SystemExit(2)
+
+
+def integer_type(name: str, minimum: int | None = None) -> Callable[[str], int]:
+    """An argparse ``type=`` reading the number syntax of :func:`formkit.core.parse.parse_integer`."""
+
+    def convert(text: str) -> int:
+        from ..core.parse import parse_integer
+
+        try:
+            value = parse_integer(text, name)
+        except FormkitError as exc:  # reported by argparse as one line, exit 2
+            raise argparse.ArgumentTypeError(str(exc)) from None
+        if minimum is not None and value < minimum:
+            raise argparse.ArgumentTypeError(f"{name} must be at least {minimum}, not {value}")
+        return value
+
+    convert.__name__ = name
+    return convert
+
+
+def add_discriminant_argument(
+    parser: argparse.ArgumentParser, help: str, *, metavar: str | None = None
+) -> None:
+    """The positional ``discriminant`` (numbers, fields ``Q(sqrt(m))``, ``, f=F``) and ``--conductor F``."""
+    parser.add_argument(
+        "discriminant",
+        metavar=metavar,
+        help=help + "; or a field Q(sqrt(m)) / Q(√m), optionally with ', f=F' (see formkit --help)",
+    )
+    parser.add_argument(
+        "--conductor",
+        metavar="F",
+        default=None,
+        help="the order of conductor F in the field (or beside the fundamental discriminant) given",
+    )
+
+
+def discriminant_of(args: argparse.Namespace, name: str = "discriminant") -> int:
+    """The discriminant of ``args.discriminant`` and ``args.conductor`` (one parser for every command)."""
+    from ..core.quadratic_orders import parse_discriminant
+
+    return parse_discriminant(args.discriminant, name, conductor=getattr(args, "conductor", None))
 
 
 def emit(args: argparse.Namespace, payload: dict, human: Callable[[], str] | str) -> None:

@@ -18,7 +18,7 @@ import sys
 from collections.abc import Sequence
 
 from ..errors import FormkitError
-from .conventions import _Parser
+from .conventions import NUMBER_SYNTAX, _Parser
 
 __all__ = ["main", "build_parser"]
 
@@ -36,15 +36,15 @@ def build_parser() -> argparse.ArgumentParser:
             "Binary quadratic forms ax^2+bxy+cy^2: reduction, equivalence, class groups, genera, "
             "representations and prime criteria. Forms are written a,b,c or [a,b,c] or as "
             "polynomials such as '3x^2 + 7xy - 5y^2'; negative numbers and forms may be given "
-            "directly (formkit group -23)."
+            "directly (formkit group -23). " + NUMBER_SYNTAX
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     # the modules providing commands, in the order they appear in ``formkit --help``
-    from . import analytic, explain, forms, graph, groups, primes, represent, table
+    from . import analytic, explain, forms, graph, groups, ideals, primes, represent, table
 
-    for module in (forms, groups, explain, primes, table, graph, represent, analytic):
+    for module in (forms, groups, ideals, explain, primes, table, graph, represent, analytic):
         module.register(sub, parent)
     return parser
 

@@ -7,6 +7,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
+from .conventions import add_discriminant_argument
 
 _FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
 
@@ -72,8 +73,9 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
 def _cmd_group(args: argparse.Namespace) -> int:
     from ..explain.class_group import worked_class_group
+    from .conventions import discriminant_of
 
-    D = parse_integer(args.discriminant, "discriminant")
+    D = discriminant_of(args)
     return _emit_example(args, worked_class_group(D, max_classes=args.max_classes))
 
 
@@ -188,7 +190,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit explain group -84\n  formkit explain group -4004 --format tex -o cl4004.tex",
         formatter_class=raw,
     )
-    g.add_argument("discriminant", metavar="D", help="the discriminant (e.g. -84, 316)")
+    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)", metavar="D")
     g.add_argument(
         "--max-classes",
         type=_positive_int,

@@ -7,6 +7,7 @@ import argparse
 from ..core.equivalence import equivalence
 from ..core.forms import as_form
 from ..core.reduction import _cycle_prefix, reduce_form
+from .conventions import integer_type
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -100,7 +101,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
     p.add_argument(
         "--cycle-limit",
-        type=int,
+        type=integer_type("--cycle-limit", 0),
         default=CYCLE_LIMIT,
         metavar="N",
         help=f"list at most N forms of the cycle of an indefinite form (default {CYCLE_LIMIT}; 0 = all); "
@@ -124,7 +125,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     q.add_argument("second", metavar="G", help="second form")
     q.add_argument(
         "--max-steps",
-        type=int,
+        type=integer_type("--max-steps", 1),
         default=MAX_CYCLE_STEPS,
         metavar="N",
         help=f"indefinite forms: give up after N steps along a cycle (default {MAX_CYCLE_STEPS:,})",

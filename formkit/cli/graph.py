@@ -52,9 +52,9 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         graph_to_graphml,
         graph_to_json,
     )
-    from .conventions import CommandError, emit
+    from .conventions import CommandError, discriminant_of, emit
 
-    D = validate_discriminant(parse_integer(args.discriminant, "discriminant"))
+    D = validate_discriminant(discriminant_of(args))
     fmt = _format_of(args)
     if fmt not in TEXT_FORMATS and not args.output:
         raise CommandError(f"--format {fmt} writes a picture: give a file with --output FILE.{fmt}")
@@ -151,8 +151,10 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument(
-        "discriminant", metavar="D", help="a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4"
+    from .conventions import add_discriminant_argument
+
+    add_discriminant_argument(
+        p, "a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4", metavar="D"
     )
     which = p.add_mutually_exclusive_group()
     which.add_argument(

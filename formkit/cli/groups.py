@@ -8,43 +8,162 @@ from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
+from .conventions import add_discriminant_argument, discriminant_of, integer_type
+
+#: Beyond this |D| the ``class-number`` command does not compute the kernel of Cl(O) → Cl(O_K)
+#: (it needs the group structure; ``formkit group`` computes it).
+_KERNEL_LIMIT = 10**10
+
+
+def _order_lines(D: int) -> list[str]:
+    from ..core.quadratic_orders import Order
+
+    order = Order(D)
+    if order.is_maximal:
+        return [
+            f"order: {order.ring_text}, the maximal order of {order.field_text}; discriminant {D} (fundamental)"
+        ]
+    return [
+        f"order: {order.ring_text}, of conductor f = {order.conductor} in {order.field_text}; discriminant "
+        f"{D} = {order.conductor}^2 * ({order.fundamental_discriminant})"
+    ]
+
+
+def _order_payload(
+    D: int, method: str, digits: int | None, kernel: bool, known: dict, group=None
+) -> tuple[dict, object]:
+    """The keys shared by ``group`` and ``class-number``: the order, units, formula, kernel."""
+    from ..classgroups.orders import order_class_number, projection_kernel_structure
+    from ..core.quadratic_orders import Order
+
+    order = Order(D)
+    out: dict = {"order": order.to_dict()}
+    keys = ("class_number", "class_number_narrow", "method", "certified", "assumption", "bound")
+    summary = {k: known[k] for k in keys}
+    summary["detail"] = known.get("detail") or ""
+    if D > 0:
+        summary.update(regulator=known["regulator"], fundamental_unit_norm=known["fundamental_unit_norm"])
+    formula = order_class_number(D, method, summaries={D: summary})
+    out["class_number_formula"] = {
+        k: v
+        for k, v in formula.to_dict().items()
+        if k
+        in (
+            "field_class_number",
+            "field_class_number_narrow",
+            "unit_index",
+            "euler_factors",
+            "formula",
+            "class_number",
+        )
+    }
+    out["unit_count"] = order.unit_count if D < 0 else None
+    out["fundamental_unit_text"] = None
+    out["fundamental_unit_basis"] = None
+    out["regulator_text"] = None
+    # the unit is written out when the group's own output does so, or (class-number) when R < 2000
+    unit_known = known.get("fundamental_unit") is not None if "fundamental_unit" in known else True
+    if D > 0 and unit_known and known["regulator"] < 2000:
+        out["fundamental_unit_text"] = order.fundamental_unit_text()
+        out["fundamental_unit_basis"] = list(order.fundamental_unit_basis())
+        import mpmath
+
+        out["regulator_text"] = mpmath.nstr(order.regulator(digits or 15), digits or 15)
+    out["kernel"] = None
+    if kernel and order.conductor > 1:
+        out["kernel"] = projection_kernel_structure(D, method, group=group).to_dict()
+    return out, formula
+
+
+def _unit_lines(D: int, payload: dict, digits: int | None) -> list[str]:
+    lines = []
+    if D < 0:
+        lines.append(f"units: the {payload['unit_count']} roots of unity")
+        return lines
+    norm = payload["fundamental_unit_norm"]
+    if payload["fundamental_unit_text"] is not None:
+        lines.append(f"fundamental unit: ε = {payload['fundamental_unit_text']}, norm N(ε) = {norm:+d}")
+        lines.append(f"regulator: R = log ε = {payload['regulator_text']}")
+    else:
+        lines.append(
+            f"fundamental unit: norm {norm:+d}, not written out (about {payload['regulator'] / 2.302585092994046:.3g} digits)"
+        )
+        lines.append(f"regulator: R = {payload['regulator']:.15g} (double precision)")
+    return lines
+
+
+def _formula_lines(D: int, payload: dict) -> list[str]:
+    cf = payload["class_number_formula"]
+    lines = []
+    if payload["order"]["conductor"] > 1:
+        lines.append(f"class number formula: {cf['formula']}")
+        ups = ", ".join(
+            f"p = {e['p']}: χ(p) = {e['kronecker_symbol']}, factor {e['factor']}" for e in cf["euler_factors"]
+        )
+        lines.append(
+            f"  factors: h(O_K) = {cf['field_class_number']}, f = {payload['order']['conductor']}, "
+            f"[O_K* : O*] = {cf['unit_index']}; {ups}"
+        )
+    k = payload.get("kernel")
+    if k is not None:
+        inv = " x ".join(f"C{n}" for n in k["invariants"]) or "C1"
+        lines.append(
+            f"kernel of Cl(O) → Cl(O_K) (forms up to proper equivalence): {inv}, {k['order']} "
+            f"class{'es' if k['order'] != 1 else ''}"
+            + (f": {', '.join(str(x) for x in k['elements'])}" if k["elements"] is not None else "")
+        )
+        if D > 0 and k["wide_order"] != k["order"]:
+            winv = " x ".join(f"C{n}" for n in k["wide_invariants"]) or "C1"
+            lines.append(f"kernel on ideal classes: {winv}, {k['wide_order']} classes")
+    return lines
+
+
+def _digits(args: argparse.Namespace) -> int | None:
+    d = getattr(args, "digits", None)
+    return d
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
+    from ..classgroups.orders import ideal_class_group
     from .conventions import emit
 
-    D = parse_integer(args.discriminant, "discriminant")
-    if args.max_rows < 0:
-        from .conventions import CommandError
-
-        raise CommandError(f"--max-rows must be >= 0, not {args.max_rows}")
+    D = discriminant_of(args)
     G = class_group(D, method=args.method)
     payload = G.to_dict()
+    known = dict(payload, detail=G.provenance.detail)
+    extra, _formula = _order_payload(D, args.method, _digits(args), kernel=True, known=known, group=G)
+    payload.update(extra)
+    wide = ideal_class_group(D, args.method, group=G) if D > 0 else None
+    payload["ideal_class_group"] = (
+        wide.to_dict()
+        if wide is not None
+        else {
+            "class_number": G.order,
+            "invariants": list(G.invariants),
+            "generators": [g.form.to_list() for g in G.generators],
+        }
+    )
 
     def human() -> str:
         prov = G.provenance
-        lines = [
-            f"discriminant {G.discriminant} = {G.conductor}^2 * {G.fundamental_discriminant}"
-            if G.conductor > 1
-            else f"discriminant {G.discriminant} (fundamental)",
-            f"{'narrow class group' if G.is_narrow else 'class group'}: {G.structure}   (order {G.order})",
-        ]
-        if G.discriminant > 0:
-            lines.append(f"class number, wide sense: {payload['class_number_wide']}")
-            if payload["fundamental_unit"] is None:
-                lines.append(
-                    f"fundamental unit: norm {payload['fundamental_unit_norm']:+d}, not written out "
-                    f"(about {payload['regulator'] / 2.302585092994046:.3g} digits)"
-                )
-            else:
-                t, u = payload["fundamental_unit"]
-                lines.append(
-                    f"fundamental unit: ({t} + {u}*sqrt({G.discriminant}))/2, "
-                    f"norm {payload['fundamental_unit_norm']:+d}"
-                )
-            lines.append(f"regulator: {payload['regulator']:.15g}")
+        lines = _order_lines(D)
+        if D > 0:
+            lines.append(
+                f"narrow class group Cl+(O) (forms up to proper equivalence): {G.structure}; "
+                f"narrow class number h+ = {G.order}"
+            )
+            lines.append(
+                f"class group Cl(O) (ideal classes of the order): {wide.structure}; class number h = {wide.class_number}"  # type: ignore[union-attr]
+            )
+        else:
+            lines.append(
+                f"class group Cl(O) (ideal classes of the order = proper classes of positive definite forms): "
+                f"{G.structure}; class number h = {G.order}"
+            )
+        lines += _unit_lines(D, payload, _digits(args))
+        lines += _formula_lines(D, payload)
         lines.append(
-            "generators: "
+            ("generators of Cl+(O): " if D > 0 else "generators: ")
             + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants))
             if G.invariants
             else "generators: none (trivial group)"
@@ -69,20 +188,31 @@ def _cmd_group(args: argparse.Namespace) -> int:
 def _cmd_class_number(args: argparse.Namespace) -> int:
     from .conventions import emit
 
-    D = parse_integer(args.discriminant, "discriminant")
+    D = discriminant_of(args)
     payload = class_number_summary(D, method=args.method, interval=args.interval)
+    extra, _formula = _order_payload(
+        D, args.method, _digits(args), kernel=abs(D) <= _KERNEL_LIMIT, known=payload
+    )
+    payload.update(extra)
 
     def human() -> str:
-        lines = [f"discriminant {payload['discriminant']}"]
-        if payload["discriminant"] > 0:
+        lines = _order_lines(D)
+        if D > 0:
             lines += [
-                f"narrow class number h+: {payload['class_number']}",
-                f"class number h (wide sense): {payload['class_number_wide']}",
-                f"regulator: {payload['regulator']:.15g}",
-                f"norm of the fundamental unit: {payload['fundamental_unit_norm']:+d}",
+                f"narrow class number h+ (forms up to proper equivalence): {payload['class_number_narrow']}",
+                f"class number h (ideal classes of the order): {payload['class_number']}",
             ]
         else:
-            lines.append(f"class number: {payload['class_number']}")
+            lines.append(
+                f"class number h (ideal classes of the order = proper classes of positive definite forms): "
+                f"{payload['class_number']}"
+            )
+        lines += _unit_lines(D, payload, _digits(args))
+        lines += _formula_lines(D, payload)
+        if payload["order"]["conductor"] > 1 and payload["kernel"] is None:
+            lines.append(
+                "kernel of Cl(O) → Cl(O_K): not computed beyond |D| = 10^10 here (formkit group computes it)"
+            )
         how = "unconditional" if payload["certified"] else f"conditional on {payload['assumption']}"
         if payload["bound"] is not None and not payload["certified"]:
             how += f" (bound {payload['bound']})"
@@ -127,18 +257,23 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         parents=[parent],
         help="the class group of a discriminant: structure, generators, all classes",
         description=(
-            "Compute the class group Cl(D) of primitive forms of discriminant D (the narrow class "
-            "group when D > 0): invariant factors, generators, every reduced class with its order "
+            "Compute the class group of the order O of discriminant D: for D > 0 both the narrow "
+            "class group Cl+(O) (forms up to proper equivalence, narrow class number h+) and the "
+            "class group Cl(O) of ideal classes (class number h); the order (conductor f in Q(√m)), "
+            "its units, the class number formula with its factors and, for f > 1, the kernel of "
+            "Cl(O) → Cl(O_K); invariant factors, generators, every reduced class with its order "
             "and discrete logarithm, and how the result was obtained. "
-            "Python: formkit.class_group(D)."
+            "Python: formkit.class_group(D), formkit.ideal_class_group(D), formkit.order_class_number(D), "
+            "formkit.projection_kernel_structure(D)."
         ),
         epilog=(
             "examples:\n  formkit group -4004\n  formkit group 316 --json\n"
-            "  formkit group -3*10^30 --method bsgs"
+            "  formkit group 'Q(sqrt(94))' --digits 40\n  formkit group 'Q(sqrt(-3))' --conductor 6\n"
+            "  formkit group -4*3*10^2\n  formkit group -3*10^30 --method bsgs"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("discriminant", help="the discriminant D (negative or positive, e.g. -4004, 316, -4*10^9)")
+    add_discriminant_argument(p, "the discriminant D (negative or positive, e.g. -4004, 316, -4*3*10^2)")
     p.add_argument(
         "--method",
         choices=("auto", "enumerate", "bsgs"),
@@ -146,7 +281,19 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="enumerate (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
         "or auto (enumeration for small |D|)",
     )
-    p.add_argument("--max-rows", type=int, default=200, help="classes listed in the text table (default 200)")
+    p.add_argument(
+        "--digits",
+        type=integer_type("--digits", 1),
+        default=None,
+        metavar="N",
+        help="D > 0: the regulator to N significant digits (mpmath, verified at higher precision)",
+    )
+    p.add_argument(
+        "--max-rows",
+        type=integer_type("--max-rows", 0),
+        default=200,
+        help="classes listed in the text table (default 200)",
+    )
     p.set_defaults(handler=_cmd_group)
 
     c = sub.add_parser(
@@ -154,25 +301,36 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         parents=[parent],
         help="class number(s) of a discriminant, and the regulator when D > 0, without the structure",
         description=(
-            "The class number h(D); for D > 0 also the wide class number, the regulator and the "
-            "norm of the fundamental unit. Reaches further than 'group' for D > 0, where the "
-            "structure needs short cycles of reduced forms. Says how the result was obtained. "
-            "Python: formkit.class_number_summary(D)."
+            "The class number h of the order of discriminant D (ideal classes); for D > 0 also the "
+            "narrow class number h+ (forms up to proper equivalence), the fundamental unit, its norm "
+            "and the regulator; the order (conductor f in Q(√m)), the class number formula with its "
+            "factors and, for f > 1, the kernel of Cl(O) → Cl(O_K). Reaches further than 'group' "
+            "for D > 0, where the structure needs short cycles of reduced forms. Says how the result "
+            "was obtained. JSON keys: class_number = h, class_number_narrow = h+. "
+            "Python: formkit.class_number_summary(D), formkit.order_class_number(D)."
         ),
         epilog=(
             "examples:\n  formkit class-number 10^12+1\n  formkit class-number 10^20+1 --json\n"
+            "  formkit class-number 'Q(sqrt(94))' --digits 50\n  formkit class-number 'Q(√-1), f=15'\n"
             "  formkit class-number -10^9-7 --interval\n"
             "  formkit class-number -4*10^25-4 --method bsgs"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    c.add_argument("discriminant", help="the discriminant D (negative or positive)")
+    add_discriminant_argument(c, "the discriminant D (negative or positive)")
     c.add_argument(
         "--method",
         choices=("auto", "enumerate", "bsgs"),
         default="auto",
         help="enumerate (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
         "infrastructure and the analytic interval for D > 0), or auto",
+    )
+    c.add_argument(
+        "--digits",
+        type=integer_type("--digits", 1),
+        default=None,
+        metavar="N",
+        help="D > 0: the regulator to N significant digits (mpmath, verified at higher precision)",
     )
     c.add_argument(
         "--interval",

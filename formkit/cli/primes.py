@@ -4,21 +4,11 @@ from __future__ import annotations
 
 import argparse
 
-from ..core.arith import as_int
 from ..core.forms import as_form
-from ..errors import ParseError
+from ..core.parse import parse_integer
+from .conventions import add_discriminant_argument, discriminant_of
 
 _SHOWN = 60  # primes listed in the text output (all of them with --json)
-
-
-def _integer(text: str, name: str) -> int:
-    t = text.strip().replace("_", "")
-    if t.startswith("10^") and t[3:].isdigit():
-        return 10 ** int(t[3:])
-    try:
-        return as_int(int(t, 10), name)
-    except ValueError:
-        raise ParseError(f"{name} must be an integer (or 10^k), not {text!r}") from None
 
 
 def _cmd_primes(args: argparse.Namespace) -> int:
@@ -27,7 +17,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
     from .conventions import emit
 
     Q = as_form(args.form)
-    X = _integer(args.upto, "--upto")
+    X = parse_integer(args.upto, "--upto")
     crit: PrimeCriterion = prime_criterion(Q, polynomial=not args.no_polynomial)
     primes = represented_primes(Q, X)
     count_all = len(primes_up_to(X))
@@ -85,7 +75,7 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     from ..representation.class_polynomials import class_polynomial
     from .conventions import emit
 
-    D = _integer(args.discriminant, "D")
+    D = discriminant_of(args, "D")
     H = class_polynomial(D, verify=not args.no_verify)
     payload = H.to_dict()
     disc = None
@@ -173,7 +163,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors",
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    q.add_argument("discriminant", metavar="D", help="a negative discriminant, D ≡ 0 or 1 (mod 4)")
+    add_discriminant_argument(q, "a negative discriminant, D ≡ 0 or 1 (mod 4)", metavar="D")
     q.add_argument("--no-verify", action="store_true", help="skip the verification (faster)")
     q.add_argument(
         "--discriminant-factors",

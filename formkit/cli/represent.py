@@ -6,6 +6,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
+from .conventions import add_discriminant_argument
 
 
 def _nonnegative_int(text: str) -> int:
@@ -88,9 +89,9 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
 def _cmd_genera(args: argparse.Namespace) -> int:
     from ..classgroups.genus import genera
-    from .conventions import emit
+    from .conventions import discriminant_of, emit
 
-    D = parse_integer(args.discriminant, "discriminant")
+    D = discriminant_of(args)
     P = genera(D)
     payload = P.to_dict()
 
@@ -165,7 +166,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit genera -84\n  formkit genera -4620 --json\n  formkit genera 316",
         formatter_class=raw,
     )
-    g.add_argument("discriminant", metavar="D", help="the discriminant (e.g. -84, 316)")
+    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)", metavar="D")
     g.set_defaults(handler=_cmd_genera)
 
 

@@ -143,9 +143,9 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
                 "fundamental_discriminant",
                 "conductor",
                 "class_number",
+                "class_number_narrow",
                 "invariants",
                 "genus_count",
-                "class_number_wide",
                 "regulator",
             ]
         )
@@ -156,9 +156,9 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
                     r.fundamental_discriminant,
                     r.conductor,
                     r.class_number,
+                    r.class_number_narrow,
                     _inv_plain(r.invariants),
                     r.genus_count,
-                    "" if r.class_number_wide is None else r.class_number_wide,
                     "" if r.regulator is None else repr(r.regulator),
                 ]
             )
@@ -169,19 +169,22 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
         return
     # text: aligned columns
     head = ["D", "d_K", "f", "h"]
+    if positive:
+        head.append("h+")
     if with_invariants:
         head.append("invariants")
     head.append("genera")
     if positive:
-        head += ["h_wide", "regulator"]
+        head.append("regulator")
     table = [head]
     for r in rows:
         line = [str(r.discriminant), str(r.fundamental_discriminant), str(r.conductor), str(r.class_number)]
+        if positive:
+            line.append(str(r.class_number_narrow))
         if with_invariants:
             line.append(_inv_plain(r.invariants))
         line.append(str(r.genus_count))
         if positive:
-            line.append("" if r.class_number_wide is None else str(r.class_number_wide))
             line.append("" if r.regulator is None else f"{r.regulator:.12g}")
         table.append(line)
     widths = [max(len(row[i]) for row in table) for i in range(len(head))]
@@ -189,21 +192,39 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
     out.write(
         f"({len(rows)} rows; class numbers by enumeration, unconditional"
-        + ("; h is the narrow class number for D > 0" if positive else "")
+        + (
+            "; h = class number (ideal classes of the order), h+ = narrow class number (forms up to "
+            "proper equivalence); the invariants are those of the narrow group Cl+(D) when D > 0"
+            if positive
+            else ""
+        )
         + ")\n"
     )
 
 
 def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str:
-    cols = "rrrr" + ("l" if with_invariants else "") + "r" + ("rr" if positive else "")
+    cols = (
+        "rrrr"
+        + ("r" if positive else "")
+        + ("l" if with_invariants else "")
+        + "r"
+        + ("r" if positive else "")
+    )
     head = [r"$D$", r"$d_K$", r"$f$", r"$h$"]
+    if positive:
+        head.append(r"$h^{+}$")
     if with_invariants:
-        head.append(r"$\mathrm{Cl}(D)$")
+        head.append(r"$\mathrm{Cl}^{+}(D)$" if positive else r"$\mathrm{Cl}(D)$")
     head.append("genera")
     if positive:
-        head += [r"$h$ (wide)", r"$R$"]
+        head.append(r"$R$")
     lines = [
-        "% class-number table written by formkit (enumeration, unconditional)",
+        "% class-number table written by formkit (enumeration, unconditional)"
+        + (
+            "; h: ideal classes of the order, h^+: narrow class number (forms up to proper equivalence)"
+            if positive
+            else ""
+        ),
         rf"\begin{{tabular}}{{{cols}}}",
         r"\hline",
         " & ".join(head) + r" \\",
@@ -216,12 +237,13 @@ def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str
             f"${r.conductor}$",
             f"${r.class_number}$",
         ]
+        if positive:
+            cells.append(f"${r.class_number_narrow}$")
         if with_invariants:
             inv = r.invariants or ()
             cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "1") + "$")
         cells.append(f"${r.genus_count}$")
         if positive:
-            cells.append("" if r.class_number_wide is None else f"${r.class_number_wide}$")
             cells.append("" if r.regulator is None else f"${r.regulator:.6f}$")
         lines.append(" & ".join(cells) + r" \\")
     lines += [r"\hline", r"\end{tabular}", ""]
@@ -346,7 +368,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     g.add_argument(
         "--query", action="store_true", help="print stored rows (of --from/--to) instead of building"
     )
-    g.add_argument("--class-number", metavar="H", help="rows with class number H")
+    g.add_argument(
+        "--class-number",
+        metavar="H",
+        help="rows with narrow class number H (forms up to proper equivalence; the class number when D < 0)",
+    )
     g.add_argument("--invariants", metavar="N1,N2,...", help="rows with this group structure (1 = trivial)")
     g.add_argument("--conductor", metavar="F", help="rows of conductor F")
     g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")

@@ -5,6 +5,13 @@
 * :mod:`~formkit.core.parse` — the hand-written text parser for forms and integers;
 * :mod:`~formkit.core.forms` — the ``Form`` value type and 2×2 integer matrices;
 * :mod:`~formkit.core.discriminants` — discriminants, conductors, χ_D, units, regulators;
+* :mod:`~formkit.core.quadratic_orders` — the ``Order`` value, numbers of Q(√m), and the
+  text of discriminants, fields ``Q(√m)`` and conductors (``parse_discriminant``);
+* :mod:`~formkit.core.quadratic_numbers` — exact numbers ``(x + y√D)/(2z)`` of the field;
+* :mod:`~formkit.core.ideals` — invertible ideals, the dictionary forms ↔ ideals, prime
+  ideals above p, factorisation;
+* :mod:`~formkit.core.principal_ideals` — principality with a generator, compact
+  representations of huge generators;
 * :mod:`~formkit.core.raw_reduction` — the reduction loops on bare integer triples;
 * :mod:`~formkit.core.reduction` — reduction of definite and indefinite forms, ρ, cycles;
 * :mod:`~formkit.core.equivalence` — proper and improper equivalence, automorphisms;
@@ -31,10 +38,18 @@ from .equivalence import *  # noqa: F403
 from .equivalence import __all__ as _equivalence_all
 from .forms import *  # noqa: F403
 from .forms import __all__ as _forms_all
+from .ideals import *  # noqa: F403
+from .ideals import __all__ as _ideals_all
 from .lattice import *  # noqa: F403
 from .lattice import __all__ as _lattice_all
 from .polynomials_mod_p import *  # noqa: F403
 from .polynomials_mod_p import __all__ as _polynomials_all
+from .principal_ideals import *  # noqa: F403
+from .principal_ideals import __all__ as _principal_ideals_all
+from .quadratic_numbers import *  # noqa: F403
+from .quadratic_numbers import __all__ as _quadratic_numbers_all
+from .quadratic_orders import *  # noqa: F403
+from .quadratic_orders import __all__ as _quadratic_orders_all
 from .reduction import *  # noqa: F403
 from .reduction import __all__ as _reduction_all
 
@@ -46,5 +61,9 @@ __all__ = [
     *_composition_all,
     *_enumeration_all,
     *_polynomials_all,
+    *_quadratic_numbers_all,
+    *_quadratic_orders_all,
+    *_ideals_all,
+    *_principal_ideals_all,
     *_lattice_all,
 ]

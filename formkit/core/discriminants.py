@@ -28,6 +28,7 @@ from .arith import as_int, factorint, is_square, isqrt, kronecker
 
 __all__ = [
     "validate_discriminant",
+    "squarefree_decomposition",
     "is_discriminant",
     "is_fundamental_discriminant",
     "fundamental_discriminant",
@@ -62,18 +63,65 @@ def validate_discriminant(D: object, name: str = "discriminant") -> int:
     >>> validate_discriminant(-22)
     Traceback (most recent call last):
     ...
-    formkit.errors.DiscriminantError: discriminant must be ≡ 0 or 1 (mod 4), not -22 (≡ 2)
+    formkit.errors.DiscriminantError: discriminant must be ≡ 0 or 1 (mod 4), not -22 (≡ 2); the field Q(√-22) has discriminant -88 (write Q(sqrt(-22)) or -88)
     >>> validate_discriminant(16)
     Traceback (most recent call last):
     ...
-    formkit.errors.DiscriminantError: discriminant must not be a perfect square, not 16 = 4²
+    formkit.errors.DiscriminantError: discriminant must not be 0 or a perfect square: 16 = 4² is a perfect square: forms of square discriminant factor over Q and there is no quadratic field
     """
     D = as_int(D, name)
     if D % 4 not in (0, 1):
-        raise DiscriminantError(f"{name} must be ≡ 0 or 1 (mod 4), not {D} (≡ {D % 4})")
+        raise DiscriminantError(
+            f"{name} must be ≡ 0 or 1 (mod 4), not {D} (≡ {D % 4}); {_nearest_meaning(D)}"
+        )
     if is_square(D):
-        raise DiscriminantError(f"{name} must not be a perfect square, not {D} = {int(isqrt(D))}²")
+        raise DiscriminantError(f"{name} must not be 0 or a perfect square: {_nearest_meaning(D)}")
     return D
+
+
+def squarefree_decomposition(n: object) -> tuple[int, int]:
+    """``(r, m)`` with ``n = r²·m``, ``r > 0`` and ``m`` square-free (sign kept in ``m``).
+
+    Factorisation through :func:`formkit.core.arith.factorint`.
+
+    Examples
+    --------
+    >>> squarefree_decomposition(-12), squarefree_decomposition(94), squarefree_decomposition(-1)
+    ((2, -3), (1, 94), (1, -1))
+    """
+    n = as_int(n, "n")
+    if n == 0:
+        raise FormkitError("0 has no square-free part")
+    r, m = 1, (-1 if n < 0 else 1)
+    for p, e in factorint(abs(n)).items():
+        r *= p ** (e // 2)
+        if e % 2:
+            m *= p
+    return r, m
+
+
+def _nearest_meaning(D: int) -> str:
+    """What a user who typed the non-discriminant ``D`` probably meant (one clause)."""
+    if D == 0:
+        return "0 is the discriminant of degenerate forms only, and of no quadratic field"
+    if D > 0 and is_square(D):
+        return (
+            f"{D} = {int(isqrt(D))}² is a perfect square: forms of square discriminant factor over Q "
+            "and there is no quadratic field"
+        )
+    if abs(D) > 10**24:  # factoring could take long: say what holds if D is square-free
+        return (
+            f"if {D} is square-free, the field Q(√{D}) has discriminant {4 * D} and Z[√{D}] is its "
+            "ring of integers"
+        )
+    r, m = squarefree_decomposition(D)
+    d_K = m if m % 4 == 1 else 4 * m
+    if r == 1:
+        return f"the field Q(√{D}) has discriminant {d_K} (write Q(sqrt({D})) or {d_K})"
+    return (
+        f"Q(√{D}) is the field Q(√{m}), of discriminant {d_K}, and the order Z[√{D}] has discriminant "
+        f"{4 * D} (write Q(sqrt({m})) or {4 * D})"
+    )
 
 
 def is_discriminant(D: object) -> bool:

@@ -30,7 +30,7 @@ import re
 from ..errors import ParseError
 from .arith import _int_from_digits
 
-__all__ = ["parse_form_text", "parse_integer"]
+__all__ = ["parse_form_text", "parse_integer", "MAX_INTEGER_BITS"]
 
 MAX_TEXT = 1_000_000
 
@@ -39,9 +39,6 @@ _INT_RE = re.compile(r"[+-]?[0-9]+\Z", re.ASCII)
 _TRIPLE_RE = re.compile(
     r"\s*[\[(]?\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*,\s*([+-]?\s*[0-9]+)\s*[\])]?\s*\Z",
     re.ASCII,
-)
-_POWER10_RE = re.compile(
-    r"([+-]?)(?:([0-9]+)\s*\*\s*)?([0-9]+)\s*(?:\^|\*\*)\s*([0-9]+)(?:\s*([+-])\s*([0-9]+))?", re.ASCII
 )
 _TOKEN_RE = re.compile(r"(?:([0-9]+)|(\*\*)|([xy])|([-+*^\u2212\u00b2]))", re.ASCII)
 _SPACE = " \t\n\r\f\v"
@@ -52,24 +49,209 @@ def _digits_to_int(text: str) -> int:
     return _int_from_digits("".join(text.split()))
 
 
-def parse_integer(text: object, name: str = "integer") -> int:
-    """Parse a decimal integer (optionally signed, underscores or spaces not allowed).
+#: Bound on the size of any integer the number syntax produces or reads, in bits
+#: (about 301 030 decimal digits).  Checked before a power or product is computed.
+MAX_INTEGER_BITS = 1_000_000
 
-    Also accepts ``10^k`` and ``10**k`` forms of powers of ten with an optional
-    leading factor and an optional offset, e.g. ``3*10^20``, ``-10**12`` and
-    ``-10^30-3``, because users write large discriminants that way.
+#: Parentheses may nest this deep in a number expression.
+MAX_NESTING = 100
+
+_LOG2_10 = 3.3219280948873626
+
+
+class _Num:
+    """A scanner and recursive-descent parser over the token list of one number expression."""
+
+    def __init__(self, text: str, name: str) -> None:
+        self.text, self.name = text, name
+        self.tokens = _number_tokens(text, name)
+        self.i = 0
+        self.depth = 0
+
+    def fail(self, why: str) -> ParseError:
+        return ParseError(f"{self.name}: cannot read {self.text!r} as an integer: {why}{_NUMBER_HINT}")
+
+    def where(self) -> str:
+        return f"at position {self.tokens[self.i][1]}" if self.i < len(self.tokens) else "at the end"
+
+    def peek(self) -> str | None:
+        return self.tokens[self.i][0] if self.i < len(self.tokens) else None
+
+    def parse(self) -> int:
+        if not self.tokens:
+            raise self.fail("the text is empty")
+        value = self.expr()
+        if self.i < len(self.tokens):
+            raise self.fail(f"unexpected {self.tokens[self.i][2]!r} {self.where()}")
+        return value
+
+    def expr(self) -> int:
+        value = self.term()
+        while self.peek() in ("+", "-"):
+            op = self.tokens[self.i][0]
+            self.i += 1
+            other = self.term()
+            self.check_bits(max(value.bit_length(), other.bit_length()) + 1, f"a sum in {self.text!r}")
+            value = value + other if op == "+" else value - other
+        return value
+
+    def term(self) -> int:
+        value = self.unary()
+        while self.peek() == "*":
+            self.i += 1
+            other = self.unary()
+            self.check_bits(value.bit_length() + other.bit_length(), f"a product in {self.text!r}")
+            value *= other
+        return value
+
+    def unary(self) -> int:
+        if self.peek() in ("+", "-"):
+            op = self.tokens[self.i][0]
+            self.i += 1
+            value = self.unary()
+            return -value if op == "-" else value
+        return self.power()
+
+    def power(self) -> int:
+        base = self.atom()
+        if self.peek() != "^":
+            return base
+        self.i += 1
+        # the exponent binds to the right (2^3^2 = 2^9) and may carry a sign, which must
+        # leave it >= 0: the result has to be an integer
+        exponent = self.unary()
+        if exponent < 0:
+            raise self.fail(f"negative exponent {exponent} (the result would not be an integer)")
+        if base == 0 and exponent == 0:
+            raise self.fail("0^0 is not given a value here")
+        if abs(base) > 1:
+            bits = (abs(base).bit_length() - 1) * exponent + 1
+            if bits > MAX_INTEGER_BITS:
+                raise ParseError(
+                    f"{self.name}: {self.text!r} is too large: the power {_short(base)}^{_short(exponent)} "
+                    f"has at least {bits if exponent < 10**12 else f'about {float(bits):.3g}'} bits, and "
+                    f"integers here have at most {MAX_INTEGER_BITS} bits (about "
+                    f"{int(MAX_INTEGER_BITS / _LOG2_10)} decimal digits)"
+                )
+            return base**exponent
+        if base == 1 or exponent == 0:
+            return 1
+        return 0 if base == 0 else (-1) ** (exponent % 2)
+
+    def atom(self) -> int:
+        kind = self.peek()
+        if kind == "int":
+            digits = self.tokens[self.i][2]
+            self.i += 1
+            self.check_bits(int((len(digits.lstrip("0")) - 1) * _LOG2_10), f"the literal in {self.text!r}")
+            return _digits_to_int(digits)
+        if kind == "(":
+            self.i += 1
+            self.depth += 1
+            if self.depth > MAX_NESTING:
+                raise self.fail(f"more than {MAX_NESTING} nested parentheses")
+            value = self.expr()
+            self.depth -= 1
+            if self.peek() != ")":
+                raise self.fail(f"expected ')' {self.where()}")
+            self.i += 1
+            return value
+        if kind is None:
+            raise self.fail("the expression ends too early")
+        raise self.fail(f"expected a number or '(' {self.where()}, found {self.tokens[self.i][2]!r}")
+
+    def check_bits(self, bits: int, what: str) -> None:
+        if bits > MAX_INTEGER_BITS:
+            raise ParseError(
+                f"{self.name}: {what} would have about {bits} bits, more than the bound of "
+                f"{MAX_INTEGER_BITS} bits (about {int(MAX_INTEGER_BITS / _LOG2_10)} decimal digits)"
+            )
+
+
+_NUMBER_HINT = (
+    "; write an integer with + - * ^ (or **) and parentheses, such as -23, -4*3*10^2, 10^12+1 or -(10^40+27)"
+)
+_NUMBER_TOKEN_RE = re.compile(r"([0-9]+)|(\*\*)|([-+*^()\u2212\u00d7\u00b7])", re.ASCII)
+_NUMBER_OPS = {"\u2212": "-", "\u00d7": "*", "\u00b7": "*", "**": "^"}
+
+
+def _short(n: int) -> str:
+    s = str(n)
+    return s if len(s) <= 20 else f"{s[:8]}…({len(s)} digits)"
+
+
+def _number_tokens(text: str, name: str) -> list[tuple[str, int, str]]:
+    tokens: list[tuple[str, int, str]] = []
+    pos, n = 0, len(text)
+    while pos < n:
+        if text[pos] in _SPACE:
+            pos += 1
+            continue
+        m = _NUMBER_TOKEN_RE.match(text, pos)
+        if not m:
+            raise ParseError(
+                f"{name}: cannot read {text!r} as an integer: unexpected character {text[pos]!r} "
+                f"at position {pos}{_NUMBER_HINT}"
+            )
+        digits, pow2, op = m.groups()
+        if digits is not None:
+            tokens.append(("int", pos, digits))
+        else:
+            sym = pow2 or op
+            tokens.append((_NUMBER_OPS.get(sym, sym), pos, sym))
+        pos = m.end()
+    return tokens
+
+
+def parse_integer(text: object, name: str = "integer") -> int:
+    """Parse an integer written with the number syntax of formkit.
+
+    The syntax (the same for every integer argument of the library's text parser and
+    of the command line)::
+
+        expr   := term (("+" | "-") term)*
+        term   := unary ("*" unary)*
+        unary  := ("+" | "-") unary | power
+        power  := atom ["^" unary]          ("**" is a synonym of "^")
+        atom   := digits | "(" expr ")"
+
+    ``^`` binds tighter than unary minus and to the right: ``-3^2 = -9``,
+    ``2^3^2 = 2^9``; ``*`` binds tighter than ``+`` and ``-``.  Digits are ASCII
+    ``0``–``9``; ``−`` (U+2212) is read as ``-`` and ``×``, ``·`` as ``*``.  White space
+    between tokens is ignored.  Exponents must be ``>= 0`` (``0^0`` is refused).
+    Nothing else is accepted: no decimal points, no ``e`` notation, no ``_``, no
+    implicit multiplication.  Every literal, product, sum and power is checked against
+    :data:`MAX_INTEGER_BITS` *before* it is computed, so ``10^10^10`` is refused at once.
+    The text is never evaluated by Python: it is scanned into tokens and parsed by hand.
+
+    Parameters
+    ----------
+    text : str or int
+        The text; an ``int`` (or an object with ``__index__``) is returned as it is.
+    name : str
+        The argument's name, used in error messages.
+
+    Returns
+    -------
+    int
 
     Raises
     ------
     ParseError
-        If the text is not an integer.
+        If the text is not in the syntax or a value would exceed :data:`MAX_INTEGER_BITS`.
 
     Examples
     --------
     >>> parse_integer("-23"), parse_integer("10^6"), parse_integer("-3*10**4")
     (-23, 1000000, -30000)
-    >>> parse_integer("-10^12-3"), parse_integer("10^6+1")
-    (-1000000000003, 1000001)
+    >>> parse_integer("-4*3*10^2"), parse_integer("-3*4*37^2"), parse_integer("-(10^2+27)")
+    (-1200, -16428, -127)
+    >>> parse_integer("-10^12-3"), parse_integer("2^3^2"), parse_integer("-3^2")
+    (-1000000000003, 512, -9)
+    >>> parse_integer("10^10^10", "D")
+    Traceback (most recent call last):
+    ...
+    formkit.errors.ParseError: D: '10^10^10' is too large: the power 10^10000000000 has at least 30000000001 bits, and integers here have at most 1000000 bits (about 301029 decimal digits)
     """
     if not isinstance(text, (str, bool, float)):
         try:
@@ -81,20 +263,11 @@ def parse_integer(text: object, name: str = "integer") -> int:
     s = text.strip(_SPACE)
     if len(s) > MAX_TEXT:
         raise ParseError(f"{name} is too long ({len(s)} characters, at most {MAX_TEXT})")
-    if _INT_RE.match(s):
+    if _INT_RE.match(s):  # the common case, without the token list
+        if (len(s) - 2) * _LOG2_10 > MAX_INTEGER_BITS:
+            return _Num(s, name).parse()  # the literal check gives the message
         return _digits_to_int(s)
-    m = _POWER10_RE.fullmatch(s)
-    if m:
-        sign, factor, base, exp, off_sign, offset = m.groups()
-        e = int(exp) if len(exp) < 7 else None
-        if e is None or e > 100_000:
-            raise ParseError(f"{name}: exponent too large in {s!r}")
-        value = (_digits_to_int(factor) if factor else 1) * _digits_to_int(base) ** e
-        value = -value if sign == "-" else value
-        if offset:
-            value += -_digits_to_int(offset) if off_sign == "-" else _digits_to_int(offset)
-        return value
-    raise ParseError(f"{name} must be an integer such as -23, 10^12 or 3*10^20, not {s!r}")
+    return _Num(s, name).parse()
 
 
 def parse_form_text(text: object) -> tuple[int, int, int]:

@@ -68,8 +68,10 @@ RawRow = tuple[int, int, int, int, int | None, tuple[int, ...] | None, int, floa
 class TableRow:
     """One row of a class-number table.
 
-    ``class_number`` is the narrow class number when ``D > 0``; ``class_number_wide``
-    and ``regulator`` are ``None`` when ``D < 0``.  ``invariants`` is ``None`` when the
+    ``class_number_narrow`` is the narrow class number ``h⁺`` (forms up to proper
+    equivalence; ``h`` when ``D < 0``), ``class_number_wide`` the class number ``h`` of
+    ideal classes when ``D > 0`` (``None`` when ``D < 0``), and the property
+    ``class_number`` is ``h`` for either sign; ``regulator`` is ``None`` when ``D < 0``.  ``invariants`` is ``None`` when the
     table was built without group structure and ``()`` for the trivial group.  The
     regulator is a double (about 15 significant digits) rounded from a value computed
     by :func:`formkit.regulator` at 20 digits and verified at higher precision.
@@ -78,7 +80,7 @@ class TableRow:
     discriminant: int
     fundamental_discriminant: int
     conductor: int
-    class_number: int
+    class_number_narrow: int
     invariants: tuple[int, ...] | None
     genus_count: int
     class_number_wide: int | None = None
@@ -89,16 +91,22 @@ class TableRow:
         D, dk, f, h, hw, inv, g, reg = raw
         return cls(D, dk, f, h, None if inv is None else tuple(inv), g, hw, reg)
 
+    @property
+    def class_number(self) -> int:
+        """The class number ``h`` (ideal classes of the order), for either sign of ``D``."""
+        return self.class_number_narrow if self.class_number_wide is None else self.class_number_wide
+
     def to_dict(self) -> dict:
-        """JSON-ready dictionary (the keys are the column names)."""
+        """JSON-ready dictionary (the keys are the column names; ``class_number`` is ``h``,
+        ``class_number_narrow`` is ``h⁺``)."""
         return {
             "discriminant": self.discriminant,
             "fundamental_discriminant": self.fundamental_discriminant,
             "conductor": self.conductor,
             "class_number": self.class_number,
+            "class_number_narrow": self.class_number_narrow,
             "invariants": None if self.invariants is None else list(self.invariants),
             "genus_count": self.genus_count,
-            "class_number_wide": self.class_number_wide,
             "regulator": self.regulator,
         }
 
@@ -417,7 +425,7 @@ def table_rows(
     -23 -23 1 3 (3,) 1
     -24 -24 1 2 (2,) 2
     >>> r = table_rows(12, 12)[0]
-    >>> r.class_number, r.class_number_wide, round(r.regulator, 6)
+    >>> r.class_number_narrow, r.class_number, round(r.regulator, 6)
     (2, 1, 1.316958)
     """
     start, stop = _check_range(start, stop)

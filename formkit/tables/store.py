@@ -266,7 +266,7 @@ def query_table(
     start, stop : int, optional
         Keep ``start ≤ D ≤ stop``.
     class_number : int, optional
-        ``h(D)`` (narrow for ``D > 0``).
+        The narrow class number ``h⁺(D)`` (forms up to proper equivalence; ``h(D)`` for ``D < 0``).
     invariants : str or sequence of int, optional
         The group structure, e.g. ``"2,2,4"`` (``"1"`` for the trivial group); needs
         a store built with invariants.

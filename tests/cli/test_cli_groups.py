@@ -37,10 +37,26 @@ ISSUE_KEYS = {
     "method",
     "certified",
 }
-REAL_KEYS = {"class_number_wide", "regulator", "fundamental_unit"}
+REAL_KEYS = {"regulator", "fundamental_unit"}
 # Extra keys present in the output beyond those the issue names (honesty fields for
-# conditional results, and the norm of the unit); allowed, nothing else.
-EXTRA_KEYS = {"assumption", "bound", "fundamental_unit_norm"}
+# conditional results, and the norm of the unit; the order, its units, the class number
+# formula, the kernel of Cl(O) → Cl(O_K) and the group of ideal classes, issue 13);
+# allowed, nothing else.
+EXTRA_KEYS = {
+    "assumption",
+    "bound",
+    "fundamental_unit_norm",
+    "detail",
+    "class_number_narrow",
+    "order",
+    "class_number_formula",
+    "unit_count",
+    "fundamental_unit_text",
+    "fundamental_unit_basis",
+    "regulator_text",
+    "kernel",
+    "ideal_class_group",
+}
 
 
 def run(argv, capsys):
@@ -91,26 +107,28 @@ def test_group_json_values_by_hand(capsys):
 def test_group_json_positive(D, capsys):
     d = run_json(["group", str(D)], capsys)
     assert ISSUE_KEYS | REAL_KEYS <= set(d) <= ISSUE_KEYS | REAL_KEYS | EXTRA_KEYS
-    assert d["class_number"] == BruteGroup(D).h == len(d["forms"])
-    assert d["class_number_wide"] == wide_class_number(D)
+    # class_number_narrow = h⁺ = proper classes of forms (brute force); class_number = h
+    assert d["class_number_narrow"] == BruteGroup(D).h == len(d["forms"])
+    assert d["class_number"] == wide_class_number(D)
     t, u = d["fundamental_unit"]
     assert t * t - D * u * u in (4, -4) and u > 0
     assert abs(d["regulator"] - math.log((t + u * math.sqrt(D)) / 2)) < 1e-9
     cycles = indefinite_cycles(D)
-    assert sorted(cycles[tuple(f)] for f in d["forms"]) == list(range(d["class_number"]))
+    assert sorted(cycles[tuple(f)] for f in d["forms"]) == list(range(d["class_number_narrow"]))
 
 
 def test_group_json_q_sqrt_79(capsys):
     # Q(√79): class number 3, narrow 6, ε = 80 + 9√79 of norm +1 (from memory)
     d = run_json(["group", "316"], capsys)
-    assert (d["class_number"], d["class_number_wide"], d["fundamental_unit"]) == (6, 3, [160, 9])
+    assert (d["class_number_narrow"], d["class_number"], d["fundamental_unit"]) == (6, 3, [160, 9])
+    assert d["fundamental_unit_text"] == "80 + 9√79" and d["ideal_class_group"]["invariants"] == [3]
 
 
 def test_group_human_output(capsys):
     code, out, err = run(["group", "-4004"], capsys)
     assert code == 0 and err == ""
     assert "C2 x C2 x C10" in out
-    assert "(order 40)" in out
+    assert "class number h = 40" in out
     assert "unconditional" in out
     # a table of all 40 classes with their orders: one line per class, orders divide 10
     row = re.compile(r"^\s*\[(-?\d+), (-?\d+), (-?\d+)\]\s+(\d+)\s")
@@ -126,7 +144,10 @@ def test_group_human_output(capsys):
 def test_group_human_output_positive_and_rows(capsys):
     code, out, _ = run(["group", "316"], capsys)
     assert code == 0
-    assert "C6" in out and "narrow" in out and "wide" in out and "fundamental unit" in out
+    assert "C6" in out and "fundamental unit" in out
+    # narrow and wide named in words (issue 13, item 4): h⁺ = 6 proper form classes, h = 3 ideal classes
+    assert "narrow class number h+ = 6" in out and "(forms up to proper equivalence)" in out
+    assert "class number h = 3" in out and "(ideal classes of the order)" in out
     code, out, _ = run(["group", "-4004", "--max-rows", "5"], capsys)
     assert code == 0 and "35 more classes" in out
 
@@ -257,20 +278,21 @@ def test_group_positive_bsgs_json(capsys):
 def test_group_positive_huge_unit_not_written(capsys):
     code, out, err = run(["group", "10^12+29"], capsys)  # auto: above the enumeration limit
     assert code == 0 and err == ""
-    assert "C2 x C2   (order 4)" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
+    assert "C2 x C2; narrow class number h+ = 4" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
     assert "not written out" in out and "conditional on GRH" in out
 
 
 def test_class_number_json_and_text(capsys):
     d = run_json(["class-number", "10^12+1"], capsys)
     # 50280: formkit's enumeration of all reduced forms of 10^12+1 (3 minutes) agrees
-    assert (d["class_number"], d["class_number_wide"], d["fundamental_unit_norm"]) == (50280, 50280, -1)
+    assert (d["class_number"], d["class_number_narrow"], d["fundamental_unit_norm"]) == (50280, 50280, -1)
     assert d["assumption"] == "GRH" and not d["certified"]
     assert abs(d["regulator"] - math.log(10**6 + math.sqrt(10**12 + 1))) < 1e-9  # unit 10^6 + √D
     code, out, _err = run(["class-number", "-23"], capsys)
-    assert code == 0 and "class number: 3" in out and "unconditional" in out
+    assert code == 0 and "positive definite forms): 3" in out and "unconditional" in out
     code, out, _err = run(["class-number", "316", "--method", "bsgs"], capsys)
-    assert "narrow class number h+: 6" in out and "(wide sense): 3" in out and "GRH" in out
+    assert "narrow class number h+ (forms up to proper equivalence): 6" in out and "GRH" in out
+    assert "class number h (ideal classes of the order): 3" in out
 
 
 @pytest.mark.parametrize(
@@ -297,4 +319,4 @@ def test_class_number_interval(capsys):
     # D > 0: the interval is for h·R (wide h)
     d = run_json(["class-number", "316", "--interval"], capsys)
     iv = d["analytic_interval"]
-    assert iv["of"] == "h*R" and iv["lower"] <= d["class_number_wide"] * d["regulator"] <= iv["upper"]
+    assert iv["of"] == "h*R" and iv["lower"] <= d["class_number"] * d["regulator"] <= iv["upper"]

@@ -45,11 +45,12 @@ def test_csv_and_positive_columns(capsys):
     ]
     by = {int(r["discriminant"]): r for r in rows}
     # Q(√3): narrow class number 2, wide 1, regulator log(2+√3) = 1.3169578969… (from memory)
-    assert (by[12]["class_number"], by[12]["class_number_wide"]) == ("2", "1")
+    # h⁺(12) = 2 proper form classes, h(12) = 1 ideal class (enumeration; N(2 + √3) = +1)
+    assert (by[12]["class_number_narrow"], by[12]["class_number"]) == ("2", "1")
     assert float(by[12]["regulator"]) == pytest.approx(1.3169578969248166, rel=1e-14)
     for D, r in by.items():
         G = class_group(D)
-        assert int(r["class_number"]) == G.order
+        assert int(r["class_number_narrow"]) == G.order and int(r["class_number"]) == G.class_number
         assert r["invariants"] == (",".join(map(str, G.invariants)) or "1")
 
 
@@ -75,7 +76,7 @@ def test_tex_fragment(capsys):
     assert out.count(r"\begin{tabular}") == 1 and out.rstrip().endswith(r"\end{tabular}")
     assert r"$-84$ & $-84$ & $1$ & $4$ & $C_{2} \times C_{2}$ & $4$ \\" in out  # Cl(−84) = (Z/2)² (Cox §3)
     code, out, _ = run(["table", "--from", "12", "--to", "13", "--format", "tex"], capsys)
-    assert "$1.316958$" in out and r"$h$ (wide)" in out
+    assert "$1.316958$" in out and r"$h^{+}$" in out
 
 
 def test_build_store_then_query(tmp_path, capsys):

@@ -255,6 +255,17 @@ def test_parse_integer(text, value):
         "1_000",
         "10^",
         "10^1000000",
+        "10^10^10",
+        "2^(10^9)",
+        "2^-1",
+        "0^0",
+        "2(3)",
+        "3 4",
+        "(1+2",
+        "1+2)",
+        "((" * 200 + "1" + "))" * 200,
+        "--",
+        "1 2^3",
         "٣",
         "１２",
         "2**x",
@@ -268,3 +279,82 @@ def test_parse_integer(text, value):
 def test_parse_integer_bad_input(bad):
     with pytest.raises(ParseError):
         parse_integer(bad, "discriminant")
+
+
+# --- the number syntax: one grammar, checked against Python's own integer arithmetic -----------
+# (source: common practice — Python's int operators on the same tree are the reference;
+# precedence as in ordinary mathematics: ^ over unary minus over * over + and -)
+
+_small = st.integers(-(10**6), 10**6)
+
+
+def _tree(depth):
+    leaf = st.integers(0, 10**6).map(lambda n: (str(n), n))
+    if depth == 0:
+        return leaf
+
+    def combine(args):
+        (ta, va), (tb, vb), op = args
+        if op == "+":
+            return (f"({ta}) + ({tb})", va + vb)
+        if op == "-":
+            return (f"({ta})-({tb})", va - vb)
+        if op == "*":
+            return (f"({ta})*({tb})", va * vb)
+        return (f"-({ta})", -va)
+
+    sub = _tree(depth - 1)
+    return st.one_of(leaf, st.tuples(sub, sub, st.sampled_from("+-*n")).map(combine))
+
+
+@given(_tree(3))
+def test_expressions_agree_with_integer_arithmetic(pair):
+    text, value = pair
+    assert parse_integer(text) == value
+
+
+@given(st.integers(-50, 50), st.integers(0, 30), st.integers(-50, 50))
+def test_precedence_of_powers_products_and_signs(a, e, b):
+    assume(not (a == 0 and e == 0))
+    assert parse_integer(f"({a})^{e}") == a**e
+    assert parse_integer(f"({a})**{e}") == a**e  # ** is a synonym of ^
+    assert parse_integer(f"-{abs(a)}^{e}") == -(abs(a) ** e)  # ^ binds tighter than unary minus
+    assert parse_integer(f"{abs(a)}*{abs(b)}^2+{a}") == abs(a) * b * b + a
+
+
+@pytest.mark.parametrize(
+    "text, value",
+    [
+        ("-4*3*10^2", -1200),  # the two spellings the issue compares
+        ("-12*37^2", -16428),
+        ("-3*4*37^2", -16428),
+        ("-(10^40+27)", -(10**40 + 27)),
+        ("2^3^2", 512),  # right-associative, as in mathematics
+        ("-3^2", -9),
+        ("(-3)^2", 9),
+        ("2^-(-3)", 8),
+        ("−5 × 2 · 3", -30),  # typeset minus and times signs
+        ("1^(10^100)", 1),  # |base| <= 1: no size problem
+        ("(-1)^(10^100+1)", -1),
+    ],
+)
+def test_number_syntax_examples(text, value):
+    assert parse_integer(text) == value
+
+
+def test_size_bound_is_checked_before_computing():
+    from formkit.core.parse import MAX_INTEGER_BITS
+
+    start = time.process_time()
+    for text in ("10^10^10", "2^(10^9)", "9^9^9^9", f"2^{MAX_INTEGER_BITS}", "(2^999999)*(2^999999)"):
+        with pytest.raises(ParseError, match=str(MAX_INTEGER_BITS)):
+            parse_integer(text, "D")
+    assert time.process_time() - start < 2  # nothing huge was built
+    assert parse_integer(f"2^{MAX_INTEGER_BITS - 1}") == 2 ** (MAX_INTEGER_BITS - 1)
+
+
+def test_number_errors_name_the_value_and_the_rule():
+    with pytest.raises(ParseError, match=r"D: cannot read '2\^-1'.*negative exponent"):
+        parse_integer("2^-1", "D")
+    with pytest.raises(ParseError, match=r"unexpected '\(' at position 1"):
+        parse_integer("2(3)")
