@@ -17,6 +17,7 @@ import re
 import sys
 from collections.abc import Sequence
 
+from ..core.progress import set_progress
 from ..errors import FormkitError
 from .conventions import NUMBER_SYNTAX, _Parser
 
@@ -30,6 +31,9 @@ def build_parser() -> argparse.ArgumentParser:
     parent = _Parser(add_help=False)
     parent.add_argument("--json", action="store_true", help="print one JSON object instead of text")
     parent.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
+    parent.add_argument(
+        "--quiet", action="store_true", help="no progress bars or phase lines on stderr (errors still shown)"
+    )
     parser = _Parser(
         prog="formkit",
         description=(
@@ -73,7 +77,12 @@ def main(argv: Sequence[str] | None = None) -> int:
         if not getattr(args, "command", None):
             sys.stderr.write("formkit: error: a command is required (formkit --help lists them)\n")
             return 2
-        return int(args.handler(args) or 0)
+        if getattr(args, "quiet", False):
+            set_progress(False)
+        try:
+            return int(args.handler(args) or 0)
+        finally:
+            set_progress(None)
     except SystemExit as exc:  # argparse exits (help, errors)
         return int(exc.code) if isinstance(exc.code, int) else 2
     except FormkitError as exc:

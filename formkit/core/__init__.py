@@ -20,7 +20,9 @@
   reduced prime forms of the small primes;
 * :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime;
 * :mod:`~formkit.core.lattice` — Hermite and Smith normal forms with transformations and
-  quotients Zⁿ/L of integer lattices (python-flint's integer matrices).
+  quotients Zⁿ/L of integer lattices (python-flint's integer matrices);
+* :mod:`~formkit.core.progress` — progress bars and phase lines on stderr for long jobs
+  (one switch for all of them; the command line's ``--quiet``).
 
 This layer imports nothing from formkit but :mod:`formkit.errors` (and, from outside,
 gmpy2, sympy and python-flint for arithmetic).  The names below are
