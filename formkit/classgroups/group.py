@@ -247,6 +247,7 @@ class ClassGroup:
         Dz = mpz(discriminant)
         if discriminant < 0 and abs(discriminant) > 10**30:
             L = _nucomp_bound(discriminant)
+
             def mul(x: Triple, y: Triple) -> Triple:
                 return canonical(_nucomp_raw(x[0], x[1], x[2], y[0], y[1], y[2], Dz, L))
 

@@ -90,7 +90,7 @@ def _cayley_rings(C: nx.Graph) -> list[list[Hashable]]:
     p1 = _ring_prime(C)
     if p1 is None:
         return [[n] for n in nodes]
-    step = {p: {} for p in primes}
+    step: dict[int, dict[Hashable, Hashable]] = {p: {} for p in primes}
     for u, v, q in C.edges(data="prime"):
         step[q][u] = v
     ring_of: dict[Hashable, int] = {}
