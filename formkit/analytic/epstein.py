@@ -128,6 +128,7 @@ def _bessel_k(x, nu):
 
     xm = arb(x.mid())
     x_rad = float(x.rad())
+    num: acb | arb
     if isinstance(nu, acb):
         num = acb(arb(nu.real.mid()), arb(nu.imag.mid()))
         nu_rad = float(nu.real.rad()) + float(nu.imag.rad())

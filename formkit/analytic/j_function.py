@@ -65,7 +65,8 @@ def _euler_product(q):
             sr += cr + tr
             si += ci + ti
         k1r, k1i = mul(kr, ki, qr, qi)
-        cr, ci = mul(*mul(tr, ti, kr, ki), k1r, k1i)  # exponent grows by 2k + 1
+        t2r, t2i = mul(tr, ti, kr, ki)
+        cr, ci = mul(t2r, t2i, k1r, k1i)  # exponent grows by 2k + 1
         kr, ki = k1r, k1i
         k += 1
     return mpmath.mpc(mpmath.ldexp(mpmath.mpf(int(sr)), -P), mpmath.ldexp(mpmath.mpf(int(si)), -P))

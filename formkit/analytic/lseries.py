@@ -52,7 +52,8 @@ baby steps of the baby-step giant-step searches; no result depends on it.
 Floating point: ``S``, the ``L'/L`` partial sums and the logarithms are IEEE doubles;
 the rounding error of a sum of ``M`` terms is below ``(M + 10)·2^-52·Σ|terms|``, which
 is added to the radius, and the interval ends are widened by ``10^-12`` relative for
-``exp``.  The digamma value comes from mpmath at 53 bits and is rounded up by ``10^-12``.
+``exp``.  The digamma value comes from mpmath at 53 bits (error below ``10^-15``); to cover it
+and the rounding of the bracket, the bound ``Z`` is inflated to ``Z·(1 + 10^-12) + 10^-12``.
 
 References
 ----------
@@ -90,7 +91,7 @@ __all__ = [
 ]
 
 #: ``C₀ = (1 + √2)·√5/2 ≈ 2.70``: under GRH ``|K(ρ − 1 − u)| ≤ C₀/(¼ + γ²)`` for all
-#: ``u ≥ 0`` (``docs/l_value_interval.md``, Lemma 2).
+#: ``u ≥ 0`` (``docs/l_value_interval.md``, Lemma 3).
 GRH_CONSTANT = (1 + math.sqrt(2)) * math.sqrt(5) / 2
 
 #: The values of ``σ`` tried in the bound for ``Σ_ρ 1/(¼ + γ²)``.
@@ -303,7 +304,7 @@ def _digamma(v: float) -> float:
 
 
 def _zero_sum_bound(q: int, odd: bool, T: dict[float, _Sum], N: int) -> tuple[float, float]:
-    """``(Z, σ)`` with ``Σ_ρ 1/(¼ + γ²) ≤ Z`` under GRH (docs/l_value_interval.md, Lemma 3)."""
+    """``(Z, σ)`` with ``Σ_ρ 1/(¼ + γ²) ≤ Z`` under GRH (docs/l_value_interval.md, Lemma 5)."""
     a = 1 if odd else 0
     best = (math.inf, 0.0)
     for s, part in T.items():

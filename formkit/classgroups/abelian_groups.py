@@ -152,8 +152,8 @@ class _Sylow:
     def _torsion_log(self, t: int, w: Triple) -> tuple[int, ...] | None:
         kind, data = self._torsion_solver(t)
         if kind == "table":
-            return data.get(w)  # type: ignore[union-attr]
-        baby, giant, m = data  # type: ignore[misc]
+            return data.get(w)
+        baby, giant, m = data
         y = w
         for i in range(m + 1):
             v = baby.get(y)

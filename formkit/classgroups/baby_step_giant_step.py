@@ -186,6 +186,7 @@ class _Ops:
         if e == 0:
             return self.one
         bits = bin(e)[2:]
+        result: Triple | None
         if len(bits) <= 16:
             result = x
             for bit in bits[1:]:
@@ -431,6 +432,8 @@ def class_group_bsgs(D: object, *, prime_bound: int | None = None) -> ClassGroup
     spread = max(1.0, est.estimate * est.l_value.typical_radius)
     center = max(1, round(est.estimate))
     target: int | None = None
+    assumption: str | None
+    bound: int | None
     certified, assumption, bound = False, "GRH", B
     if f > 1:
         if -d_K <= FIELD_ENUMERATION_LIMIT:

@@ -220,34 +220,37 @@ def value_prime_to(form: FormLike, M: object) -> tuple[int, int, int]:
     (17, 1, 1)
     """
     f = as_form(form)
-    M = abs(int(M))
+    modulus = abs(int(M))  # type: ignore[call-overload]  # M may be any integer-like value
     if not f.is_primitive:
         raise NotPrimitiveError(f"{f!r} is not primitive (content {f.content}); its values share a factor")
     for x, y in ((1, 0), (0, 1), (1, 1), (1, -1), (2, 1), (1, 2), (2, -1), (1, -2), (3, 1), (1, 3)):
         m = f(x, y)
-        if m != 0 and gcd(m, M) == 1:
+        if m != 0 and gcd(m, modulus) == 1:
             return m, x, y
-    primes = list(factorint(M)) if M > 1 else []
+    primes = list(factorint(modulus)) if modulus > 1 else []
     xs, ys = [], []
     for p in primes:
         if f.a % p:
-            xs.append(1), ys.append(0)
+            xs.append(1)
+            ys.append(0)
         elif f.c % p:
-            xs.append(0), ys.append(1)
+            xs.append(0)
+            ys.append(1)
         else:
-            xs.append(1), ys.append(1)
+            xs.append(1)
+            ys.append(1)
     x, P = crt(xs, primes)
     y, _ = crt(ys, primes)
     if x == 0 and y == 0:  # pragma: no cover - only when M = 1, handled above
         x = 1
     m = f(x, y)
-    if m == 0 or gcd(m, M) != 1:
+    if m == 0 or gcd(m, modulus) != 1:
         # x, y can be shifted by multiples of P without changing m mod P
         for k in range(1, 64):
             m = f(x + k * P, y)
-            if m != 0 and gcd(m, M) == 1:
+            if m != 0 and gcd(m, modulus) == 1:
                 return m, x + k * P, y
-        raise FormkitError(f"no value of {f!r} prime to {M} found")  # pragma: no cover
+        raise FormkitError(f"no value of {f!r} prime to {modulus} found")  # pragma: no cover
     return m, x, y
 
 

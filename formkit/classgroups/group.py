@@ -96,6 +96,8 @@ class ClassGroupElement:
     """
 
     __slots__ = ("_form", "_group")
+    _form: Triple
+    _group: ClassGroup
 
     def __init__(self, group: ClassGroup, form: Triple) -> None:
         object.__setattr__(self, "_group", group)
@@ -245,12 +247,24 @@ class ClassGroup:
         Dz = mpz(discriminant)
         if discriminant < 0 and abs(discriminant) > 10**30:
             L = _nucomp_bound(discriminant)
-            self._mul = lambda x, y: canonical(_nucomp_raw(*x, *y, Dz, L))  # type: ignore[assignment]
-            self._sqr = lambda x: canonical(_nudupl_raw(*x, Dz, L))  # type: ignore[assignment]
+
+            def mul(x: Triple, y: Triple) -> Triple:
+                return canonical(_nucomp_raw(x[0], x[1], x[2], y[0], y[1], y[2], Dz, L))
+
+            def sqr(x: Triple) -> Triple:
+                return canonical(_nudupl_raw(x[0], x[1], x[2], Dz, L))
+
         else:
             D = discriminant
-            self._mul = lambda x, y: canonical(_compose_raw(*x, *y, D))  # type: ignore[assignment]
-            self._sqr = lambda x: canonical(_compose_raw(*x, *x, D))  # type: ignore[assignment]
+
+            def mul(x: Triple, y: Triple) -> Triple:
+                return canonical(_compose_raw(x[0], x[1], x[2], y[0], y[1], y[2], D))
+
+            def sqr(x: Triple) -> Triple:
+                return canonical(_compose_raw(x[0], x[1], x[2], x[0], x[1], x[2], D))
+
+        self._mul: Callable[[Triple, Triple], Triple] = mul
+        self._sqr: Callable[[Triple], Triple] = sqr
 
     # -- basic data ------------------------------------------------------------
     @property
@@ -414,7 +428,8 @@ class ClassGroup:
     def sylow_subgroup(self, p: int) -> list[ClassGroupElement]:
         """The elements of the p-Sylow subgroup (order a power of the prime ``p``)."""
         p = _require_prime(p)
-        gens, orders = [], []
+        gens: list[ClassGroupElement] = []
+        orders: list[int] = []
         for g, n in zip(self._generators, self._invariants):
             pk = 1
             while n % (pk * p) == 0:
@@ -423,8 +438,8 @@ class ClassGroup:
                 gens.append(ClassGroupElement(self, g) ** (n // pk))
                 orders.append(pk)
         out = [self.identity]
-        for g, n in zip(gens, orders):
-            powers = [g**j for j in range(n)]
+        for element, n in zip(gens, orders):
+            powers = [element**j for j in range(n)]
             out = [x * y for x in out for y in powers]
         return out
 

@@ -259,7 +259,7 @@ def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
     u = ops.pow(x, step)
     y = ops.pow(x, k0)
     s = isqrt(count) + 1
-    table: dict[tuple[int, int], int] = {}
+    table: dict[tuple[int, ...], int] = {}
     uinv = ops.inverse(u)
     z = ops.one
     order = None
@@ -279,9 +279,9 @@ def _sieve(ops: _NarrowOps, x: Triple, cand: Progression) -> Progression:
     sols: list[int] = []  # ord(u) ≥ s: at most one solution per giant step; find two
     big = ops.pow(u, s)
     for i in range(count // s + 1):
-        j = table.get(ops.key(y))
-        if j is not None and i * s + j < count:
-            sols.append(i * s + j)
+        hit = table.get(ops.key(y))
+        if hit is not None and i * s + hit < count:
+            sols.append(i * s + hit)
             if len(sols) == 2:
                 order = sols[1] - sols[0]
                 return (k0 + step * sols[0], step * order, (count - 1 - sols[0]) // order + 1)
@@ -535,7 +535,7 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
         o, ofac = _order_from_multiple(cops, xc, narrow, dict(fac))
         grew = False
         for ell, v in ofac.items():
-            S = syl.setdefault(ell, _Sylow(cops, ell))  # type: ignore[arg-type]
+            S = syl.setdefault(ell, _Sylow(cops, ell))
             if S.order < ell ** fac[ell] and S.add(cops.pow(xc, o // ell**v)):
                 grew = True
         if grew:
@@ -543,7 +543,7 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
         n = 1
         for S in syl.values():
             n *= S.order
-    St = _Structure(cops, syl)  # type: ignore[arg-type]
+    St = _Structure(cops, syl)
     how = (
         f"structure from the prime forms at {used[:8]}{'…' if len(used) > 8 else ''}, "
         f"which reach all {narrow} classes"
@@ -595,26 +595,26 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
     from .genus import genus_count
 
     r = real_class_number(D, prime_bound=prime_bound)
-    D = r.discriminant
-    f = discriminant_parts(D)[1]
+    disc: int = r.discriminant
+    f = discriminant_parts(disc)[1]
     narrow = r.class_number_narrow
-    ops = _NarrowOps(D, r.statistics)
-    genera = genus_count(D)
+    ops = _NarrowOps(disc, r.statistics)
+    genera = genus_count(disc)
     try:
         if narrow > 1 and narrow == genera:  # every genus a single class: C2^rank
             rank = narrow.bit_length() - 1
-            gens, dlog = _genus_structure(D, f, rank)
+            gens, dlog = _genus_structure(disc, f, rank)
             invariants: tuple[int, ...] = (2,) * rank
             generators = tuple(ops.canonical(g) for g in gens)
             how = f"each of the {genera} genera is one class, so Cl⁺(D) ≅ C2^{rank} (Gauss)"
         else:
-            invariants, generators, dlog, how = _sylow_structure(D, f, ops, narrow)
+            invariants, generators, dlog, how = _sylow_structure(disc, f, ops, narrow)
     except _CycleTooLong:
         raise FormkitError(
-            f"the cycles of reduced forms of D = {D} are longer than {CYCLE_LIMIT} forms "
+            f"the cycles of reduced forms of D = {disc} are longer than {CYCLE_LIMIT} forms "
             f"(regulator {r.regulator:.6g}), too long for the class group structure here; "
             f"h⁺ = {narrow}, h = {r.class_number} and R come from real_class_number "
-            f"('formkit class-number {D}')"
+            f"('formkit class-number {disc}')"
         ) from None
 
     def canonical(x: Triple) -> Triple:
@@ -622,7 +622,7 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
 
     prov = Provenance("bsgs", False, "GRH", r.provenance.bound, f"{r.provenance.detail}; {how}")
     return ClassGroup(
-        D,
+        disc,
         invariants=invariants,
         generators=generators,
         dlog=dlog,

@@ -17,6 +17,7 @@ import re
 import sys
 from collections.abc import Sequence
 
+from .._version import __version__
 from ..core.progress import set_progress
 from ..errors import FormkitError
 from .conventions import NUMBER_SYNTAX, _Parser
@@ -44,6 +45,8 @@ def build_parser() -> argparse.ArgumentParser:
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
+    # the version is defined once, in formkit/_version.py (pyproject reads it from there)
+    parser.add_argument("--version", action="version", version=f"formkit {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     # the modules providing commands, in the order they appear in ``formkit --help``
     from . import analytic, explain, forms, graph, groups, ideals, primes, represent, table

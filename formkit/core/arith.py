@@ -64,7 +64,7 @@ if BACKEND == "gmpy2":
     _next_prime = _g.next_prime
 elif BACKEND == "python":
     _g = None
-    mpz = int  # type: ignore[assignment]
+    mpz = int
     _isqrt = math.isqrt
 
     def _isqrt_rem(n: int) -> tuple[int, int]:

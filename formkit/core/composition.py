@@ -284,7 +284,7 @@ def power(F: FormLike, k: int, *, method: str = "nucomp") -> Form:
             if method == "nucomp":
                 result = _nudupl_raw(*result, Dz, L)
                 if bit == "1":
-                    result = _nucomp_raw(*result, *base, Dz, L)
+                    result = _nucomp_raw(result[0], result[1], result[2], base[0], base[1], base[2], Dz, L)
             else:
                 result = _reduce_definite_raw(*_compose_raw(*result, *result, Dz))
                 if bit == "1":
@@ -292,11 +292,14 @@ def power(F: FormLike, k: int, *, method: str = "nucomp") -> Form:
         return Form(*(int(v) for v in result))
     sq = isqrt(Dz)
     if k == 0:
-        return _reduce_any(*(mpz(v) for v in Form.principal(D)), Dz)
+        P = Form.principal(D)
+        return _reduce_any(mpz(P.a), mpz(P.b), mpz(P.c), Dz)
     base = _reduce_indefinite_raw(mpz(F.a), mpz(F.b), mpz(F.c), Dz, sq)
     result = base
     for bit in bin(k)[3:]:
-        result = _reduce_indefinite_raw(*_compose_raw(*result, *result, Dz), Dz, sq)
+        a, b, c = _compose_raw(result[0], result[1], result[2], result[0], result[1], result[2], Dz)
+        result = _reduce_indefinite_raw(a, b, c, Dz, sq)
         if bit == "1":
-            result = _reduce_indefinite_raw(*_compose_raw(*result, *base, Dz), Dz, sq)
+            a, b, c = _compose_raw(result[0], result[1], result[2], base[0], base[1], base[2], Dz)
+            result = _reduce_indefinite_raw(a, b, c, Dz, sq)
     return Form(*(int(v) for v in result))

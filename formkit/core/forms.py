@@ -19,7 +19,7 @@ References
 from __future__ import annotations
 
 from collections.abc import Iterator, Sequence
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 from ..errors import DiscriminantError, FormError, MatrixError, NotPrimeError, NotPrimitiveError
 from .arith import as_int, gcd, is_probable_prime, is_square, isqrt, kronecker
@@ -57,8 +57,9 @@ def as_matrix(value: object, *, name: str = "matrix") -> Matrix:
     >>> as_matrix([[2, 1], [1, 1]])
     ((2, 1), (1, 1))
     """
+    rows: Any = value
     try:
-        (p, q), (r, s) = value  # type: ignore[misc]
+        (p, q), (r, s) = rows
     except (TypeError, ValueError) as exc:
         raise MatrixError(f"{name} must be [[p, q], [r, s]], not {value!r}") from exc
     m = (
@@ -72,13 +73,15 @@ def as_matrix(value: object, *, name: str = "matrix") -> Matrix:
 
 def _entries(m: object, name: str = "matrix") -> tuple[int, int, int, int]:
     """``(p, q, r, s)`` of ``[[p, q], [r, s]]``; MatrixError / NotAnIntegerError otherwise."""
+    rows: Any = m
     try:
-        (p, q), (r, s) = m  # type: ignore[misc]
+        (p, q), (r, s) = rows
     except (TypeError, ValueError) as exc:
         raise MatrixError(f"{name} must be [[p, q], [r, s]], not {m!r}") from exc
     if type(p) is int and type(q) is int and type(r) is int and type(s) is int:
         return p, q, r, s
-    return tuple(as_int(v, name + " entry") for v in (p, q, r, s))  # type: ignore[return-value]
+    e = name + " entry"
+    return as_int(p, e), as_int(q, e), as_int(r, e), as_int(s, e)
 
 
 def mat_mul(m: Matrix, n: Matrix) -> Matrix:
@@ -269,8 +272,9 @@ class Form:
         Any integral 2×2 matrix is accepted here (also singular ones); equivalence
         checks use :func:`as_matrix`, which insists on determinant ±1.
         """
+        rows: Any = matrix
         try:
-            (p, q), (r, s) = matrix  # type: ignore[misc]
+            (p, q), (r, s) = rows
         except (TypeError, ValueError) as exc:
             raise MatrixError(f"matrix must be [[p, q], [r, s]], not {matrix!r}") from exc
         p, q, r, s = (as_int(v, "matrix entry") for v in (p, q, r, s))
@@ -491,19 +495,19 @@ class Form:
         return f"Form({self._a}, {self._b}, {self._c})"
 
     def _poly_text(self, power: str, times: str) -> str:
-        terms: list[str] = []
+        terms: list[tuple[str, str]] = []
         for coeff, mono in ((self._a, f"x{power}"), (self._b, f"x{times}y"), (self._c, f"y{power}")):
             if coeff == 0:
                 continue
             sign = "-" if coeff < 0 else "+"
             mag = abs(coeff)
             body = mono if mag == 1 else f"{mag}{mono}"
-            terms.append((sign, body))  # type: ignore[arg-type]
+            terms.append((sign, body))
         if not terms:
             return "0"
-        first_sign, first = terms[0]  # type: ignore[misc]
+        first_sign, first = terms[0]
         out = ("-" if first_sign == "-" else "") + first
-        for sign, body in terms[1:]:  # type: ignore[misc]
+        for sign, body in terms[1:]:
             out += f" {sign} {body}"
         return out
 

@@ -67,7 +67,7 @@ def _number(D: int, value: object, name: str = "element") -> QuadraticNumber:
     if isinstance(value, QuadraticNumber) and value.discriminant == D:
         a = value
     else:
-        a = Order(D).number(value, name)  # type: ignore[arg-type]
+        a = Order(D).number(value, name)
     return a
 
 

@@ -220,11 +220,11 @@ def sqrt_mod(a: int, n: int, factors: dict[int, int] | None = None) -> list[int]
     # combine with CRT
     results = [0]
     m = 1
-    for mod, roots in zip(moduli, root_lists):
+    for mod, residues in zip(moduli, root_lists):
         inv = int(invert(m, mod)) if m > 1 else 0
         new = []
         for x in results:
-            for r in roots:
+            for r in residues:
                 # y ≡ x mod m, y ≡ r mod mod
                 t = ((r - x) * inv) % mod if m > 1 else r
                 new.append(x + m * t)

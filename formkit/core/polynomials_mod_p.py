@@ -93,12 +93,12 @@ def _xpow_minus_x_mod(f: list[int], p: int) -> list[int]:
 
     result = [1]
     base = [0, 1] if n > 1 else rem([0, 1])
-    e = p
-    while e:
-        if e & 1:
+    exponent = p
+    while exponent:
+        if exponent & 1:
             result = rem(_mul(result, base, p))
-        e >>= 1
-        if e:
+        exponent >>= 1
+        if exponent:
             base = rem(_mul(base, base, p))
     result = result + [0] * max(0, 2 - len(result))
     result[1] = (result[1] - 1) % p

@@ -157,12 +157,12 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                     "names the class:"
                 )
             )
-            rows = []
+            cycle_rows = []
             for x in G.elements():
                 cyc, complete = _cycle_prefix(x.form, 8)
-                shown = tuple(p for g in cyc for p in (m_form(g), " "))[:-1]
-                rows.append(((m_form(x.form),), shown + (() if complete else (" ...",))))
-            blocks.append(Table((("class",), ("its cycle",)), tuple(rows)))
+                cycle_text = tuple(p for g in cyc for p in (m_form(g), " "))[:-1]
+                cycle_rows.append(((m_form(x.form),), cycle_text + (() if complete else (" ...",))))
+            blocks.append(Table((("class",), ("its cycle",)), tuple(cycle_rows)))
     blocks.append(Heading(2, "Structure"))
     gens = G.generators
     if gens:
@@ -208,14 +208,14 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     elements = list(G.elements())
     shown = elements[:max_classes]
     sym_index: dict[tuple, int] = {}
-    rows = []
-    recs = []
+    rows: list[tuple[tuple[Math | str, ...], ...]] = []
+    recs: list[dict] = []
     for i, x in enumerate(shown, 1):
         fx = x.form
         mval, vx, vy = value_prime_to(fx, D)
         symbol = tuple(ch(mval) for ch in chars)
         dl = G.discrete_log(x)
-        row = [
+        row: list[tuple[Math | str, ...]] = [
             (m_int(i),),
             (m_form(fx),),
             (m_int(x.order),),
@@ -234,7 +234,13 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             }
         )
         sym_index.setdefault(symbol, len(sym_index))
-    header = [("#",), ("reduced form",), ("order",), ("discrete log",), ("value m",)]
+    header: list[tuple[Math | str, ...]] = [
+        ("#",),
+        ("reduced form",),
+        ("order",),
+        ("discrete log",),
+        ("value m",),
+    ]
     header.extend((_char_math(c),) for c in chars)
     blocks.append(
         para(

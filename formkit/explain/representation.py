@@ -22,6 +22,8 @@ References
 
 from __future__ import annotations
 
+from typing import Any
+
 from ..core.arith import as_int, factorint, gcd
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from ..core.modular_roots import sqrt_mod
@@ -204,7 +206,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
                 + "."
             )
         )
-        rows = []
+        rows: list[tuple[Any, ...]] = []  # cells: Math values and tuples of parts, as Table renders both
         details: list[Block] = []
         for b in roots:
             c = (b * b - DP) // (4 * mm)
@@ -216,13 +218,13 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
                 roots_rec.append(rec)
                 continue
             rf = reduce_form(F, steps=True)
-            N = index.get(rf.reduced)
+            to_reduced = index.get(rf.reduced)
             rec["reduced"] = rf.reduced.to_list()
-            if N is None:
+            if to_reduced is None:
                 rows.append((m_int(b), m_form(F), ("yes",), (m_form(rf.reduced),), ("no",), ("-",)))
                 rec.update(equivalent=False, matrix=None, solution=None)
             else:
-                M = mat_mul(N, mat_inverse(rf.matrix))  # P·M = F
+                M = mat_mul(to_reduced, mat_inverse(rf.matrix))  # P·M = F
                 x, y = M[0][0], M[1][0]
                 if P.transform(M) != F or P(x, y) != mm:  # pragma: no cover - would be a bug
                     raise ArithmeticError(f"representation of {mm} by {P!r}: matrix check failed")
@@ -246,7 +248,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             steps_blocks, steps_rec = reduction_blocks(rf)
             rec["steps"] = steps_rec
             details.extend(steps_blocks)
-            if N is None:
+            if to_reduced is None:
                 details.append(
                     Paragraph(
                         (

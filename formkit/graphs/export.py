@@ -207,7 +207,7 @@ def graph_to_dot(C: nx.Graph) -> str:
         attrs["fillcolor"] = gcol.get(genus_key(C, n), "#dddddd")
         lines.append(f"  {_dot_quote(node_label(n))} {_dot_attrs(attrs)};")
     for u, v, d in C.edges(data=True):
-        attrs: dict = {}
+        attrs = {}
         if "prime" in d:
             attrs = {"label": d["prime"], "prime": d["prime"], "color": ecol.get(d["prime"], "#333333")}
         elif "matrix" in d:

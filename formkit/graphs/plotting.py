@@ -33,6 +33,7 @@ from __future__ import annotations
 import math
 import os
 from collections.abc import Hashable
+from typing import cast
 
 import networkx as nx
 
@@ -90,7 +91,7 @@ def _cayley_rings(C: nx.Graph) -> list[list[Hashable]]:
     p1 = _ring_prime(C)
     if p1 is None:
         return [[n] for n in nodes]
-    step = {p: {} for p in primes}
+    step: dict[int, dict[Hashable, Hashable]] = {p: {} for p in primes}
     for u, v, q in C.edges(data="prime"):
         step[q][u] = v
     ring_of: dict[Hashable, int] = {}
@@ -382,7 +383,13 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             if len(ring) <= 2:  # no room inside: write the class below the pair
                 cy = min(pos[v][1] for v in ring) - 0.08
             ax.text(
-                cx, cy, "[" + node_label(ring[0]) + "]", ha="center", va="center", fontsize=7, color="#333333"
+                cx,
+                cy,
+                "[" + node_label(cast("tuple[int, int, int]", ring[0])) + "]",
+                ha="center",
+                va="center",
+                fontsize=7,
+                color="#333333",
             )
 
     # legends
@@ -391,7 +398,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     shown = genera if len(genera) <= 16 else genera[:15]
     for g, colour in shown:
         prefix, _, label = g.rpartition(" ")
-        text = f"genus {label}" + (f" in Cl({prefix})" if prefix else "")
+        legend_text = f"genus {label}" + (f" in Cl({prefix})" if prefix else "")
         handles.append(
             Line2D(
                 [],
@@ -401,7 +408,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
                 markerfacecolor=colour,
                 markeredgecolor="#444444",
                 markersize=8,
-                label=text,
+                label=legend_text,
             )
         )
     if len(genera) > len(shown):

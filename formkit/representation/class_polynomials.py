@@ -89,7 +89,7 @@ _RESIDUAL_LIMIT = mpmath.mpf(10) ** -10
 
 def _reduced_forms(D: int) -> list[tuple[int, int, int]]:
     """All primitive reduced forms (a, b, c) of discriminant D < 0 (one per class)."""
-    return [tuple(map(int, f)) for f in _reduced_forms_cached(D)]
+    return [(int(f[0]), int(f[1]), int(f[2])) for f in _reduced_forms_cached(D)]
 
 
 def _check_negative(D: object) -> int:

@@ -293,8 +293,8 @@ def _reduction_test(Q: Form, D: int, p: int) -> Vector | None:
             F = Form(p, b, (b * b - D) // (4 * p))
             rf = _reduce_definite(F, False)
             if rf.reduced == rq.reduced:
-                M = mat_mul(rq.matrix, mat_inverse(rf.matrix))
-                return _checked(Q, (M[0][0], M[1][0]), p)
+                T = mat_mul(rq.matrix, mat_inverse(rf.matrix))
+                return _checked(Q, (T[0][0], T[1][0]), p)
         return None
     for b in _roots_mod_4p(D, p):
         F = Form(p, b, (b * b - D) // (4 * p))

@@ -30,6 +30,7 @@ References
 from __future__ import annotations
 
 from collections.abc import Iterator
+from typing import cast
 
 from ..core.arith import as_int, gcd, isqrt, mpz
 from ..core.equivalence import fundamental_automorph
@@ -216,11 +217,11 @@ def walk_orbit(form: FormLike, solution: tuple[int, int]) -> Iterator[Vector]:
     [(1, 0), (-1, 0), (3, 2), (-3, -2), (3, -2), (-3, 2)]
     """
     _Q, A, Ainv = _orbit_matrices(form)
-    v0 = tuple(as_int(v, "solution entry") for v in solution)
+    v0 = cast("tuple[int, int]", tuple(as_int(v, "solution entry") for v in solution))
     if v0 == (0, 0):
         yield (0, 0)
         return
-    yield v0  # type: ignore[misc]
+    yield v0
     yield (-v0[0], -v0[1])
     fwd = back = v0
     while True:

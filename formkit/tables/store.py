@@ -27,6 +27,7 @@ import os
 import sqlite3
 import time
 from collections.abc import Sequence
+from typing import Any
 
 from ..core.arith import as_int
 from ..errors import FormkitError
@@ -103,7 +104,8 @@ def parse_invariants(value: object) -> tuple[int, ...]:
             nums.append(int(p))
     else:
         try:
-            nums = [as_int(x, "invariant") for x in value]  # type: ignore[union-attr]
+            items: Any = value  # any iterable; a non-iterable raises TypeError below
+            nums = [as_int(x, "invariant") for x in items]
         except TypeError:
             raise FormkitError(f"invariants must be a list of positive integers, not {value!r}") from None
     if any(n < 1 for n in nums):
@@ -303,7 +305,8 @@ def query_table(
     conn = _connect(path, create=False)
     try:
         meta = _meta(conn)
-        where, params = [], []
+        where: list[str] = []
+        params: list[int | str | None] = []
         if start is not None:
             where.append("discriminant >= ?")
             params.append(as_int(start, "start"))

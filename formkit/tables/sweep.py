@@ -55,7 +55,7 @@ def _numpy():
         try:  # numpy is a dependency; the pure-Python engine keeps working without it
             import numpy
         except ImportError:  # pragma: no cover - exercised only where numpy is absent
-            numpy = None
+            numpy = None  # type: ignore[assignment]
         _NUMPY.append(numpy)
     return _NUMPY[0]
 
