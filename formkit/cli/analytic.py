@@ -6,6 +6,7 @@ import argparse
 
 from ..core.parse import parse_integer
 from ..core.quadratic_orders import parse_discriminant
+from .conventions import add_limit_options, limit_of
 
 
 def _digits(args: argparse.Namespace) -> int:
@@ -130,10 +131,10 @@ def _cmd_theta(args: argparse.Namespace) -> int:
     from .conventions import CommandError, emit
 
     Q = as_form(args.form)
-    N = parse_integer(args.upto, "--upto")
-    show = parse_integer(args.show, "--show")
-    if show < 0:
-        raise CommandError(f"--show must be >= 0, not {show}")
+    N = parse_integer(args.bound, "--bound")
+    show = limit_of(args)
+    if show is None:  # --all
+        show = N
     if args.output and not args.genus:
         raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
     if not args.genus:
@@ -316,22 +317,22 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "lattice points of the ellipse Q <= N. --genus adds Siegel's weighted average over the genus of Q "
             "(classes by complete enumeration), its comparison with the Eisenstein series given by the genus "
             "characters (fundamental D), and the cusp part theta_Q - average; with --output FILE.png|svg also "
-            "a picture of r_Q(n) against the genus average (needs matplotlib). --show K prints the first K+1 "
+            "a picture of r_Q(n) against the genus average (needs matplotlib). --limit K prints the first K+1 "
             "coefficients (the computation goes to N). "
             "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N)."
         ),
         epilog=(
-            "examples:\n  formkit theta 1,0,1 --upto 20\n  formkit theta 2,1,3 --upto 30 --genus\n"
-            "  formkit theta 1,1,6 --upto 60 --genus --output cusp23.png\n"
-            "  formkit theta 1,0,1 --upto 10^6 --show 5"
+            "examples:\n  formkit theta 1,0,1 --bound 20\n  formkit theta 2,1,3 --bound 30 --genus\n"
+            "  formkit theta 1,1,6 --bound 60 --genus --output cusp23.png\n"
+            "  formkit theta 1,0,1 --bound 10^6 --limit 5"
         ),
         formatter_class=raw,
     )
     t.add_argument("form", help="a positive definite form: a,b,c or a polynomial such as 'x^2+xy+6y^2'")
     t.add_argument(
-        "--upto", metavar="N", required=True, help="the last exponent N (at most 10^8; 2*10^6 with --genus)"
+        "--bound", metavar="N", required=True, help="the last exponent N (at most 10^8; 2*10^6 with --genus)"
     )
-    t.add_argument("--show", metavar="K", default="20", help="print the first K+1 coefficients (default 20)")
+    add_limit_options(t, "coefficients after the constant term in the text output", 20)
     t.add_argument("--genus", action="store_true", help="genus average, Eisenstein comparison and cusp part")
     t.add_argument("--output", "-o", metavar="FILE", help="with --genus: write a PNG/SVG picture")
     t.set_defaults(handler=_cmd_theta)

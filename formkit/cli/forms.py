@@ -7,7 +7,7 @@ import argparse
 from ..core.equivalence import equivalence
 from ..core.forms import as_form
 from ..core.reduction import _cycle_prefix, reduce_form
-from .conventions import integer_type
+from .conventions import add_limit_options, integer_type, limit_of, plural
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -21,7 +21,7 @@ def _matrix_text(m) -> str:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .conventions import CommandError, emit
+    from .conventions import emit
 
     f = as_form(args.form)
     res = reduce_form(f, steps=args.steps)
@@ -29,10 +29,8 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
     cyc = None
     complete = True
     if f.is_indefinite:
-        limit = args.cycle_limit
-        if limit < 0:
-            raise CommandError(f"--cycle-limit must be >= 0 (0 = no limit), not {limit}")
-        cyc, complete = _cycle_prefix(res.reduced, limit)
+        limit = limit_of(args, zero_means_all=True)
+        cyc, complete = _cycle_prefix(res.reduced, limit or 0)
         payload["cycle"] = [g.to_list() for g in cyc]
         payload["cycle_complete"] = complete
     if args.steps:
@@ -53,10 +51,10 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
         lines.append(f"matrix:        {_matrix_text(res.matrix)}   (form · matrix = reduced)")
         if cyc is not None:
             if complete:
-                lines.append(f"cycle ({len(cyc)} reduced forms):")
+                lines.append(f"cycle ({plural(len(cyc), 'reduced form')}):")
             else:
                 lines.append(
-                    f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --cycle-limit):"
+                    f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --limit N and --all):"
                 )
             lines.extend(f"  {g.to_list()}" for g in cyc)
         return "\n".join(lines)
@@ -99,13 +97,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '3x^2+7xy-5y^2'")
     p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
-    p.add_argument(
-        "--cycle-limit",
-        type=integer_type("--cycle-limit", 0),
-        default=CYCLE_LIMIT,
-        metavar="N",
-        help=f"list at most N forms of the cycle of an indefinite form (default {CYCLE_LIMIT}; 0 = all); "
-        "the JSON key cycle_complete tells whether the whole cycle was listed",
+    add_limit_options(
+        p, "forms of the cycle of an indefinite form (the JSON key cycle_complete tells)", CYCLE_LIMIT,
+        zero_means_all=True,
     )
     p.set_defaults(handler=_cmd_reduce)
 

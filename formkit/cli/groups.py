@@ -8,7 +8,7 @@ from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, discriminant_of, integer_type
+from .conventions import add_discriminant_argument, add_limit_options, discriminant_of, integer_type, limit_of, plural
 
 #: Beyond this |D| the ``class-number`` command does not compute the kernel of Cl(O) → Cl(O_K)
 #: (it needs the group structure; ``formkit group`` computes it).
@@ -171,14 +171,17 @@ def _cmd_group(args: argparse.Namespace) -> int:
         lines.append(f"method: {prov}")
         if payload["forms"] is not None:
             rows = payload["forms"]
-            shown = rows[: args.max_rows]
+            limit = limit_of(args)
+            shown = rows if limit is None else rows[:limit]
             lines.append("")
             lines.append(f"{'class':>24}  {'order':>6}  discrete log")
             for f in shown:
                 x = G(f)
                 lines.append(f"{f!s:>24}  {x.order:>6}  {list(G.discrete_log(x))}")
             if len(rows) > len(shown):
-                lines.append(f"... {len(rows) - len(shown)} more classes (use --max-rows or --json)")
+                lines.append(
+                    f"... {plural(len(rows) - len(shown), 'more class', 'more classes')} (use --limit N, --all or --json)"
+                )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -288,12 +291,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         metavar="N",
         help="D > 0: the regulator to N significant digits (mpmath, verified at higher precision)",
     )
-    p.add_argument(
-        "--max-rows",
-        type=integer_type("--max-rows", 0),
-        default=200,
-        help="classes listed in the text table (default 200)",
-    )
+    add_limit_options(p, "classes in the text table", 200)
     p.set_defaults(handler=_cmd_group)
 
     c = sub.add_parser(

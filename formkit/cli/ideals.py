@@ -191,7 +191,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("p", type=integer_type("p", 2), help="a prime")
     q.set_defaults(handler=_cmd_primes)
 
@@ -218,7 +218,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit ideal form -20 '(3, 1 + √-5)'\n  formkit ideal form 'Q(sqrt(94))' '(3, 1+√94)' --json",
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", help=_IDEAL_HELP)
     q.set_defaults(handler=_cmd_form)
 
@@ -230,7 +230,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit ideal multiply -20 '(2, 1 + √-5)' '(3, 1 + √-5)'",
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal_i", metavar="I", help=_IDEAL_HELP)
     q.add_argument("ideal_j", metavar="J", help=_IDEAL_HELP)
     q.set_defaults(handler=_cmd_multiply)
@@ -250,7 +250,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", nargs="?", default=None, help=_IDEAL_HELP)
     q.add_argument("--element", metavar="ALPHA", help="factor the principal ideal (ALPHA), e.g. '1 + √-5'")
     q.set_defaults(handler=_cmd_factor)
@@ -273,7 +273,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", help=_IDEAL_HELP)
     q.add_argument(
         "--compact", action="store_true", help="D > 0: give the generator in compact form even when small"

@@ -6,19 +6,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument
-
-
-def _nonnegative_int(text: str) -> int:
-    from .conventions import CommandError
-
-    try:
-        value = parse_integer(text, "--limit")
-    except Exception as exc:  # ParseError: re-raised with the option's name
-        raise CommandError(f"--limit must be a non-negative integer, not {text!r}") from exc
-    if value < 0:
-        raise CommandError(f"--limit must be a non-negative integer, not {value}")
-    return value
+from .conventions import add_discriminant_argument, add_limit_options, limit_of, plural
 
 
 def _parse_factors(text: str) -> dict:
@@ -47,7 +35,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")
-    limit = _nonnegative_int(args.limit) if args.limit is not None else None
+    limit = limit_of(args)
     factors = _parse_factors(args.factors) if args.factors is not None else None
     res = represent(Q, n, primitive=args.primitive, limit=limit, factors=factors)
     payload = res.to_dict()
@@ -58,7 +46,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
         which = "primitive solutions" if args.primitive else "solutions"
         if res.definite:
             lines.append(
-                f"{res.count} solution{'s' if res.count != 1 else ''} in all, "
+                f"{plural(res.count, 'solution')} in all, "
                 f"{res.primitive_count} primitive (gcd(x, y) = 1)"
             )
             if res.solutions:
@@ -73,7 +61,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
             return "\n".join(lines)
         A = fundamental_automorph(Q)
         lines.append(
-            f"infinitely many solutions in {res.orbit_count} orbit{'s' if res.orbit_count != 1 else ''} "
+            f"infinitely many solutions in {plural(res.orbit_count, 'orbit')} "
             f"({res.primitive_orbit_count} of primitive solutions) under ±A^k, "
             f"A = [[{A[0][0]}, {A[0][1]}], [{A[1][0]}, {A[1][1]}]]"
         )
@@ -141,9 +129,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="the integer to represent: digits of any length, or a power of ten such as 3*10^20",
     )
     p.add_argument("--primitive", action="store_true", help="list only primitive solutions (gcd(x, y) = 1)")
-    p.add_argument(
-        "--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)"
-    )
+    add_limit_options(p, "solutions or orbit representatives (the counts stay exact)", None)
     p.add_argument(
         "--factors",
         metavar="FACTORS",
@@ -166,7 +152,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit genera -84\n  formkit genera -4620 --json\n  formkit genera 316",
         formatter_class=raw,
     )
-    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)", metavar="D")
+    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)")
     g.set_defaults(handler=_cmd_genera)
 
 

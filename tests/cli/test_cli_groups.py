@@ -148,7 +148,7 @@ def test_group_human_output_positive_and_rows(capsys):
     # narrow and wide named in words (issue 13, item 4): h⁺ = 6 proper form classes, h = 3 ideal classes
     assert "narrow class number h+ = 6" in out and "(forms up to proper equivalence)" in out
     assert "class number h = 3" in out and "(ideal classes of the order)" in out
-    code, out, _ = run(["group", "-4004", "--max-rows", "5"], capsys)
+    code, out, _ = run(["group", "-4004", "--limit", "5"], capsys)
     assert code == 0 and "35 more classes" in out
 
 
@@ -223,7 +223,7 @@ def test_compose_and_power_human(capsys):
         (["group", "-5"], "-5"),
         (["group", "16"], "16"),
         (["group", "abc"], "abc"),
-        (["group", "-23", "--max-rows", "-1"], "max-rows"),
+        (["group", "-23", "--limit", "-1"], "--limit"),
         (["group", "-23", "--method", "magic"], "magic"),
         (["compose", "2,1,3", "1,1,1"], "discriminant"),
         (["compose", "2,2,6", "2,2,6"], "primitive"),
