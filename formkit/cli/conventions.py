@@ -100,7 +100,9 @@ def add_limit_options(
         metavar="N",
         help=f"list at most N {what} (default {shown}" + ("; 0 = all" if zero_means_all else "") + ")",
     )
-    parser.add_argument("--all", action="store_true", help=f"list every one of the {what} (overrides --limit)")
+    parser.add_argument(
+        "--all", action="store_true", help=f"list every one of the {what} (overrides --limit)"
+    )
 
 
 def limit_of(args: argparse.Namespace, *, zero_means_all: bool = False) -> int | None:

@@ -63,7 +63,9 @@ def _cmd_represent(args: argparse.Namespace) -> int:
     from ..explain.representation import worked_representation
 
     n = parse_integer(args.n, "n")
-    return _emit_example(args, worked_representation(as_form(args.form), n, max_detail=_unlimited(limit_of(args))))
+    return _emit_example(
+        args, worked_representation(as_form(args.form), n, max_detail=_unlimited(limit_of(args)))
+    )
 
 
 def _cmd_group(args: argparse.Namespace) -> int:

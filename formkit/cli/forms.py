@@ -98,7 +98,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '3x^2+7xy-5y^2'")
     p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
     add_limit_options(
-        p, "forms of the cycle of an indefinite form (the JSON key cycle_complete tells)", CYCLE_LIMIT,
+        p,
+        "forms of the cycle of an indefinite form (the JSON key cycle_complete tells)",
+        CYCLE_LIMIT,
         zero_means_all=True,
     )
     p.set_defaults(handler=_cmd_reduce)

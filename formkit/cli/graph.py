@@ -153,9 +153,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     from .conventions import add_discriminant_argument
 
-    add_discriminant_argument(
-        p, "a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4"
-    )
+    add_discriminant_argument(p, "a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4")
     which = p.add_mutually_exclusive_group()
     which.add_argument(
         "--primes", metavar="P,Q,...", help="label the edges by these primes (comma-separated)"

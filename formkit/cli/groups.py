@@ -8,7 +8,14 @@ from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, add_limit_options, discriminant_of, integer_type, limit_of, plural
+from .conventions import (
+    add_discriminant_argument,
+    add_limit_options,
+    discriminant_of,
+    integer_type,
+    limit_of,
+    plural,
+)
 
 #: Beyond this |D| the ``class-number`` command does not compute the kernel of Cl(O) → Cl(O_K)
 #: (it needs the group structure; ``formkit group`` computes it).

@@ -5,8 +5,14 @@ from __future__ import annotations
 import argparse
 
 from ..core.forms import as_form
-from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, add_limit_options, discriminant_of, integer_type, limit_of, plural
+from .conventions import (
+    add_discriminant_argument,
+    add_limit_options,
+    discriminant_of,
+    integer_type,
+    limit_of,
+    plural,
+)
 
 _SHOWN = 60  # primes listed in the text output by default (all of them with --json or --all)
 
@@ -19,7 +25,9 @@ def _cmd_primes(args: argparse.Namespace) -> int:
     Q = as_form(args.form)
     X = args.bound
     if X > PRIME_BOUND_LIMIT:
-        raise CommandError(f"--bound must be at most {PRIME_BOUND_LIMIT} (a sieve is kept in memory), not {X}")
+        raise CommandError(
+            f"--bound must be at most {PRIME_BOUND_LIMIT} (a sieve is kept in memory), not {X}"
+        )
     crit: PrimeCriterion = prime_criterion(Q, polynomial=not args.no_polynomial)
     primes = represented_primes(Q, X)
     count_all = len(primes_up_to(X))

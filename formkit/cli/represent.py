@@ -46,8 +46,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
         which = "primitive solutions" if args.primitive else "solutions"
         if res.definite:
             lines.append(
-                f"{plural(res.count, 'solution')} in all, "
-                f"{res.primitive_count} primitive (gcd(x, y) = 1)"
+                f"{plural(res.count, 'solution')} in all, {res.primitive_count} primitive (gcd(x, y) = 1)"
             )
             if res.solutions:
                 lines.append(f"{which}{' (first ' + str(len(res.solutions)) + ')' if res.truncated else ''}:")

@@ -326,7 +326,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="output: aligned text (default), CSV, one JSON object, or a LaTeX tabular",
     )
     p.add_argument("--db", metavar="FILE", help="SQLite file to build into (resumable) or to query")
-    p.add_argument("--workers", type=integer_type("--workers", 1), metavar="N", help="worker processes (default: all cores)")
+    p.add_argument(
+        "--workers",
+        type=integer_type("--workers", 1),
+        metavar="N",
+        help="worker processes (default: all cores)",
+    )
     p.add_argument(
         "--cluster",
         metavar="ADDRESS",
@@ -358,7 +363,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     g.add_argument("--conductor", metavar="F", help="rows of conductor F")
     g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")
     g.add_argument("--genera", metavar="G", help="rows with G genera")
-    g.add_argument("--limit", type=integer_type("--limit", 0), metavar="N", help="at most N rows (default all)")
+    g.add_argument(
+        "--limit", type=integer_type("--limit", 0), metavar="N", help="at most N rows (default all)"
+    )
     g.add_argument(
         "--info", action="store_true", help="describe the stored table: options, coverage, provenance"
     )

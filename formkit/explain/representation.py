@@ -288,7 +288,11 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         )
         blocks.extend(details)
     if omitted:
-        blocks.append(para(f"(Reduction steps of {omitted} further roots are not shown; raise max_detail, on the command line --limit N or --all.)"))
+        blocks.append(
+            para(
+                f"(Reduction steps of {omitted} further roots are not shown; raise max_detail, on the command line --limit N or --all.)"
+            )
+        )
 
     blocks.append(Heading(2, "Result"))
     solutions = sorted(set(solutions))

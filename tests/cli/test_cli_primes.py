@@ -25,7 +25,9 @@ def test_primes_class_polynomial_json(capsys):
     assert d["exceptions"] == []
     expected = [p for p in sympy.primerange(5, 3001) if p % 3 == 1 and pow(2, (p - 1) // 3, p) == 1]
     assert d["primes"] == expected
-    assert d["prime_count"]["represented"] == len(expected) and d["prime_count"]["primes"] == 430  # π(3000) = 430
+    assert (
+        d["prime_count"]["represented"] == len(expected) and d["prime_count"]["primes"] == 430
+    )  # π(3000) = 430
 
 
 def test_primes_nonprincipal_class(capsys):
