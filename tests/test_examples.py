@@ -52,7 +52,7 @@ def test_referee_order_class_groups():
     # h(5²·(-23)) = 3·5·(1 - (-23/5)/5) = 3·6 = 18, not 16 (class number formula for orders,
     # Cox Thm 7.24, with h(-23) = 3; from memory).
     assert len(bad) == 2
-    assert "D =   -180" in bad[0] and "C2xC2" in bad[0]
+    assert "D =   -180" in bad[0] and "C2×C2" in bad[0]
     assert "D =   -575" in bad[1] and "computed h =  18" in bad[1]
     # h(-12) = 1, h(-27)... rows confirmed with the formula: e.g. h(-63) = 4 (Cox's table of
     # orders, from memory) and every projection is onto.
@@ -64,10 +64,10 @@ def test_referee_order_class_groups():
 def test_lecture_handout_genera(tmp_path):
     tex = tmp_path / "cl260.tex"
     out = run_example("lecture_handout_genera.py", "--tex", str(tex))
-    # D = -260 = -4·65: h = 8, Cl ≅ C2 x C4, characters (n/5), (n/13), delta, 4 genera
+    # D = -260 = -4·65: h = 8, Cl ≅ C2 × C4, characters (n/5), (n/13), delta, 4 genera
     # (Cox §3 table of genus characters; 65 is not idoneal; from memory).
     assert "# Handout: genera of discriminant -260" in out
-    assert "Cl(-260) = C2 x C4 has 8 classes" in out and "give 4 genera of 2 classes each" in out
+    assert "Cl(-260) = C2 × C4 has 8 classes" in out and "give 4 genera of 2 classes each" in out
     assert "| principal | (+1, +1, +1) | [1, 0, 65], [9, 8, 9] |" in out
     assert "# The class group of discriminant -260" in out
     assert "MISMATCH" not in out

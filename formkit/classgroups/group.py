@@ -318,8 +318,8 @@ class ClassGroup:
 
     @property
     def structure(self) -> str:
-        """The group as a product of cyclic groups, e.g. ``'C2 x C2 x C10'`` (``'C1'`` if trivial)."""
-        return " x ".join(f"C{n}" for n in self._invariants) or "C1"
+        """The group as a product of cyclic groups, e.g. ``'C2 × C2 × C10'`` (``'C1'`` if trivial)."""
+        return " × ".join(f"C{n}" for n in self._invariants) or "C1"
 
     # -- elements --------------------------------------------------------------
     def __call__(self, form: FormLike) -> ClassGroupElement:

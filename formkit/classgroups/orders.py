@@ -372,8 +372,8 @@ class IdealClassGroup:
 
     @property
     def structure(self) -> str:
-        """``'C2 x C4'`` (``'C1'`` if trivial)."""
-        return " x ".join(f"C{n}" for n in self.invariants) or "C1"
+        """``'C2 × C4'`` (``'C1'`` if trivial)."""
+        return " × ".join(f"C{n}" for n in self.invariants) or "C1"
 
     def to_dict(self) -> dict:
         """JSON-ready: ``invariants``, ``generators`` (forms), ``class_number``."""
@@ -473,7 +473,7 @@ class OrderKernel:
         }
 
     def __repr__(self) -> str:
-        inv = " x ".join(f"C{n}" for n in self.invariants) or "C1"
+        inv = " × ".join(f"C{n}" for n in self.invariants) or "C1"
         return (
             f"<kernel of Cl({self.discriminant}) → Cl(d_K): {inv}, {self.order} classes; {self.provenance}>"
         )

@@ -6,7 +6,7 @@ import argparse
 
 from ..core.parse import parse_integer
 from ..core.quadratic_orders import parse_discriminant
-from .conventions import add_limit_options, limit_of
+from .conventions import add_limit_options, form_text, limit_of
 
 
 def _digits(args: argparse.Namespace) -> int:
@@ -106,7 +106,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
             tau = k.tau
             return "\n".join(
                 [
-                    f"Kronecker's first limit formula for Q = {Q.to_list()} (D = {Q.discriminant}):",
+                    f"Kronecker's first limit formula for Q = {form_text(Q)} (D = {Q.discriminant}):",
                     f"  Z_Q(s) = R/(s - 1) + C + O(s - 1) with R = 2*pi/sqrt({-Q.discriminant}) = {k.residue.text()}",
                     f"  C = {k.constant_term.text()}   (through eta(tau_Q), tau_Q = {float(tau.real):.6g} + "
                     f"{float(tau.imag):.6g}i, |eta(tau_Q)| = {abs(complex(k.eta.value)):.15g})",
@@ -121,7 +121,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
         raise CommandError("epstein needs S (the point s), or --limit-formula")
     v = epstein_zeta(Q, args.s, digits=digits)
     payload = {"kind": "epstein", **v.to_dict()}
-    emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {Q.to_list()}")))
+    emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {form_text(Q)}")))
     return 0
 
 
@@ -145,7 +145,7 @@ def _cmd_theta(args: argparse.Namespace) -> int:
             m = min(N, show)
             nonzero = sum(1 for n in range(1, N + 1) if th[n])
             lines = [
-                f"theta series of Q = {Q.to_list()} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
+                f"theta series of Q = {form_text(Q)} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
                 f"of (x, y) with Q(x, y) = n",
                 f"  r_Q(n) > 0 for {nonzero} of the n in 1..{N}; first coefficients (n: r_Q(n)):",
             ]
@@ -176,9 +176,8 @@ def _cmd_theta(args: argparse.Namespace) -> int:
             None: "(D is not fundamental: no Eisenstein comparison)",
         }[t.siegel_agrees]
         lines = [
-            f"Q = {Q.to_list()} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
-            f"{'es' if len(t.genus_forms) != 1 else ''}: "
-            + ", ".join(str(f.to_list()) for f in t.genus_forms),
+            f"Q = {form_text(Q)} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
+            f"{'es' if len(t.genus_forms) != 1 else ''}: " + ", ".join(form_text(f) for f in t.genus_forms),
             f"Siegel's weighted average of theta over the genus (weights 1/|Aut|, |Aut| = "
             f"{sorted(set(t.automorphism_orders))}) {siegel}",
             f"{'n':>5}  {'r_Q(n)':>7}  {'genus average':>14}  {'cusp part':>10}",

@@ -28,6 +28,7 @@ __all__ = [
     "add_limit_options",
     "limit_of",
     "plural",
+    "form_text",
     "NUMBER_SYNTAX",
 ]
 
@@ -76,6 +77,16 @@ def integer_type(name: str, minimum: int | None = None) -> Callable[[str], int]:
 
     convert.__name__ = name
     return convert
+
+
+def form_text(form: Any) -> str:
+    """A form in the text notation shared by every command: ``(a, b, c)`` (JSON uses ``[a, b, c]``).
+
+    >>> form_text([1, 16, -15])
+    '(1, 16, -15)'
+    """
+    a, b, c = (form.a, form.b, form.c) if hasattr(form, "a") else form
+    return f"({a}, {b}, {c})"
 
 
 def plural(n: int, word: str, plural_form: str | None = None) -> str:

@@ -6,8 +6,8 @@ import argparse
 
 from ..core.equivalence import equivalence
 from ..core.forms import as_form
-from ..core.reduction import _cycle_prefix, reduce_form
-from .conventions import add_limit_options, integer_type, limit_of, plural
+from ..core.reduction import _cycle_prefix, class_representative, reduce_form
+from .conventions import add_limit_options, form_text, integer_type, limit_of, plural
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -26,6 +26,8 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
     f = as_form(args.form)
     res = reduce_form(f, steps=args.steps)
     payload = res.to_dict()
+    rep = class_representative(res.reduced)
+    payload["class_representative"] = rep.to_list()
     cyc = None
     complete = True
     if f.is_indefinite:
@@ -40,15 +42,19 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
         ]
 
     def human() -> str:
-        lines = [f"form:          {f}   {f.to_list()}", f"discriminant:  {f.discriminant}  ({f.kind})"]
+        lines = [f"form:          {f}   {form_text(f)}", f"discriminant:  {f.discriminant}  ({f.kind})"]
         if args.steps:
             lines.append("steps:")
             for i, s in enumerate(res.steps, 1):
-                lines.append(f"  {i:3d}. {s.kind:9s} by {_matrix_text(s.matrix):24s} -> {s.after.to_list()}")
+                lines.append(f"  {i:3d}. {s.kind:9s} by {_matrix_text(s.matrix):24s} -> {form_text(s.after)}")
             if not res.steps:
                 lines.append("  (already reduced)")
-        lines.append(f"reduced:       {res.reduced}   {res.reduced.to_list()}")
+        lines.append(f"reduced:       {res.reduced}   {form_text(res.reduced)}")
         lines.append(f"matrix:        {_matrix_text(res.matrix)}   (form · matrix = reduced)")
+        if f.is_indefinite:
+            lines.append(
+                f"class:         represented by {rep}   {form_text(rep)}   (least |a| on the cycle, as formkit group lists it)"
+            )
         if cyc is not None:
             if complete:
                 lines.append(f"cycle ({plural(len(cyc), 'reduced form')}):")
@@ -56,7 +62,7 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
                 lines.append(
                     f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --limit N and --all):"
                 )
-            lines.extend(f"  {g.to_list()}" for g in cyc)
+            lines.extend(f"  {form_text(g)}" for g in cyc)
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -89,8 +95,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="reduce a form (definite or indefinite), with the matrix and optional steps",
         description=(
             "Reduce a binary quadratic form and print the SL2(Z) matrix taking it to the reduced "
-            "form; for indefinite forms also the whole cycle of reduced forms. "
-            "Python: formkit.reduce_form(form, steps=True), formkit.reduced_cycle(form)."
+            "form; for indefinite forms also the whole cycle of reduced forms and the class "
+            "representative (the form of the cycle that formkit group, compose and power give). "
+            "Python: formkit.reduce_form(form, steps=True), formkit.reduced_cycle(form), formkit.class_representative(form)."
         ),
         epilog="examples:\n  formkit reduce 10,37,35 --steps\n  formkit reduce '-x^2 + 13y^2' --json",
         formatter_class=argparse.RawDescriptionHelpFormatter,

@@ -12,6 +12,7 @@ from .conventions import (
     add_discriminant_argument,
     add_limit_options,
     discriminant_of,
+    form_text,
     integer_type,
     limit_of,
     plural,
@@ -113,14 +114,14 @@ def _formula_lines(D: int, payload: dict) -> list[str]:
         )
     k = payload.get("kernel")
     if k is not None:
-        inv = " x ".join(f"C{n}" for n in k["invariants"]) or "C1"
+        inv = " × ".join(f"C{n}" for n in k["invariants"]) or "C1"
         lines.append(
             f"kernel of Cl(O) → Cl(O_K) (forms up to proper equivalence): {inv}, {k['order']} "
             f"class{'es' if k['order'] != 1 else ''}"
             + (f": {', '.join(str(x) for x in k['elements'])}" if k["elements"] is not None else "")
         )
         if D > 0 and k["wide_order"] != k["order"]:
-            winv = " x ".join(f"C{n}" for n in k["wide_invariants"]) or "C1"
+            winv = " × ".join(f"C{n}" for n in k["wide_invariants"]) or "C1"
             lines.append(f"kernel on ideal classes: {winv}, {k['wide_order']} classes")
     return lines
 
@@ -171,7 +172,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
         lines += _formula_lines(D, payload)
         lines.append(
             ("generators of Cl+(O): " if D > 0 else "generators: ")
-            + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants))
+            + ", ".join(f"{form_text(g.form)} (order {n})" for g, n in zip(G.generators, G.invariants))
             if G.invariants
             else "generators: none (trivial group)"
         )
@@ -184,7 +185,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
             lines.append(f"{'class':>24}  {'order':>6}  discrete log")
             for f in shown:
                 x = G(f)
-                lines.append(f"{f!s:>24}  {x.order:>6}  {list(G.discrete_log(x))}")
+                lines.append(f"{form_text(f):>24}  {x.order:>6}  {list(G.discrete_log(x))}")
             if len(rows) > len(shown):
                 lines.append(
                     f"... {plural(len(rows) - len(shown), 'more class', 'more classes')} (use --limit N, --all or --json)"
@@ -246,7 +247,7 @@ def _cmd_compose(args: argparse.Namespace) -> int:
 
     F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
     result = compose(F, G, method=args.method)
-    emit(args, {"result": result.to_list()}, lambda: f"{F}  *  {G}  =  {result}   {result.to_list()}")
+    emit(args, {"result": result.to_list()}, lambda: f"{F}  *  {G}  =  {result}   {form_text(result)}")
     return 0
 
 
@@ -256,7 +257,7 @@ def _cmd_power(args: argparse.Namespace) -> int:
     F = as_form(args.form)
     k = parse_integer(args.exponent, "exponent")
     result = power(F, k)
-    emit(args, {"result": result.to_list()}, lambda: f"({F})^{k}  =  {result}   {result.to_list()}")
+    emit(args, {"result": result.to_list()}, lambda: f"({F})^{k}  =  {result}   {form_text(result)}")
     return 0
 
 

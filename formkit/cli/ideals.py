@@ -13,7 +13,7 @@ from __future__ import annotations
 import argparse
 
 from ..core.forms import as_form
-from .conventions import add_discriminant_argument, discriminant_of, emit, integer_type
+from .conventions import add_discriminant_argument, discriminant_of, emit, form_text, integer_type
 
 _IDEAL_HELP = "an ideal by generators, e.g. '(2, 1 + √-5)' or '(3, 1+sqrt(-5))'"
 
@@ -35,7 +35,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
         lines = [dec.statement()]
         for P, e, g in zip(dec.ideals, dec.exponents, dec.residue_degrees):
             lines.append(
-                f"  {P.text()}: norm {P.norm}, residue degree {g}, exponent {e}, form {P.form.to_list()}"
+                f"  {P.text()}: norm {P.norm}, residue degree {g}, exponent {e}, form {form_text(P.form)}"
             )
         return "\n".join(lines)
 
@@ -52,11 +52,11 @@ def _cmd_of_form(args: argparse.Namespace) -> int:
 
     def human() -> str:
         lines = [
-            f"form {Q.to_list()} (D = {Q.discriminant}) ↦ ideal {I.text()} of {I.order.ring_text}, norm {I.norm}"
+            f"form {form_text(Q)} (D = {Q.discriminant}) ↦ ideal {I.text()} of {I.order.ring_text}, norm {I.norm}"
         ]
         if Q.a < 0:
             lines.append("  (a < 0: the ideal is √D·[|a|, (−b + √D)/2], in the narrow class of the form)")
-        lines.append(f"  and back: the ideal's form is {I.form.to_list()} (properly equivalent to the form)")
+        lines.append(f"  and back: the ideal's form is {form_text(I.form)} (properly equivalent to the form)")
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -71,7 +71,7 @@ def _cmd_form(args: argparse.Namespace) -> int:
         args,
         payload,
         lambda: (
-            f"ideal {I.text()} (norm {I.norm}, content {I.content}) ↦ form {I.form.to_list()} = N(xα − yβ)/N(I)"
+            f"ideal {I.text()} (norm {I.norm}, content {I.content}) ↦ form {form_text(I.form)} = N(xα − yβ)/N(I)"
         ),
     )
     return 0
@@ -98,8 +98,8 @@ def _cmd_multiply(args: argparse.Namespace) -> int:
         return "\n".join(
             [
                 f"I·J = {I.text()} · {J.text()} = {K.text()}, norm {K.norm} = {I.norm}·{J.norm}",
-                f"form of I·J, reduced: {reduced(K.form).to_list()}; composition of the forms, reduced: "
-                f"{composite.to_list()} ({'the same class' if agrees else 'DIFFERENT'})",
+                f"form of I·J, reduced: {form_text(reduced(K.form))}; composition of the forms, reduced: "
+                f"{form_text(composite)} ({'the same class' if agrees else 'DIFFERENT'})",
             ]
         )
 
@@ -128,7 +128,7 @@ def _cmd_factor(args: argparse.Namespace) -> int:
     def human() -> str:
         lines = [f"{what} = {I.text()}, norm {I.norm}", f"  = {fac.text()}"]
         for p, P, e in fac.factors:
-            lines.append(f"  {P.text()}^{e}: above p = {p}, norm {P.norm}, form {P.form.to_list()}")
+            lines.append(f"  {P.text()}^{e}: above p = {p}, norm {P.norm}, form {form_text(P.form)}")
         return "\n".join(lines)
 
     emit(args, payload, human)

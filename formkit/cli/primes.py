@@ -9,6 +9,7 @@ from .conventions import (
     add_discriminant_argument,
     add_limit_options,
     discriminant_of,
+    form_text,
     integer_type,
     limit_of,
     plural,
@@ -52,7 +53,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
     def human() -> str:
         c = crit
         lines = [
-            f"form:          {c.form}   {c.form.to_list()}",
+            f"form:          {c.form}   {form_text(c.form)}",
             f"discriminant:  {c.discriminant}   class number {c.class_number}"
             + (" (narrow)" if c.discriminant > 0 else "")
             + f", class of the form has order {c.class_order}",

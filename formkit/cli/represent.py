@@ -6,7 +6,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, add_limit_options, limit_of, plural
+from .conventions import add_discriminant_argument, add_limit_options, form_text, limit_of, plural
 
 
 def _parse_factors(text: str) -> dict:
@@ -42,7 +42,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
     def human() -> str:
         D = Q.discriminant
-        lines = [f"form: {Q}   {Q.to_list()}   (D = {D}, {Q.kind})", f"N = {n}"]
+        lines = [f"form: {Q}   {form_text(Q)}   (D = {D}, {Q.kind})", f"N = {n}"]
         which = "primitive solutions" if args.primitive else "solutions"
         if res.definite:
             lines.append(
@@ -91,7 +91,7 @@ def _cmd_genera(args: argparse.Namespace) -> int:
         for g in P:
             sym = " ".join("+" if s > 0 else "-" for s in g.symbol) or "(empty)"
             label = "principal genus" if g.is_principal else "genus"
-            lines.append(f"{label} [{sym}]: " + ", ".join(str(f.to_list()) for f in g.forms))
+            lines.append(f"{label} [{sym}]: " + ", ".join(form_text(f) for f in g.forms))
         return "\n".join(lines)
 
     emit(args, payload, human)

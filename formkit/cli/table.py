@@ -115,9 +115,10 @@ def _cmd_table(args: argparse.Namespace) -> int:
 
 
 def _inv_plain(inv) -> str:
+    """The group in the text notation shared by every command: ``C2 × C4``, the trivial group ``C1``."""
     if inv is None:
         return ""
-    return ",".join(map(str, inv)) if inv else "1"
+    return " × ".join(f"C{n}" for n in inv) or "C1"
 
 
 def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> None:
@@ -145,7 +146,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
                 "conductor",
                 "class_number",
                 "class_number_narrow",
-                "invariants",
+                "structure",
                 "genus_count",
                 "regulator",
             ]
@@ -173,7 +174,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     if positive:
         head.append("h+")
     if with_invariants:
-        head.append("invariants")
+        head.append("structure")
     head.append("genera")
     if positive:
         head.append("regulator")
@@ -242,7 +243,7 @@ def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str
             cells.append(f"${r.class_number_narrow}$")
         if with_invariants:
             inv = r.invariants or ()
-            cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "1") + "$")
+            cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "C_1") + "$")
         cells.append(f"${r.genus_count}$")
         if positive:
             cells.append("" if r.regulator is None else f"${r.regulator:.6f}$")
@@ -359,7 +360,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         metavar="H",
         help="rows with narrow class number H (forms up to proper equivalence; the class number when D < 0)",
     )
-    g.add_argument("--invariants", metavar="N1,N2,...", help="rows with this group structure (1 = trivial)")
+    g.add_argument(
+        "--invariants",
+        metavar="N1,N2,...",
+        help="rows with this group structure: 2,2,4 or 'C2 × C2 × C4' (1 or C1 = trivial)",
+    )
     g.add_argument("--conductor", metavar="F", help="rows of conductor F")
     g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")
     g.add_argument("--genera", metavar="G", help="rows with G genera")

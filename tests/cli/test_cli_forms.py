@@ -16,7 +16,7 @@ import pytest
 from _cli import run, run_json
 from _foundation_strategies import act, brute_reduced_indefinite, det
 
-REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix"}
+REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix", "class_representative"}
 EQUIVALENT_KEYS = {"equivalent", "properly", "matrix"}
 
 
@@ -95,7 +95,7 @@ def test_reduce_steps(capsys):
         assert list(current) == s["form"]
     assert list(current) == d["reduced"]
     code, out, _err = run(capsys, "reduce", "10,37,35", "--steps")
-    assert code == 0 and "translate" in out and "swap" in out and "[1, 1, 8]" in out
+    assert code == 0 and "translate" in out and "swap" in out and "(1, 1, 8)" in out
 
 
 def test_reduce_human_output(capsys):
@@ -103,7 +103,7 @@ def test_reduce_human_output(capsys):
     assert code == 0 and err == ""
     assert "discriminant:  52" in out and "cycle (10 reduced forms)" in out
     code, out, err = run(capsys, "reduce", "3,0,3")
-    assert code == 0 and "reduced:" in out and "[3, 0, 3]" in out
+    assert code == 0 and "reduced:" in out and "(3, 0, 3)" in out
 
 
 def test_reduce_huge_form_exact(capsys):

@@ -127,11 +127,11 @@ def test_group_json_q_sqrt_79(capsys):
 def test_group_human_output(capsys):
     code, out, err = run(["group", "-4004"], capsys)
     assert code == 0 and err == ""
-    assert "C2 x C2 x C10" in out
+    assert "C2 × C2 × C10" in out
     assert "class number h = 40" in out
     assert "unconditional" in out
     # a table of all 40 classes with their orders: one line per class, orders divide 10
-    row = re.compile(r"^\s*\[(-?\d+), (-?\d+), (-?\d+)\]\s+(\d+)\s")
+    row = re.compile(r"^\s*\((-?\d+), (-?\d+), (-?\d+)\)\s+(\d+)\s")
     rows = [m.groups() for m in map(row.match, out.splitlines()) if m]
     assert len(rows) == 40
     orders = {tuple(map(int, r[:3])): int(r[3]) for r in rows}
@@ -208,9 +208,9 @@ def test_power_json_against_brute_force(capsys):
 
 def test_compose_and_power_human(capsys):
     code, out, _ = run(["compose", "2,1,3", "2,1,3"], capsys)
-    assert code == 0 and "[2, -1, 3]" in out
+    assert code == 0 and "(2, -1, 3)" in out
     code, out, _ = run(["power", "2,1,3", "-1"], capsys)
-    assert code == 0 and "[2, -1, 3]" in out
+    assert code == 0 and "(2, -1, 3)" in out
 
 
 # ---------------------------------------------------------------------------
@@ -278,7 +278,7 @@ def test_group_positive_bsgs_json(capsys):
 def test_group_positive_huge_unit_not_written(capsys):
     code, out, err = run(["group", "10^12+29"], capsys)  # auto: above the enumeration limit
     assert code == 0 and err == ""
-    assert "C2 x C2; narrow class number h+ = 4" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
+    assert "C2 × C2; narrow class number h+ = 4" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
     assert "not written out" in out and "conditional on GRH" in out
 
 
