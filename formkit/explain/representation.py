@@ -311,12 +311,17 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         else:
             blocks.append(para(f"No solutions: Q does not represent {n}."))
     else:
+        # one solution per orbit, the same choice as formkit.represent: least x² + y²
+        # (formkit.representation.orbits.orbit_representative)
+        from ..representation.orbits import orbit_representative
+
+        solutions = sorted({orbit_representative(Q, v) for v in solutions})
         data.update(count=None, orbit_count=len(solutions), solutions=[list(v) for v in solutions])
         if solutions:
             blocks.append(
                 para(
                     f"Infinitely many solutions, in {len(solutions)} orbits under the automorphs of Q; one solution "
-                    "per orbit: " + ", ".join(f"@{v}@" for v in solutions) + "."
+                    "per orbit (the one with the least x² + y²): " + ", ".join(f"@{v}@" for v in solutions) + "."
                 )
             )
         else:
