@@ -468,12 +468,14 @@ class ClassGroup:
             "class_number": self.class_number,
             "class_number_narrow": self.order,
             "invariants": list(self._invariants),
+            "structure": self.structure,
             "generators": [list(g) for g in self._generators],
             "forms": [list(g) for g in self._forms] if self._forms is not None else None,
             "method": self._provenance.method,
             "certified": self._provenance.certified,
             "assumption": self._provenance.assumption,
             "bound": self._provenance.bound,
+            "detail": self._provenance.detail,
         }
         if self._D > 0 and self._units is not None and self._units[0] > 2000:  # the unit has > 860 digits
             out["regulator"] = self._units[0]

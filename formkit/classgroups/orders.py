@@ -380,6 +380,7 @@ class IdealClassGroup:
         return {
             "class_number": self.class_number,
             "invariants": list(self.invariants),
+            "structure": self.structure,
             "generators": [g.to_list() for g in self.generators],
         }
 
@@ -465,6 +466,7 @@ class OrderKernel:
         return {
             "order": self.order,
             "invariants": list(self.invariants),
+            "structure": " × ".join(f"C{n}" for n in self.invariants) or "C1",
             "generators": [g.to_list() for g in self.generators],
             "elements": None if self.elements is None else [g.to_list() for g in self.elements],
             "wide_order": self.wide_order,

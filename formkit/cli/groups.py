@@ -138,6 +138,15 @@ def _cmd_group(args: argparse.Namespace) -> int:
     D = discriminant_of(args)
     G = class_group(D, method=args.method)
     payload = G.to_dict()
+    # every listed class with its order and discrete logarithm (as in the text table)
+    payload["classes"] = (
+        [
+            {"form": f, "order": G(f).order, "discrete_log": list(G.discrete_log(G(f)))}
+            for f in payload["forms"]
+        ]
+        if payload["forms"] is not None
+        else None
+    )
     known = dict(payload, detail=G.provenance.detail)
     extra, _formula = _order_payload(D, args.method, _digits(args), kernel=True, known=known, group=G)
     payload.update(extra)
@@ -148,6 +157,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
         else {
             "class_number": G.order,
             "invariants": list(G.invariants),
+            "structure": G.structure,
             "generators": [g.form.to_list() for g in G.generators],
         }
     )
@@ -287,9 +297,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(p, "the discriminant D (negative or positive, e.g. -4004, 316, -4*3*10^2)")
     p.add_argument(
         "--method",
-        choices=("auto", "enumerate", "bsgs"),
+        choices=("auto", "enumeration", "bsgs"),
         default="auto",
-        help="enumerate (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
+        help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
         "or auto (enumeration for small |D|)",
     )
     p.add_argument(
@@ -326,9 +336,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(c, "the discriminant D (negative or positive)")
     c.add_argument(
         "--method",
-        choices=("auto", "enumerate", "bsgs"),
+        choices=("auto", "enumeration", "bsgs"),
         default="auto",
-        help="enumerate (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
+        help="enumeration (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
         "infrastructure and the analytic interval for D > 0), or auto",
     )
     c.add_argument(

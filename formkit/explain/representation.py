@@ -321,7 +321,9 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             blocks.append(
                 para(
                     f"Infinitely many solutions, in {len(solutions)} orbits under the automorphs of Q; one solution "
-                    "per orbit (the one with the least x² + y²): " + ", ".join(f"@{v}@" for v in solutions) + "."
+                    "per orbit (the one with the least x² + y²): "
+                    + ", ".join(f"@{v}@" for v in solutions)
+                    + "."
                 )
             )
         else:

@@ -216,6 +216,8 @@ class ClassPolynomial:
         return {
             "discriminant": self.discriminant,
             "degree": self.degree,
+            # coefficients from the leading one (x^h) down to the constant term
+            "coefficient_order": "descending",
             "coefficients": list(self.coefficients),
             "kind": self.kind,
             "working_digits": self.working_digits,

@@ -56,6 +56,9 @@ EXTRA_KEYS = {
     "regulator_text",
     "kernel",
     "ideal_class_group",
+    # issue 15: the structure in the shared notation, every class with order and discrete log
+    "structure",
+    "classes",
 }
 
 
@@ -320,3 +323,18 @@ def test_class_number_interval(capsys):
     d = run_json(["class-number", "316", "--interval"], capsys)
     iv = d["analytic_interval"]
     assert iv["of"] == "h*R" and iv["lower"] <= d["class_number"] * d["regulator"] <= iv["upper"]
+
+
+def test_group_json_holds_orders_and_discrete_logs(capsys):
+    # issue 15: the JSON carries what the text table shows; checked against the group law
+    # itself (brute force: x^order = 1 and the discrete log rebuilds the class)
+    from formkit import class_group
+
+    d = run_json(["group", "-4620"], capsys)
+    G = class_group(-4620)
+    assert d["structure"] == G.structure and len(d["classes"]) == d["class_number"] == G.order
+    for c in d["classes"]:
+        x = G(c["form"])
+        assert (x ** c["order"]).is_identity and G.element(c["discrete_log"]) == x
+    assert run_json(["group", "-3"], capsys)["structure"] == "C1"
+    assert run_json(["group", "-3", "--method", "enumeration"], capsys)["method"] == "enumeration"
