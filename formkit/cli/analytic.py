@@ -199,7 +199,8 @@ def _cmd_critical_line(args: argparse.Namespace) -> int:
     from ..analytic.l_series import critical_line_samples
     from .conventions import CommandError, emit
 
-    D = parse_discriminant(args.discriminant, "D")
+    # D = 1 (the Riemann zeta function) is no discriminant of a quadratic order
+    D = 1 if args.discriminant.strip() == "1" else parse_discriminant(args.discriminant, "discriminant")
     points = parse_integer(args.points, "--points")
     c = critical_line_samples(D, args.height, points=points, digits=_digits(args))
     if args.output:
