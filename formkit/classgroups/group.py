@@ -335,9 +335,39 @@ class ClassGroup:
             raise FormError(f"Cl({self._D}) consists of positive definite forms; {f!r} is negative definite")
         return ClassGroupElement(self, self._canon(f.coefficients))
 
-    def element(self, exponents: Sequence[int]) -> ClassGroupElement:
-        """The class ``∏ g_i^{e_i}`` on the generators (inverse of :meth:`discrete_log`)."""
-        exps = [as_int(e, "exponent") for e in exponents]
+    def element(self, value: Sequence[int] | FormLike | ClassGroupElement) -> ClassGroupElement:
+        """A class: from what :meth:`__call__` takes (a form of discriminant D, in any
+        notation) or from exponents ``(e_1, …)`` giving ``∏ g_i^{e_i}`` on the generators
+        (inverse of :meth:`discrete_log`).
+
+        A triple of integers is read as a form when it has discriminant D, else as
+        exponents; when both readings are possible (three generators) it is refused, and
+        ``Form(a, b, c)`` or a list of exponents of another length says which is meant.
+
+        Examples
+        --------
+        >>> from formkit.classgroups.dispatch import class_group
+        >>> G = class_group(-16428)
+        >>> G.element(Form(13, 2, 316)) == G((13, 2, 316)) == G.element("13x^2 + 2xy + 316y^2")
+        True
+        >>> G.element((13, 2, 316)) == G((13, 2, 316)), G.element([1] * len(G.invariants)) in G
+        (True, True)
+        """
+        if isinstance(value, ClassGroupElement):
+            return self(value.form)
+        if isinstance(value, (Form, str)):
+            return self(value)
+        items = list(value)  # type: ignore[arg-type]
+        if len(items) == 3 and all(isinstance(v, int) for v in items):
+            a, b, c = items
+            if b * b - 4 * a * c == self._D:
+                if len(self._invariants) == 3:
+                    raise FormkitError(
+                        f"{tuple(items)} is both a form of discriminant {self._D} and exponents on the "
+                        "three generators: pass Form(a, b, c) or G(...) for the class of the form"
+                    )
+                return self(tuple(items))
+        exps = [as_int(e, "exponent") for e in items]
         if len(exps) != len(self._invariants):
             raise FormkitError(
                 f"need {len(self._invariants)} exponents (one per invariant factor), not {len(exps)}"
