@@ -69,6 +69,7 @@ from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _reduced_forms_cached
 from ..core.forms import Form
 from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
+from ..core.progress import announces_slowness
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
 
@@ -395,6 +396,9 @@ def _split_check(D: int, coeffs: list[int], forms, want: int = 6, want_principal
     return checked, principal
 
 
+@announces_slowness(
+    lambda D, **k: f"the class polynomial of discriminant {D}", "--no-verify skips the verification"
+)
 def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
     """The class polynomial ``H_D(x)`` of a negative discriminant ``D``.
 
