@@ -109,8 +109,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "Solve Q(x, y) = N by the square-root method (roots of b^2 = D mod 4N, reduction of "
             "(N, b, (b^2 - D)/4N), the equivalence matrix giving (x, y)). For definite forms: the number "
             "of all and of primitive solutions and the list; for indefinite forms the solutions form "
-            "infinitely many orbits under the automorphs: one solution per orbit (the smallest) is "
-            "listed and count is null. N may be a large integer; it must be factorable. "
+            "infinitely many orbits under the automorphs: one solution per orbit is listed, the one "
+            "with the least x^2 + y^2 (the same as in formkit explain represent), and count is null. N may be a large integer; it must be factorable. "
             "Python: formkit.represent(form, N, primitive=..., limit=..., factors=...)."
         ),
         epilog=(
