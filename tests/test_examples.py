@@ -11,6 +11,8 @@ import subprocess
 import sys
 from pathlib import Path
 
+import pytest
+
 ROOT = Path(__file__).resolve().parent.parent
 EXAMPLES = ROOT / "examples"
 
@@ -115,3 +117,30 @@ def test_real_fields_beyond_enumeration():
     # enumeration and the infrastructure give the same group at D = 4·10^8 + 1
     assert "D = 400000001: enumeration C1584, infrastructure C1584: agrees" in out
     assert "conditional on GRH" in out
+
+
+def test_notebook_tour_runs_headless_with_rich_outputs():
+    # issue 15: examples/notebook_tour.ipynb executed by nbclient (an outside runner); every
+    # result cell must display as HTML and LaTeX, the GRH-conditional group with its mark
+    nbformat = pytest.importorskip("nbformat")
+    nbclient = pytest.importorskip("nbclient")
+    pytest.importorskip("ipykernel")
+    nb = nbformat.read(EXAMPLES / "notebook_tour.ipynb", as_version=4)
+    nbclient.NotebookClient(
+        nb, timeout=240, kernel_name="python3", resources={"metadata": {"path": str(ROOT)}}
+    ).execute()
+    results = [
+        o["data"]
+        for c in nb.cells
+        if c.cell_type == "code"
+        for o in c.outputs
+        if o.get("output_type") == "execute_result"
+    ]
+    assert len(results) == 7  # one per result cell of the tour
+    for data in results:
+        assert "text/html" in data and "text/latex" in data, sorted(data)
+    html = " ".join(d["text/html"] for d in results)
+    latex = " ".join(d["text/latex"] for d in results)
+    assert "C36" in html and "unconditional" in html  # Cl(-16428) by enumeration
+    assert "[GRH]" in html and "conditional on GRH" in latex  # the bsgs group is marked
+    assert "(13, 2, 316) in Cl(-16428): order 36" in html and "<sup>2</sup>" in html

@@ -183,6 +183,14 @@ class ClassGroupElement:
     def _repr_latex_(self) -> str:
         return r"$\left[" + self.form._repr_latex_().strip("$") + r"\right]$"
 
+    def _repr_html_(self) -> str:
+        """Notebook display: the class of its representative, with order and discrete log."""
+        f = self.form
+        return (
+            f"class of ({f.a}, {f.b}, {f.c}) in Cl({self._group.discriminant}): order {self.order}, "
+            f"discrete log {list(self._group.discrete_log(self))}"
+        )
+
 
 def _require_prime(p: object) -> int:
     from ..core.arith import is_probable_prime
@@ -526,8 +534,34 @@ class ClassGroup:
             )
         return f"<class group Cl({self._D}) ≅ {self.structure}, h = {self.order}; {self._provenance}>"
 
+    def _provenance_mark(self) -> str:
+        # the condition a result rests on, visible beside it (empty when unconditional)
+        p = self._provenance
+        if p.certified:
+            return "unconditional"
+        return f"conditional on {p.assumption}" + (f", bound {p.bound}" if p.bound is not None else "")
+
+    def _repr_html_(self) -> str:
+        """Notebook display: structure, class numbers, generators and how it was obtained."""
+        import html
+
+        name = "Cl<sup>+</sup>" if self._D > 0 else "Cl"
+        gens = ", ".join(f"({g.form.a}, {g.form.b}, {g.form.c})" for g in self.generators) or "none"
+        mark = "" if self._provenance.certified else " <b>[GRH]</b>"
+        return (
+            f"{name}({self._D}) ≅ {html.escape(self.structure)}, "
+            + (
+                f"h<sup>+</sup> = {self.order}, h = {self.class_number}"
+                if self._D > 0
+                else f"h = {self.order}"
+            )
+            + f"; generators {gens}{mark}<br><small>{html.escape(str(self._provenance))}</small>"
+        )
+
     def _repr_latex_(self) -> str:
-        parts = r" \times ".join(rf"\mathbb{{Z}}/{n}\mathbb{{Z}}" for n in self._invariants) or "1"
+        parts = r" \times ".join(f"C_{{{n}}}" for n in self._invariants) or "C_1"
+        if not self._provenance.certified:
+            parts += rf"\ [\text{{{self._provenance_mark()}}}]"
         if self._D > 0:
             return (
                 rf"$\mathrm{{Cl}}^{{+}}({self._D}) \cong {parts},\ h^{{+}} = {self.order},\ h = {self.class_number}$"

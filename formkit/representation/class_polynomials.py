@@ -249,8 +249,22 @@ class ClassPolynomial:
             text = text[:60] + " …"
         return f"ClassPolynomial(D={self.discriminant}, degree={self.degree}: {text})"
 
+    def _how(self) -> str:
+        if self.verification is None:
+            return f"computed with {self.working_digits} digits, not verified"
+        return f"verified: recomputed with {self.verification.recomputed_digits} digits, roots modulo small primes checked"
+
     def _repr_latex_(self) -> str:
-        return f"$H_{{{self.discriminant}}}(x) = {self._text(latex=True)}$"
+        return f"$H_{{{self.discriminant}}}(x) = {self._text(latex=True)}$ ({self._how()})"
+
+    def _repr_html_(self) -> str:
+        """Notebook display: the polynomial (shortened past 400 characters) and how it was checked."""
+        import html
+
+        text = self._text()
+        if len(text) > 400:
+            text = text[:380] + " …"
+        return f"H<sub>{self.discriminant}</sub>(x) = {html.escape(text)}<br><small>{self._how()}</small>"
 
 
 def _product(D: int, forms: Sequence[tuple[int, int, int]], digits: int):

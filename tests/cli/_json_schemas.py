@@ -1,7 +1,7 @@
 """Shared by the schema test and the script that drafts the schema files.
 
 Every command path (``group``, ``ideal split``, ``explain represent``, …) has one JSON
-Schema file ``formkit/cli/schemas/<path joined by '-'>.json`` describing its ``--json``
+Schema file ``formkit/cli/schemas/<path joined by '.'>.json`` describing its ``--json``
 output.  :func:`examples` lists the help examples of every command (the lines of the
 ``examples:`` section of its ``--help``), run from a scratch directory so that ``-o FILE``
 examples write there.
@@ -38,7 +38,7 @@ def leaves(parser=None, prefix=()):
 
 
 def schema_path(path) -> Path:
-    return SCHEMA_DIR / ("-".join(path) + ".json")
+    return SCHEMA_DIR / (".".join(path) + ".json")
 
 
 def examples():
