@@ -10,7 +10,7 @@ Prints medians of N runs (default 3) of CPU time, measured side by side in one r
   modulo primes), with the digits used, the stated bound B(D) and the actual size of
   the largest coefficient;
 * represented primes up to 10^6: the congruence method beside the per-prime class
-  method on the same form, and the whole ``formkit primes … --upto 10^6 --json``
+  method on the same form, and the whole ``formkit primes … --bound 10^6 --json``
   command for forms of every kind.
 """
 
@@ -88,7 +88,7 @@ def bench_primes(repeat: int, X: int) -> None:
     print(f"x^2+5y^2: congruence {tc:.3f} s, per-prime classes {tk:.3f} s, ratio {tk / tc:.1f}")
     print(f"\n{'command (class polynomial recomputed each run)':<50} {'seconds':>8}")
     for args in (["x^2+5y^2"], ["1,0,27"], ["2,1,3"], ["1,0,14"], ["1,0,-79"], ["x^2-2y^2"], ["1,1,1319"]):
-        argv = ["primes", *args, "--upto", str(X), "--json"]
+        argv = ["primes", *args, "--bound", str(X), "--json"]
 
         def run():
             cp._class_polynomial.cache_clear()  # count the class polynomial every time

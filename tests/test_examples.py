@@ -11,6 +11,8 @@ import subprocess
 import sys
 from pathlib import Path
 
+import pytest
+
 ROOT = Path(__file__).resolve().parent.parent
 EXAMPLES = ROOT / "examples"
 
@@ -52,7 +54,7 @@ def test_referee_order_class_groups():
     # h(5²·(-23)) = 3·5·(1 - (-23/5)/5) = 3·6 = 18, not 16 (class number formula for orders,
     # Cox Thm 7.24, with h(-23) = 3; from memory).
     assert len(bad) == 2
-    assert "D =   -180" in bad[0] and "C2xC2" in bad[0]
+    assert "D =   -180" in bad[0] and "C2×C2" in bad[0]
     assert "D =   -575" in bad[1] and "computed h =  18" in bad[1]
     # h(-12) = 1, h(-27)... rows confirmed with the formula: e.g. h(-63) = 4 (Cox's table of
     # orders, from memory) and every projection is onto.
@@ -64,10 +66,10 @@ def test_referee_order_class_groups():
 def test_lecture_handout_genera(tmp_path):
     tex = tmp_path / "cl260.tex"
     out = run_example("lecture_handout_genera.py", "--tex", str(tex))
-    # D = -260 = -4·65: h = 8, Cl ≅ C2 x C4, characters (n/5), (n/13), delta, 4 genera
+    # D = -260 = -4·65: h = 8, Cl ≅ C2 × C4, characters (n/5), (n/13), delta, 4 genera
     # (Cox §3 table of genus characters; 65 is not idoneal; from memory).
     assert "# Handout: genera of discriminant -260" in out
-    assert "Cl(-260) = C2 x C4 has 8 classes" in out and "give 4 genera of 2 classes each" in out
+    assert "Cl(-260) = C2 × C4 has 8 classes" in out and "give 4 genera of 2 classes each" in out
     assert "| principal | (+1, +1, +1) | [1, 0, 65], [9, 8, 9] |" in out
     assert "# The class group of discriminant -260" in out
     assert "MISMATCH" not in out
@@ -115,3 +117,30 @@ def test_real_fields_beyond_enumeration():
     # enumeration and the infrastructure give the same group at D = 4·10^8 + 1
     assert "D = 400000001: enumeration C1584, infrastructure C1584: agrees" in out
     assert "conditional on GRH" in out
+
+
+def test_notebook_tour_runs_headless_with_rich_outputs():
+    # issue 15: examples/notebook_tour.ipynb executed by nbclient (an outside runner); every
+    # result cell must display as HTML and LaTeX, the GRH-conditional group with its mark
+    nbformat = pytest.importorskip("nbformat")
+    nbclient = pytest.importorskip("nbclient")
+    pytest.importorskip("ipykernel")
+    nb = nbformat.read(EXAMPLES / "notebook_tour.ipynb", as_version=4)
+    nbclient.NotebookClient(
+        nb, timeout=240, kernel_name="python3", resources={"metadata": {"path": str(ROOT)}}
+    ).execute()
+    results = [
+        o["data"]
+        for c in nb.cells
+        if c.cell_type == "code"
+        for o in c.outputs
+        if o.get("output_type") == "execute_result"
+    ]
+    assert len(results) == 7  # one per result cell of the tour
+    for data in results:
+        assert "text/html" in data and "text/latex" in data, sorted(data)
+    html = " ".join(d["text/html"] for d in results)
+    latex = " ".join(d["text/latex"] for d in results)
+    assert "C36" in html and "unconditional" in html  # Cl(-16428) by enumeration
+    assert "[GRH]" in html and "conditional on GRH" in latex  # the bsgs group is marked
+    assert "(13, 2, 316) in Cl(-16428): order 36" in html and "<sup>2</sup>" in html

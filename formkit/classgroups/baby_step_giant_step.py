@@ -66,6 +66,7 @@ from ..analytic.lseries import class_number_estimate, class_number_upper_bound
 from ..core.arith import factorint, kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _prime_forms
+from ..core.progress import announces_slowness
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
 from .abelian_groups import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
@@ -374,6 +375,7 @@ def _build(
     return _Structure(ops, syl)
 
 
+@announces_slowness(lambda D, **k: f"baby-step giant-step for Cl({D}) (conditional on GRH)")
 def class_group_bsgs(D: object, *, prime_bound: int | None = None) -> ClassGroup:
     """The class group ``Cl(D)``, ``D < 0``, by baby-step giant-step (GRH, Bach's bound).
 

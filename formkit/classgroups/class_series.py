@@ -21,7 +21,7 @@ Epstein zeta functions (:func:`formkit.analytic.epstein.epstein_zeta`) give:
   as a product of Γ-values (``|η(i)| = Γ(1/4)/(2π^(3/4))``).
 
 The classes come from complete enumeration (:func:`formkit.classgroups.dispatch.class_group`
-with ``method="enumerate"``), so every statement here is unconditional; all numbers are
+with ``method="enumeration"``), so every statement here is unconditional; all numbers are
 certified balls (:mod:`formkit.analytic.balls`).
 
 References
@@ -136,7 +136,7 @@ def _negative(D: object, what: str, fundamental: bool = False) -> int:
 def _classes(D: int):
     from .dispatch import class_group
 
-    G = class_group(D, method="enumerate")
+    G = class_group(D, method="enumeration")
     return G, str(G.provenance)
 
 

@@ -22,6 +22,11 @@ __all__ = [
     "REAL_ENUMERATION_LIMIT",
 ]
 
+#: The method names: the option values of ``formkit group --method`` and the ``"method"`` of
+#: the results (a method chosen by name comes back under that name).
+METHODS = ("auto", "enumeration", "bsgs")
+_METHOD_ALIASES = {"enumerate": "enumeration"}
+
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
 #: (about √|D| work); above it the baby-step giant-step path of
 #: :mod:`formkit.classgroups.baby_step_giant_step` is used when present.
@@ -47,8 +52,8 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     ----------
     D : int
         A non-square discriminant (fundamental or not, negative or positive).
-    method : {"auto", "enumerate", "bsgs"}
-        ``"enumerate"`` lists every class (unconditional, about √|D| work);
+    method : {"auto", "enumeration", "bsgs"}
+        ``"enumeration"`` (older spelling ``"enumerate"``) lists every class (unconditional, about √|D| work);
         ``"bsgs"`` uses baby-step giant-step under GRH (D < 0: see
         :mod:`formkit.classgroups.baby_step_giant_step`; D > 0: the infrastructure and class orders of
         :mod:`formkit.classgroups.infrastructure`); ``"auto"`` enumerates up to
@@ -74,8 +79,9 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     (6, 3, (6,))
     """
     D = validate_discriminant(D)
-    if method not in ("auto", "enumerate", "bsgs"):
-        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
+    method = _METHOD_ALIASES.get(method, method)
+    if method not in METHODS:
+        raise FormkitError(f"method must be 'auto', 'enumeration' or 'bsgs', not {method!r}")
     if _infrastructure_path(D, method):
         from .infrastructure import real_class_group
 
@@ -111,7 +117,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     ----------
     D : int
         A non-square discriminant.
-    method : {"auto", "enumerate", "bsgs"}
+    method : {"auto", "enumeration", "bsgs"}
         As for :func:`class_group`.
     interval : bool
         Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
@@ -143,8 +149,9 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     3
     """
     D = validate_discriminant(D)
-    if method not in ("auto", "enumerate", "bsgs"):
-        raise FormkitError(f"method must be 'auto', 'enumerate' or 'bsgs', not {method!r}")
+    method = _METHOD_ALIASES.get(method, method)
+    if method not in METHODS:
+        raise FormkitError(f"method must be 'auto', 'enumeration' or 'bsgs', not {method!r}")
     if _infrastructure_path(D, method):
         from .infrastructure import real_class_number
 

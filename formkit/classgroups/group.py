@@ -185,6 +185,14 @@ class ClassGroupElement:
     def _repr_latex_(self) -> str:
         return r"$\left[" + self.form._repr_latex_().strip("$") + r"\right]$"
 
+    def _repr_html_(self) -> str:
+        """Notebook display: the class of its representative, with order and discrete log."""
+        f = self.form
+        return (
+            f"class of ({f.a}, {f.b}, {f.c}) in Cl({self._group.discriminant}): order {self.order}, "
+            f"discrete log {list(self._group.discrete_log(self))}"
+        )
+
 
 def _require_prime(p: object) -> int:
     from ..core.arith import is_probable_prime
@@ -332,8 +340,8 @@ class ClassGroup:
 
     @property
     def structure(self) -> str:
-        """The group as a product of cyclic groups, e.g. ``'C2 x C2 x C10'`` (``'C1'`` if trivial)."""
-        return " x ".join(f"C{n}" for n in self._invariants) or "C1"
+        """The group as a product of cyclic groups, e.g. ``'C2 × C2 × C10'`` (``'C1'`` if trivial)."""
+        return " × ".join(f"C{n}" for n in self._invariants) or "C1"
 
     # -- elements --------------------------------------------------------------
     def __call__(self, form: FormLike) -> ClassGroupElement:
@@ -349,9 +357,39 @@ class ClassGroup:
             raise FormError(f"Cl({self._D}) consists of positive definite forms; {f!r} is negative definite")
         return ClassGroupElement(self, self._canon(f.coefficients))
 
-    def element(self, exponents: Sequence[int]) -> ClassGroupElement:
-        """The class ``∏ g_i^{e_i}`` on the generators (inverse of :meth:`discrete_log`)."""
-        exps = [as_int(e, "exponent") for e in exponents]
+    def element(self, value: Sequence[int] | FormLike | ClassGroupElement) -> ClassGroupElement:
+        """A class: from what :meth:`__call__` takes (a form of discriminant D, in any
+        notation) or from exponents ``(e_1, …)`` giving ``∏ g_i^{e_i}`` on the generators
+        (inverse of :meth:`discrete_log`).
+
+        A triple of integers is read as a form when it has discriminant D, else as
+        exponents; when both readings are possible (three generators) it is refused, and
+        ``Form(a, b, c)`` or a list of exponents of another length says which is meant.
+
+        Examples
+        --------
+        >>> from formkit.classgroups.dispatch import class_group
+        >>> G = class_group(-16428)
+        >>> G.element(Form(13, 2, 316)) == G((13, 2, 316)) == G.element("13x^2 + 2xy + 316y^2")
+        True
+        >>> G.element((13, 2, 316)) == G((13, 2, 316)), G.element([1] * len(G.invariants)) in G
+        (True, True)
+        """
+        if isinstance(value, ClassGroupElement):
+            return self(value.form)
+        if isinstance(value, (Form, str)):
+            return self(value)
+        items = list(value)  # type: ignore[arg-type]
+        if len(items) == 3 and all(isinstance(v, int) for v in items):
+            a, b, c = items
+            if b * b - 4 * a * c == self._D:
+                if len(self._invariants) == 3:
+                    raise FormkitError(
+                        f"{tuple(items)} is both a form of discriminant {self._D} and exponents on the "
+                        "three generators: pass Form(a, b, c) or G(...) for the class of the form"
+                    )
+                return self(tuple(items))
+        exps = [as_int(e, "exponent") for e in items]
         if len(exps) != len(self._invariants):
             raise FormkitError(
                 f"need {len(self._invariants)} exponents (one per invariant factor), not {len(exps)}"
@@ -483,12 +521,14 @@ class ClassGroup:
             "class_number": self.class_number,
             "class_number_narrow": self.order,
             "invariants": list(self._invariants),
+            "structure": self.structure,
             "generators": [list(g) for g in self._generators],
             "forms": [list(g) for g in self._forms] if self._forms is not None else None,
             "method": self._provenance.method,
             "certified": self._provenance.certified,
             "assumption": self._provenance.assumption,
             "bound": self._provenance.bound,
+            "detail": self._provenance.detail,
         }
         if self._D > 0 and self._units is not None and self._units[0] > 2000:  # the unit has > 860 digits
             out["regulator"] = self._units[0]
@@ -509,8 +549,34 @@ class ClassGroup:
             )
         return f"<class group Cl({self._D}) ≅ {self.structure}, h = {self.order}; {self._provenance}>"
 
+    def _provenance_mark(self) -> str:
+        # the condition a result rests on, visible beside it (empty when unconditional)
+        p = self._provenance
+        if p.certified:
+            return "unconditional"
+        return f"conditional on {p.assumption}" + (f", bound {p.bound}" if p.bound is not None else "")
+
+    def _repr_html_(self) -> str:
+        """Notebook display: structure, class numbers, generators and how it was obtained."""
+        import html
+
+        name = "Cl<sup>+</sup>" if self._D > 0 else "Cl"
+        gens = ", ".join(f"({g.form.a}, {g.form.b}, {g.form.c})" for g in self.generators) or "none"
+        mark = "" if self._provenance.certified else " <b>[GRH]</b>"
+        return (
+            f"{name}({self._D}) ≅ {html.escape(self.structure)}, "
+            + (
+                f"h<sup>+</sup> = {self.order}, h = {self.class_number}"
+                if self._D > 0
+                else f"h = {self.order}"
+            )
+            + f"; generators {gens}{mark}<br><small>{html.escape(str(self._provenance))}</small>"
+        )
+
     def _repr_latex_(self) -> str:
-        parts = r" \times ".join(rf"\mathbb{{Z}}/{n}\mathbb{{Z}}" for n in self._invariants) or "1"
+        parts = r" \times ".join(f"C_{{{n}}}" for n in self._invariants) or "C_1"
+        if not self._provenance.certified:
+            parts += rf"\ [\text{{{self._provenance_mark()}}}]"
         if self._D > 0:
             return (
                 rf"$\mathrm{{Cl}}^{{+}}({self._D}) \cong {parts},\ h^{{+}} = {self.order},\ h = {self.class_number}$"

@@ -51,6 +51,7 @@ from math import isqrt
 from ..analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _prime_forms
+from ..core.progress import announces_slowness
 from ..errors import DiscriminantError, FormkitError
 from .abelian_groups import BSGSStatistics
 from .group import ClassGroup, Provenance
@@ -371,6 +372,9 @@ def _intersect(a: Progression, b: Progression) -> Progression:
     return (k0 + i0 * step, step, max(0, i1 - i0 + 1))
 
 
+@announces_slowness(
+    lambda D, **k: f"the infrastructure of discriminant {D} (regulator and h, conditional on GRH)"
+)
 def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClassNumber:
     """Narrow and wide class number and regulator for ``D > 0`` without listing the classes.
 
@@ -551,6 +555,9 @@ def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     return St.invariants, St.generators, St.dlog, how
 
 
+@announces_slowness(
+    lambda D, **k: f"the narrow class group of {D} by the infrastructure (conditional on GRH)"
+)
 def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup:
     """The narrow class group ``Cl⁺(D)``, ``D > 0``, without listing the classes.
 

@@ -372,14 +372,15 @@ class IdealClassGroup:
 
     @property
     def structure(self) -> str:
-        """``'C2 x C4'`` (``'C1'`` if trivial)."""
-        return " x ".join(f"C{n}" for n in self.invariants) or "C1"
+        """``'C2 × C4'`` (``'C1'`` if trivial)."""
+        return " × ".join(f"C{n}" for n in self.invariants) or "C1"
 
     def to_dict(self) -> dict:
         """JSON-ready: ``invariants``, ``generators`` (forms), ``class_number``."""
         return {
             "class_number": self.class_number,
             "invariants": list(self.invariants),
+            "structure": self.structure,
             "generators": [g.to_list() for g in self.generators],
         }
 
@@ -465,6 +466,7 @@ class OrderKernel:
         return {
             "order": self.order,
             "invariants": list(self.invariants),
+            "structure": " × ".join(f"C{n}" for n in self.invariants) or "C1",
             "generators": [g.to_list() for g in self.generators],
             "elements": None if self.elements is None else [g.to_list() for g in self.elements],
             "wide_order": self.wide_order,
@@ -473,7 +475,7 @@ class OrderKernel:
         }
 
     def __repr__(self) -> str:
-        inv = " x ".join(f"C{n}" for n in self.invariants) or "C1"
+        inv = " × ".join(f"C{n}" for n in self.invariants) or "C1"
         return (
             f"<kernel of Cl({self.discriminant}) → Cl(d_K): {inv}, {self.order} classes; {self.provenance}>"
         )

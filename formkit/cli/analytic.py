@@ -6,6 +6,7 @@ import argparse
 
 from ..core.parse import parse_integer
 from ..core.quadratic_orders import parse_discriminant
+from .conventions import add_limit_options, form_text, limit_of
 
 
 def _digits(args: argparse.Namespace) -> int:
@@ -105,7 +106,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
             tau = k.tau
             return "\n".join(
                 [
-                    f"Kronecker's first limit formula for Q = {Q.to_list()} (D = {Q.discriminant}):",
+                    f"Kronecker's first limit formula for Q = {form_text(Q)} (D = {Q.discriminant}):",
                     f"  Z_Q(s) = R/(s - 1) + C + O(s - 1) with R = 2*pi/sqrt({-Q.discriminant}) = {k.residue.text()}",
                     f"  C = {k.constant_term.text()}   (through eta(tau_Q), tau_Q = {float(tau.real):.6g} + "
                     f"{float(tau.imag):.6g}i, |eta(tau_Q)| = {abs(complex(k.eta.value)):.15g})",
@@ -120,7 +121,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
         raise CommandError("epstein needs S (the point s), or --limit-formula")
     v = epstein_zeta(Q, args.s, digits=digits)
     payload = {"kind": "epstein", **v.to_dict()}
-    emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {Q.to_list()}")))
+    emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {form_text(Q)}")))
     return 0
 
 
@@ -130,10 +131,10 @@ def _cmd_theta(args: argparse.Namespace) -> int:
     from .conventions import CommandError, emit
 
     Q = as_form(args.form)
-    N = parse_integer(args.upto, "--upto")
-    show = parse_integer(args.show, "--show")
-    if show < 0:
-        raise CommandError(f"--show must be >= 0, not {show}")
+    N = parse_integer(args.bound, "--bound")
+    show = limit_of(args)
+    if show is None:  # --all
+        show = N
     if args.output and not args.genus:
         raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
     if not args.genus:
@@ -144,7 +145,7 @@ def _cmd_theta(args: argparse.Namespace) -> int:
             m = min(N, show)
             nonzero = sum(1 for n in range(1, N + 1) if th[n])
             lines = [
-                f"theta series of Q = {Q.to_list()} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
+                f"theta series of Q = {form_text(Q)} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
                 f"of (x, y) with Q(x, y) = n",
                 f"  r_Q(n) > 0 for {nonzero} of the n in 1..{N}; first coefficients (n: r_Q(n)):",
             ]
@@ -175,9 +176,8 @@ def _cmd_theta(args: argparse.Namespace) -> int:
             None: "(D is not fundamental: no Eisenstein comparison)",
         }[t.siegel_agrees]
         lines = [
-            f"Q = {Q.to_list()} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
-            f"{'es' if len(t.genus_forms) != 1 else ''}: "
-            + ", ".join(str(f.to_list()) for f in t.genus_forms),
+            f"Q = {form_text(Q)} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
+            f"{'es' if len(t.genus_forms) != 1 else ''}: " + ", ".join(form_text(f) for f in t.genus_forms),
             f"Siegel's weighted average of theta over the genus (weights 1/|Aut|, |Aut| = "
             f"{sorted(set(t.automorphism_orders))}) {siegel}",
             f"{'n':>5}  {'r_Q(n)':>7}  {'genus average':>14}  {'cusp part':>10}",
@@ -199,7 +199,8 @@ def _cmd_critical_line(args: argparse.Namespace) -> int:
     from ..analytic.l_series import critical_line_samples
     from .conventions import CommandError, emit
 
-    D = parse_discriminant(args.discriminant, "D")
+    # D = 1 (the Riemann zeta function) is no discriminant of a quadratic order
+    D = 1 if args.discriminant.strip() == "1" else parse_discriminant(args.discriminant, "discriminant")
     points = parse_integer(args.points, "--points")
     c = critical_line_samples(D, args.height, points=points, digits=_digits(args))
     if args.output:
@@ -316,22 +317,22 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "lattice points of the ellipse Q <= N. --genus adds Siegel's weighted average over the genus of Q "
             "(classes by complete enumeration), its comparison with the Eisenstein series given by the genus "
             "characters (fundamental D), and the cusp part theta_Q - average; with --output FILE.png|svg also "
-            "a picture of r_Q(n) against the genus average (needs matplotlib). --show K prints the first K+1 "
+            "a picture of r_Q(n) against the genus average (needs matplotlib). --limit K prints the first K+1 "
             "coefficients (the computation goes to N). "
             "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N)."
         ),
         epilog=(
-            "examples:\n  formkit theta 1,0,1 --upto 20\n  formkit theta 2,1,3 --upto 30 --genus\n"
-            "  formkit theta 1,1,6 --upto 60 --genus --output cusp23.png\n"
-            "  formkit theta 1,0,1 --upto 10^6 --show 5"
+            "examples:\n  formkit theta 1,0,1 --bound 20\n  formkit theta 2,1,3 --bound 30 --genus\n"
+            "  formkit theta 1,1,6 --bound 60 --genus --output cusp23.png\n"
+            "  formkit theta 1,0,1 --bound 10^6 --limit 5"
         ),
         formatter_class=raw,
     )
     t.add_argument("form", help="a positive definite form: a,b,c or a polynomial such as 'x^2+xy+6y^2'")
     t.add_argument(
-        "--upto", metavar="N", required=True, help="the last exponent N (at most 10^8; 2*10^6 with --genus)"
+        "--bound", metavar="N", required=True, help="the last exponent N (at most 10^8; 2*10^6 with --genus)"
     )
-    t.add_argument("--show", metavar="K", default="20", help="print the first K+1 coefficients (default 20)")
+    add_limit_options(t, "coefficients after the constant term in the text output", 20)
     t.add_argument("--genus", action="store_true", help="genus average, Eisenstein comparison and cusp part")
     t.add_argument("--output", "-o", metavar="FILE", help="with --genus: write a PNG/SVG picture")
     t.set_defaults(handler=_cmd_theta)

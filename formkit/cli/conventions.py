@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import re
 import sys
 from collections.abc import Callable
 from typing import Any
@@ -24,6 +25,10 @@ __all__ = [
     "integer_type",
     "add_discriminant_argument",
     "discriminant_of",
+    "add_limit_options",
+    "limit_of",
+    "plural",
+    "form_text",
     "NUMBER_SYNTAX",
 ]
 
@@ -48,6 +53,10 @@ class _Parser(argparse.ArgumentParser):
     """argparse with the house error format: one line, exit status 2."""
 
     def error(self, message: str) -> None:  # type: ignore[override]
+        # "argument --bound: --bound must be …": the option is named once
+        m = re.match(r"argument (\S+): (\1\b.*)", message, re.S)
+        if m:
+            message = m.group(2)
         sys.stderr.write(f"formkit: error: {message}\n")
         raise SystemExit(2)
 
@@ -70,8 +79,55 @@ def integer_type(name: str, minimum: int | None = None) -> Callable[[str], int]:
     return convert
 
 
+def form_text(form: Any) -> str:
+    """A form in the text notation shared by every command: ``(a, b, c)`` (JSON uses ``[a, b, c]``).
+
+    >>> form_text([1, 16, -15])
+    '(1, 16, -15)'
+    """
+    a, b, c = (form.a, form.b, form.c) if hasattr(form, "a") else form
+    return f"({a}, {b}, {c})"
+
+
+def plural(n: int, word: str, plural_form: str | None = None) -> str:
+    """``"1 row"``, ``"2 rows"``, ``"0 classes"``: the count with the word in the right number.
+
+    >>> plural(1, "row"), plural(3, "row"), plural(0, "class", "classes")
+    ('1 row', '3 rows', '0 classes')
+    """
+    return f"{n} {word if n == 1 else (plural_form or word + 's')}"
+
+
+def add_limit_options(
+    parser: argparse.ArgumentParser, what: str, default: int | None, *, zero_means_all: bool = False
+) -> None:
+    """The limit family shared by every command: ``--limit N`` (the most items printed) and
+    ``--all`` (print every item).  Numeric upper bounds of a search are ``--bound X``."""
+    shown = "all" if default is None else str(default)
+    parser.add_argument(
+        "--limit",
+        type=integer_type("--limit", 0),
+        default=default,
+        metavar="N",
+        help=f"list at most N {what} (default {shown}" + ("; 0 = all" if zero_means_all else "") + ")",
+    )
+    parser.add_argument(
+        "--all", action="store_true", help=f"list every one of the {what} (overrides --limit)"
+    )
+
+
+def limit_of(args: argparse.Namespace, *, zero_means_all: bool = False) -> int | None:
+    """The ``--limit``/``--all`` pair as one number, ``None`` meaning no limit."""
+    if getattr(args, "all", False):
+        return None
+    limit = getattr(args, "limit", None)
+    if zero_means_all and limit == 0:
+        return None
+    return limit
+
+
 def add_discriminant_argument(
-    parser: argparse.ArgumentParser, help: str, *, metavar: str | None = None
+    parser: argparse.ArgumentParser, help: str, *, metavar: str | None = "D"
 ) -> None:
     """The positional ``discriminant`` (numbers, fields ``Q(sqrt(m))``, ``, f=F``) and ``--conductor F``."""
     parser.add_argument(

@@ -7,7 +7,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument
+from .conventions import add_discriminant_argument, add_limit_options, limit_of
 
 _FORM_HELP = "a form: a,b,c or [a,b,c] or (a,b,c) or a polynomial such as '3x^2+7xy-5y^2'"
 
@@ -18,14 +18,9 @@ _JSON_NOTE = (
 )
 
 
-def _positive_int(text: str) -> int:
-    try:
-        v = parse_integer(text, "count")
-    except ValueError as exc:  # ParseError: reported by argparse as one line, exit 2
-        raise argparse.ArgumentTypeError(str(exc)) from None
-    if v < 1:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, not {v}")
-    return v
+def _unlimited(limit: int | None) -> int:
+    # --all: no limit (the library takes a count; larger than anything listed)
+    return 10**18 if limit is None else limit
 
 
 def _emit_example(args: argparse.Namespace, example) -> int:
@@ -68,7 +63,9 @@ def _cmd_represent(args: argparse.Namespace) -> int:
     from ..explain.representation import worked_representation
 
     n = parse_integer(args.n, "n")
-    return _emit_example(args, worked_representation(as_form(args.form), n, max_detail=args.max_detail))
+    return _emit_example(
+        args, worked_representation(as_form(args.form), n, max_detail=_unlimited(limit_of(args)))
+    )
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
@@ -76,7 +73,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
     from .conventions import discriminant_of
 
     D = discriminant_of(args)
-    return _emit_example(args, worked_class_group(D, max_classes=args.max_classes))
+    return _emit_example(args, worked_class_group(D, max_classes=max(1, _unlimited(limit_of(args)))))
 
 
 def _format_parent() -> argparse.ArgumentParser:
@@ -169,13 +166,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     q.add_argument("form", help=_FORM_HELP)
     q.add_argument("n", metavar="N", help="the integer to represent")
-    q.add_argument(
-        "--max-detail",
-        type=_positive_int,
-        default=32,
-        metavar="K",
-        help="show reduction steps for at most K roots (default 32; the tables are always complete)",
-    )
+    add_limit_options(q, "roots whose reduction steps are shown (the tables are always complete)", 32)
     q.set_defaults(handler=_cmd_represent)
 
     g = topics.add_parser(
@@ -190,14 +181,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit explain group -84\n  formkit explain group -4004 --format tex -o cl4004.tex",
         formatter_class=raw,
     )
-    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)", metavar="D")
-    g.add_argument(
-        "--max-classes",
-        type=_positive_int,
-        default=500,
-        metavar="K",
-        help="list at most K classes (default 500)",
-    )
+    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)")
+    add_limit_options(g, "classes (at least 1)", 500)
     g.set_defaults(handler=_cmd_group)
 
 

@@ -6,8 +6,8 @@ import argparse
 
 from ..core.equivalence import equivalence
 from ..core.forms import as_form
-from ..core.reduction import _cycle_prefix, reduce_form
-from .conventions import integer_type
+from ..core.reduction import _cycle_prefix, class_representative, reduce_form
+from .conventions import add_limit_options, form_text, integer_type, limit_of, plural
 
 #: Default bound on the number of cycle forms printed by ``formkit reduce``: cycles of
 #: discriminants near 10^k can hold about 10^(k/2) forms, far too many to list.
@@ -21,18 +21,18 @@ def _matrix_text(m) -> str:
 
 
 def _cmd_reduce(args: argparse.Namespace) -> int:
-    from .conventions import CommandError, emit
+    from .conventions import emit
 
     f = as_form(args.form)
     res = reduce_form(f, steps=args.steps)
     payload = res.to_dict()
+    rep = class_representative(res.reduced)
+    payload["class_representative"] = rep.to_list()
     cyc = None
     complete = True
     if f.is_indefinite:
-        limit = args.cycle_limit
-        if limit < 0:
-            raise CommandError(f"--cycle-limit must be >= 0 (0 = no limit), not {limit}")
-        cyc, complete = _cycle_prefix(res.reduced, limit)
+        limit = limit_of(args, zero_means_all=True)
+        cyc, complete = _cycle_prefix(res.reduced, limit or 0)
         payload["cycle"] = [g.to_list() for g in cyc]
         payload["cycle_complete"] = complete
     if args.steps:
@@ -42,23 +42,27 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
         ]
 
     def human() -> str:
-        lines = [f"form:          {f}   {f.to_list()}", f"discriminant:  {f.discriminant}  ({f.kind})"]
+        lines = [f"form:          {f}   {form_text(f)}", f"discriminant:  {f.discriminant}  ({f.kind})"]
         if args.steps:
             lines.append("steps:")
             for i, s in enumerate(res.steps, 1):
-                lines.append(f"  {i:3d}. {s.kind:9s} by {_matrix_text(s.matrix):24s} -> {s.after.to_list()}")
+                lines.append(f"  {i:3d}. {s.kind:9s} by {_matrix_text(s.matrix):24s} -> {form_text(s.after)}")
             if not res.steps:
                 lines.append("  (already reduced)")
-        lines.append(f"reduced:       {res.reduced}   {res.reduced.to_list()}")
+        lines.append(f"reduced:       {res.reduced}   {form_text(res.reduced)}")
         lines.append(f"matrix:        {_matrix_text(res.matrix)}   (form · matrix = reduced)")
+        if f.is_indefinite:
+            lines.append(
+                f"class:         represented by {rep}   {form_text(rep)}   (least |a| on the cycle, as formkit group lists it)"
+            )
         if cyc is not None:
             if complete:
-                lines.append(f"cycle ({len(cyc)} reduced forms):")
+                lines.append(f"cycle ({plural(len(cyc), 'reduced form')}):")
             else:
                 lines.append(
-                    f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --cycle-limit):"
+                    f"cycle (more than {len(cyc)} reduced forms; the first {len(cyc)} shown, see --limit N and --all):"
                 )
-            lines.extend(f"  {g.to_list()}" for g in cyc)
+            lines.extend(f"  {form_text(g)}" for g in cyc)
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -91,21 +95,20 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="reduce a form (definite or indefinite), with the matrix and optional steps",
         description=(
             "Reduce a binary quadratic form and print the SL2(Z) matrix taking it to the reduced "
-            "form; for indefinite forms also the whole cycle of reduced forms. "
-            "Python: formkit.reduce_form(form, steps=True), formkit.reduced_cycle(form)."
+            "form; for indefinite forms also the whole cycle of reduced forms and the class "
+            "representative (the form of the cycle that formkit group, compose and power give). "
+            "Python: formkit.reduce_form(form, steps=True), formkit.reduced_cycle(form), formkit.class_representative(form)."
         ),
         epilog="examples:\n  formkit reduce 10,37,35 --steps\n  formkit reduce '-x^2 + 13y^2' --json",
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as '3x^2+7xy-5y^2'")
     p.add_argument("--steps", action="store_true", help="show every reduction step with its matrix")
-    p.add_argument(
-        "--cycle-limit",
-        type=integer_type("--cycle-limit", 0),
-        default=CYCLE_LIMIT,
-        metavar="N",
-        help=f"list at most N forms of the cycle of an indefinite form (default {CYCLE_LIMIT}; 0 = all); "
-        "the JSON key cycle_complete tells whether the whole cycle was listed",
+    add_limit_options(
+        p,
+        "forms of the cycle of an indefinite form (the JSON key cycle_complete tells)",
+        CYCLE_LIMIT,
+        zero_means_all=True,
     )
     p.set_defaults(handler=_cmd_reduce)
 

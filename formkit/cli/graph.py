@@ -52,7 +52,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         graph_to_graphml,
         graph_to_json,
     )
-    from .conventions import CommandError, discriminant_of, emit
+    from .conventions import CommandError, discriminant_of, emit, plural
 
     D = validate_discriminant(discriminant_of(args))
     fmt = _format_of(args)
@@ -76,8 +76,8 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         "format": fmt,
         "kind": args.kind,
         "discriminant": D,
-        "nodes": C.number_of_nodes(),
-        "edges": C.number_of_edges(),
+        "node_count": C.number_of_nodes(),
+        "edge_count": C.number_of_edges(),
         "title": graph_title(C),
     }
     if args.kind == "cayley":
@@ -116,7 +116,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
     emit(
         args,
         payload,
-        f"wrote {fmt}: {graph_title(C)} ({payload['nodes']} nodes, {payload['edges']} edges) to {args.output}",
+        f"wrote {fmt}: {graph_title(C)} ({plural(payload['node_count'], 'node')}, {plural(payload['edge_count'], 'edge')}) to {args.output}",
     )
     return 0
 
@@ -136,7 +136,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "one cycle per narrow class. --kind fibres (D = f^2 d_K, f > 1): the map "
             "Cl(D) -> Cl(d_K). Text formats go to stdout unless --output is given; the format "
             "is taken from the --output suffix when --format is not given. With --json one JSON "
-            "object is printed: a summary (nodes, edges, primes, output file) holding the graph "
+            "object is printed: a summary (node_count, edge_count, primes, output file) holding the graph "
             "under 'graph' (node-link) or the GraphML/DOT text under 'text' when written to stdout. "
             "Python: formkit.cayley_graph(D, primes), formkit.cycle_graph(D), formkit.fibre_graph(D), "
             "formkit.graph_to_json / graph_to_graphml / graph_to_dot, formkit.graphs.plotting.save_picture."
@@ -153,9 +153,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     from .conventions import add_discriminant_argument
 
-    add_discriminant_argument(
-        p, "a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4", metavar="D"
-    )
+    add_discriminant_argument(p, "a discriminant (non-square, 0 or 1 mod 4), e.g. -23, 316, -4*10^4")
     which = p.add_mutually_exclusive_group()
     which.add_argument(
         "--primes", metavar="P,Q,...", help="label the edges by these primes (comma-separated)"

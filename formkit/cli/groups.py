@@ -8,7 +8,15 @@ from ..classgroups.dispatch import class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, discriminant_of, integer_type
+from .conventions import (
+    add_discriminant_argument,
+    add_limit_options,
+    discriminant_of,
+    form_text,
+    integer_type,
+    limit_of,
+    plural,
+)
 
 #: Beyond this |D| the ``class-number`` command does not compute the kernel of Cl(O) → Cl(O_K)
 #: (it needs the group structure; ``formkit group`` computes it).
@@ -106,14 +114,14 @@ def _formula_lines(D: int, payload: dict) -> list[str]:
         )
     k = payload.get("kernel")
     if k is not None:
-        inv = " x ".join(f"C{n}" for n in k["invariants"]) or "C1"
+        inv = " × ".join(f"C{n}" for n in k["invariants"]) or "C1"
         lines.append(
             f"kernel of Cl(O) → Cl(O_K) (forms up to proper equivalence): {inv}, {k['order']} "
             f"class{'es' if k['order'] != 1 else ''}"
             + (f": {', '.join(str(x) for x in k['elements'])}" if k["elements"] is not None else "")
         )
         if D > 0 and k["wide_order"] != k["order"]:
-            winv = " x ".join(f"C{n}" for n in k["wide_invariants"]) or "C1"
+            winv = " × ".join(f"C{n}" for n in k["wide_invariants"]) or "C1"
             lines.append(f"kernel on ideal classes: {winv}, {k['wide_order']} classes")
     return lines
 
@@ -130,6 +138,15 @@ def _cmd_group(args: argparse.Namespace) -> int:
     D = discriminant_of(args)
     G = class_group(D, method=args.method)
     payload = G.to_dict()
+    # every listed class with its order and discrete logarithm (as in the text table)
+    payload["classes"] = (
+        [
+            {"form": f, "order": G(f).order, "discrete_log": list(G.discrete_log(G(f)))}
+            for f in payload["forms"]
+        ]
+        if payload["forms"] is not None
+        else None
+    )
     known = dict(payload, detail=G.provenance.detail)
     extra, _formula = _order_payload(D, args.method, _digits(args), kernel=True, known=known, group=G)
     payload.update(extra)
@@ -140,6 +157,7 @@ def _cmd_group(args: argparse.Namespace) -> int:
         else {
             "class_number": G.order,
             "invariants": list(G.invariants),
+            "structure": G.structure,
             "generators": [g.form.to_list() for g in G.generators],
         }
     )
@@ -164,21 +182,24 @@ def _cmd_group(args: argparse.Namespace) -> int:
         lines += _formula_lines(D, payload)
         lines.append(
             ("generators of Cl+(O): " if D > 0 else "generators: ")
-            + ", ".join(f"{g.form.to_list()} (order {n})" for g, n in zip(G.generators, G.invariants))
+            + ", ".join(f"{form_text(g.form)} (order {n})" for g, n in zip(G.generators, G.invariants))
             if G.invariants
             else "generators: none (trivial group)"
         )
         lines.append(f"method: {prov}")
         if payload["forms"] is not None:
             rows = payload["forms"]
-            shown = rows[: args.max_rows]
+            limit = limit_of(args)
+            shown = rows if limit is None else rows[:limit]
             lines.append("")
             lines.append(f"{'class':>24}  {'order':>6}  discrete log")
             for f in shown:
                 x = G(f)
-                lines.append(f"{f!s:>24}  {x.order:>6}  {list(G.discrete_log(x))}")
+                lines.append(f"{form_text(f):>24}  {x.order:>6}  {list(G.discrete_log(x))}")
             if len(rows) > len(shown):
-                lines.append(f"... {len(rows) - len(shown)} more classes (use --max-rows or --json)")
+                lines.append(
+                    f"... {plural(len(rows) - len(shown), 'more class', 'more classes')} (use --limit N, --all or --json)"
+                )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -236,7 +257,7 @@ def _cmd_compose(args: argparse.Namespace) -> int:
 
     F, G = as_form(args.first, name="F"), as_form(args.second, name="G")
     result = compose(F, G, method=args.method)
-    emit(args, {"result": result.to_list()}, lambda: f"{F}  *  {G}  =  {result}   {result.to_list()}")
+    emit(args, {"result": result.to_list()}, lambda: f"{F}  *  {G}  =  {result}   {form_text(result)}")
     return 0
 
 
@@ -246,7 +267,7 @@ def _cmd_power(args: argparse.Namespace) -> int:
     F = as_form(args.form)
     k = parse_integer(args.exponent, "exponent")
     result = power(F, k)
-    emit(args, {"result": result.to_list()}, lambda: f"({F})^{k}  =  {result}   {result.to_list()}")
+    emit(args, {"result": result.to_list()}, lambda: f"({F})^{k}  =  {result}   {form_text(result)}")
     return 0
 
 
@@ -276,9 +297,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(p, "the discriminant D (negative or positive, e.g. -4004, 316, -4*3*10^2)")
     p.add_argument(
         "--method",
-        choices=("auto", "enumerate", "bsgs"),
+        choices=("auto", "enumeration", "bsgs"),
         default="auto",
-        help="enumerate (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
+        help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
         "or auto (enumeration for small |D|)",
     )
     p.add_argument(
@@ -288,12 +309,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         metavar="N",
         help="D > 0: the regulator to N significant digits (mpmath, verified at higher precision)",
     )
-    p.add_argument(
-        "--max-rows",
-        type=integer_type("--max-rows", 0),
-        default=200,
-        help="classes listed in the text table (default 200)",
-    )
+    add_limit_options(p, "classes in the text table", 200)
     p.set_defaults(handler=_cmd_group)
 
     c = sub.add_parser(
@@ -320,9 +336,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(c, "the discriminant D (negative or positive)")
     c.add_argument(
         "--method",
-        choices=("auto", "enumerate", "bsgs"),
+        choices=("auto", "enumeration", "bsgs"),
         default="auto",
-        help="enumerate (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
+        help="enumeration (unconditional), bsgs (conditional on GRH: baby-step giant-step for D < 0, "
         "infrastructure and the analytic interval for D > 0), or auto",
     )
     c.add_argument(

@@ -13,7 +13,7 @@ from __future__ import annotations
 import argparse
 
 from ..core.forms import as_form
-from .conventions import add_discriminant_argument, discriminant_of, emit, integer_type
+from .conventions import add_discriminant_argument, discriminant_of, emit, form_text, integer_type
 
 _IDEAL_HELP = "an ideal by generators, e.g. '(2, 1 + √-5)' or '(3, 1+sqrt(-5))'"
 
@@ -35,7 +35,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
         lines = [dec.statement()]
         for P, e, g in zip(dec.ideals, dec.exponents, dec.residue_degrees):
             lines.append(
-                f"  {P.text()}: norm {P.norm}, residue degree {g}, exponent {e}, form {P.form.to_list()}"
+                f"  {P.text()}: norm {P.norm}, residue degree {g}, exponent {e}, form {form_text(P.form)}"
             )
         return "\n".join(lines)
 
@@ -52,11 +52,11 @@ def _cmd_of_form(args: argparse.Namespace) -> int:
 
     def human() -> str:
         lines = [
-            f"form {Q.to_list()} (D = {Q.discriminant}) ↦ ideal {I.text()} of {I.order.ring_text}, norm {I.norm}"
+            f"form {form_text(Q)} (D = {Q.discriminant}) ↦ ideal {I.text()} of {I.order.ring_text}, norm {I.norm}"
         ]
         if Q.a < 0:
             lines.append("  (a < 0: the ideal is √D·[|a|, (−b + √D)/2], in the narrow class of the form)")
-        lines.append(f"  and back: the ideal's form is {I.form.to_list()} (properly equivalent to the form)")
+        lines.append(f"  and back: the ideal's form is {form_text(I.form)} (properly equivalent to the form)")
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -71,7 +71,7 @@ def _cmd_form(args: argparse.Namespace) -> int:
         args,
         payload,
         lambda: (
-            f"ideal {I.text()} (norm {I.norm}, content {I.content}) ↦ form {I.form.to_list()} = N(xα − yβ)/N(I)"
+            f"ideal {I.text()} (norm {I.norm}, content {I.content}) ↦ form {form_text(I.form)} = N(xα − yβ)/N(I)"
         ),
     )
     return 0
@@ -98,8 +98,8 @@ def _cmd_multiply(args: argparse.Namespace) -> int:
         return "\n".join(
             [
                 f"I·J = {I.text()} · {J.text()} = {K.text()}, norm {K.norm} = {I.norm}·{J.norm}",
-                f"form of I·J, reduced: {reduced(K.form).to_list()}; composition of the forms, reduced: "
-                f"{composite.to_list()} ({'the same class' if agrees else 'DIFFERENT'})",
+                f"form of I·J, reduced: {form_text(reduced(K.form))}; composition of the forms, reduced: "
+                f"{form_text(composite)} ({'the same class' if agrees else 'DIFFERENT'})",
             ]
         )
 
@@ -128,7 +128,7 @@ def _cmd_factor(args: argparse.Namespace) -> int:
     def human() -> str:
         lines = [f"{what} = {I.text()}, norm {I.norm}", f"  = {fac.text()}"]
         for p, P, e in fac.factors:
-            lines.append(f"  {P.text()}^{e}: above p = {p}, norm {P.norm}, form {P.form.to_list()}")
+            lines.append(f"  {P.text()}^{e}: above p = {p}, norm {P.norm}, form {form_text(P.form)}")
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -191,7 +191,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("p", type=integer_type("p", 2), help="a prime")
     q.set_defaults(handler=_cmd_primes)
 
@@ -218,7 +218,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit ideal form -20 '(3, 1 + √-5)'\n  formkit ideal form 'Q(sqrt(94))' '(3, 1+√94)' --json",
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", help=_IDEAL_HELP)
     q.set_defaults(handler=_cmd_form)
 
@@ -230,7 +230,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit ideal multiply -20 '(2, 1 + √-5)' '(3, 1 + √-5)'",
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal_i", metavar="I", help=_IDEAL_HELP)
     q.add_argument("ideal_j", metavar="J", help=_IDEAL_HELP)
     q.set_defaults(handler=_cmd_multiply)
@@ -250,7 +250,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", nargs="?", default=None, help=_IDEAL_HELP)
     q.add_argument("--element", metavar="ALPHA", help="factor the principal ideal (ALPHA), e.g. '1 + √-5'")
     q.set_defaults(handler=_cmd_factor)
@@ -273,7 +273,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         ),
         formatter_class=raw,
     )
-    add_discriminant_argument(q, "the discriminant of the order", metavar="D")
+    add_discriminant_argument(q, "the discriminant of the order")
     q.add_argument("ideal", help=_IDEAL_HELP)
     q.add_argument(
         "--compact", action="store_true", help="D > 0: give the generator in compact form even when small"

@@ -5,19 +5,30 @@ from __future__ import annotations
 import argparse
 
 from ..core.forms import as_form
-from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument, discriminant_of
+from .conventions import (
+    add_discriminant_argument,
+    add_limit_options,
+    discriminant_of,
+    form_text,
+    integer_type,
+    limit_of,
+    plural,
+)
 
-_SHOWN = 60  # primes listed in the text output (all of them with --json)
+_SHOWN = 60  # primes listed in the text output by default (all of them with --json or --all)
 
 
 def _cmd_primes(args: argparse.Namespace) -> int:
     from ..representation.prime_criteria import PrimeCriterion, prime_criterion, represented_primes
-    from ..representation.prime_decision import primes_up_to
-    from .conventions import emit
+    from ..representation.prime_decision import PRIME_BOUND_LIMIT, primes_up_to
+    from .conventions import CommandError, emit
 
     Q = as_form(args.form)
-    X = parse_integer(args.upto, "--upto")
+    X = args.bound
+    if X > PRIME_BOUND_LIMIT:
+        raise CommandError(
+            f"--bound must be at most {PRIME_BOUND_LIMIT} (a sieve is kept in memory), not {X}"
+        )
     crit: PrimeCriterion = prime_criterion(Q, polynomial=not args.no_polynomial)
     primes = represented_primes(Q, X)
     count_all = len(primes_up_to(X))
@@ -31,13 +42,18 @@ def _cmd_primes(args: argparse.Namespace) -> int:
         "primes": primes,
         "class_number": crit.class_number,
         "class_order": crit.class_order,
-        "count": {"upto": X, "represented": len(primes), "primes": count_all, "expected": round(expected, 2)},
+        "prime_count": {
+            "bound": X,
+            "represented": len(primes),
+            "primes": count_all,
+            "expected": round(expected, 2),
+        },
     }
 
     def human() -> str:
         c = crit
         lines = [
-            f"form:          {c.form}   {c.form.to_list()}",
+            f"form:          {c.form}   {form_text(c.form)}",
             f"discriminant:  {c.discriminant}   class number {c.class_number}"
             + (" (narrow)" if c.discriminant > 0 else "")
             + f", class of the form has order {c.class_order}",
@@ -61,10 +77,18 @@ def _cmd_primes(args: argparse.Namespace) -> int:
             f"exceptions:    {list(c.exceptions) or 'none'}  (primes dividing D that the form represents)"
         )
         lines.append("statement:     " + c.statement)
-        shown = ", ".join(map(str, primes[:_SHOWN])) + (", …" if len(primes) > _SHOWN else "")
-        lines.append(f"primes ≤ {X}:  {len(primes)} represented of {count_all} (predicted {expected:.1f})")
-        if primes:
-            lines.append(f"  {shown}")
+        limit = limit_of(args)
+        listed = primes if limit is None else primes[:limit]
+        lines.append(
+            f"primes ≤ {X}:  {len(primes)} represented of {plural(count_all, 'prime')} (predicted {expected:.1f})"
+        )
+        if listed:
+            more = len(primes) - len(listed)
+            lines.append(
+                "  "
+                + ", ".join(map(str, listed))
+                + (f", … ({more} more: --limit N or --all lists them)" if more else "")
+            )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -75,7 +99,7 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     from ..representation.class_polynomials import class_polynomial
     from .conventions import emit
 
-    D = discriminant_of(args, "D")
+    D = discriminant_of(args)
     H = class_polynomial(D, verify=not args.no_verify)
     payload = H.to_dict()
     disc = None
@@ -130,18 +154,20 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "Python: formkit.prime_criterion(form), formkit.represented_primes(form, upto)."
         ),
         epilog=(
-            "examples:\n  formkit primes 1,0,27 --upto 1000\n  formkit primes 'x^2 + 5y^2' --upto 10^6 --json\n"
-            "  formkit primes 1,0,-79 --upto 500"
+            "examples:\n  formkit primes 1,0,27 --bound 1000\n  formkit primes 'x^2 + 5y^2' --bound 10^6 --json\n"
+            "  formkit primes 1,0,-79 --bound 500"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("form", help="the form: a,b,c or [a,b,c] or a polynomial such as 'x^2+27y^2'")
     p.add_argument(
-        "--upto",
-        default="1000",
+        "--bound",
+        type=integer_type("--bound", 0),
+        default=1000,
         metavar="X",
-        help="list the represented primes up to X (default 1000; at most 10^8)",
+        help="the represented primes p ≤ X (default 1000; at most 10^8)",
     )
+    add_limit_options(p, "represented primes in the text output", _SHOWN)
     p.add_argument(
         "--no-polynomial",
         action="store_true",
@@ -163,7 +189,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors",
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    add_discriminant_argument(q, "a negative discriminant, D ≡ 0 or 1 (mod 4)", metavar="D")
+    add_discriminant_argument(q, "a negative discriminant, D ≡ 0 or 1 (mod 4)")
     q.add_argument("--no-verify", action="store_true", help="skip the verification (faster)")
     q.add_argument(
         "--discriminant-factors",

@@ -6,19 +6,7 @@ import argparse
 
 from ..core.forms import as_form
 from ..core.parse import parse_integer
-from .conventions import add_discriminant_argument
-
-
-def _nonnegative_int(text: str) -> int:
-    from .conventions import CommandError
-
-    try:
-        value = parse_integer(text, "--limit")
-    except Exception as exc:  # ParseError: re-raised with the option's name
-        raise CommandError(f"--limit must be a non-negative integer, not {text!r}") from exc
-    if value < 0:
-        raise CommandError(f"--limit must be a non-negative integer, not {value}")
-    return value
+from .conventions import add_discriminant_argument, add_limit_options, form_text, limit_of, plural
 
 
 def _parse_factors(text: str) -> dict:
@@ -47,19 +35,18 @@ def _cmd_represent(args: argparse.Namespace) -> int:
 
     Q = as_form(args.form)
     n = parse_integer(args.n, "N")
-    limit = _nonnegative_int(args.limit) if args.limit is not None else None
+    limit = limit_of(args)
     factors = _parse_factors(args.factors) if args.factors is not None else None
     res = represent(Q, n, primitive=args.primitive, limit=limit, factors=factors)
     payload = res.to_dict()
 
     def human() -> str:
         D = Q.discriminant
-        lines = [f"form: {Q}   {Q.to_list()}   (D = {D}, {Q.kind})", f"N = {n}"]
+        lines = [f"form: {Q}   {form_text(Q)}   (D = {D}, {Q.kind})", f"N = {n}"]
         which = "primitive solutions" if args.primitive else "solutions"
         if res.definite:
             lines.append(
-                f"{res.count} solution{'s' if res.count != 1 else ''} in all, "
-                f"{res.primitive_count} primitive (gcd(x, y) = 1)"
+                f"{plural(res.count, 'solution')} in all, {res.primitive_count} primitive (gcd(x, y) = 1)"
             )
             if res.solutions:
                 lines.append(f"{which}{' (first ' + str(len(res.solutions)) + ')' if res.truncated else ''}:")
@@ -73,7 +60,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
             return "\n".join(lines)
         A = fundamental_automorph(Q)
         lines.append(
-            f"infinitely many solutions in {res.orbit_count} orbit{'s' if res.orbit_count != 1 else ''} "
+            f"infinitely many solutions in {plural(res.orbit_count, 'orbit')} "
             f"({res.primitive_orbit_count} of primitive solutions) under ±A^k, "
             f"A = [[{A[0][0]}, {A[0][1]}], [{A[1][0]}, {A[1][1]}]]"
         )
@@ -104,7 +91,7 @@ def _cmd_genera(args: argparse.Namespace) -> int:
         for g in P:
             sym = " ".join("+" if s > 0 else "-" for s in g.symbol) or "(empty)"
             label = "principal genus" if g.is_principal else "genus"
-            lines.append(f"{label} [{sym}]: " + ", ".join(str(f.to_list()) for f in g.forms))
+            lines.append(f"{label} [{sym}]: " + ", ".join(form_text(f) for f in g.forms))
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -122,8 +109,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "Solve Q(x, y) = N by the square-root method (roots of b^2 = D mod 4N, reduction of "
             "(N, b, (b^2 - D)/4N), the equivalence matrix giving (x, y)). For definite forms: the number "
             "of all and of primitive solutions and the list; for indefinite forms the solutions form "
-            "infinitely many orbits under the automorphs: one solution per orbit (the smallest) is "
-            "listed and count is null. N may be a large integer; it must be factorable. "
+            "infinitely many orbits under the automorphs: one solution per orbit is listed, the one "
+            "with the least x^2 + y^2 (the same as in formkit explain represent), and count is null. N may be a large integer; it must be factorable. "
             "Python: formkit.represent(form, N, primitive=..., limit=..., factors=...)."
         ),
         epilog=(
@@ -141,9 +128,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="the integer to represent: digits of any length, or a power of ten such as 3*10^20",
     )
     p.add_argument("--primitive", action="store_true", help="list only primitive solutions (gcd(x, y) = 1)")
-    p.add_argument(
-        "--limit", metavar="K", default=None, help="list at most K solutions (the counts stay exact)"
-    )
+    add_limit_options(p, "solutions or orbit representatives (the counts stay exact)", None)
     p.add_argument(
         "--factors",
         metavar="FACTORS",
@@ -166,7 +151,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog="examples:\n  formkit genera -84\n  formkit genera -4620 --json\n  formkit genera 316",
         formatter_class=raw,
     )
-    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)", metavar="D")
+    add_discriminant_argument(g, "the discriminant (e.g. -84, 316)")
     g.set_defaults(handler=_cmd_genera)
 
 

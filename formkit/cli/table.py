@@ -11,6 +11,7 @@ from collections.abc import Sequence
 
 from ..core.parse import parse_integer
 from ..tables.rows import TableRow
+from .conventions import integer_type, plural
 
 _FILTERS = ("class_number", "invariants", "conductor", "genera", "fundamental_part")
 
@@ -83,7 +84,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
         if args.db:
             info = table_info(args.db)
             sys.stderr.write(
-                f"formkit: {info['chunks']} finished chunks ({info['rows']} rows) are safe in {args.db}; "
+                f"formkit: {plural(info['chunks'], 'finished chunk')} ({plural(info['rows'], 'row')}) are safe in {args.db}; "
                 "run the same command again to resume\n"
             )
         raise
@@ -99,8 +100,8 @@ def _cmd_table(args: argparse.Namespace) -> int:
         emit(args, payload, "")
     else:
         sys.stdout.write(
-            f"{summary.path}: D in [{summary.start}, {summary.stop}]: {summary.chunks_computed} chunks "
-            f"computed ({summary.rows_written} rows), {summary.chunks_already_done} already done; "
+            f"{summary.path}: D in [{summary.start}, {summary.stop}]: {plural(summary.chunks_computed, 'chunk')} "
+            f"computed ({plural(summary.rows_written, 'row')}), {summary.chunks_already_done} already done; "
             f"{summary.seconds:.2f} s on "
             + (f"cluster {summary.cluster}" if summary.cluster else f"{summary.workers} worker(s)")
             + "\n"
@@ -114,9 +115,10 @@ def _cmd_table(args: argparse.Namespace) -> int:
 
 
 def _inv_plain(inv) -> str:
+    """The group in the text notation shared by every command: ``C2 × C4``, the trivial group ``C1``."""
     if inv is None:
         return ""
-    return ",".join(map(str, inv)) if inv else "1"
+    return " × ".join(f"C{n}" for n in inv) or "C1"
 
 
 def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> None:
@@ -144,7 +146,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
                 "conductor",
                 "class_number",
                 "class_number_narrow",
-                "invariants",
+                "structure",
                 "genus_count",
                 "regulator",
             ]
@@ -172,7 +174,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     if positive:
         head.append("h+")
     if with_invariants:
-        head.append("invariants")
+        head.append("structure")
     head.append("genera")
     if positive:
         head.append("regulator")
@@ -191,7 +193,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     for row in table:
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
     out.write(
-        f"({len(rows)} rows; class numbers by enumeration, unconditional"
+        f"({plural(len(rows), 'row')}; class numbers by enumeration, unconditional"
         + (
             "; h = class number (ideal classes of the order), h+ = narrow class number (forms up to "
             "proper equivalence); the invariants are those of the narrow group Cl+(D) when D > 0"
@@ -241,7 +243,7 @@ def _tex(rows: Sequence[TableRow], with_invariants: bool, positive: bool) -> str
             cells.append(f"${r.class_number_narrow}$")
         if with_invariants:
             inv = r.invariants or ()
-            cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "1") + "$")
+            cells.append("$" + (r" \times ".join(f"C_{{{n}}}" for n in inv) if inv else "C_1") + "$")
         cells.append(f"${r.genus_count}$")
         if positive:
             cells.append("" if r.regulator is None else f"${r.regulator:.6f}$")
@@ -256,7 +258,7 @@ def _emit_info(args: argparse.Namespace, info: dict) -> None:
     def human() -> str:
         m = info["meta"]
         lines = [
-            f"table store {info['path']}: {info['rows']} rows in {info['chunks']} finished chunks",
+            f"table store {info['path']}: {plural(info['rows'], 'row')} in {plural(info['chunks'], 'finished chunk')}",
             "covered: " + (", ".join(f"[{lo}, {hi}]" for lo, hi in info["covered"]) or "nothing yet"),
             f"options: invariants={'yes' if m.get('invariants') == '1' else 'no'}, "
             f"fundamental only={'yes' if m.get('fundamental') == '1' else 'no'}",
@@ -271,26 +273,6 @@ def _emit_info(args: argparse.Namespace, info: dict) -> None:
 # ---------------------------------------------------------------------------
 # registration
 # ---------------------------------------------------------------------------
-
-
-def _positive_int(text: str) -> int:
-    try:
-        value = parse_integer(text, "value")
-    except ValueError:
-        value = 0
-    if value < 1:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, not {text!r}")
-    return value
-
-
-def _count(text: str) -> int:
-    try:
-        value = parse_integer(text, "value")
-    except ValueError:
-        value = -1
-    if value < 0:
-        raise argparse.ArgumentTypeError(f"expected a non-negative integer, not {text!r}")
-    return value
 
 
 def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
@@ -345,7 +327,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="output: aligned text (default), CSV, one JSON object, or a LaTeX tabular",
     )
     p.add_argument("--db", metavar="FILE", help="SQLite file to build into (resumable) or to query")
-    p.add_argument("--workers", type=_positive_int, metavar="N", help="worker processes (default: all cores)")
+    p.add_argument(
+        "--workers",
+        type=integer_type("--workers", 1),
+        metavar="N",
+        help="worker processes (default: all cores)",
+    )
     p.add_argument(
         "--cluster",
         metavar="ADDRESS",
@@ -354,7 +341,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     p.add_argument(
         "--chunk-size",
-        type=_positive_int,
+        type=integer_type("--chunk-size", 1),
         metavar="N",
         help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, 1000 for D > 0)",
     )
@@ -373,11 +360,17 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         metavar="H",
         help="rows with narrow class number H (forms up to proper equivalence; the class number when D < 0)",
     )
-    g.add_argument("--invariants", metavar="N1,N2,...", help="rows with this group structure (1 = trivial)")
+    g.add_argument(
+        "--invariants",
+        metavar="N1,N2,...",
+        help="rows with this group structure: 2,2,4 or 'C2 × C2 × C4' (1 or C1 = trivial)",
+    )
     g.add_argument("--conductor", metavar="F", help="rows of conductor F")
     g.add_argument("--fundamental-part", metavar="D_K", help="rows with fundamental discriminant D_K")
     g.add_argument("--genera", metavar="G", help="rows with G genera")
-    g.add_argument("--limit", type=_count, metavar="N", help="at most N rows")
+    g.add_argument(
+        "--limit", type=integer_type("--limit", 0), metavar="N", help="at most N rows (default all)"
+    )
     g.add_argument(
         "--info", action="store_true", help="describe the stored table: options, coverage, provenance"
     )

@@ -44,7 +44,12 @@ from functools import lru_cache
 from ..errors import DiscriminantMismatchError, FormError, NotPrimitiveError
 from .arith import as_int, isqrt, mpz, xgcd
 from .forms import Form, FormLike, _require_nonsquare, as_form
-from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
+from .raw_reduction import (
+    REPRESENTATIVE_CYCLE_LIMIT,
+    _cycle_representative_raw,
+    _reduce_definite_raw,
+    _reduce_indefinite_raw,
+)
 
 __all__ = ["compose", "square", "power", "inverse", "COMPOSITION_METHODS"]
 
@@ -164,9 +169,21 @@ def _check(F: Form, G: Form) -> int:
 
 
 def _reduce_any(a, b, c, D) -> Form:
+    """The class representative of (a, b, c): reduced (D < 0), least on its cycle (D > 0)."""
     if D < 0:
         return Form(*(int(v) for v in _reduce_definite_raw(a, b, c)))
-    return Form(*(int(v) for v in _reduce_indefinite_raw(a, b, c, D, isqrt(D))))
+    return _representative_indefinite(_reduce_indefinite_raw(a, b, c, D, isqrt(D)), D)
+
+
+def _representative_indefinite(r, D) -> Form:
+    # the form that formkit.core.reduction.class_representative chooses (one per class)
+    rep = _cycle_representative_raw(*r, D, isqrt(D))
+    if rep is None:
+        raise FormError(
+            f"the cycle of the composite ({int(r[0])}, {int(r[1])}, {int(r[2])}) has more than "
+            f"{REPRESENTATIVE_CYCLE_LIMIT} reduced forms: no class representative chosen"
+        )
+    return Form(*rep)
 
 
 def compose(F: FormLike, G: FormLike, *, method: str = "dirichlet") -> Form:
@@ -182,9 +199,10 @@ def compose(F: FormLike, G: FormLike, *, method: str = "dirichlet") -> Form:
     Returns
     -------
     Form
-        The reduced composite.  For D > 0 this is *a* reduced form of the product
-        class (the first one Gauss reduction reaches); compare classes with
-        :func:`formkit.core.equivalence.are_properly_equivalent` or through a class group.
+        The class representative of the product class
+        (:func:`formkit.core.reduction.class_representative`): the reduced form for
+        D < 0; for D > 0 the least reduced form of its cycle (least ``|a|``, positive
+        ``a`` first, then least ``b``), the form ``formkit group`` lists.
 
     Raises
     ------
@@ -237,7 +255,7 @@ def square(F: FormLike, *, method: str = "nucomp") -> Form:
 
 
 def inverse(F: FormLike) -> Form:
-    """The reduced form of the inverse class: ``(a, −b, c)`` reduced.
+    """The class representative of the inverse class, that of ``(a, −b, c)``.
 
     Examples
     --------
@@ -250,7 +268,10 @@ def inverse(F: FormLike) -> Form:
 
 
 def power(F: FormLike, k: int, *, method: str = "nucomp") -> Form:
-    """``F^k`` in the class group, reduced (``k`` may be negative or zero).
+    """``F^k`` in the class group: its class representative (``k`` may be negative or zero).
+
+    The result is :func:`formkit.core.reduction.class_representative` of the power class
+    (for D > 0 the form ``formkit group`` lists).
 
     Uses binary powering with NUDUPL/NUCOMP for definite forms (Dirichlet composition
     and Gauss reduction for indefinite ones), so ``k`` may have hundreds of digits.
@@ -302,4 +323,4 @@ def power(F: FormLike, k: int, *, method: str = "nucomp") -> Form:
         if bit == "1":
             a, b, c = _compose_raw(result[0], result[1], result[2], base[0], base[1], base[2], Dz)
             result = _reduce_indefinite_raw(a, b, c, Dz, sq)
-    return Form(*(int(v) for v in result))
+    return _representative_indefinite(result, Dz)

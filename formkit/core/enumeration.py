@@ -33,7 +33,12 @@ from .arith import divisors, isqrt, kronecker, next_prime
 from .discriminants import validate_discriminant
 from .forms import Form
 from .modular_roots import _sqrt_mod_prime_power
-from .raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw, _rho_indefinite_raw
+from .raw_reduction import (
+    _reduce_definite_raw,
+    _reduce_indefinite_raw,
+    _representative_key,
+    _rho_indefinite_raw,
+)
 
 __all__ = [
     "reduced_forms",
@@ -178,11 +183,11 @@ def _cycles_positive(D: int) -> tuple[list[tuple[int, int, int]], dict[tuple, tu
             if (a, b, c) == f:
                 break
             cyc.append((a, b, c))
-        rep = min(cyc, key=lambda g: (abs(g[0]), g[0] < 0, g[1]))
+        rep = min(cyc, key=_representative_key)  # class_representative's choice
         for g in cyc:
             index[g] = rep
         reps.append(rep)
-    reps.sort(key=lambda g: (abs(g[0]), g[0] < 0, g[1]))
+    reps.sort(key=_representative_key)
     return reps, index
 
 

@@ -517,6 +517,13 @@ class Form:
     def _repr_latex_(self) -> str:
         return "$" + self._poly_text("^{2}", " ").replace("x y", "xy") + "$"
 
+    def _repr_html_(self) -> str:
+        """Notebook display: the polynomial, the triple (a, b, c) and the discriminant."""
+        import html
+
+        poly = html.escape(self._poly_text("^2", "")).replace("^2", "<sup>2</sup>")
+        return f"{poly} &nbsp; ({self.a}, {self.b}, {self.c}), D = {self.discriminant}"
+
     def to_list(self) -> list[int]:
         """``[a, b, c]`` (for JSON)."""
         return [self._a, self._b, self._c]

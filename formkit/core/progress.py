@@ -25,10 +25,11 @@ Examples
 
 from __future__ import annotations
 
+import functools
 import sys
 import threading
 import time
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from typing import Any, TextIO
 
@@ -39,6 +40,7 @@ __all__ = [
     "progress_enabled",
     "set_progress",
     "slow_notice",
+    "announces_slowness",
 ]
 
 _forced: bool | None = None
@@ -157,3 +159,30 @@ def slow_notice(what: str, hint: str = "", after: float = 3.0) -> Iterator[None]
     finally:
         done.set()
         watcher.join(timeout=max(0.0, 0.1 - (time.monotonic() - start)))
+
+
+def announces_slowness(
+    describe: Callable[..., str], hint: str = "", after: float = 3.0
+) -> Callable[[Callable[..., Any]], Callable[..., Any]]:
+    """Decorator: run the function inside :func:`slow_notice`, the job named by
+    ``describe(*args, **kwargs)`` (for long searches: baby-step giant-step, the
+    infrastructure, class polynomials).
+
+    >>> @announces_slowness(lambda n: f"counting to {n}")
+    ... def count(n):
+    ...     return sum(range(n))
+    >>> count(10)
+    45
+    """
+
+    def decorate(fn: Callable[..., Any]) -> Callable[..., Any]:
+        @functools.wraps(fn)
+        def wrapper(*args: Any, **kwargs: Any) -> Any:
+            if not progress_enabled():
+                return fn(*args, **kwargs)
+            with slow_notice(describe(*args, **kwargs), hint, after):
+                return fn(*args, **kwargs)
+
+        return wrapper
+
+    return decorate

@@ -33,6 +33,8 @@ from ..errors import FormError
 from .arith import isqrt
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
 from .raw_reduction import (
+    REPRESENTATIVE_CYCLE_LIMIT,
+    _cycle_representative_raw,
     _is_reduced_definite_raw,
     _is_reduced_indefinite_raw,
     _reduce_definite_raw,
@@ -50,6 +52,7 @@ __all__ = [
     "reduced",
     "rho",
     "reduced_cycle",
+    "class_representative",
 ]
 
 
@@ -316,6 +319,67 @@ def reduced_cycle(form: FormLike, *, max_length: int | None = None) -> FormCycle
         if max_length is not None and len(forms) > max_length:
             raise FormError(f"cycle of {start!r} is longer than max_length = {max_length}")
     return FormCycle(tuple(forms), tuple(matrices))
+
+
+def class_representative(form: FormLike, *, max_length: int = REPRESENTATIVE_CYCLE_LIMIT) -> Form:
+    """The canonical representative of the proper class of ``form``: one form per class.
+
+    * ``D < 0``: the reduced form (Gauss: the unique reduced form of the class);
+    * ``D > 0``: among the reduced forms of the class's ρ-cycle, the one with the least
+      ``|a|``, positive ``a`` preferred, then the least ``b`` (unique: a cycle holds each
+      reduced form once).  The principal class is represented by its form with ``a = 1``.
+
+    This is the form listed by ``formkit group`` and
+    :func:`formkit.core.enumeration.class_representatives`, the form returned by
+    :func:`formkit.core.composition.compose` and :func:`~formkit.core.composition.power`,
+    and the class element's form in :class:`formkit.classgroups.group.ClassGroup`.
+
+    Parameters
+    ----------
+    form : FormLike
+        A form of non-square discriminant.
+    max_length : int
+        D > 0: the longest cycle walked (default 2,000,000 forms, a few seconds).
+
+    Returns
+    -------
+    Form
+
+    Raises
+    ------
+    DiscriminantError
+        If the discriminant is a perfect square.
+    FormError
+        If the cycle is longer than ``max_length``.
+
+    Examples
+    --------
+    >>> class_representative((2, 3, 5)), class_representative((5, 4, 2))
+    (Form(2, -1, 4), Form(2, 0, 3))
+    >>> reduced((1, 0, -79)), class_representative((1, 0, -79))   # D = 316 = 4·79
+    (Form(1, 16, -15), Form(1, 16, -15))
+    >>> class_representative((-6, 14, 5))                         # the form group 316 lists
+    Form(-3, 14, 10)
+
+    References
+    ----------
+    Buchmann–Vollmer, *Binary Quadratic Forms*, §6.3 (cycles of reduced forms);
+    Cohen GTM 138, Algorithm 5.4.2 (Gauss reduction).
+    """
+    f = as_form(form)
+    D = _require_nonsquare(f, "a class representative")
+    if D < 0:
+        return reduced(f)
+    r = reduced(f)
+    sq = isqrt(D)
+    a, b, c, Dz, sqz = _to_work(r.a, r.b, r.c, D, sq)
+    rep = _cycle_representative_raw(a, b, c, Dz, sqz, max_length)
+    if rep is None:
+        raise FormError(
+            f"the cycle of {r!r} has more than max_length = {max_length} reduced forms; "
+            "no class representative chosen"
+        )
+    return Form(*rep)
 
 
 def _cycle_product(cyc: FormCycle, upto: int | None = None) -> Matrix:

@@ -253,7 +253,11 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     data["classes"] = recs
     data["classes_complete"] = len(shown) == len(elements)
     if len(shown) < len(elements):
-        blocks.append(para(f"({len(elements) - len(shown)} further classes not listed; see max_classes.)"))
+        blocks.append(
+            para(
+                f"({len(elements) - len(shown)} further classes not listed; raise max_classes, on the command line --limit N or --all.)"
+            )
+        )
         return WorkedExample("group", title, data, tuple(blocks))
 
     blocks.append(Heading(2, "Genera"))

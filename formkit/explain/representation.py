@@ -290,7 +290,11 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         )
         blocks.extend(details)
     if omitted:
-        blocks.append(para(f"(Reduction steps of {omitted} further roots are not shown; see max_detail.)"))
+        blocks.append(
+            para(
+                f"(Reduction steps of {omitted} further roots are not shown; raise max_detail, on the command line --limit N or --all.)"
+            )
+        )
 
     blocks.append(Heading(2, "Result"))
     solutions = sorted(set(solutions))
@@ -309,12 +313,19 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
         else:
             blocks.append(para(f"No solutions: Q does not represent {n}."))
     else:
+        # one solution per orbit, the same choice as formkit.represent: least x² + y²
+        # (formkit.representation.orbits.orbit_representative)
+        from ..representation.orbits import orbit_representative
+
+        solutions = sorted({orbit_representative(Q, v) for v in solutions})
         data.update(count=None, orbit_count=len(solutions), solutions=[list(v) for v in solutions])
         if solutions:
             blocks.append(
                 para(
                     f"Infinitely many solutions, in {len(solutions)} orbits under the automorphs of Q; one solution "
-                    "per orbit: " + ", ".join(f"@{v}@" for v in solutions) + "."
+                    "per orbit (the one with the least x² + y²): "
+                    + ", ".join(f"@{v}@" for v in solutions)
+                    + "."
                 )
             )
         else:

@@ -41,6 +41,7 @@ from ..errors import FormkitError
 from .colours import edge_colours, genus_colours, genus_key
 
 __all__ = [
+    "picture_edges",
     "graph_layout",
     "draw_graph",
     "save_picture",
@@ -72,6 +73,37 @@ def _ring(m: int, centre: Point, r: float, phase: float = 0.0) -> list[Point]:
 def _grid_centres(R: int) -> list[Point]:
     cols = math.ceil(math.sqrt(R))
     return [(float(k % cols), -float(k // cols)) for k in range(R)]
+
+
+def picture_edges(C: nx.Graph) -> list[tuple[Hashable, Hashable, int | None, bool]]:
+    """The edges a picture draws: ``(u, v, prime, directed)``.
+
+    A Cayley graph's generator of order 2 joins each pair of classes both ways; it is
+    drawn as one undirected edge (``directed = False``), so the picture of ``Cl(D)`` with
+    ``r`` generators has at most ``r·h`` edges.  Other graphs: every edge, directed.
+
+    >>> from formkit.graphs.construction import cayley_graph
+    >>> C = cayley_graph(-84)                      # C2 × C2: two generators of order 2
+    >>> len(picture_edges(C)), C.number_of_edges()
+    (4, 8)
+    """
+    if C.graph.get("kind") != "cayley":
+        return [(u, v, None, True) for u, v in C.edges()]
+    from .construction import prime_orders
+
+    orders = prime_orders(C)
+    out: list[tuple[Hashable, Hashable, int | None, bool]] = []
+    seen: set = set()
+    for u, v, q in C.edges(data="prime"):
+        if orders.get(q) == 2:
+            key = (q, frozenset((u, v)))
+            if key in seen:
+                continue
+            seen.add(key)
+            out.append((u, v, q, False))
+        else:
+            out.append((u, v, q, True))
+    return out
 
 
 def _ring_prime(C: nx.Graph) -> int | None:
@@ -312,7 +344,20 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     scale = (min(sx, sy), min(sx, sy))
     fast = n > 60 if edges == "auto" else edges == "straight"
 
-    def draw_edges(el, colour, rad, alpha=1.0):
+    def draw_edges(el, colour, rad, alpha=1.0, directed=True):
+        if not directed:  # a generator of order 2: one straight undirected edge per pair
+            nx.draw_networkx_edges(
+                C,
+                pos,
+                edgelist=el,
+                ax=ax,
+                edge_color=colour,
+                width=width,
+                arrows=False,
+                node_size=node_size,
+                alpha=alpha,
+            )
+            return
         if fast:
             _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale)
         else:
@@ -334,8 +379,12 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
         p1 = _ring_prime(C)
         others = [p for p in C.graph["primes"] if p != p1]
         for i, p in enumerate(([p1] if p1 is not None else []) + others):
-            el = [(u, v) for u, v, q in C.edges(data="prime") if q == p]
-            draw_edges(el, ecol[p], 0.06 if p == p1 else 0.1 + 0.1 * i, 0.75 if fast and p != p1 else 1.0)
+            drawn = [(u, v, d) for u, v, q, d in picture_edges(C) if q == p]
+            el = [(u, v) for u, v, _d in drawn]
+            directed = all(d for _u, _v, d in drawn)
+            draw_edges(
+                el, ecol[p], 0.06 if p == p1 else 0.1 + 0.1 * i, 0.75 if fast and p != p1 else 1.0, directed
+            )
     else:
         draw_edges(list(C.edges()), "#555555", 0.08 if kind == "cycles" else 0.0)
 

@@ -69,6 +69,7 @@ from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _reduced_forms_cached
 from ..core.forms import Form
 from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
+from ..core.progress import announces_slowness
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
 
@@ -216,6 +217,8 @@ class ClassPolynomial:
         return {
             "discriminant": self.discriminant,
             "degree": self.degree,
+            # coefficients from the leading one (x^h) down to the constant term
+            "coefficient_order": "descending",
             "coefficients": list(self.coefficients),
             "kind": self.kind,
             "working_digits": self.working_digits,
@@ -246,8 +249,22 @@ class ClassPolynomial:
             text = text[:60] + " …"
         return f"ClassPolynomial(D={self.discriminant}, degree={self.degree}: {text})"
 
+    def _how(self) -> str:
+        if self.verification is None:
+            return f"computed with {self.working_digits} digits, not verified"
+        return f"verified: recomputed with {self.verification.recomputed_digits} digits, roots modulo small primes checked"
+
     def _repr_latex_(self) -> str:
-        return f"$H_{{{self.discriminant}}}(x) = {self._text(latex=True)}$"
+        return f"$H_{{{self.discriminant}}}(x) = {self._text(latex=True)}$ ({self._how()})"
+
+    def _repr_html_(self) -> str:
+        """Notebook display: the polynomial (shortened past 400 characters) and how it was checked."""
+        import html
+
+        text = self._text()
+        if len(text) > 400:
+            text = text[:380] + " …"
+        return f"H<sub>{self.discriminant}</sub>(x) = {html.escape(text)}<br><small>{self._how()}</small>"
 
 
 def _product(D: int, forms: Sequence[tuple[int, int, int]], digits: int):
@@ -393,6 +410,9 @@ def _split_check(D: int, coeffs: list[int], forms, want: int = 6, want_principal
     return checked, principal
 
 
+@announces_slowness(
+    lambda D, **k: f"the class polynomial of discriminant {D}", "--no-verify skips the verification"
+)
 def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
     """The class polynomial ``H_D(x)`` of a negative discriminant ``D``.
 

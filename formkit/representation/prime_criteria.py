@@ -190,6 +190,18 @@ class PrimeCriterion:
     def __str__(self) -> str:
         return self.statement
 
+    def _repr_html_(self) -> str:
+        """Notebook display: the statement and the density (a theorem: unconditional)."""
+        import html
+
+        return (
+            f"{html.escape(self.statement)}<br><small>density {self.density} of all primes "
+            f"(Chebotarev); criterion of kind {self.kind}, unconditional</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        return rf"\text{{{self.statement}}}\ (\text{{density }} {self.density.numerator}/{self.density.denominator})"
+
 
 def _congruence_text(Q: Form, m: int, residues: tuple[int, ...]) -> str:
     shown = ", ".join(map(str, residues[:40])) + (", …" if len(residues) > 40 else "")

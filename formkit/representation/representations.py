@@ -152,6 +152,31 @@ class RepresentationResult:
         """True when ``Q(x, y) = n`` has a solution."""
         return bool(self.solutions) or bool(self.orbits) or bool(self.count)
 
+    def _summary(self) -> str:
+        f = self.form
+        head = f"({f.a}, {f.b}, {f.c}) = {self.n}: "
+        if self.definite:
+            return (
+                head
+                + f"{self.count} solutions, {self.primitive_count} primitive (complete, square-root method)"
+            )
+        return head + (
+            f"{self.orbit_count} orbits under the automorphs, one solution each (least x² + y²)"
+            if self.orbit_count
+            else "no solutions"
+        )
+
+    def _repr_html_(self) -> str:
+        """Notebook display: the counts and the listed solutions or orbit representatives."""
+        listed = self.solutions if self.definite else self.orbits
+        shown = ", ".join(f"({x}, {y})" for x, y in listed[:50]) + (" …" if len(listed) > 50 else "")
+        return f"{self._summary()}<br>{shown}"
+
+    def _repr_latex_(self) -> str:
+        listed = self.solutions if self.definite else self.orbits
+        vecs = r",\ ".join(f"({x}, {y})" for x, y in listed[:50])
+        return rf"$\text{{{self._summary()}}}$" + (f": ${vecs}$" if vecs else "")
+
     def to_dict(self) -> dict:
         """The JSON shape of ``formkit represent``."""
         d: dict = {

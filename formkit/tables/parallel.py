@@ -16,7 +16,6 @@ References
 from __future__ import annotations
 
 import os
-import sys
 import threading
 import time
 from collections.abc import Callable, Iterable
@@ -135,13 +134,13 @@ class _NoBar:
 
 
 def _progress_bar(total: int, show: bool | None, desc: str):
-    if show is None:
-        show = sys.stderr.isatty()
-    if not show:
+    """The chunk bar: formkit.core.progress's (stderr only, off with --quiet); ``show=False``
+    turns it off for this call, ``show=True`` shows it at once instead of after two seconds."""
+    if show is False:
         return _NoBar()
-    from tqdm import tqdm
+    from ..core.progress import ProgressBar
 
-    return tqdm(total=total, desc=desc, unit="chunk", file=sys.stderr, dynamic_ncols=True)
+    return ProgressBar(total, desc, "chunk", 0.0 if show else 2.0)
 
 
 def _plan(

@@ -241,7 +241,7 @@ def _invariants_of(D: int, h: int, genera: int) -> tuple[int, ...]:
         return quick
     from ..classgroups.dispatch import class_group
 
-    G = class_group(D, method="enumerate")  # tables hold unconditional rows only
+    G = class_group(D, method="enumeration")  # tables hold unconditional rows only
     if not G.provenance.certified:  # pragma: no cover - tables stay in the enumeration range
         raise FormkitError(
             f"class group of {D} is not certified ({G.provenance}); tables store only certified rows"

@@ -24,6 +24,7 @@ from __future__ import annotations
 
 import itertools
 import os
+import re
 import sqlite3
 import time
 from collections.abc import Sequence
@@ -77,8 +78,8 @@ def parse_invariants(value: object) -> tuple[int, ...]:
     Parameters
     ----------
     value : str or sequence of int
-        ``"2,2,4"``, ``"2 4"``, ``"[2, 4]"``, ``(2, 4)``; ``"1"`` or ``""`` is the
-        trivial group.
+        ``"2,2,4"``, ``"2 4"``, ``"[2, 4]"``, ``(2, 4)``, ``"C2 × C4"``; ``"1"``, ``"C1"``
+        or ``""`` is the trivial group.
 
     Raises
     ------
@@ -89,6 +90,8 @@ def parse_invariants(value: object) -> tuple[int, ...]:
     --------
     >>> parse_invariants("2,2,4"), parse_invariants("1"), parse_invariants([1, 3])
     ((2, 2, 4), (), (3,))
+    >>> parse_invariants("C2 × C4"), parse_invariants("C1")
+    ((2, 4), ())
     >>> parse_invariants("2,3")
     Traceback (most recent call last):
     ...
@@ -96,6 +99,9 @@ def parse_invariants(value: object) -> tuple[int, ...]:
     """
     if isinstance(value, str):
         text = value.strip().strip("[]()").replace(",", " ")
+        # the text notation "C2 × C4" (or "C2 x C4"; "C1" is the trivial group)
+        if re.fullmatch(r"C\d+(\s*[×x]\s*C\d+)*", value.strip()):
+            text = " ".join(re.findall(r"C(\d+)", value))
         parts = text.split()
         nums = []
         for p in parts:

@@ -58,7 +58,7 @@ def _random_elements(G, rng, k):
 
 def _check_against_enumeration(D, rng, n_elements=4):
     G = class_group_bsgs(D)
-    E = class_group(D, method="enumerate")
+    E = class_group(D, method="enumeration")
     assert G.invariants == E.invariants, (D, G.invariants, E.invariants)
     assert G.order == E.order
     for x in _random_elements(G, rng, n_elements):
@@ -155,7 +155,7 @@ def test_non_fundamental_large_uses_field_class_number():
     d = -(10**8) - 7  # fundamental (10^8 + 7 is prime and ≡ 3 mod 4)
     assert is_fundamental_discriminant(d)
     G = class_group_bsgs(9 * d)
-    h_K = class_group(d, method="enumerate").order
+    h_K = class_group(d, method="enumeration").order
     # Cox Thm 7.24: h(f²d) = h(d)·f·∏(1 − χ(p)/p); here f = 3
     from formkit.core.arith import kronecker
 
@@ -218,7 +218,7 @@ def test_real_against_enumeration_random():
     rng = random.Random(5)
     for D in random_discriminants(rng, 25, 10**6, negative=False):
         r = real_class_number(D)
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         assert (r.class_number_narrow, r.class_number) == (E.order, E.class_number), D
         assert abs(r.regulator - float(regulator(D))) <= 1e-9 * r.regulator
         assert r.unit_norm == fundamental_unit(D).norm
@@ -251,7 +251,7 @@ def test_real_against_enumeration_large():
     rng = random.Random(55)
     for D in random_discriminants(rng, 40, 10**8, negative=False):
         r = real_class_number(D)
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         assert (r.class_number_narrow, r.class_number) == (E.order, E.class_number), D
 
 
@@ -269,7 +269,7 @@ def test_non_fundamental_with_field_beyond_enumeration_limit(monkeypatch):
     assert is_fundamental_discriminant(d)
     G = class_group_bsgs(25 * d)
     assert G.provenance.assumption == "GRH" and not G.provenance.certified
-    assert G.invariants == class_group(25 * d, method="enumerate").invariants
+    assert G.invariants == class_group(25 * d, method="enumeration").invariants
 
 
 # Euler's 65 idoneal numbers (from memory; Cox, Primes of the form x² + ny², §3.C): n is
@@ -409,7 +409,7 @@ def test_redei_formula_as_recalled_matches_enumeration():
     from formkit.core.discriminants import is_fundamental_discriminant
 
     for D in [d for d in range(-3000, 3000) if d not in (0, 1) and is_fundamental_discriminant(d)]:
-        G = class_group(D, method="enumerate")
+        G = class_group(D, method="enumeration")
         assert sum(1 for n in G.invariants if n % 4 == 0) == redei_four_rank(D), D
 
 

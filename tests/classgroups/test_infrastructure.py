@@ -1,6 +1,6 @@
 """Tests for formkit.classgroups.infrastructure: regulator, class numbers and Cl⁺(D) for D > 0.
 
-Outside references: complete enumeration (formkit.class_group method="enumerate",
+Outside references: complete enumeration (formkit.class_group method="enumeration",
 unconditional, an independent algorithm); Dirichlet's finite character sums of
 formkit.analytic.class_number_formula (Davenport Ch. 6); the exact fundamental unit (formkit.core.discriminants);
 the theorems of Biró (2003) settling the conjectures of Chowla (h(4m²+1) = 1 only for
@@ -45,7 +45,7 @@ def test_against_enumeration_random(start):
     rng = random.Random(2026 if start is None else 7)
     for D in random_discriminants(rng, 40, 10**6, negative=False):
         r = real_class_number(D, prime_bound=start)
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         assert (r.class_number_narrow, r.class_number) == (E.order, E.class_number), D
         assert abs(r.regulator - float(regulator(D))) <= 1e-9 * r.regulator
         assert r.unit_norm == fundamental_unit(D).norm
@@ -159,7 +159,7 @@ def test_class_group_against_enumeration_random():
     rng = random.Random(31)
     for D in random_discriminants(rng, 40, 10**6, negative=False):
         G = real_class_group(D)
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         assert G.invariants == E.invariants, D
         assert G.class_number_wide == E.class_number_wide
         assert G.provenance.method == "bsgs" and G.provenance.assumption == "GRH"
@@ -174,7 +174,7 @@ def test_class_group_against_enumeration_random():
 def test_elementary_two_group_from_genera():
     # h⁺ = number of genera: Cl⁺ ≅ C2^r read off the genus characters (Gauss)
     D = 4 * 1155  # 1155 = 3·5·7·11
-    E = class_group(D, method="enumerate")
+    E = class_group(D, method="enumeration")
     assert E.order == genus_count(D)
     G = real_class_group(D)
     assert "genera is one class" in G.provenance.detail
@@ -203,7 +203,7 @@ def test_class_number_summary_function():
     a = class_number_summary(10**12 + 1)
     assert a["class_number_narrow"] == 50280  # enumeration (3 min, see the slow test) gives 50280
     assert a["assumption"] == "GRH" and a["method"] == "infrastructure+analytic"
-    b = class_number_summary(316, method="enumerate")
+    b = class_number_summary(316, method="enumeration")
     assert (b["class_number_narrow"], b["class_number"], b["certified"]) == (6, 3, True)
     with pytest.raises(FormkitError, match="method"):
         class_number_summary(316, method="fast")
@@ -213,7 +213,7 @@ def test_class_number_summary_function():
 def test_large_against_enumeration():
     # 10^10+1 by enumeration takes about 10 s, 10^12+1 about 3 min
     for D in (10**10 + 1, 10**12 + 1):
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         G = real_class_group(D)
         assert G.invariants == E.invariants and G.class_number_wide == E.class_number_wide
 
@@ -223,7 +223,7 @@ def test_many_against_enumeration():
     rng = random.Random(8)
     for D in random_discriminants(rng, 150, 10**8, negative=False):
         G = real_class_group(D)
-        E = class_group(D, method="enumerate")
+        E = class_group(D, method="enumeration")
         assert G.invariants == E.invariants, D
 
 

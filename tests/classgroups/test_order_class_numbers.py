@@ -56,7 +56,7 @@ def test_real_quadratic_field_class_numbers_below_200():
 
 def _check_formula(D: int) -> None:
     r = order_class_number(D)
-    G = class_group(D, method="enumerate")
+    G = class_group(D, method="enumeration")
     assert r.class_number == G.class_number, D
     assert r.class_number_narrow == G.class_number_narrow, D
     d_K, f = discriminant_parts(D)
@@ -106,7 +106,7 @@ def test_formula_factors_by_hand():
 
 
 def _brute_kernel(D: int) -> list[Form]:
-    G = class_group(D, method="enumerate")
+    G = class_group(D, method="enumeration")
     d_K, _f = discriminant_parts(D)
     one = Form.principal(d_K)
     return [x.form for x in G if are_properly_equivalent(project_to_maximal_order(x.form), one)]

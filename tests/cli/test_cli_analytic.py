@@ -51,16 +51,16 @@ def test_epstein(capsys):
 
 
 def test_theta(capsys):
-    t = run_json(capsys, "theta", "1,0,1", "--upto", "12", "--show", "12")
+    t = run_json(capsys, "theta", "1,0,1", "--bound", "12", "--limit", "12")
     assert t["coefficients"] == [1, 4, 4, 0, 4, 8, 0, 0, 4, 4, 8, 0, 0]  # Jacobi's r₂(n)
-    g = run_json(capsys, "theta", "2,1,3", "--upto", "10", "--genus")
+    g = run_json(capsys, "theta", "2,1,3", "--bound", "10", "--genus")
     assert g["siegel_agrees"] is True and g["cusp_part"][:3] == ["0", "-2/3", "2/3"]
 
 
 def test_pictures(capsys, tmp_path):
     pytest.importorskip("matplotlib")
     png = tmp_path / "r.png"
-    code, _out, _err = run(capsys, "theta", "1,1,6", "--upto", "30", "--genus", "-o", str(png))
+    code, _out, _err = run(capsys, "theta", "1,1,6", "--bound", "30", "--genus", "-o", str(png))
     assert code == 0 and png.read_bytes()[:4] == b"\x89PNG"
     svg = tmp_path / "c.svg"
     code, _out, _err = run(capsys, "critical-line", "-4", "--height", "10", "--points", "12", "-o", str(svg))
@@ -76,9 +76,9 @@ def test_pictures(capsys, tmp_path):
         (("l-value", "-4", "2+"), "s must be"),
         (("l-value", "-23", "2", "--class-character", "x"), "--class-character"),
         (("l-value", "-23", "2", "--genus", "5", "--field-zeta"), "at most one"),
-        (("theta", "1,0,1", "--upto", "-3"), "N must"),
-        (("theta", "1,0,1", "--upto", "5", "-o", "x.png"), "--genus"),
-        (("theta", "1,0,1", "--upto", "5", "--genus", "-o", "x.pdf"), ".png or .svg"),
+        (("theta", "1,0,1", "--bound", "-3"), "N must"),
+        (("theta", "1,0,1", "--bound", "5", "-o", "x.png"), "--genus"),
+        (("theta", "1,0,1", "--bound", "5", "--genus", "-o", "x.pdf"), ".png or .svg"),
         (("critical-line", "-4", "--height", "0"), "height"),
         (("epstein", "-23", "--classes"), "needs S"),
     ],

@@ -39,7 +39,7 @@ def test_represent_and_group(capsys):
     assert code == 0 and out == explain_representation((2, 1, 3), 18)
     code, out, _ = run(["explain", "group", "-84"], capsys)
     assert code == 0 and out == explain_class_group(-84)
-    code, out, _ = run(["explain", "group", "-84", "--max-classes", "2"], capsys)
+    code, out, _ = run(["explain", "group", "-84", "--limit", "2"], capsys)
     assert code == 0 and "further classes not listed" in out
 
 
@@ -81,7 +81,7 @@ def test_negative_forms_and_notations(capsys):
         (["explain", "reduce", "x^3"], "x^3"),
         (["explain", "compose", "1,0,1", "1,1,1"], "discriminant"),
         (["explain", "represent", "1,0,1", "2.5"], "2.5"),
-        (["explain", "represent", "1,0,1", "5", "--max-detail", "0"], "positive"),
+        (["explain", "represent", "1,0,1", "5", "--limit", "-1"], "--limit must be at least 0"),
         (["explain", "group", "-5"], "-5"),
         (["explain", "group", "-84", "--format", "pdf"], "pdf"),
         (["explain", "reduce", "1,0,1", "--fragment"], "--fragment"),

@@ -16,7 +16,7 @@ import pytest
 from _cli import run, run_json
 from _foundation_strategies import act, brute_reduced_indefinite, det
 
-REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix"}
+REDUCE_KEYS = {"form", "discriminant", "reduced", "matrix", "class_representative"}
 EQUIVALENT_KEYS = {"equivalent", "properly", "matrix"}
 
 
@@ -95,7 +95,7 @@ def test_reduce_steps(capsys):
         assert list(current) == s["form"]
     assert list(current) == d["reduced"]
     code, out, _err = run(capsys, "reduce", "10,37,35", "--steps")
-    assert code == 0 and "translate" in out and "swap" in out and "[1, 1, 8]" in out
+    assert code == 0 and "translate" in out and "swap" in out and "(1, 1, 8)" in out
 
 
 def test_reduce_human_output(capsys):
@@ -103,7 +103,7 @@ def test_reduce_human_output(capsys):
     assert code == 0 and err == ""
     assert "discriminant:  52" in out and "cycle (10 reduced forms)" in out
     code, out, err = run(capsys, "reduce", "3,0,3")
-    assert code == 0 and "reduced:" in out and "[3, 0, 3]" in out
+    assert code == 0 and "reduced:" in out and "(3, 0, 3)" in out
 
 
 def test_reduce_huge_form_exact(capsys):
@@ -114,13 +114,13 @@ def test_reduce_huge_form_exact(capsys):
 
 
 def test_reduce_cycle_limit(capsys):
-    d = run_json(capsys, "reduce", "1,1,-10000000000000000000001", "--cycle-limit", "3")
+    d = run_json(capsys, "reduce", "1,1,-10000000000000000000001", "--limit", "3")
     assert len(d["cycle"]) == 3 and d["cycle_complete"] is False
-    code, out, _err = run(capsys, "reduce", "1,1,-10000000000000000000001", "--cycle-limit", "3")
+    code, out, _err = run(capsys, "reduce", "1,1,-10000000000000000000001", "--limit", "3")
     assert code == 0 and "more than 3" in out
-    d = run_json(capsys, "reduce", "1,0,-7", "--cycle-limit", "0")
+    d = run_json(capsys, "reduce", "1,0,-7", "--limit", "0")
     assert len(d["cycle"]) == 4 and d["cycle_complete"] is True
-    assert_usage_error(*run(capsys, "reduce", "1,0,-7", "--cycle-limit", "-1"))
+    assert_usage_error(*run(capsys, "reduce", "1,0,-7", "--limit", "-1"))
 
 
 # --- equivalent -------------------------------------------------------------------------------------
@@ -178,7 +178,7 @@ def test_equivalent_human_output(capsys):
         ["reduce", "1,0,-4"],  # D = 16, a square
         ["reduce", "1.5,2,3"],
         ["reduce", "1,2,3", "--bogus"],
-        ["reduce", "1,2,3", "--cycle-limit", "x"],
+        ["reduce", "1,2,3", "--limit", "x"],
         ["equivalent", "1,0,1"],
         ["equivalent", "1,0,1", "1,1,1"],  # different discriminants
         ["equivalent", "1,0,1", "x^2 + y^2 + z^2"],

@@ -94,7 +94,7 @@ def test_json_summary_with_output(tmp_path, capsys):
     assert code == 0
     payload = json.loads(out)
     assert payload["format"] == "dot" and payload["output"] == str(path)
-    assert payload["nodes"] == 20 and payload["edges"] == 20 * len(payload["primes"])
+    assert payload["node_count"] == 20 and payload["edge_count"] == 20 * len(payload["primes"])
 
 
 def test_json_flag_to_stdout_is_one_object(capsys):

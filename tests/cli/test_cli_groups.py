@@ -56,6 +56,9 @@ EXTRA_KEYS = {
     "regulator_text",
     "kernel",
     "ideal_class_group",
+    # issue 15: the structure in the shared notation, every class with order and discrete log
+    "structure",
+    "classes",
 }
 
 
@@ -127,11 +130,11 @@ def test_group_json_q_sqrt_79(capsys):
 def test_group_human_output(capsys):
     code, out, err = run(["group", "-4004"], capsys)
     assert code == 0 and err == ""
-    assert "C2 x C2 x C10" in out
+    assert "C2 × C2 × C10" in out
     assert "class number h = 40" in out
     assert "unconditional" in out
     # a table of all 40 classes with their orders: one line per class, orders divide 10
-    row = re.compile(r"^\s*\[(-?\d+), (-?\d+), (-?\d+)\]\s+(\d+)\s")
+    row = re.compile(r"^\s*\((-?\d+), (-?\d+), (-?\d+)\)\s+(\d+)\s")
     rows = [m.groups() for m in map(row.match, out.splitlines()) if m]
     assert len(rows) == 40
     orders = {tuple(map(int, r[:3])): int(r[3]) for r in rows}
@@ -148,7 +151,7 @@ def test_group_human_output_positive_and_rows(capsys):
     # narrow and wide named in words (issue 13, item 4): h⁺ = 6 proper form classes, h = 3 ideal classes
     assert "narrow class number h+ = 6" in out and "(forms up to proper equivalence)" in out
     assert "class number h = 3" in out and "(ideal classes of the order)" in out
-    code, out, _ = run(["group", "-4004", "--max-rows", "5"], capsys)
+    code, out, _ = run(["group", "-4004", "--limit", "5"], capsys)
     assert code == 0 and "35 more classes" in out
 
 
@@ -208,9 +211,9 @@ def test_power_json_against_brute_force(capsys):
 
 def test_compose_and_power_human(capsys):
     code, out, _ = run(["compose", "2,1,3", "2,1,3"], capsys)
-    assert code == 0 and "[2, -1, 3]" in out
+    assert code == 0 and "(2, -1, 3)" in out
     code, out, _ = run(["power", "2,1,3", "-1"], capsys)
-    assert code == 0 and "[2, -1, 3]" in out
+    assert code == 0 and "(2, -1, 3)" in out
 
 
 # ---------------------------------------------------------------------------
@@ -223,7 +226,7 @@ def test_compose_and_power_human(capsys):
         (["group", "-5"], "-5"),
         (["group", "16"], "16"),
         (["group", "abc"], "abc"),
-        (["group", "-23", "--max-rows", "-1"], "max-rows"),
+        (["group", "-23", "--limit", "-1"], "--limit"),
         (["group", "-23", "--method", "magic"], "magic"),
         (["compose", "2,1,3", "1,1,1"], "discriminant"),
         (["compose", "2,2,6", "2,2,6"], "primitive"),
@@ -278,7 +281,7 @@ def test_group_positive_bsgs_json(capsys):
 def test_group_positive_huge_unit_not_written(capsys):
     code, out, err = run(["group", "10^12+29"], capsys)  # auto: above the enumeration limit
     assert code == 0 and err == ""
-    assert "C2 x C2; narrow class number h+ = 4" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
+    assert "C2 × C2; narrow class number h+ = 4" in out  # h⁺ = 4 = number of genera, so C2 × C2 (Gauss)
     assert "not written out" in out and "conditional on GRH" in out
 
 
@@ -320,3 +323,18 @@ def test_class_number_interval(capsys):
     d = run_json(["class-number", "316", "--interval"], capsys)
     iv = d["analytic_interval"]
     assert iv["of"] == "h*R" and iv["lower"] <= d["class_number"] * d["regulator"] <= iv["upper"]
+
+
+def test_group_json_holds_orders_and_discrete_logs(capsys):
+    # issue 15: the JSON carries what the text table shows; checked against the group law
+    # itself (brute force: x^order = 1 and the discrete log rebuilds the class)
+    from formkit import class_group
+
+    d = run_json(["group", "-4620"], capsys)
+    G = class_group(-4620)
+    assert d["structure"] == G.structure and len(d["classes"]) == d["class_number"] == G.order
+    for c in d["classes"]:
+        x = G(c["form"])
+        assert (x ** c["order"]).is_identity and G.element(c["discrete_log"]) == x
+    assert run_json(["group", "-3"], capsys)["structure"] == "C1"
+    assert run_json(["group", "-3", "--method", "enumeration"], capsys)["method"] == "enumeration"

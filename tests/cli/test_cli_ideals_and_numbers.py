@@ -58,7 +58,7 @@ def test_every_discriminant_argument_reads_the_same_syntax(capsys, argv, text, D
         (["ideal", "factor", "-12", "--element", "(1+√-3)/2"], "is not in the order Z[√-3]"),
         (["ideal", "factor", "-20", "--element", "0"], "zero ideal"),
         (["ideal", "primes", "-20", "9"], "prime"),
-        (["group", "-23", "--max-rows", "-1"], "at least 0"),
+        (["group", "-23", "--limit", "-1"], "at least 0"),
     ],
 )
 def test_bad_input_names_the_value_and_rule(capsys, argv, words):

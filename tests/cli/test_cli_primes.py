@@ -7,7 +7,7 @@ from _cli import run, run_json
 
 def test_primes_congruence_json(capsys):
     # Fermat/Euler (classical): p = x² + 5y² iff p = 5 or p ≡ 1, 9 (mod 20)
-    d = run_json(capsys, "primes", "x^2 + 5y^2", "--upto", "1000")
+    d = run_json(capsys, "primes", "x^2 + 5y^2", "--bound", "1000")
     assert d["form"] == [1, 0, 5] and d["discriminant"] == -20 and d["density"] == "1/4"
     assert d["criterion"]["kind"] == "congruence"
     assert d["criterion"]["modulus"] == 20 and d["criterion"]["residues"] == [1, 9]
@@ -18,18 +18,20 @@ def test_primes_congruence_json(capsys):
 
 def test_primes_class_polynomial_json(capsys):
     # Gauss: p = x² + 27y² iff p ≡ 1 (mod 3) and 2 is a cubic residue mod p (Cox Thm 4.15, as recalled)
-    d = run_json(capsys, "primes", "1,0,27", "--upto", "3000")
+    d = run_json(capsys, "primes", "1,0,27", "--bound", "3000")
     assert d["criterion"]["kind"] == "class_polynomial"
     assert len(d["criterion"]["polynomial"]) == 4 and d["criterion"]["polynomial"][0] == 1
     assert d["density"] == "1/6"  # h(−108) = 3, principal class: 1/(2h)
     assert d["exceptions"] == []
     expected = [p for p in sympy.primerange(5, 3001) if p % 3 == 1 and pow(2, (p - 1) // 3, p) == 1]
     assert d["primes"] == expected
-    assert d["count"]["represented"] == len(expected) and d["count"]["primes"] == 430  # π(3000) = 430
+    assert (
+        d["prime_count"]["represented"] == len(expected) and d["prime_count"]["primes"] == 430
+    )  # π(3000) = 430
 
 
 def test_primes_nonprincipal_class(capsys):
-    d = run_json(capsys, "primes", "[2, 1, 3]", "--upto", "100")
+    d = run_json(capsys, "primes", "[2, 1, 3]", "--bound", "100")
     assert d["density"] == "1/3"  # class of order 3 in Cl(−23) ≅ Z/3
     assert d["criterion"]["kind"] == "class_polynomial" and d["criterion"]["principal"] is False
     assert d["criterion"]["polynomial"] == [1, 3491750, -5151296875, 12771880859375]  # Cox §13 (from memory)
@@ -40,29 +42,29 @@ def test_primes_nonprincipal_class(capsys):
 
 def test_primes_indefinite(capsys):
     # x² − 2y²: p = 2 or p ≡ ±1 (mod 8) (classical)
-    d = run_json(capsys, "primes", "x^2 - 2y^2", "--upto", "500")
+    d = run_json(capsys, "primes", "x^2 - 2y^2", "--bound", "500")
     assert d["criterion"] == {**d["criterion"], "kind": "congruence", "modulus": 8, "residues": [1, 7]}
     assert d["primes"] == [2] + [p for p in sympy.primerange(3, 501) if p % 8 in (1, 7)]
 
 
 def test_primes_text(capsys):
-    code, out, err = run(capsys, "primes", "1,0,14", "--upto", "200")
+    code, out, err = run(capsys, "primes", "1,0,14", "--bound", "200")
     assert code == 0 and err == ""
     assert "no congruence criterion" in out and "class polynomial of degree 4" in out
     assert "density:       1/8" in out
 
 
 def test_primes_without_polynomial(capsys):
-    d = run_json(capsys, "primes", "1,0,14", "--upto", "50", "--no-polynomial")
+    d = run_json(capsys, "primes", "1,0,14", "--bound", "50", "--no-polynomial")
     assert d["criterion"]["polynomial"] == []
     assert d["primes"] == [23]  # 23 = 3² + 14·1²; 15 = 1 + 14 is not prime
 
 
 def test_primes_default_bound_and_power_notation(capsys):
     d = run_json(capsys, "primes", "1,1,1")
-    assert d["count"]["upto"] == 1000
-    d = run_json(capsys, "primes", "1,1,1", "--upto", "10^4")
-    assert d["count"]["upto"] == 10**4
+    assert d["prime_count"]["bound"] == 1000
+    d = run_json(capsys, "primes", "1,1,1", "--bound", "10^4")
+    assert d["prime_count"]["bound"] == 10**4
     # x² + xy + y²: p = 3 or p ≡ 1 (mod 3) (classical)
     assert d["primes"] == [3] + [p for p in sympy.primerange(2, 10**4) if p % 3 == 1]
 
@@ -94,13 +96,13 @@ def test_hilbert_text(capsys):
         (["primes", "2,2,2"], "content 2"),
         (["primes", "-1,0,-5"], "negative definite"),
         (["primes", "1,0,-1"], "square"),
-        (["primes", "1,0,5", "--upto", "-3"], "≥ 0"),
-        (["primes", "1,0,5", "--upto", "ten"], "--upto: cannot read 'ten' as an integer"),
-        (["primes", "1,0,5", "--upto", "10^9"], "at most"),
+        (["primes", "1,0,5", "--bound", "-3"], "--bound must be at least 0, not -3"),
+        (["primes", "1,0,5", "--bound", "ten"], "--bound: cannot read 'ten' as an integer"),
+        (["primes", "1,0,5", "--bound", "10^9"], "at most"),
         (["primes", "1,2"], "three"),
         (["hilbert", "5"], "negative discriminants"),
         (["hilbert", "-22"], "-22"),
-        (["hilbert", "x"], "D: cannot read 'x' as an integer"),
+        (["hilbert", "x"], "discriminant: cannot read 'x' as an integer"),
         (["hilbert"], "required"),
     ],
 )

@@ -6,6 +6,7 @@ import csv
 import io
 import json
 import os
+import re
 import subprocess
 import sys
 from pathlib import Path
@@ -28,11 +29,12 @@ def test_text_table(capsys):
     code, out, err = run(["table", "--from", "-30", "--to", "-3"], capsys)
     assert code == 0 and err == ""
     lines = out.splitlines()
-    assert lines[0].split() == ["D", "d_K", "f", "h", "invariants", "genera"]
-    body = {int(line.split()[0]): line.split() for line in lines[1:-1]}
+    assert lines[0].split() == ["D", "d_K", "f", "h", "structure", "genera"]
+    cells = [re.split(r"\s{2,}", line.strip()) for line in lines[1:-1]]
+    body = {int(c[0]): c for c in cells}
     # h(−23) = 3, cyclic, one genus; h(−12) = 1 with conductor 2 over −3 (Cox §7, from memory)
-    assert body[-23] == ["-23", "-23", "1", "3", "3", "1"]
-    assert body[-12] == ["-12", "-3", "2", "1", "1", "1"]
+    assert body[-23] == ["-23", "-23", "1", "3", "C3", "1"]
+    assert body[-12] == ["-12", "-3", "2", "1", "C1", "1"]
     assert len(body) == 14 and "unconditional" in lines[-1]
 
 
@@ -51,7 +53,7 @@ def test_csv_and_positive_columns(capsys):
     for D, r in by.items():
         G = class_group(D)
         assert int(r["class_number_narrow"]) == G.order and int(r["class_number"]) == G.class_number
-        assert r["invariants"] == (",".join(map(str, G.invariants)) or "1")
+        assert r["structure"] == G.structure  # one notation: C2 × C4, the trivial group C1
 
 
 def test_json_object(capsys):
@@ -146,8 +148,8 @@ def test_structure_query(tmp_path, capsys):
         (["table", "--from", "x", "--to", "-3"], "--from"),
         (["table", "--class-number", "7"], "--db"),
         (["table", "--info"], "--db"),
-        (["table", "--from", "-30", "--to", "-3", "--workers", "0"], "positive integer"),
-        (["table", "--from", "-30", "--to", "-3", "--chunk-size", "-5"], "positive integer"),
+        (["table", "--from", "-30", "--to", "-3", "--workers", "0"], "must be at least 1"),
+        (["table", "--from", "-30", "--to", "-3", "--chunk-size", "-5"], "must be at least 1"),
         (["table", "--from", "-30", "--to", "-3", "--format", "xml"], "invalid choice"),
         (["table", "--from", "-30", "--to", "-3", "--limit", "3"], "--limit"),
         (["table", "--db", "/nonexistent/dir/none.db", "--class-number", "7"], "no table store"),

@@ -317,3 +317,27 @@ def test_power_and_inverse_bad_input():
         power((-2, 1, -3), 2)
     with pytest.raises(FormkitError):
         square((1, 2, 1))
+
+
+# Issue 15, one representative per class: compose/power return the form that the class
+# list (class_representatives, i.e. `formkit group`) holds.  Reference: brute force —
+# the result must be properly equivalent to the unreduced Dirichlet composite and be one
+# of the enumerated representatives (Buchmann–Vollmer §6.3: one cycle per proper class).
+@pytest.mark.parametrize("D", [5, 12, 316, 148, 229, 4 * 82, 8 * 17 * 3, -56, -4620])
+def test_compose_and_power_return_the_listed_representative(D):
+    from formkit.core.composition import _compose_raw
+    from formkit.core.enumeration import class_representatives
+    from formkit.core.equivalence import are_properly_equivalent
+    from formkit.core.reduction import class_representative
+
+    reps = class_representatives(D)
+    listed = set(reps)
+    for F in reps[:6]:
+        assert class_representative(F) == F
+        for G in reps[:6]:
+            H = compose(F, G)
+            assert H in listed
+            raw = Form(*(int(v) for v in _compose_raw(F.a, F.b, F.c, G.a, G.b, G.c, D)))
+            assert are_properly_equivalent(H, raw)
+        for k in (-3, 0, 2, 5):
+            assert power(F, k) in listed

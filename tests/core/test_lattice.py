@@ -173,7 +173,7 @@ def _form_of(D, base, x):
 def test_quotient_of_class_group_relations_is_the_class_group(D, n):
     # relation matrices among 40–80 prime forms (the sparse elimination path) give
     # the structure that complete enumeration gives (formkit.class_group, unconditional)
-    G = formkit.class_group(D, method="enumerate")
+    G = formkit.class_group(D, method="enumeration")
     R = relation_matrix(D, n, extra=n // 2)
     Q = lattice_quotient(R)
     assert Q.invariants == G.invariants

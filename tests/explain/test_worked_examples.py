@@ -446,3 +446,18 @@ def test_latex_compiles(name, make, tmp_path):
     )
     assert proc.returncode == 0, proc.stdout[-3000:]
     assert (tmp_path / f"{name}.pdf").stat().st_size > 1000
+
+
+# Issue 15: one choice of orbit representatives for indefinite forms, shared by
+# `represent` and `explain represent` (least x² + y², orbits.orbit_representative).
+# Reference: brute force over a box — every listed vector solves Q(x, y) = n.
+@pytest.mark.parametrize("form,n", [((1, 0, -94), 3), ((1, 0, -2), 119), ((2, 1, -4), 18), ((1, 1, -1), 11)])
+def test_explain_represent_lists_the_orbit_representatives_of_represent(form, n):
+    from formkit.explain.representation import worked_representation
+    from formkit.representation.representations import represent
+
+    ex = worked_representation(form, n)
+    res = represent(form, n)
+    a, b, c = form
+    assert sorted(map(tuple, ex.data["solutions"])) == sorted(res.orbits)
+    assert all(a * x * x + b * x * y + c * y * y == n for x, y in res.orbits)

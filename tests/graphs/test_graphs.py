@@ -167,22 +167,39 @@ def test_cayley_graph_properties(D, data):
 
 
 @given(D=st.one_of(NEG, POS))
-def test_default_primes_generate_each_needed(D):
+def test_default_primes_are_a_minimal_generating_set(D):
+    # issue 15: as many primes as the rank (the least number of generators of a finite
+    # abelian group is its number of invariant factors), and — brute force over all sets of
+    # that size — no set of usable primes with a smaller largest prime generates the group
+    import itertools
+
     G = class_group(D)
     primes = generating_primes(D)
     C = cayley_graph(D)
     assert C.graph["primes"] == primes
     assert nx.is_strongly_connected(C)
     assert len(generated_subgroup(C)) == G.order
-    # each kept prime enlarges the subgroup; every skipped usable prime below the last
-    # one lies in the subgroup of the primes kept before it
-    sizes = [len(generated_subgroup(C, primes[:i])) for i in range(len(primes) + 1)]
-    assert sizes == sorted(set(sizes))
+    assert len(primes) == len(G.invariants)
     if primes:
-        for q in usable_primes(D, primes[-1]):
-            if q not in primes:
-                before = [G.prime_form(p) for p in primes if p < q]
-                assert G.prime_form(q) in closure(G, before)
+        smaller = [q for q in usable_primes(D, primes[-1]) if q < primes[-1]]
+        for S in itertools.combinations(smaller, len(primes)):
+            assert len(closure(G, [G.prime_form(q) for q in S])) < G.order
+
+
+@pytest.mark.parametrize("D", [-4620, -16428])
+def test_default_picture_has_at_most_rank_times_h_edges(D):
+    # issue 15: the default Cayley picture of Cl(-4620) and Cl(-16428) is no hairball
+    from formkit.graphs.plotting import picture_edges
+
+    G = class_group(D)
+    C = cayley_graph(D)
+    drawn = picture_edges(C)
+    assert len(drawn) <= len(G.invariants) * G.order
+    # an order-2 generator is one undirected edge per pair of classes, h/2 of them
+    orders = prime_orders(C)
+    for p in C.graph["primes"]:
+        mine = [e for e in drawn if e[2] == p]
+        assert len(mine) == (G.order // 2 if orders[p] == 2 else G.order)
 
 
 @pytest.mark.parametrize("D", [-3, -4, -7, -8, -11, -19, -43, -67, -163, 5, 13])
