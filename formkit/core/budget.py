@@ -189,7 +189,14 @@ def format_bytes(n: float) -> str:
     """A size in bytes in the largest fitting binary unit (``"1.0 GB"``)."""
     if n == math.inf:
         return "unlimited memory"
-    for unit, size in (("EB", 2**60), ("PB", 2**50), ("TB", 2**40), ("GB", 2**30), ("MB", 2**20), ("KB", 2**10)):
+    for unit, size in (
+        ("EB", 2**60),
+        ("PB", 2**50),
+        ("TB", 2**40),
+        ("GB", 2**30),
+        ("MB", 2**20),
+        ("KB", 2**10),
+    ):
         if n >= size:
             v = n / size
             return f"{v:.1e} {unit}" if v >= 1e4 else f"{v:.1f} {unit}"
