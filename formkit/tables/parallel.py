@@ -191,9 +191,9 @@ def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[
     >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
     True
     """
-    from ..core.budget import to_float
     from ..classgroups.baby_step_giant_step import bsgs_cost
     from ..classgroups.dispatch import ENUMERATION_LIMIT
+    from ..core.budget import to_float
     from ..core.enumeration import enumeration_cost
 
     seconds = memory = 0.0
