@@ -26,7 +26,7 @@ from dataclasses import dataclass
 from ..core.arith import as_int, isqrt
 from ..errors import FormkitError
 from .rows import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
-from .store import _check_or_record_meta, _connect, _done_intervals, _missing, _write_chunk
+from .store import _check_or_record_meta, _connect, _done_intervals, _drop_damaged, _missing, _write_chunk
 
 __all__ = [
     "BuildSummary",
@@ -323,6 +323,7 @@ def build_table(
     if path is not None:
         conn = _connect(path, create=True)
         _check_or_record_meta(conn, path, bool(fundamental), bool(invariants))
+        _drop_damaged(conn)  # damaged chunks are recomputed, never trusted
         done = _done_intervals(conn)
     else:
         done = []
@@ -334,8 +335,8 @@ def build_table(
     written = [0]
 
     def sink(spec: ChunkSpec, rows: list[RawRow], seconds: float) -> None:
-        if conn is not None:
-            _write_chunk(conn, spec, rows, seconds)
+        if conn is not None and not _write_chunk(conn, spec, rows, seconds):
+            return  # another writer stored this part of the range first
         if rows_out is not None:
             rows_out.extend(TableRow._from_raw(r) for r in rows)
         written[0] += len(rows)
