@@ -334,6 +334,15 @@ def _check_bsgs_cost(D: int, spread: float | None = None) -> None:
     )
 
 
+def _precheck_bsgs_cost(D: int) -> None:
+    """Before factoring ``D`` or estimating ``h``: refuse at once when the typical cost
+    (:func:`bsgs_cost` without a spread) is ten times over the budget."""
+    from ..core.budget import current_budget
+
+    if abs(D).bit_length() > _HOPELESS_BITS or bsgs_cost(D)[0] > 10 * current_budget().seconds:
+        _check_bsgs_cost(D)
+
+
 def bach_bound(D: object) -> int:
     """Bach's bound ``⌊6·log²|D|⌋``: under GRH the prime forms of norm at most this
     generate ``Cl(D)`` (Bach 1990, theorem number not recalled; Cohen GTM 138, §5.5.1).
@@ -470,8 +479,7 @@ def class_group_bsgs(D: object, *, prime_bound: int | None = None) -> ClassGroup
             f"baby-step giant-step class groups are implemented for D < 0, not {D}; "
             "for D > 0 use formkit.real_class_number (class numbers and regulator)"
         )
-    if abs(D).bit_length() > _HOPELESS_BITS:
-        _check_bsgs_cost(D)
+    _precheck_bsgs_cost(D)
     d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
     _LAST["stats"] = stats
@@ -559,8 +567,7 @@ def order_of_class(form: object) -> int:
         raise FormError(f"order_of_class needs a positive definite form, not {F!r}")
     if not F.is_primitive:
         raise NotPrimitiveError(f"order_of_class needs a primitive form; {F!r} has content {F.content}")
-    if abs(D).bit_length() > _HOPELESS_BITS:
-        _check_bsgs_cost(D)
+    _precheck_bsgs_cost(D)
     ops = _Ops(D, BSGSStatistics())
     est = class_number_estimate(D)
     _check_bsgs_cost(D, max(1.0, est.estimate * est.l_value.typical_radius))

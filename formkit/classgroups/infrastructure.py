@@ -431,8 +431,13 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     D = validate_discriminant(D)
     if D < 0:
         raise DiscriminantError(f"real_class_number needs a positive discriminant, not {D}")
-    if D.bit_length() > 2000:  # even the estimate of h·R is hopeless (D^(1/4) steps)
-        _check_regulator_cost(D, math.exp(min(700.0, 0.25 * D.bit_length() * math.log(2))))
+    # before factoring D or estimating h·R: a typical walk of 2·D^(1/4)·√(log D) ten times over
+    # the budget is refused at once
+    from ..core.budget import current_budget
+
+    typical = 2 * math.exp(min(700.0, 0.25 * D.bit_length() * math.log(2))) * math.sqrt(D.bit_length())
+    if D.bit_length() > 2000 or 2 * typical / 1.19 / 8e5 > 10 * current_budget().seconds:
+        _check_regulator_cost(D, typical)
     _d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
     P = max(default_prime_bound(D), min(2 * 10**6, D)) if prime_bound is None else prime_bound
