@@ -27,7 +27,7 @@ Examples
 >>> with budget(b):
 ...     check_cost("a small job", seconds=1.0, memory=10**6)
 >>> with budget(b):
-...     check_cost("a big job", seconds=1e6, memory=10**6, further="use a faster method")
+...     check_cost("a big job", seconds=1e6, memory=2**20, further="use a faster method")
 Traceback (most recent call last):
 ...
 formkit.errors.BudgetError: a big job would need about 11.6 days and 1.0 MB, over the budget of 10 min and 1.0 GB; use a faster method, or raise the budget with --budget (e.g. --budget 12d)
