@@ -20,6 +20,8 @@ __all__ = [
     "MatrixError",
     "NotInOrderError",
     "NotInvertibleIdealError",
+    "BudgetError",
+    "StoreDamagedError",
 ]
 
 
@@ -65,3 +67,16 @@ class NotInOrderError(FormkitError):
 
 class NotInvertibleIdealError(FormkitError):
     """An ideal of a non-maximal order is not invertible (not proper), or is the zero ideal."""
+
+
+class BudgetError(FormkitError):
+    """Work estimated (before it starts) to need more time or memory than the budget allows.
+
+    The message says what the work would need and which method or option reaches
+    further (see :mod:`formkit.core.budget`).
+    """
+
+
+class StoreDamagedError(FormkitError):
+    """A table store failed its checks (checksums or row identities); the message names the
+    damaged chunks and how to repair them."""

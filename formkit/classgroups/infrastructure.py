@@ -71,6 +71,20 @@ SIEVE_CANDIDATE_LIMIT = 1 << 40
 CLASSES_PER_ROUND = 24
 
 
+def _check_regulator_cost(D: int, target: float) -> None:
+    """Refuse a regulator search whose walk (to distance ``target``, about 1.19 per step,
+    0.8 million steps per second, 300 bytes per stored step) is over the budget."""
+    from ..core.budget import check_cost, describe_integer
+
+    steps = target / 1.19
+    check_cost(
+        f"the regulator of D = {describe_integer(D)} by the infrastructure (about {steps:.2g} reduction steps)",
+        seconds=2 * steps / 8e5,
+        memory=300 * min(steps, float(REGULATOR_STEP_LIMIT)),
+        further="no method here reaches further for D > 0 (the cost grows like D^(1/4))",
+    )
+
+
 def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) -> tuple[float, int]:
     """``(R, N(ε))`` for ``D > 0`` by Shanks' baby-step giant-step in the infrastructure.
 
@@ -105,6 +119,7 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     # baby range T ≈ 2·√(h·R); at least 4·log D + 20 so that a giant step (T/2 plus the
     # distance moved by reducing a composite, at most about ½·log D) never skips the range
     target = max(4 * math.log(D) + 20.0, math.sqrt(hR_upper) * 2.0)
+    _check_regulator_cost(D, target)
     baby: dict[tuple[int, int], tuple[float, int]] = {(1, b0): (0.0, 1)}
     a, b, c = a0, b0, c0
     dist, sign = 0.0, 1
@@ -420,6 +435,13 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     D = validate_discriminant(D)
     if D < 0:
         raise DiscriminantError(f"real_class_number needs a positive discriminant, not {D}")
+    # before factoring D or estimating h·R: a typical walk of 2·D^(1/4)·√(log D) ten times over
+    # the budget is refused at once
+    from ..core.budget import current_budget
+
+    typical = 2 * math.exp(min(700.0, 0.25 * D.bit_length() * math.log(2))) * math.sqrt(D.bit_length())
+    if D.bit_length() > 2000 or 2 * typical / 1.19 / 8e5 > 10 * current_budget().seconds:
+        _check_regulator_cost(D, typical)
     _d_K, f = discriminant_parts(D)
     stats = BSGSStatistics()
     P = max(default_prime_bound(D), min(2 * 10**6, D)) if prime_bound is None else prime_bound

@@ -18,6 +18,7 @@ import sys
 from collections.abc import Sequence
 
 from .._version import __version__
+from ..core.budget import BUDGET_SYNTAX, set_budget
 from ..core.progress import set_progress
 from ..errors import FormkitError
 from .conventions import NUMBER_SYNTAX, _Parser
@@ -34,6 +35,12 @@ def build_parser() -> argparse.ArgumentParser:
     parent.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
     parent.add_argument(
         "--quiet", action="store_true", help="no progress bars or phase lines on stderr (errors still shown)"
+    )
+    parent.add_argument(
+        "--budget",
+        metavar="LIMITS",
+        default=None,
+        help=BUDGET_SYNTAX + " (one budget for every command; see formkit.core.budget)",
     )
     parser = _Parser(
         prog="formkit",
@@ -82,10 +89,13 @@ def main(argv: Sequence[str] | None = None) -> int:
             return 2
         if getattr(args, "quiet", False):
             set_progress(False)
+        if getattr(args, "budget", None) is not None:
+            set_budget(args.budget)
         try:
             return int(args.handler(args) or 0)
         finally:
             set_progress(None)
+            set_budget(None)
     except SystemExit as exc:  # argparse exits (help, errors)
         return int(exc.code) if isinstance(exc.code, int) else 2
     except FormkitError as exc:
@@ -96,6 +106,13 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 130
     except BrokenPipeError:
         return 0
+    except (MemoryError, OverflowError, RecursionError) as exc:
+        # last resort: the methods price their work first (formkit.core.budget), so these
+        # mean an estimate was too low; still a one-line refusal, never an internal error
+        if debug:
+            raise
+        sys.stderr.write(f"formkit: error: {_resource_message(exc, argv)}\n")
+        return 2
     except Exception as exc:  # internal error
         if debug:
             raise
@@ -103,6 +120,22 @@ def main(argv: Sequence[str] | None = None) -> int:
             f"formkit: internal error: {type(exc).__name__}: {_one_line(exc)} (run with --debug for details)\n"
         )
         return 1
+
+
+def _resource_message(exc: BaseException, argv: Sequence[str]) -> str:
+    shown = " ".join(argv)
+    if len(shown) > 80:
+        shown = shown[:77] + "..."
+    if isinstance(exc, MemoryError):
+        why = "ran out of memory"
+    elif isinstance(exc, RecursionError):
+        why = "nested too deeply"
+    else:
+        why = f"met a number too large for this method ({_one_line(exc)})"
+    return (
+        f"'formkit {shown}' {why}; the input is beyond what this command can do here "
+        "(try --method bsgs or a smaller input, or a lower --budget to be refused earlier)"
+    )
 
 
 def _one_line(exc: BaseException) -> str:

@@ -264,10 +264,18 @@ def _emit_info(args: argparse.Namespace, info: dict) -> None:
             f"fundamental only={'yes' if m.get('fundamental') == '1' else 'no'}",
             f"method: {m.get('method')} (certified: {'yes' if m.get('certified') == '1' else 'no'}); "
             f"formkit {m.get('formkit_version')}, created {m.get('created')}",
+            "verified: every chunk's checksum and every row's identities checked"
+            if info.get("verified", True)
+            else f"verified: {len(info['damaged'])} DAMAGED chunks (see the error below)",
         ]
         return "\n".join(lines)
 
     emit(args, info, human)
+    if info.get("damaged"):
+        from ..errors import StoreDamagedError
+        from ..tables.store import _damage_message
+
+        raise StoreDamagedError(_damage_message(info["path"], [tuple(d) for d in info["damaged"]]))
 
 
 # ---------------------------------------------------------------------------

@@ -29,15 +29,18 @@ References
 
 from __future__ import annotations
 
+import time
 from collections.abc import Iterator
 from typing import cast
 
 from ..core.arith import as_int, gcd, isqrt, mpz
+from ..core.budget import current_budget, describe_integer, format_bytes, format_seconds
 from ..core.equivalence import fundamental_automorph
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
+from ..core.progress import slow_notice
 from ..core.raw_reduction import _rho_indefinite_raw
 from ..core.reduction import _reduce_indefinite
-from ..errors import FormError
+from ..errors import BudgetError, FormError
 from .square_root_method import (
     _content_and_sign,
     _factor_abs,
@@ -69,13 +72,30 @@ class _CycleIndex:
         a, b, c = mpz(start.reduced.a), mpz(start.reduced.b), mpz(start.reduced.c)
         M: Matrix = ((1, 0), (0, 1))
         first = (int(a), int(b), int(c))
-        while True:
-            a, b, c, t = _rho_indefinite_raw(a, b, c, mpz(D), self.sq)
-            M = mat_mul(M, ((0, -1), (1, int(t))))
-            key = (int(a), int(b), int(c))
-            if key == first:
-                break
-            self.index[key] = mat_mul(self.to_start, M)
+        budget = current_budget()
+        t0 = time.monotonic()
+        stored = 0  # bytes held by the index so far (forms and matrices)
+        with slow_notice(f"walking the cycle of reduced forms of {P} (its length is not known in advance)"):
+            while True:
+                a, b, c, t = _rho_indefinite_raw(a, b, c, mpz(D), self.sq)
+                M = mat_mul(M, ((0, -1), (1, int(t))))
+                key = (int(a), int(b), int(c))
+                if key == first:
+                    break
+                N = mat_mul(self.to_start, M)
+                self.index[key] = N
+                if len(self.index) & 0xFFF == 0:
+                    # entries of N grow along the cycle, so memory grows faster than the length
+                    stored = len(self.index) * (300 + N[0][0].bit_length() // 4)
+                    elapsed = time.monotonic() - t0
+                    if 2 * stored > budget.memory or 2 * elapsed > budget.seconds:
+                        raise BudgetError(
+                            f"the cycle of reduced forms of {P} (D = {describe_integer(D)}) has more than "
+                            f"{len(self.index)} forms; storing it with its matrices already takes "
+                            f"{format_bytes(stored)} and {format_seconds(elapsed)}, so finishing would exceed "
+                            f"the budget of {budget} (the cycle length is about R/1.19 for the regulator R; "
+                            "raise --budget, or use a form of smaller discriminant)"
+                        )
         self.index[first] = self.to_start
 
     def matrix_to(self, F: Form) -> Matrix | None:

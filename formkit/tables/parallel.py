@@ -15,20 +15,22 @@ References
 
 from __future__ import annotations
 
+import math
 import os
 import threading
 import time
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 
-from ..core.arith import as_int
+from ..core.arith import as_int, isqrt
 from ..errors import FormkitError
 from .rows import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
-from .store import _check_or_record_meta, _connect, _done_intervals, _missing, _write_chunk
+from .store import _check_or_record_meta, _connect, _done_intervals, _drop_damaged, _missing, _write_chunk
 
 __all__ = [
     "BuildSummary",
     "build_table",
+    "table_cost",
 ]
 
 #: Default chunk widths (numbers of consecutive integers D per chunk).
@@ -169,6 +171,69 @@ def _plan(
     return specs
 
 
+def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[float, float]:
+    """Estimated (CPU seconds, bytes) of computing the table rows of the given ranges of D.
+
+    Negative ranges without invariants are swept at once (:mod:`formkit.tables.sweep`):
+    loops to ``√|D|`` plus about a microsecond per ``D`` (measured here, rounded up).
+    Positive ranges, and invariants, cost one class-group computation per
+    discriminant, priced at the largest ``|D|`` by
+    :func:`formkit.core.enumeration.enumeration_cost` (about half the integers are
+    discriminants).  Memory: the sweep tables, one chunk of rows, and about 200 bytes
+    per row kept for the caller.
+
+    Examples
+    --------
+    >>> t, m = table_cost([(-10**6, -3)], invariants=False)
+    >>> t < 60 and m < 2**30
+    True
+    >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
+    True
+    """
+    from ..classgroups.baby_step_giant_step import bsgs_cost
+    from ..classgroups.dispatch import ENUMERATION_LIMIT
+    from ..core.budget import to_float
+    from ..core.enumeration import enumeration_cost
+
+    seconds = memory = 0.0
+    for lo, hi in intervals:
+        for a, b in ((lo, min(hi, -1)), (max(lo, 1), hi)):
+            if a > b:
+                continue
+            count = to_float(b - a + 1)
+            M = max(abs(a), abs(b))
+            root = to_float(isqrt(M))
+            if b < 0 and not invariants:
+                seconds += 3e-6 * root + 1e-6 * count * (1 + math.log(root + 2))
+                memory = max(memory, 40 * root + 200 * min(count, CHUNK_NEGATIVE_PYTHON))
+            else:
+                if b < 0 and M > ENUMERATION_LIMIT:  # class_group uses baby-step giant-step there
+                    t, m = bsgs_cost(-M)
+                else:
+                    t, m = enumeration_cost(-M if b < 0 else M)
+                seconds += (count / 2) * max(t, 2e-5)
+                memory = max(memory, m + 200 * min(count, CHUNK_POSITIVE))
+    return seconds, memory
+
+
+def _check_table_cost(intervals: list[tuple[int, int]], invariants: bool, workers: int) -> None:
+    from ..core.budget import check_cost, describe_integer
+
+    if not intervals:
+        return
+    seconds, memory = table_cost(intervals, invariants)
+    lo, hi = intervals[0][0], intervals[-1][1]
+    check_cost(
+        f"the table of {describe_integer(lo)} ≤ D ≤ {describe_integer(hi)}"
+        + (" with invariants" if invariants else "")
+        + f" on {workers} worker{'s' if workers > 1 else ''}",
+        seconds=seconds / max(1, workers),
+        memory=memory * max(1, workers),
+        further="a narrower range (several runs into one --db file add up)"
+        + ("" if not invariants else ", or --no-invariants for negative ranges"),
+    )
+
+
 def _check_workers(workers: int | None) -> int:
     if workers is None:
         return os.cpu_count() or 1
@@ -257,17 +322,20 @@ def build_table(
     if path is not None:
         conn = _connect(path, create=True)
         _check_or_record_meta(conn, path, bool(fundamental), bool(invariants))
+        _drop_damaged(conn)  # damaged chunks are recomputed, never trusted
         done = _done_intervals(conn)
     else:
         done = []
     missing = _missing(start, stop, done)
+    if cluster is None:
+        _check_table_cost(missing, bool(invariants), min(workers, os.cpu_count() or 1))
     already = sum(1 for lo, hi in done if hi >= start and lo <= stop)
     specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
     written = [0]
 
     def sink(spec: ChunkSpec, rows: list[RawRow], seconds: float) -> None:
-        if conn is not None:
-            _write_chunk(conn, spec, rows, seconds)
+        if conn is not None and not _write_chunk(conn, spec, rows, seconds):
+            return  # another writer stored this part of the range first
         if rows_out is not None:
             rows_out.extend(TableRow._from_raw(r) for r in rows)
         written[0] += len(rows)

@@ -22,7 +22,9 @@ References
 
 from __future__ import annotations
 
+import hashlib
 import itertools
+import math
 import os
 import re
 import sqlite3
@@ -31,13 +33,15 @@ from collections.abc import Sequence
 from typing import Any
 
 from ..core.arith import as_int
-from ..errors import FormkitError
+from ..errors import FormkitError, StoreDamagedError
 from .rows import ChunkSpec, RawRow, TableRow, _check_range
 
 __all__ = [
     "query_table",
     "table_info",
     "parse_invariants",
+    "verify_store",
+    "row_problem",
 ]
 
 _FORMAT = "formkit-table-1"
@@ -55,7 +59,7 @@ _SCHEMA = """
 CREATE TABLE IF NOT EXISTS meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE IF NOT EXISTS chunks (
     lo INTEGER NOT NULL, hi INTEGER NOT NULL, row_count INTEGER NOT NULL,
-    seconds REAL NOT NULL, finished TEXT NOT NULL, PRIMARY KEY (lo, hi));
+    seconds REAL NOT NULL, finished TEXT NOT NULL, checksum TEXT, PRIMARY KEY (lo, hi));
 CREATE TABLE IF NOT EXISTS rows (
     discriminant INTEGER PRIMARY KEY,
     fundamental_discriminant INTEGER NOT NULL,
@@ -151,6 +155,9 @@ def _connect(path: str, *, create: bool) -> sqlite3.Connection:
         conn.execute("PRAGMA synchronous=NORMAL")
         if create:
             conn.executescript(_SCHEMA)
+            cols = {r[1] for r in conn.execute("PRAGMA table_info(chunks)")}
+            if "checksum" not in cols:  # a store written before chunks carried checksums
+                conn.execute("ALTER TABLE chunks ADD COLUMN checksum TEXT")
         else:
             names = {r[0] for r in conn.execute("SELECT name FROM sqlite_master WHERE type='table'")}
             if not {"meta", "chunks", "rows"} <= names:
@@ -221,8 +228,132 @@ def _missing(start: int, stop: int, done: Sequence[tuple[int, int]]) -> list[tup
     return out
 
 
-def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRow], seconds: float) -> None:
-    conn.execute("BEGIN IMMEDIATE")
+def _chunk_checksum(rows: Sequence[Sequence]) -> str:
+    """SHA-256 of the rows of a chunk (in increasing D, each column as stored)."""
+    h = hashlib.sha256()
+    for r in sorted(rows, key=lambda r: r[0]):
+        D, dk, f, hn, hw, inv, g, reg = r
+        inv_t = inv if inv is None or isinstance(inv, str) else _inv_text(inv)
+        reg_t = None if reg is None else repr(round(float(reg), 9))
+        h.update(repr((int(D), int(dk), int(f), int(hn), hw, inv_t, int(g), reg_t)).encode())
+    return h.hexdigest()
+
+
+def row_problem(D: int, dk: int, f: int, h: int, inv: str | None, g: int) -> str | None:
+    """Why a stored row fails the identities every true row satisfies, or ``None``.
+
+    The checks: ``D = f²·d_K`` with ``d_K`` fundamental (every discriminant is ``f²``
+    times a fundamental one; Cox, *Primes of the form x²+ny²*, §7.A); the invariants ``n1 | n2 | …`` have
+    product ``h``; the number of genera is a power of two dividing ``h`` (Gauss:
+    ``2^(μ−1)`` genera of equal size, Cox Thm 3.15) with the 2-rank of the invariants
+    equal to ``log₂`` of it (genus theory: Cl/Cl² has order the number of genera).
+
+    Examples
+    --------
+    >>> row_problem(-84, -84, 1, 4, "2,2", 4) is None
+    True
+    >>> row_problem(-84, -84, 1, 4, "2,4", 4)
+    'invariants 2,4 have product 8, not h = 4'
+    """
+    from ..core.discriminants import is_fundamental_discriminant
+
+    if f * f * dk != D or f < 1 or not is_fundamental_discriminant(dk):
+        return f"D = {D} is not f²·d_K for f = {f}, d_K = {dk} (fundamental)"
+    if h < 1 or g < 1 or g & (g - 1) or h % g:
+        return f"{g} genera is not a power of two dividing h = {h}"
+    if inv is not None:
+        try:
+            nums = tuple(int(x) for x in inv.split(",")) if inv else ()
+        except ValueError:
+            return f"invariants {inv!r} are not integers"
+        if math.prod(nums) != h:
+            return f"invariants {inv} have product {math.prod(nums)}, not h = {h}"
+        if any(y % x for x, y in itertools.pairwise(nums)) or any(x < 2 for x in nums):
+            return f"invariants {inv} do not form a chain n1 | n2 | …"
+        if 2 ** sum(1 for x in nums if x % 2 == 0) != g:
+            return f"invariants {inv} have 2-rank {sum(1 for x in nums if x % 2 == 0)}, but {g} genera"
+    return None
+
+
+def verify_store(conn: sqlite3.Connection) -> list[tuple[int, int, str]]:
+    """Every damaged chunk ``(lo, hi, why)``: checksum, row count or a row identity fails.
+
+    Raises
+    ------
+    StoreDamagedError
+        If SQLite itself cannot read the file (damaged pages).
+    """
+    damaged = []
+    try:
+        chunks = list(conn.execute("SELECT lo, hi, row_count, checksum FROM chunks ORDER BY lo"))
+        for lo, hi, count, checksum in chunks:
+            rows = list(
+                conn.execute(
+                    "SELECT " + ", ".join(_COLUMNS) + " FROM rows WHERE discriminant BETWEEN ? AND ?",
+                    (lo, hi),
+                )
+            )
+            why = None
+            if len(rows) != count:
+                why = f"{len(rows)} rows instead of {count}"
+            elif checksum is not None and _chunk_checksum(rows) != checksum:
+                why = "checksum of its rows does not match"
+            else:
+                for D, dk, f, h, _hw, inv, g, _reg in rows:
+                    why = row_problem(D, dk, f, h, inv, g)
+                    if why:
+                        why = f"row D = {D}: {why}"
+                        break
+            if why:
+                damaged.append((lo, hi, why))
+        conn.execute("PRAGMA quick_check").fetchall()
+    except sqlite3.DatabaseError as exc:
+        raise StoreDamagedError(
+            f"the table store file is damaged beyond its chunks (SQLite: {exc}); delete it and rebuild "
+            "with the same formkit table --from/--to --db command"
+        ) from None
+    return damaged
+
+
+def _damage_message(path: str, damaged: Sequence[tuple[int, int, str]]) -> str:
+    shown = "; ".join(f"[{lo}, {hi}] ({why})" for lo, hi, why in damaged[:3])
+    more = f" and {len(damaged) - 3} more" if len(damaged) > 3 else ""
+    lo, hi = damaged[0][0], damaged[-1][1]
+    return (
+        f"{os.fspath(path)!r} has {len(damaged)} damaged chunk{'s' if len(damaged) > 1 else ''}: "
+        f"{shown}{more}; repair with formkit table --from {lo} --to {hi} --db {os.fspath(path)} "
+        "(same options as the build: damaged chunks are recomputed)"
+    )
+
+
+def _drop_damaged(conn: sqlite3.Connection) -> int:
+    """Delete damaged chunks and their rows so that a build recomputes them; their number."""
+    damaged = verify_store(conn)
+    if damaged:
+        conn.execute("BEGIN IMMEDIATE")
+        for lo, hi, _why in damaged:
+            conn.execute("DELETE FROM rows WHERE discriminant BETWEEN ? AND ?", (lo, hi))
+            conn.execute("DELETE FROM chunks WHERE lo = ? AND hi = ?", (lo, hi))
+        conn.execute("COMMIT")
+    return len(damaged)
+
+
+def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRow], seconds: float) -> bool:
+    """Write one chunk in one transaction; ``False`` if another writer has already stored a
+    chunk overlapping it (its rows are then left as that writer wrote them)."""
+    try:
+        conn.execute("BEGIN IMMEDIATE")
+    except sqlite3.OperationalError as exc:
+        raise FormkitError(
+            f"the table store is locked by another writer for over a minute ({exc}); "
+            "wait for it to finish, then run this command again to fill in what is left"
+        ) from None
+    taken = conn.execute(
+        "SELECT 1 FROM chunks WHERE lo <= ? AND hi >= ? LIMIT 1", (spec.hi, spec.lo)
+    ).fetchone()
+    if taken:
+        conn.execute("ROLLBACK")
+        return False
     try:
         conn.executemany(
             "INSERT INTO rows (discriminant, fundamental_discriminant, conductor, class_number, "
@@ -231,13 +362,24 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
             ((D, dk, f, h, hw, _inv_text(inv), g, reg) for (D, dk, f, h, hw, inv, g, reg) in sorted(rows)),
         )
         conn.execute(
-            "INSERT INTO chunks (lo, hi, row_count, seconds, finished) VALUES (?, ?, ?, ?, ?)",
-            (spec.lo, spec.hi, len(rows), round(seconds, 6), time.strftime("%Y-%m-%dT%H:%M:%S")),
+            "INSERT INTO chunks (lo, hi, row_count, seconds, finished, checksum) VALUES (?, ?, ?, ?, ?, ?)",
+            (
+                spec.lo,
+                spec.hi,
+                len(rows),
+                round(seconds, 6),
+                time.strftime("%Y-%m-%dT%H:%M:%S"),
+                _chunk_checksum(rows),
+            ),
         )
+    except sqlite3.IntegrityError:  # rows of another writer's overlapping chunk
+        conn.execute("ROLLBACK")
+        return False
     except BaseException:
         conn.execute("ROLLBACK")
         raise
     conn.execute("COMMIT")
+    return True
 
 
 # ---------------------------------------------------------------------------
@@ -310,6 +452,9 @@ def query_table(
         _check_range(start, stop)
     conn = _connect(path, create=False)
     try:
+        damaged = verify_store(conn)
+        if damaged:
+            raise StoreDamagedError(_damage_message(path, damaged))
         meta = _meta(conn)
         where: list[str] = []
         params: list[int | str | None] = []
@@ -349,8 +494,20 @@ def query_table(
             sql += " LIMIT ?"
             params.append(_int_filter("limit", limit, 0))
         out = []
-        for D, dk, f, h, hw, inv, g, reg in conn.execute(sql, params):
-            out.append(TableRow(D, dk, f, h, _inv_from_text(inv), g, hw, reg))
+        try:
+            for D, dk, f, h, hw, inv, g, reg in conn.execute(sql, params):
+                why = row_problem(D, dk, f, h, inv, g)
+                if why:  # a row outside every chunk, or damage the chunk check missed
+                    raise StoreDamagedError(
+                        f"{os.fspath(path)!r}: row D = {D} fails a check ({why}); repair with formkit table "
+                        f"--from {D} --to {D} --db {os.fspath(path)} after deleting the file's damaged part"
+                    )
+                out.append(TableRow(D, dk, f, h, _inv_from_text(inv), g, hw, reg))
+        except sqlite3.DatabaseError as exc:
+            raise StoreDamagedError(
+                f"{os.fspath(path)!r} is damaged (SQLite: {exc}); delete it and rebuild with the same "
+                "formkit table --from/--to --db command"
+            ) from None
         return out
     finally:
         conn.close()
@@ -367,6 +524,7 @@ def table_info(path: str) -> dict:
     """
     conn = _connect(path, create=False)
     try:
+        damaged = verify_store(conn)
         meta = _meta(conn)
         nrows = conn.execute("SELECT count(*) FROM rows").fetchone()[0]
         done = _done_intervals(conn)
@@ -376,6 +534,14 @@ def table_info(path: str) -> dict:
                 covered[-1][1] = max(covered[-1][1], hi)
             else:
                 covered.append([lo, hi])
-        return {"path": os.fspath(path), "meta": meta, "rows": nrows, "chunks": len(done), "covered": covered}
+        return {
+            "path": os.fspath(path),
+            "meta": meta,
+            "rows": nrows,
+            "chunks": len(done),
+            "covered": covered,
+            "verified": not damaged,
+            "damaged": [[lo, hi, why] for lo, hi, why in damaged],
+        }
     finally:
         conn.close()
