@@ -235,10 +235,14 @@ def _invariants_from_order(h: int, genera: int) -> tuple[int, ...] | None:
     return tuple(twos)
 
 
-def _invariants_of(D: int, h: int, genera: int) -> tuple[int, ...]:
+def _invariants_of(D: int, h: int, genera: int, f: int | None = None) -> tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
+    if D < 0:  # h is known unconditionally: build only the Sylow subgroups not forced by it
+        from .structure import structure_from_class_number
+
+        return structure_from_class_number(D, h, genera, conductor=f).invariants
     from ..classgroups.dispatch import class_group
 
     G = class_group(D, method="enumerate")  # tables hold unconditional rows only
@@ -302,8 +306,10 @@ def _negative_rows(spec: ChunkSpec):
         cols = RowColumns(-n[keep], dK[keep], f[keep], h[keep], gen[keep], None)
         if spec.invariants:
             cols.inv = [
-                _invariants_of(D, hD, g)
-                for D, hD, g in zip(cols.D.tolist(), cols.h.tolist(), cols.genera.tolist())
+                _invariants_of(D, hD, g, fD)
+                for D, hD, g, fD in zip(
+                    cols.D.tolist(), cols.h.tolist(), cols.genera.tolist(), cols.f.tolist()
+                )
             ]
         return cols
     h_list = _class_numbers_py(L, H)
@@ -316,7 +322,7 @@ def _negative_rows(spec: ChunkSpec):
         if spec.fundamental and f_list[i] != 1:
             continue
         D = -n_i
-        inv = _invariants_of(D, h_list[i], gen_list[i]) if spec.invariants else None
+        inv = _invariants_of(D, h_list[i], gen_list[i], f_list[i]) if spec.invariants else None
         rows.append((D, dK_list[i], f_list[i], h_list[i], None, inv, gen_list[i], None))
     return rows
 
