@@ -282,7 +282,7 @@ def class_group_statistics(
                             if k < max_rank
                             else 1 - sum(cohen_lenstra_rank_probability(2, j) for j in range(max_rank))
                         )
-                    add(f"{label} {'=' if k < max_rank else '≥'} {k}", c, pred, src if m == 4 else src)
+                    add(f"{label} {'=' if k < max_rank else '≥'} {k}", c, pred, src)
             continue
         ranks = [_rank(r.invariants, p) for r in sel]
         for k in range(max_rank + 1):
