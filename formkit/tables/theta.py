@@ -71,11 +71,11 @@ __all__ = [
     "three_square_counts",
 ]
 
-#: Default FFT block (coefficients per block); 2^22 floats ≈ 32 MB per transform.
-THETA_BLOCK = 1 << 22
+#: Default FFT block (coefficients per block); 2^24 coefficients, transforms of length 2^25.
+THETA_BLOCK = 1 << 24
 
 #: Memory allowed for cached block spectra.
-SPECTRUM_CACHE_BYTES = 1 << 30
+SPECTRUM_CACHE_BYTES = 2 << 30
 
 #: Largest allowed distance of an FFT coefficient to the nearest integer.
 ROUNDING_TOLERANCE = 0.25
