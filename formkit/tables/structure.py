@@ -87,14 +87,14 @@ class StructureFromOrder:
 
 def _forced_sylow_exponents(ell: int, e: int, rank: int | None) -> list[int] | None:
     """Exponents ``c_1 ≤ … ≤ c_r`` of the ℓ-Sylow subgroup of order ``ℓ^e`` if forced."""
+    if rank is not None and ((e == 0) != (rank == 0) or rank > e):
+        raise ArithmeticError(f"{ell}-rank {rank} is impossible for a {ell}-group of order {ell}^{e}")
     if e == 0:
         return []
     if e == 1:
         return [1]
     if rank is None:
         return None
-    if rank < 1 or rank > e:
-        raise ArithmeticError(f"{ell}-rank {rank} is impossible for a {ell}-group of order {ell}^{e}")
     if rank == 1:
         return [e]
     if e == rank:
@@ -157,7 +157,11 @@ def structure_from_class_number(
     FormkitError
         If ``D`` is not a negative discriminant or ``h < 1``.
     ArithmeticError
-        If ``h`` is inconsistent with the group (a prime form of order not dividing ``h``).
+        If ``h`` is seen to be inconsistent with the group (a prime form whose order does
+        not divide ``h``, a Sylow subgroup that never reaches its order, a genus count
+        that contradicts ``h``).  Not every wrong ``h`` can be seen (a multiple of the
+        exponent of the group passes the order tests): ``h`` must come from a complete
+        count, as in the tables.
 
     Examples
     --------
@@ -191,8 +195,8 @@ def structure_from_class_number(
             todo[ell] = e
         else:
             sylows[ell] = forced
-    if 2 not in fac and rank2:
-        raise ArithmeticError(f"h = {h} is odd but {D} has {genus_count} genera")
+    if 2 not in fac:
+        _forced_sylow_exponents(2, 0, rank2)  # h odd: only one genus is possible
     used = 0
     if todo:
         ops = _Ops(D, BSGSStatistics())
