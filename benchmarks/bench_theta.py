@@ -55,7 +55,7 @@ def main() -> None:
         only, c2, w2 = timed(lambda: class_numbers_by_theta(-N, -3, complete=False))
         print(f"N = {N:.0e}: theta alone ({len(only)} of {len(th)} D) {c2:.1f} s [{w2:.1f}]", flush=True)
         del only
-        if N <= a.skip_sweep_above:
+        if a.skip_sweep_above >= N:
             sw, c3, w3 = timed(lambda: class_numbers(-N, -3, engine="numpy"))
             same = sw == th
             print(
