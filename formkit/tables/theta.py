@@ -60,6 +60,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from ..core.arith import as_int
+from ..core.progress import phase
 from ..errors import FormkitError
 from .sweep import _count_class_np, _mobius_table, _need_numpy, _numpy
 
@@ -215,7 +216,12 @@ def _six_hurwitz(N: int, *, complete: bool = True, block: int | None = None):
     ``known`` is False there.
     """
     np = _numpy()
+    big = N >= 5_000_000
+    if big:
+        phase(f"theta series: r3(n) for n <= {N} by FFT")
     r3, err = _r3_upto(N, block)
+    if big and complete:
+        phase("theta series: H(n) for n = 7 (mod 8) by counting reduced forms")
     T = np.zeros(N + 1, dtype=np.int64)  # T(n) = 6·H(n)
     # n ≡ 3 (mod 8): H(n) = r₃(n)/24, so 6H = r₃/4
     T[3::8] = r3[3::8] // 4
