@@ -456,7 +456,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         "--chunk-size",
         type=_positive_int,
         metavar="N",
-        help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, 1000 for D > 0)",
+        help="consecutive D per chunk and transaction (default 100000, 20000 with invariants, 1000 for D > 0)",
     )
     p.add_argument(
         "--engine",

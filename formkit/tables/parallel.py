@@ -35,7 +35,7 @@ __all__ = [
 #: Default chunk widths (numbers of consecutive integers D per chunk).
 CHUNK_NEGATIVE_FAST = 100_000
 CHUNK_NEGATIVE_PYTHON = 250_000
-CHUNK_WITH_INVARIANTS = 2_000
+CHUNK_WITH_INVARIANTS = 20_000  # structures from h are cheap; the sweep per chunk is not
 CHUNK_POSITIVE = 1_000
 
 
@@ -218,7 +218,7 @@ def build_table(
         ``"tcp://10.0.0.5:8786"``, or a client) instead of local processes.
     chunk_size : int, optional
         Consecutive integers ``D`` per chunk (default: 100 000 for the negative sweep,
-        2 000 with invariants, 1 000 for ``D > 0``).
+        20 000 with invariants, 1 000 for ``D > 0``).
     engine : {"auto", "numpy", "python", "theta"}
         The sweep for negative discriminants, or the three-squares theta series
         (:mod:`formkit.tables.theta`; the negative range is then one chunk unless
