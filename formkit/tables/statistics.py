@@ -190,7 +190,7 @@ class GroupStatistics:
         ax = fig.add_subplot(1, 1, 1)
         xs = range(len(lines))
         ax.bar([x - 0.2 for x in xs], [x.frequency for x in lines], 0.4, label="observed")
-        ax.bar([x + 0.2 for x in xs], [x.predicted for x in lines], 0.4, label="predicted")
+        ax.bar([x + 0.2 for x in xs], [float(x.predicted or 0.0) for x in lines], 0.4, label="predicted")
         ax.set_xticks(list(xs))
         ax.set_xticklabels([x.quantity for x in lines], rotation=60, ha="right", fontsize=8)
         ax.set_yscale("log")
