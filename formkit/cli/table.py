@@ -92,7 +92,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
         raise
     if rows_out is not None:
         rows_out.sort(key=lambda r: (abs(r.discriminant), r.discriminant))
-        _print_rows(rows_out, fmt, invariants)
+        _print_rows(rows_out, fmt, invariants, _method_name(args.engine))
         return 0
     payload = summary.to_dict()
     payload.update(method="enumeration", certified=True)
@@ -201,8 +201,15 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
             rows = rows_with_rank(rows, p, r, at_least=at_least)
     if args.limit is not None:
         rows = rows[: args.limit]
-    _print_rows(rows, fmt, True)
+    _print_rows(rows, fmt, True, _method_name(args.engine) if args.db is None else "enumeration")
     return 0
+
+
+def _method_name(engine: str) -> str:
+    """How the class numbers of a run were obtained (the words printed with the rows)."""
+    if engine == "theta":
+        return "the three-squares theta series (d_K ≡ 1 mod 8: enumeration)"
+    return "enumeration"
 
 
 # ---------------------------------------------------------------------------
@@ -216,7 +223,9 @@ def _inv_plain(inv) -> str:
     return ",".join(map(str, inv)) if inv else "1"
 
 
-def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> None:
+def _print_rows(
+    rows: Sequence[TableRow], fmt: str, with_invariants: bool, method: str = "enumeration"
+) -> None:
     out = sys.stdout
     if fmt == "json":
         import json
@@ -224,7 +233,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
         payload = {
             "rows": [r.to_dict() for r in rows],
             "count": len(rows),
-            "method": "enumeration",
+            "method": method,
             "certified": True,
             "invariants_computed": with_invariants,
         }
@@ -288,7 +297,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     for row in table:
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
     out.write(
-        f"({len(rows)} rows; class numbers by enumeration, unconditional"
+        f"({len(rows)} rows; class numbers by {method}, unconditional"
         + (
             "; h = class number (ideal classes of the order), h+ = narrow class number (forms up to "
             "proper equivalence); the invariants are those of the narrow group Cl+(D) when D > 0"
