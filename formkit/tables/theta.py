@@ -17,7 +17,8 @@ H(16) = 3/2`` give ``6, 12, 8, 6``.  What the relation determines:
 * ``n ≡ 1, 2 (mod 4)``: ``H(n) = 0``, so ``H(4n) = r₃(n)/12``;
 * ``n ≡ 0 (mod 4)``: ``H(4n) = r₃(n)/12 + 2·H(n)``, a recursion in powers of 4;
 * ``n ≡ 3 (mod 8)``: the order of conductor 2 gives ``H(4n) = (3 − χ(2))·H(n) = 4·H(n)``
-  (``χ(2) = −1``; the class number formula for orders, Cox Theorem 7.24), hence
+  (``χ(2) = −1``; the class number formula for orders, Cox Theorem 7.24 — number from
+  memory), hence
   ``H(n) = r₃(n)/24``;
 * ``n ≡ 7 (mod 8)``: ``χ(2) = 1`` gives ``H(4n) = 2·H(n)`` and ``r₃(n) = 0`` (Legendre):
   the relation says nothing.  These ``n`` and ``4^k·n`` are exactly the discriminants
