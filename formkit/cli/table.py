@@ -26,6 +26,9 @@ def _cmd_table(args: argparse.Namespace) -> int:
     stop = None if args.stop is None else parse_integer(args.stop, "--to")
     filters_given = any(getattr(args, k) is not None for k in _FILTERS)
 
+    if args.statistics or args.p_rank or args.p_rank_at_least or args.first or args.plot:
+        return _cmd_group_counts(args, start, stop, fmt)
+
     if args.info:
         if args.db is None:
             raise CommandError("--info needs --db FILE")
@@ -90,7 +93,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
         raise
     if rows_out is not None:
         rows_out.sort(key=lambda r: (abs(r.discriminant), r.discriminant))
-        _print_rows(rows_out, fmt, invariants)
+        _print_rows(rows_out, fmt, invariants, _method_name(args.engine))
         return 0
     payload = summary.to_dict()
     payload.update(method="enumeration", certified=True)
@@ -110,6 +113,107 @@ def _cmd_table(args: argparse.Namespace) -> int:
 
 
 # ---------------------------------------------------------------------------
+# statistics, p-rank queries, first occurrences
+# ---------------------------------------------------------------------------
+
+
+def _prime_rank(text: str, option: str) -> tuple[int, int]:
+    """``"P:R"`` → (p, r) with p prime and r ≥ 0."""
+    from ..core.arith import is_probable_prime
+    from .conventions import CommandError
+
+    parts = text.split(":")
+    if len(parts) != 2:
+        raise CommandError(f"{option} takes P:R (a prime and a rank, e.g. 3:2), not {text!r}")
+    p, r = parse_integer(parts[0], option), parse_integer(parts[1], option)
+    if p < 2 or p > 10**6 or not is_probable_prime(p) or r < 0:
+        raise CommandError(f"{option} needs a prime P (at most 10^6) and a rank R >= 0, not {text!r}")
+    return p, r
+
+
+def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
+    from ..tables.rows import table_rows
+    from ..tables.statistics import class_group_statistics, first_occurrences, rows_with_rank
+    from ..tables.store import query_table, table_info
+    from .conventions import CommandError, emit
+
+    if args.db is not None and (start is None) == (stop is None):
+        rows = query_table(args.db, start=start, stop=stop)
+        if table_info(args.db)["meta"].get("invariants") != "1":
+            raise CommandError(f"{args.db} was built without invariants; p-ranks need them")
+        source = f"rows of {args.db}"
+    elif start is None or stop is None:
+        raise CommandError("--statistics, --p-rank and --first need --from A --to B, or --db FILE")
+    elif args.db is not None:
+        rows = query_table(args.db, start=start, stop=stop)
+        source = f"rows of {args.db}"
+    else:
+        rows = table_rows(start, stop, fundamental=args.fundamental, invariants=True, engine=args.engine)
+        source = "computed now"
+    rows = [r for r in rows if r.discriminant < 0 and (not args.fundamental or r.conductor == 1)]
+    provenance = (
+        f"{source}; unconditional: h by {'theta series' if args.engine == 'theta' else 'counting'}, "
+        "structure forced by h or from explicit relations"
+    )
+    if args.statistics:
+        stats = class_group_statistics(rows, fundamental=True, provenance=provenance)
+        if args.plot:
+            stats.plot(args.plot)
+        if fmt == "json":
+            emit(args, stats.to_dict(), "")
+        else:
+            sys.stdout.write(stats.text() + "\n")
+            if args.plot:
+                sys.stdout.write(f"plot written to {args.plot}\n")
+        return 0
+    if args.plot:
+        raise CommandError("--plot goes with --statistics")
+    if args.first:
+        wanted = [_prime_rank(x, "--first") for x in args.first.split(",")]
+        occ = first_occurrences(rows, wanted)
+        payload = {
+            "first": [
+                {
+                    "prime": p,
+                    "rank_at_least": r,
+                    "row": None if occ[(p, r)] is None else occ[(p, r)].to_dict(),
+                }
+                for p, r in wanted
+            ],
+            "provenance": provenance,
+        }
+
+        def human() -> str:
+            lines = []
+            for p, r in wanted:
+                row = occ[(p, r)]
+                if row is None:
+                    lines.append(f"{p}-rank >= {r}: none in the range")
+                else:
+                    inv = " × ".join(f"C{n}" for n in row.invariants) or "C1"
+                    lines.append(f"{p}-rank >= {r}: first at D = {row.discriminant}, {inv}")
+            return "\n".join(lines) + f"\n({provenance})"
+
+        emit(args, payload, human)
+        return 0
+    for text, at_least in ((args.p_rank, False), (args.p_rank_at_least, True)):
+        if text:
+            p, r = _prime_rank(text, "--p-rank-at-least" if at_least else "--p-rank")
+            rows = rows_with_rank(rows, p, r, at_least=at_least)
+    if args.limit is not None:
+        rows = rows[: args.limit]
+    _print_rows(rows, fmt, True, _method_name(args.engine) if args.db is None else "enumeration")
+    return 0
+
+
+def _method_name(engine: str) -> str:
+    """How the class numbers of a run were obtained (the words printed with the rows)."""
+    if engine == "theta":
+        return "the three-squares theta series (d_K ≡ 1 mod 8: enumeration)"
+    return "enumeration"
+
+
+# ---------------------------------------------------------------------------
 # output
 # ---------------------------------------------------------------------------
 
@@ -121,7 +225,9 @@ def _inv_plain(inv) -> str:
     return " × ".join(f"C{n}" for n in inv) or "C1"
 
 
-def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> None:
+def _print_rows(
+    rows: Sequence[TableRow], fmt: str, with_invariants: bool, method: str = "enumeration"
+) -> None:
     out = sys.stdout
     if fmt == "json":
         import json
@@ -129,7 +235,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
         payload = {
             "rows": [r.to_dict() for r in rows],
             "count": len(rows),
-            "method": "enumeration",
+            "method": method,
             "certified": True,
             "invariants_computed": with_invariants,
         }
@@ -193,7 +299,7 @@ def _print_rows(rows: Sequence[TableRow], fmt: str, with_invariants: bool) -> No
     for row in table:
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
     out.write(
-        f"({plural(len(rows), 'row')}; class numbers by enumeration, unconditional"
+        f"({plural(len(rows), 'row')}; class numbers by {method}, unconditional"
         + (
             "; h = class number (ideal classes of the order), h+ = narrow class number (forms up to "
             "proper equivalence); the invariants are those of the narrow group Cl+(D) when D > 0"
@@ -310,7 +416,10 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "  formkit table --from -20000 --to -3 --db groups.db --workers 8\n"
             "  formkit table --db groups.db --invariants 2,2,4 --format tex\n"
             "  formkit table --from -10000000 --to -3 --no-invariants --db big.db --cluster tcp://host:8786\n"
-            "  formkit table --db big.db --info"
+            "  formkit table --db big.db --info\n"
+            "  formkit table --from -100000 --to -3 --statistics --plot ranks.png\n"
+            "  formkit table --from -20000 --to -3 --fundamental --p-rank-at-least 5:2\n"
+            "  formkit table --from -200000 --to -3 --fundamental --first 3:2,5:2,7:2"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
@@ -351,13 +460,33 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         "--chunk-size",
         type=integer_type("--chunk-size", 1),
         metavar="N",
-        help="consecutive D per chunk and transaction (default 100000, 2000 with invariants, 1000 for D > 0)",
+        help="consecutive D per chunk and transaction (default 100000, 20000 with invariants, 1000 for D > 0)",
     )
     p.add_argument(
         "--engine",
-        choices=("auto", "numpy", "python"),
+        choices=("auto", "numpy", "python", "theta"),
         default="auto",
-        help="sweep for negative D (default numpy when installed)",
+        help="class numbers of negative D: reduced-form sweep (numpy or python) or the "
+        "three-squares theta series (theta); auto picks by range",
+    )
+    s = p.add_argument_group("class-group statistics (rows with invariants, D < 0)")
+    s.add_argument(
+        "--statistics",
+        action="store_true",
+        help="counts and frequencies of p-ranks (p = 2, 3, 5, 7; 4-rank), p | h, cyclic groups and "
+        "non-cyclic odd parts beside Cohen-Lenstra and Gerth (fundamental D)",
+    )
+    s.add_argument("--plot", metavar="FILE", help="with --statistics: bar chart (.png or .svg)")
+    s.add_argument("--p-rank", metavar="P:R", help="rows whose class group has p-rank exactly R")
+    s.add_argument(
+        "--p-rank-at-least",
+        metavar="P:R",
+        help="rows with p-rank at least R (P:2 = the groups containing C(P) × C(P))",
+    )
+    s.add_argument(
+        "--first",
+        metavar="P:R,...",
+        help="first occurrence (smallest |D|) of p-rank at least R, e.g. 3:3,5:2",
     )
     g = p.add_argument_group("querying a stored table (with --db)")
     g.add_argument(

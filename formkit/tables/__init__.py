@@ -5,9 +5,15 @@
 * :mod:`~formkit.tables.sweep` — the sweeps that count reduced forms for a whole chunk of
   negative discriminants at once (numpy and pure Python);
 * :mod:`~formkit.tables.store` — the resumable SQLite file, and reading it back;
-* :mod:`~formkit.tables.parallel` — building a store on all cores or a Dask cluster.
+* :mod:`~formkit.tables.parallel` — building a store on all cores or a Dask cluster;
+* :mod:`~formkit.tables.theta` — Hurwitz class numbers and ``h(D)`` from the theta
+  series of three squares (``r₃(n) = 12(H(4n) − 2H(n))``);
+* :mod:`~formkit.tables.structure` — class-group invariants from the known ``h``;
+* :mod:`~formkit.tables.statistics` — p-ranks and the other counts users tabulate,
+  beside the Cohen–Lenstra and Gerth predictions.
 
-Every row comes from complete enumeration and is unconditional.  This layer imports
+Every row is unconditional: class numbers by complete enumeration of reduced forms or by
+the theta series, structures forced by ``h`` or built from explicit relations.  This layer imports
 :mod:`formkit.core`, :mod:`formkit.classgroups`, :mod:`formkit.errors` and
 ``formkit._version`` (recorded in each store); the names below are re-exported by
 :mod:`formkit`.
@@ -17,7 +23,13 @@ from .parallel import *  # noqa: F403
 from .parallel import __all__ as _parallel_all
 from .rows import *  # noqa: F403
 from .rows import __all__ as _rows_all
+from .statistics import *  # noqa: F403
+from .statistics import __all__ as _statistics_all
 from .store import *  # noqa: F403
 from .store import __all__ as _store_all
+from .structure import *  # noqa: F403
+from .structure import __all__ as _structure_all
+from .theta import *  # noqa: F403
+from .theta import __all__ as _theta_all
 
-__all__ = [*_rows_all, *_parallel_all, *_store_all]
+__all__ = [*_rows_all, *_parallel_all, *_store_all, *_theta_all, *_structure_all, *_statistics_all]

@@ -36,7 +36,7 @@ __all__ = [
 #: Default chunk widths (numbers of consecutive integers D per chunk).
 CHUNK_NEGATIVE_FAST = 100_000
 CHUNK_NEGATIVE_PYTHON = 250_000
-CHUNK_WITH_INVARIANTS = 2_000
+CHUNK_WITH_INVARIANTS = 20_000  # structures from h are cheap; the sweep per chunk is not
 CHUNK_POSITIVE = 1_000
 
 
@@ -158,6 +158,8 @@ def _plan(
     for lo, hi in missing:
         if chunk_size is not None:
             size = chunk_size
+        elif lo < 0 and engine == "theta":
+            size = hi - lo + 1  # θ³ is computed from 0 to the chunk's end: one chunk
         elif lo > 0:
             size = CHUNK_POSITIVE
         elif invariants:
@@ -280,9 +282,11 @@ def build_table(
         ``"tcp://10.0.0.5:8786"``, or a client) instead of local processes.
     chunk_size : int, optional
         Consecutive integers ``D`` per chunk (default: 100 000 for the negative sweep,
-        2 000 with invariants, 1 000 for ``D > 0``).
-    engine : {"auto", "numpy", "python"}
-        The sweep for negative discriminants.
+        20 000 with invariants, 1 000 for ``D > 0``).
+    engine : {"auto", "numpy", "python", "theta"}
+        The sweep for negative discriminants, or the three-squares theta series
+        (:mod:`formkit.tables.theta`; the negative range is then one chunk unless
+        ``chunk_size`` is given).
     progress : bool, optional
         Show a tqdm progress bar on stderr (default: when stderr is a terminal).
     rows_out : list, optional

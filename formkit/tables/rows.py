@@ -55,9 +55,14 @@ __all__ = [
     "table_rows",
 ]
 
-#: Engines for the negative-discriminant sweep: ``"numpy"`` (vectorised periodic
-#: counting) and ``"python"`` (one arithmetic progression per ``(a, b)``).
-ENGINES = ("numpy", "python")
+#: Engines for negative discriminants: ``"numpy"`` (vectorised periodic counting),
+#: ``"python"`` (one arithmetic progression per ``(a, b)``) and ``"theta"`` (Hurwitz class
+#: numbers from θ³, :mod:`formkit.tables.theta`; computes ``H`` from 0 to the chunk's end).
+ENGINES = ("numpy", "python", "theta")
+
+#: ``"auto"`` takes the theta series for a range ``[−H, −L]`` when ``H`` is at least this
+#: and ``L ≤ H/2`` (measured crossover on this 2-core machine, docs/performance.md).
+THETA_CROSSOVER = 8_000_000
 
 #: A row in transit between workers and the store (plain tuple, cheap to pickle):
 #: (D, d_K, f, h, h_wide, invariants-or-None, genera, regulator-or-None).
@@ -120,10 +125,19 @@ def _check_engine(engine: str) -> str:
     if engine == "auto":
         return "numpy" if _numpy() is not None else "python"
     if engine not in ENGINES:
-        raise FormkitError(f"engine must be 'auto', 'numpy' or 'python', not {engine!r}")
-    if engine == "numpy":
+        raise FormkitError(f"engine must be 'auto', 'numpy', 'python' or 'theta', not {engine!r}")
+    if engine in ("numpy", "theta"):
         _need_numpy()
     return engine
+
+
+def _class_numbers_any(L: int, H: int, engine: str):
+    """h(−n), n in [L, H], as a numpy array by the sweep or the theta series."""
+    if engine == "theta":
+        from .theta import class_number_array
+
+        return class_number_array(L, H)
+    return _class_numbers_np(L, H)
 
 
 def _check_range(start: object, stop: object) -> tuple[int, int]:
@@ -144,8 +158,10 @@ def class_numbers(start: int, stop: int, *, engine: str = "auto") -> dict:
     ----------
     start, stop : int
         The range, inclusive (``stop`` may be positive; only ``D ≤ −3`` are counted).
-    engine : {"auto", "numpy", "python"}
-        ``"numpy"`` (vectorised, the default when numpy is installed) or ``"python"``.
+    engine : {"auto", "numpy", "python", "theta"}
+        ``"numpy"`` (vectorised, the default when numpy is installed), ``"python"`` or
+        ``"theta"`` (three-squares theta series; ``"auto"`` picks it for ranges from near
+        0 to at least :data:`THETA_CROSSOVER`).
 
     Returns
     -------
@@ -165,17 +181,22 @@ def class_numbers(start: int, stop: int, *, engine: str = "auto") -> dict:
     {-3: 1, -4: 1, -7: 1, -8: 1, -11: 1, -12: 1, -15: 2, -16: 1, -19: 1, -20: 2, -23: 3, -24: 2}
     >>> class_numbers(-23, -23, engine="python")
     {-23: 3}
+    >>> class_numbers(-24, -20, engine="theta")
+    {-20: 2, -23: 3, -24: 2}
 
     References
     ----------
     Cohen GTM 138, Algorithm 5.3.5 (counting reduced forms), swept over a range.
     """
     start, stop = _check_range(start, stop)
+    auto = engine == "auto"
     engine = _check_engine(engine)
     L, H = max(3, -stop), -start
     if L > H:
         return {}
-    h = _class_numbers_np(L, H).tolist() if engine == "numpy" else _class_numbers_py(L, H)
+    if auto and engine == "numpy" and H >= THETA_CROSSOVER and 2 * L <= H:
+        engine = "theta"
+    h = _class_numbers_any(L, H, engine).tolist() if engine != "python" else _class_numbers_py(L, H)
     return {-n: h[n - L] for n in range(L, H + 1) if n % 4 in (0, 3)}
 
 
@@ -235,10 +256,14 @@ def _invariants_from_order(h: int, genera: int) -> tuple[int, ...] | None:
     return tuple(twos)
 
 
-def _invariants_of(D: int, h: int, genera: int) -> tuple[int, ...]:
+def _invariants_of(D: int, h: int, genera: int, f: int | None = None) -> tuple[int, ...]:
     quick = _invariants_from_order(h, genera)
     if quick is not None:
         return quick
+    if D < 0:  # h is known unconditionally: build only the Sylow subgroups not forced by it
+        from .structure import structure_from_class_number
+
+        return structure_from_class_number(D, h, genera, conductor=f).invariants
     from ..classgroups.dispatch import class_group
 
     G = class_group(D, method="enumeration")  # tables hold unconditional rows only
@@ -291,9 +316,9 @@ def _negative_rows(spec: ChunkSpec):
     if L > H:
         return []
     engine = _check_engine(spec.engine)
-    if engine == "numpy":
+    if engine in ("numpy", "theta"):
         np = _numpy()
-        h = _class_numbers_np(L, H)
+        h = _class_numbers_any(L, H, engine)
         dK, f, gen = _chunk_arith_np(L, H)
         n = np.arange(L, H + 1, dtype=np.int64)
         keep = (n % 4 == 0) | (n % 4 == 3)
@@ -302,8 +327,10 @@ def _negative_rows(spec: ChunkSpec):
         cols = RowColumns(-n[keep], dK[keep], f[keep], h[keep], gen[keep], None)
         if spec.invariants:
             cols.inv = [
-                _invariants_of(D, hD, g)
-                for D, hD, g in zip(cols.D.tolist(), cols.h.tolist(), cols.genera.tolist())
+                _invariants_of(D, hD, g, fD)
+                for D, hD, g, fD in zip(
+                    cols.D.tolist(), cols.h.tolist(), cols.genera.tolist(), cols.f.tolist()
+                )
             ]
         return cols
     h_list = _class_numbers_py(L, H)
@@ -316,7 +343,7 @@ def _negative_rows(spec: ChunkSpec):
         if spec.fundamental and f_list[i] != 1:
             continue
         D = -n_i
-        inv = _invariants_of(D, h_list[i], gen_list[i]) if spec.invariants else None
+        inv = _invariants_of(D, h_list[i], gen_list[i], f_list[i]) if spec.invariants else None
         rows.append((D, dK_list[i], f_list[i], h_list[i], None, inv, gen_list[i], None))
     return rows
 

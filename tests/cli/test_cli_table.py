@@ -246,3 +246,59 @@ def test_cluster_option_and_probe(tmp_path, capsys, monkeypatch):
         monkeypatch.setattr(store, "_cluster_probe", broken)
         code, out, err = run(["table", "--from", "-100", "--to", "-3", "--cluster", addr], capsys)
         assert code == 2 and len(err.splitlines()) == 1 and "install formkit on the scheduler" in err
+
+
+# ---------------------------------------------------------------------------
+# statistics, p-rank queries, first occurrences, the theta engine (issue 20)
+# ---------------------------------------------------------------------------
+
+
+def test_table_statistics_json_and_plot(capsys, tmp_path):
+    from _cli import run, run_json
+
+    data = run_json(capsys, "table", "--from", "-3000", "--to", "-3", "--statistics")
+    by = {x["quantity"]: x for x in data["lines"]}
+    # the counts must match the groups listed by the same command (independent path: enumeration)
+    groups = [
+        tuple(int(n) for n in class_group(D, method="enumerate").invariants)
+        for D in range(-3000, -2)
+        if D % 4 in (0, 1) and is_fundamental_discriminant(D)
+    ]
+    assert data["total"] == len(groups)
+    assert by["3 | h"]["count"] == sum(1 for g in groups if any(n % 3 == 0 for n in g))
+    assert "unconditional" in data["provenance"]
+    code, out, err = run(
+        capsys, "table", "--from", "-2000", "--to", "-3", "--statistics", "--plot", str(tmp_path / "s.png")
+    )
+    assert code == 0 and err == "" and "Cohen–Lenstra" in out and (tmp_path / "s.png").exists()
+
+
+def test_table_first_and_rank_queries(capsys):
+    from _cli import run, run_json
+
+    # −3299: C3 × C9, the first 3-rank 2 (from memory; Buell 1989 tables)
+    code, out, _ = run(capsys, "table", "--from", "-5000", "--to", "-3", "--fundamental", "--first", "3:2")
+    assert code == 0 and "first at D = -3299, C3 × C9" in out
+    data = run_json(
+        capsys, "table", "--from", "-13000", "--to", "-3", "--fundamental", "--p-rank-at-least", "5:2"
+    )
+    assert [r["discriminant"] for r in data["rows"]] == [-11199, -12451]  # from memory
+    data = run_json(capsys, "table", "--from", "-500", "--to", "-3", "--p-rank", "3:0", "--engine", "theta")
+    assert all(all(n % 3 for n in r["invariants"]) for r in data["rows"]) and data["count"] > 100
+
+
+@pytest.mark.parametrize(
+    "argv, needle",
+    [
+        (["--from", "-30", "--to", "-3", "--first", "4:1"], "prime P"),
+        (["--from", "-30", "--to", "-3", "--p-rank", "3"], "P:R"),
+        (["--from", "-30", "--to", "-3", "--plot", "x.png"], "--plot goes with --statistics"),
+        (["--statistics"], "--from A --to B"),
+    ],
+)
+def test_table_statistics_errors(capsys, argv, needle):
+    from _cli import run
+
+    code, out, err = run(capsys, "table", *argv)
+    assert code == 2 and out == "" and err.count("\n") == 1 and needle in err
+    assert err.startswith("formkit: error: ")
