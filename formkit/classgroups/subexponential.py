@@ -82,7 +82,7 @@ def factor_base_bound(D: int) -> int:
     Examples
     --------
     >>> factor_base_bound(-10**20 - 3)
-    12722
+    12724
     """
     return max(50, bach_bound(D))
 
@@ -142,7 +142,7 @@ class _Base:
 
 
 def _is_probable_prime(n: int) -> bool:
-    import gmpy2
+    import gmpy2  # type: ignore[import-untyped]
 
     return bool(gmpy2.is_prime(n))
 

@@ -61,3 +61,18 @@ def test_bad_input():
         class_group_subexponential(-23 * 9)  # conductor 3
     with pytest.raises(FormkitError):
         class_group_subexponential(-16)
+
+
+def test_dispatch_and_cli_method_round_trip(capsys):
+    # the --method value round-trips to the JSON "method" (shared decision on naming)
+    import json
+
+    from formkit import class_group
+    from formkit.cli.entry_point import main
+
+    assert class_group(-1_000_003, method="subexponential").provenance.method == "subexponential"
+    rc = main(["group", "-1000003", "--method", "subexponential", "--json", "--quiet"])
+    out = json.loads(capsys.readouterr().out)
+    assert rc in (0, None) and out["method"] == "subexponential"
+    # h(-1000003) by formkit's enumeration (unconditional)
+    assert out["class_number"] == class_group_enumerated(-1_000_003).order
