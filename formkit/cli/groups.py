@@ -297,9 +297,10 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(p, "the discriminant D (negative or positive, e.g. -4004, 316, -4*3*10^2)")
     p.add_argument(
         "--method",
-        choices=("auto", "enumeration", "bsgs"),
+        choices=("auto", "enumeration", "bsgs", "subexponential"),
         default="auto",
         help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
+        "subexponential (relations among prime forms, GRH; fundamental D < 0), "
         "or auto (enumeration for small |D|)",
     )
     p.add_argument(
