@@ -172,7 +172,7 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
         wanted = [_prime_rank(x, "--first") for x in args.first.split(",")]
         occ = first_occurrences(rows, wanted)
         payload = {
-            "first": [
+            "first_occurrences": [
                 {
                     "prime": p,
                     "rank_at_least": r,
