@@ -39,8 +39,7 @@ import sys
 from collections.abc import Mapping
 from functools import lru_cache
 
-from ..errors import FormkitError
-from .arith import as_int, is_probable_prime
+from ..errors import FormkitError, NotAnIntegerError
 from .progress import slow_notice
 
 __all__ = ["prime_factorisation", "checked_factorisation", "FACTORS_HINT"]
@@ -57,6 +56,20 @@ _CHILD_SCRIPT = (
     "n = flint.fmpz(int(sys.stdin.read()))\n"
     "sys.stdout.write(' '.join(f'{int(p)}^{int(e)}' for p, e in n.factor()))\n"
 )
+
+
+def _as_int(x: object, name: str) -> int:
+    """``x`` as a Python int (integers only; bool refused), else NotAnIntegerError."""
+    if isinstance(x, bool) or not hasattr(x, "__index__"):
+        raise NotAnIntegerError(f"{name} must be an integer, not {x!r}")
+    return int(x.__index__())  # type: ignore[attr-defined]
+
+
+def _is_probable_prime(n: int) -> bool:
+    """BPSW probable-prime test (FLINT's ``fmpz_is_probabprime``); False below 2."""
+    import flint
+
+    return n >= 2 and bool(flint.fmpz(n)._is_probable_prime())
 
 
 def checked_factorisation(n: int, factors: Mapping[int, int]) -> dict[int, int]:
@@ -90,21 +103,21 @@ def checked_factorisation(n: int, factors: Mapping[int, int]) -> dict[int, int]:
     ...
     formkit.errors.FormkitError: the given factorisation of 1625 contains 12, which is not prime
     """
-    n = abs(as_int(n, "n"))
+    n = abs(_as_int(n, "n"))
     if n == 0:
         raise FormkitError("cannot factor 0")
     fac: dict[int, int] = {}
     prod = 1
     for p, e in dict(factors).items():
-        p = as_int(p, "prime factor")
-        e = as_int(e, "exponent")
+        p = _as_int(p, "prime factor")
+        e = _as_int(e, "exponent")
         if e < 0 or p < 2:
             raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
         if e == 0:
             continue
         if e > max(1, n.bit_length()):  # p^e would exceed |n|: refuse before computing it
             raise FormkitError(f"the given factor {p}^{e} exceeds |n| = {n}")
-        if not is_probable_prime(p):
+        if not _is_probable_prime(p):
             raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
         fac[p] = fac.get(p, 0) + e
         prod *= p**e
@@ -155,7 +168,7 @@ def prime_factorisation(
     ----------
     See the module docstring.
     """
-    n = abs(as_int(n, "n"))
+    n = abs(_as_int(n, "n"))
     if factors is not None:
         return checked_factorisation(n, factors)
     if n == 0:
@@ -167,7 +180,7 @@ def prime_factorisation(
 def _factor_cached(n: int, what: str) -> tuple[tuple[int, int], ...]:
     if n == 1:
         return ()
-    if is_probable_prime(n):
+    if _is_probable_prime(n):
         return ((n, 1),)
     if n.bit_length() <= _IN_PROCESS_BITS:
         import flint
@@ -208,7 +221,7 @@ def _factor_in_child(n: int) -> list[tuple[int, int]]:
 def _verify(n: int, pairs: list[tuple[int, int]]) -> None:
     prod = 1
     for p, e in pairs:
-        if e < 1 or not is_probable_prime(p):
+        if e < 1 or not _is_probable_prime(p):
             raise FormkitError(
                 f"internal error: the factorisation of {n} contains {p}^{e}, which is not a prime power"
             )
