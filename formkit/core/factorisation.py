@@ -69,7 +69,7 @@ def _is_probable_prime(n: int) -> bool:
     """BPSW probable-prime test (FLINT's ``fmpz_is_probabprime``); False below 2."""
     import flint
 
-    return n >= 2 and bool(flint.fmpz(n)._is_probable_prime())
+    return n >= 2 and bool(flint.fmpz(n).is_probable_prime())
 
 
 def checked_factorisation(n: int, factors: Mapping[int, int]) -> dict[int, int]:
