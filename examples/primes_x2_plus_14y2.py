@@ -67,7 +67,7 @@ def main(argv: list[str]) -> int:
     ver = H.verification
     if ver is not None:
         print(
-            f"H verified: recomputed at {ver.recomputed_digits} digits, coefficients bounded by 10^{ver.bound_digits}, "
+            f"H certified: ball arithmetic at {ver.precision_bits} bits, coefficients bounded by 10^{ver.bound_digits}, "
             f"root counts checked at {len(ver.primes_checked)} primes"
         )
     print(f"primes dividing disc(H): {bad_primes}")

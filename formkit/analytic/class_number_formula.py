@@ -28,8 +28,9 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..core.arith import factorint, kronecker
+from ..core.arith import kronecker
 from ..core.discriminants import discriminant_parts, fundamental_unit, unit_count, validate_discriminant
+from ..core.factorisation import prime_factorisation
 from ..errors import DiscriminantError
 
 __all__ = ["class_number_dirichlet", "MAX_ANALYTIC_DISCRIMINANT"]
@@ -105,6 +106,6 @@ def class_number_dirichlet(D: object) -> int:
     from ..core.discriminants import unit_index
 
     value = Fraction(hK * f, unit_index(D))
-    for p in factorint(f):
+    for p in prime_factorisation(f):
         value *= 1 - Fraction(kronecker(d_K, p), p)
     return int(value)

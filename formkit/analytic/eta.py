@@ -52,13 +52,29 @@ def form_root(form: object):
     return acb(arb(-Q.b) / (2 * Q.a), arb(-D).sqrt() / (2 * Q.a))
 
 
+def _log2_upper(x) -> float:
+    """An upper bound for ``log₂ x`` of a positive arb upper bound ``x`` (no float underflow)."""
+    m, e = (int(v) for v in x.man_exp())
+    if m <= 0:
+        return -math.inf
+    shift = max(0, m.bit_length() - 53)
+    return e + shift + math.log2(m >> shift) + 1e-9
+
+
 def _pentagonal(q, prec_bits: int):
-    """``∏(1 − qⁿ)`` for an acb ``q`` with ``|q| < 0.01`` (a ball, with the tail bound)."""
+    """``∏(1 − qⁿ)`` for an acb ``q`` with ``|q| < 0.01`` (a ball, with the tail bound).
+
+    The size of ``|q|`` is handled through ``log₂|q|`` (``|q|`` itself may be far below
+    the smallest float, as for the roots of forms of large discriminant), and the tail
+    ``2|q|^((K+1)(3K+2)/2)/(1 − |q|) ≤ 4|q|^(k(3k−1)/2)`` is added to the radius as an
+    exact power of two.
+    """
     from flint import acb, arb
 
-    r = float(abs(q).upper()) if not isinstance(q, acb) else float(q.abs_upper())
-    if not r < 0.5:  # pragma: no cover - callers reduce τ first
-        raise ArithmeticError(f"|q| = {r} too large for the pentagonal series")
+    upper = q.abs_upper()
+    lr = _log2_upper(upper)  # log₂ of an upper bound for |q|
+    if not lr < -1:  # pragma: no cover - callers reduce τ first
+        raise ArithmeticError(f"|q| ≤ 2^{lr} too large for the pentagonal series")
     total = acb(1)
     k = 1
     qk = q  # q^k
@@ -72,9 +88,13 @@ def _pentagonal(q, prec_bits: int):
         qk = qk1
         k += 1
         expo = k * (3 * k - 1) / 2
-        if r == 0 or expo * math.log2(r) < -prec_bits - 4:
+        if lr == -math.inf or expo * lr < -prec_bits - 4:
             break
-    tail = 2 * r ** (k * (3 * k - 1) / 2) / (1 - r) if r else 0.0
+    if lr == -math.inf:
+        return total
+    # the omitted terms: Σ_{n ≥ expo} |q|^n ≤ |q|^expo/(1 − |q|) ≤ 2|q|^expo, counted twice
+    # (both pentagonal exponents) — at most 4·|q|^expo ≤ 2^(expo·lr + 2)
+    tail = arb(2) ** math.ceil(expo * lr + 2)
     return total + acb(arb(0, tail), arb(0, tail))
 
 

@@ -88,6 +88,23 @@ def _j_of_form(a: int, b: int, D: int):
     return _j_from_q(q)
 
 
+def _j_ball_of_form(a: int, b: int, D: int, prec: int):
+    """``j(τ_Q)``, ``τ_Q = (−b + i√|D|)/(2a)``, as an acb ball at ``prec`` bits (rigorous).
+
+    From Dedekind's η in ball arithmetic (:func:`formkit.analytic.eta._eta_ball`):
+    ``t = (η(2τ)/η(τ))²⁴ = Δ(2τ)/Δ(τ)`` and ``j = (1 + 256t)³/t`` (the formula of the
+    module docstring), so the ball encloses the exact value.
+    """
+    from flint import acb, arb, ctx
+
+    from .eta import _eta_ball
+
+    with ctx.workprec(prec):
+        tau = acb(arb(-b) / (2 * a), arb(-D).sqrt() / (2 * a))
+        t = (_eta_ball(2 * tau, prec) / _eta_ball(tau, prec)) ** 24
+        return (1 + 256 * t) ** 3 / t
+
+
 def j_invariant(tau: object, *, digits: int = 30):
     """The modular invariant ``j(τ)`` (normalised so that ``j(i) = 1728``).
 

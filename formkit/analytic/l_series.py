@@ -61,8 +61,9 @@ from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any
 
-from ..core.arith import factorint, kronecker
+from ..core.arith import kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.factorisation import prime_factorisation
 from ..errors import FormkitError
 from .balls import (
     CertifiedValue,
@@ -331,7 +332,7 @@ def _euler_factor(d_K: int, f: int, s: ComplexArgument, prec: int):
     with ctx.workprec(prec):
         out = arb(1)
         sb = s.ball()
-        for p in factorint(f) if f > 1 else ():
+        for p in prime_factorisation(f) if f > 1 else ():
             c = kronecker(d_K, p)
             if c:
                 out = out * (1 - c * (-sb * arb(p).log()).exp())

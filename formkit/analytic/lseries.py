@@ -76,8 +76,9 @@ import math
 from dataclasses import dataclass
 from functools import lru_cache
 
-from ..core.arith import as_int, factorint, isqrt, kronecker
+from ..core.arith import as_int, isqrt, kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.factorisation import prime_factorisation
 from ..errors import FormkitError
 
 __all__ = [
@@ -321,14 +322,14 @@ def _zero_sum_bound(q: int, odd: bool, T: dict[float, _Sum], N: int) -> tuple[fl
 
 def _conductor_factor(d_K: int, f: int) -> float:
     out = 1.0
-    for p in factorint(f) if f > 1 else ():
+    for p in prime_factorisation(f) if f > 1 else ():
         out *= 1.0 - kronecker(d_K, p) / p
     return out
 
 
 def _conductor_factor_upper(f: int) -> float:
     out = 1.0
-    for p in factorint(f) if f > 1 else ():
+    for p in prime_factorisation(f) if f > 1 else ():
         out *= 1.0 + 1.0 / p
     return out
 

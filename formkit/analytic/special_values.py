@@ -20,8 +20,9 @@ import math
 from fractions import Fraction
 from functools import lru_cache
 
-from ..core.arith import factorint, kronecker
+from ..core.arith import kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.factorisation import prime_factorisation
 from ..errors import FormkitError
 
 __all__ = ["bernoulli_number", "generalised_bernoulli", "l_series_at_nonpositive_integer"]
@@ -123,7 +124,7 @@ def l_series_at_nonpositive_integer(D: object, n: object) -> Fraction:
         raise FormkitError(f"n must be ≥ 0 for L(−n, χ_D), not {n}")
     d_K, f = discriminant_parts(D)
     value = -generalised_bernoulli(d_K, n + 1) / (n + 1)
-    for p in factorint(f) if f > 1 else ():
+    for p in prime_factorisation(f) if f > 1 else ():
         value *= 1 - kronecker(d_K, p) * Fraction(p) ** n
     return value
 

@@ -31,7 +31,8 @@ from __future__ import annotations
 
 import math
 
-from ..core.arith import factorint, invert, isqrt
+from ..core.arith import invert, isqrt
+from ..core.factorisation import prime_factorisation
 from ..core.lattice import lattice_quotient
 from ..core.modular_roots import crt
 from ..errors import FormkitError
@@ -68,7 +69,7 @@ class BSGSStatistics:
 
 def _order_from_multiple(ops, x: Triple, k: int, factors: dict | None = None) -> tuple[int, dict]:
     """The exact order of ``x`` given ``x^k = 1``; returns ``(order, factorisation)``."""
-    fac = dict(factorint(k) if factors is None else factors)
+    fac = dict(prime_factorisation(k) if factors is None else factors)
     n = k
     for p in sorted(fac):
         while fac[p] and ops.pow(x, n // p) == ops.one:

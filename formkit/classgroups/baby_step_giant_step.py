@@ -63,10 +63,11 @@ import math
 from math import gcd, isqrt
 
 from ..analytic.lseries import class_number_estimate, class_number_upper_bound
-from ..core.arith import factorint, kronecker
+from ..core.arith import kronecker
 from ..core.budget import check_cost
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _prime_forms
+from ..core.factorisation import prime_factorisation
 from ..core.progress import announces_slowness
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
@@ -367,7 +368,7 @@ def _unit_index(d_K: int, f: int) -> int:
 def _class_number_from_field(d_K: int, f: int, h_K: int) -> int:
     """``h(f²d_K) = h(d_K)·f·∏_{p|f}(1 − χ(p)/p)/[O_K^*:O^*]`` (Cox Theorem 7.24), exactly."""
     num, den = h_K * f, _unit_index(d_K, f)
-    for p in factorint(f) if f > 1 else ():
+    for p in prime_factorisation(f) if f > 1 else ():
         num *= p - kronecker(d_K, p)
         den *= p
     if num % den:  # pragma: no cover - the formula gives an integer
@@ -414,7 +415,7 @@ def _build(
                 c2 = max(1, round(center / n))
                 k = _order_multiple(ops, gn, c2, spread / n, U // n + 1)
                 fac = dict(nfac)
-                for ell, e in factorint(k).items():
+                for ell, e in prime_factorisation(k).items():
                     fac[ell] = fac.get(ell, 0) + e
                 o, ofac = _order_from_multiple(ops, g, n * k, fac)
                 for ell, v in ofac.items():

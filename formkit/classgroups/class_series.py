@@ -49,12 +49,13 @@ from ..analytic.balls import (
 )
 from ..analytic.epstein import epstein_zeta
 from ..analytic.l_series import l_series, quadratic_field_zeta, riemann_zeta
-from ..core.arith import as_int, factorint, kronecker
+from ..core.arith import as_int, kronecker
 from ..core.discriminants import (
     is_fundamental_discriminant,
     unit_count,
     validate_discriminant,
 )
+from ..core.factorisation import prime_factorisation
 from ..errors import DiscriminantError, FormkitError
 from .genus import value_prime_to
 
@@ -156,7 +157,7 @@ def prime_discriminants(D: object) -> tuple[int, ...]:
         raise DiscriminantError(f"prime discriminants factor fundamental discriminants; {D} is not one")
     out = []
     rest = D
-    for p in sorted(factorint(abs(D))):
+    for p in sorted(prime_factorisation(abs(D))):
         if p == 2:
             continue
         ps = p if p % 4 == 1 else -p

@@ -49,8 +49,9 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass
 
-from ..core.arith import factorint, gcd, kronecker
+from ..core.arith import gcd, kronecker
 from ..core.discriminants import validate_discriminant
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.modular_roots import crt
 from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
@@ -165,7 +166,7 @@ def assigned_characters(D: object) -> tuple[GenusCharacter, ...]:
     ['(n/23)']
     """
     D = validate_discriminant(D)
-    odd = [p for p in factorint(D) if p != 2]
+    odd = [p for p in prime_factorisation(D) if p != 2]
     chars = [GenusCharacter("odd prime", p) for p in odd]
     chars.extend(GenusCharacter(k, 2) for k in _two_adic_kinds(D))
     return tuple(chars)
@@ -227,7 +228,7 @@ def value_prime_to(form: FormLike, M: object) -> tuple[int, int, int]:
         m = f(x, y)
         if m != 0 and gcd(m, modulus) == 1:
             return m, x, y
-    primes = list(factorint(modulus)) if modulus > 1 else []
+    primes = list(prime_factorisation(modulus)) if modulus > 1 else []
     xs, ys = [], []
     for p in primes:
         if f.a % p:

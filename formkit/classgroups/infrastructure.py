@@ -544,11 +544,11 @@ def _genus_structure(D: int, f: int, rank: int):
 
 def _sylow_structure(D: int, f: int, ops: _NarrowOps, narrow: int):
     """Invariants, generators, discrete log and a note, from prime forms until ``h⁺`` is reached."""
-    from ..core.arith import factorint
+    from ..core.factorisation import prime_factorisation
     from .abelian_groups import _order_from_multiple, _Structure, _Sylow
 
     cops = _CanonicalOps(ops)
-    fac = factorint(narrow) if narrow > 1 else {}
+    fac = prime_factorisation(narrow) if narrow > 1 else {}
     syl: dict[int, _Sylow] = {}
     n, used = 1, []
     for p, x in _prime_forms(D, f):

@@ -24,9 +24,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..core.arith import as_int, factorint, invert, kronecker, xgcd
+from ..core.arith import as_int, invert, kronecker, xgcd
 from ..core.discriminants import discriminant_parts, fundamental_unit, unit_index, validate_discriminant
 from ..core.enumeration import class_number
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.quadratic_orders import Order
 from ..core.reduction import reduced
@@ -168,7 +169,7 @@ def class_number_order_formula(D: object) -> int:
     if d_K > 0 and fundamental_unit(d_K).norm == 1:
         hK //= 2
     value = Fraction(hK * f, unit_index(D))
-    for p in factorint(f):
+    for p in prime_factorisation(f):
         value *= 1 - Fraction(kronecker(d_K, p), p)
     if value.denominator != 1:  # pragma: no cover - would contradict the theorem
         raise ArithmeticError(f"class number formula gave a non-integer {value} for D = {D}")
@@ -323,7 +324,7 @@ def order_class_number(D: object, method: str = "auto", *, summaries: dict | Non
         norm = sD["fundamental_unit_norm"]
     value = Fraction(hK * f, index)
     factors = []
-    for p in sorted(factorint(f)):
+    for p in sorted(prime_factorisation(f)):
         chi = kronecker(d_K, p)
         v = 1 - Fraction(chi, p)
         factors.append((p, chi, v))

@@ -3,8 +3,8 @@
 Every hot path in formkit does its big-integer arithmetic through the names exported
 here (integer square roots, extended gcd, Kronecker symbols, probable-prime tests) and
 through :mod:`formkit.core.modular_roots` (square roots modulo primes and prime powers,
-the Chinese remainder theorem), which is built on them.  Factorisation comes from
-sympy's ``factorint``.
+the Chinese remainder theorem), which is built on them.  Factorisation lives in
+:mod:`formkit.core.factorisation` (python-flint).
 
 The backend is chosen once, at import time, from the environment variable
 ``FORMKIT_INTEGER_BACKEND``: ``gmpy2`` (the default) or ``python`` (plain Python
@@ -23,7 +23,6 @@ from __future__ import annotations
 import math
 import operator
 import os
-from functools import lru_cache
 
 from ..errors import FormkitError, NotAnIntegerError
 
@@ -368,8 +367,10 @@ def next_prime(n: int) -> int:
 
 
 def factorint(n: int) -> dict[int, int]:
-    """Prime factorisation ``{p: e}`` of ``|n|`` (sympy's ``factorint``).
+    """Prime factorisation ``{p: e}`` of ``|n|``; kept for old callers.
 
+    The same as :func:`formkit.core.factorisation.prime_factorisation` (FLINT's
+    factorisation, checked), which is the one path formkit factors through.
     ``n = 0`` raises; ``±1`` gives ``{}``.
 
     Examples
@@ -377,17 +378,9 @@ def factorint(n: int) -> dict[int, int]:
     >>> factorint(-360)
     {2: 3, 3: 2, 5: 1}
     """
-    n = abs(as_int(n, "n"))
-    if n == 0:
-        raise FormkitError("cannot factor 0")
-    return _factorint_cached(n)
+    from .factorisation import prime_factorisation
 
-
-@lru_cache(maxsize=4096)
-def _factorint_cached(n: int) -> dict[int, int]:
-    from sympy import factorint as _sympy_factorint
-
-    return {int(p): int(e) for p, e in sorted(_sympy_factorint(n).items())}
+    return prime_factorisation(n)
 
 
 def divisors(n: int, factors: dict[int, int] | None = None) -> list[int]:

@@ -24,7 +24,8 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from ..errors import DiscriminantError, FormkitError
-from .arith import as_int, factorint, is_square, isqrt, kronecker
+from .arith import as_int, is_square, isqrt, kronecker
+from .factorisation import prime_factorisation
 
 __all__ = [
     "validate_discriminant",
@@ -82,7 +83,7 @@ def validate_discriminant(D: object, name: str = "discriminant") -> int:
 def squarefree_decomposition(n: object) -> tuple[int, int]:
     """``(r, m)`` with ``n = r²·m``, ``r > 0`` and ``m`` square-free (sign kept in ``m``).
 
-    Factorisation through :func:`formkit.core.arith.factorint`.
+    Factorisation through :func:`formkit.core.factorisation.prime_factorisation`.
 
     Examples
     --------
@@ -93,7 +94,7 @@ def squarefree_decomposition(n: object) -> tuple[int, int]:
     if n == 0:
         raise FormkitError("0 has no square-free part")
     r, m = 1, (-1 if n < 0 else 1)
-    for p, e in factorint(abs(n)).items():
+    for p, e in prime_factorisation(abs(n)).items():
         r *= p ** (e // 2)
         if e % 2:
             m *= p
@@ -142,7 +143,7 @@ def is_discriminant(D: object) -> bool:
 @lru_cache(maxsize=4096)
 def _parts(D: int) -> tuple[int, int]:
     # D = f^2 d_K with d_K fundamental
-    fac = factorint(D)
+    fac = prime_factorisation(D)
     sign = -1 if D < 0 else 1
     core = sign  # squarefree kernel with sign
     f = 1

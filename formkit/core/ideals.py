@@ -27,7 +27,7 @@ elements), independently of form composition.  Prime ideals above ``p ∤ f`` co
 the splitting of ``p`` (``χ_D(p) = 1, 0, −1``); above ``p | f`` there is no invertible
 prime ideal, and factorisation into prime ideals is offered for ideals prime to the
 conductor (where it is unique; Cox, Proposition 7.20).  Integers are factored with
-:func:`formkit.core.arith.factorint`.
+:func:`formkit.core.factorisation.prime_factorisation`.
 
 References
 ----------
@@ -42,8 +42,9 @@ import html
 from collections.abc import Iterable
 
 from ..errors import FormError, FormkitError, NotInvertibleIdealError, NotPrimeError
-from .arith import as_int, factorint, gcd, is_probable_prime, kronecker, xgcd
+from .arith import as_int, gcd, is_probable_prime, kronecker, xgcd
 from .discriminants import discriminant_parts, validate_discriminant
+from .factorisation import prime_factorisation
 from .forms import Form, FormLike, as_form
 from .quadratic_numbers import QuadraticNumber
 from .quadratic_orders import Order
@@ -599,18 +600,18 @@ def factor_ideal(ideal: QuadraticIdeal) -> IdealFactorization:
     k, a, b = ideal.coefficients
     bad = gcd(ideal.norm, f)
     if bad != 1:
-        p = min(factorint(bad))
+        p = min(prime_factorisation(bad))
         raise FormkitError(
             f"{ideal.text()} has norm {ideal.norm}, divisible by {p}, which divides the conductor {f} of "
             f"{Order(D).ring_text}: there ideals have no factorisation into invertible prime ideals; "
             "factorisation is offered for ideals prime to the conductor"
         )
     exps: dict[tuple[int, QuadraticIdeal], int] = {}
-    for p, e in factorint(k).items():
+    for p, e in prime_factorisation(k).items():
         dec = prime_ideals_above(D, p)
         for P, ep in zip(dec.ideals, dec.exponents):
             exps[(p, P)] = exps.get((p, P), 0) + e * ep
-    for p, e in factorint(a).items():
+    for p, e in prime_factorisation(a).items():
         P = QuadraticIdeal(D, p, b)  # the prime above p containing (−b + √D)/2
         exps[(p, P)] = exps.get((p, P), 0) + e
     factors = sorted(((p, P, e) for (p, P), e in exps.items()), key=lambda t: (t[0], t[1].coefficients))

@@ -18,7 +18,8 @@ from collections.abc import Iterable, Sequence
 from functools import lru_cache
 
 from ..errors import FormkitError, NotPrimeError
-from .arith import _int, _powmod, as_int, factorint, gcd, invert, is_probable_prime, kronecker, mpz
+from .arith import _int, _powmod, as_int, gcd, invert, is_probable_prime, kronecker, mpz
+from .factorisation import prime_factorisation
 
 __all__ = [
     "sqrt_mod_prime",
@@ -208,7 +209,7 @@ def sqrt_mod(a: int, n: int, factors: dict[int, int] | None = None) -> list[int]
     if n == 1:
         return [0]
     if factors is None:
-        factors = factorint(n)
+        factors = prime_factorisation(n)
     moduli: list[int] = []
     root_lists: list[Sequence[int]] = []
     for p, e in factors.items():

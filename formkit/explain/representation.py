@@ -24,7 +24,8 @@ from __future__ import annotations
 
 from typing import Any
 
-from ..core.arith import as_int, factorint, gcd
+from ..core.arith import as_int, gcd
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from ..core.modular_roots import sqrt_mod
 from ..core.reduction import reduce_form
@@ -56,7 +57,7 @@ MAX_CYCLE = 100_000
 def _square_divisors(m: int) -> list[int]:
     """All ``g ≥ 1`` with ``g² | m`` (``m ≠ 0``), increasing."""
     gs = [1]
-    for p, e in (factorint(abs(m)) if abs(m) > 1 else {}).items():
+    for p, e in (prime_factorisation(abs(m)) if abs(m) > 1 else {}).items():
         gs = [g * p**k for g in gs for k in range(e // 2 + 1)]
     return sorted(gs)
 

@@ -12,14 +12,12 @@ field of that order.  In both cases ``H_D`` is monic with integer coefficients a
 irreducible over ``Q`` of degree ``h(D)`` (Cox, *Primes of the Form x² + ny²*,
 Theorem 11.1 and Proposition 13.2; numbers as recalled).
 
-*Computation.*  ``j(τ)`` is evaluated (:mod:`formkit.analytic.j_function`) from the eta quotient
-``t = Δ(2τ)/Δ(τ) = q·(P(q²)/P(q))²⁴`` with ``P(q) = ∏(1 − qⁿ) = Σ_k (−1)^k q^{k(3k−1)/2}``
-(Euler's pentagonal number theorem) and ``j = (1 + 256 t)³ / t``; the pentagonal series
-is summed in fixed-point integer arithmetic (all its terms have modulus < 1).  Complex
-conjugate roots (the forms ``(a, ±b, c)``) are paired into real quadratic factors
-``x² − 2Re(j)x + |j|²``, and the product of the factors is formed over the reals in
-fixed point with ``⌈digits·log₂10⌉ + 8`` fractional bits, which gives the same absolute
-accuracy ``≈ 10^(B − digits)`` as floating point at ``digits`` significant digits.
+*Computation.*  ``j(τ_Q)`` is enclosed in a complex ball (python-flint's arb arithmetic) from
+Dedekind's η in ball arithmetic (:mod:`formkit.analytic.eta`): ``t = (η(2τ)/η(τ))²⁴`` and
+``j = (1 + 256t)³/t``.  Complex conjugate roots (the forms ``(a, ±b, c)``) are paired into
+real quadratic factors ``x² − 2Re(j)x + |j|²``, and the factors are multiplied by a
+product tree of ball-polynomial multiplications
+(:mod:`formkit.analytic.ball_polynomials`).
 
 *Precision.*  For ``τ`` in the closure of the standard fundamental domain,
 ``|j(τ) − 1/q| ≤ 2079`` (A. Enge, "The complexity of class polynomial computation via
@@ -29,19 +27,16 @@ bounded by ``∏(1 + |root|)``, whence the stated bound
 
     log₁₀ max |coefficient| ≤ B(D) = Σ_Q π√|D| / (a·ln 10) + h·log₁₀ 2081,
 
-which :func:`class_polynomial_bound` returns.  The product is computed with
-``⌈B⌉ + 2⌈log₁₀(h + 2)⌉ + 25`` significant digits and rounded to integers.
+which :func:`class_polynomial_bound` returns.  The balls are computed with ``⌈B·log₂10⌉ + 4⌈log₂(h + 2)⌉ + 64`` bits.
 
-*Verification* (on by default): (1) the computation is repeated with more digits
-and the rounded coefficients must agree; (2) every coefficient must be within
-``10⁻¹⁰`` of its rounding in both runs; (3) every coefficient must obey the bound
-``B``; (4) for several primes ``p ∤ D`` with ``χ_D(p) = 1`` at which ``H_D`` is
-squarefree modulo ``p`` (so ``p ∤ disc H_D``), ``H_D`` must have ``h`` roots modulo
-``p`` when the prime form at ``p`` is principal and none otherwise — the splitting
-behaviour that the theory predicts (Cox Theorem 9.2 for ``x² + ny²`` and
-Theorem 9.4 for orders, numbers as recalled; ``p`` splits completely in the ring class
-field iff it is represented by the principal form).  A failed check raises
-:class:`RuntimeError` after one retry at higher precision.
+*Certification.*  The product is accepted only when every coefficient ball has radius
+< 1/2 and contains an integer; since the balls enclose the exact coefficients, which are
+integers, this proves the rounding right (otherwise the precision is raised and the
+product recomputed).  *Checks* (on by default): every coefficient must obey the bound
+``B``; for several primes ``p ∤ D`` with ``χ_D(p) = 1`` at which ``H_D`` is squarefree
+modulo ``p``, ``H_D`` must have ``h`` roots modulo ``p`` when the prime form at ``p`` is
+principal and none otherwise (Cox Theorems 9.2 and 9.4, numbers as recalled).  A failed
+check raises :class:`RuntimeError`.
 
 References
 ----------
@@ -61,15 +56,14 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 
-import mpmath
-
-from ..analytic.j_function import _J_TAIL, _fixed, _j_of_form
-from ..core.arith import as_int, gcd, is_probable_prime, kronecker, mpz, next_prime
+from ..analytic.ball_polynomials import certified_integer_coefficients, largest_radius_log2, product_tree
+from ..analytic.j_function import _J_TAIL, _j_ball_of_form
+from ..core.arith import as_int, gcd, is_probable_prime, kronecker, next_prime
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _reduced_forms_cached
 from ..core.forms import Form
 from ..core.polynomials_mod_p import is_squarefree_mod_prime, root_count_mod_prime
-from ..core.progress import announces_slowness
+from ..core.progress import announces_slowness, progress_bar, slow_notice
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
 
@@ -81,8 +75,6 @@ __all__ = [
     "class_polynomial_discriminant",
     "class_polynomial_bound",
 ]
-
-_RESIDUAL_LIMIT = mpmath.mpf(10) ** -10
 
 
 # ---------------------------------------------------------------------------
@@ -145,26 +137,28 @@ def class_polynomial_bound(D: object) -> float:
 
 @dataclass(frozen=True)
 class ClassPolynomialCheck:
-    """How a class polynomial was verified.
+    """How a class polynomial was certified and checked.
 
-    ``recomputed_digits``: digits of the second, independent computation;
-    ``residual_exponent``: every coefficient was within ``10^residual_exponent`` of its
-    rounding in both runs; ``bound_digits``: the bound ``B(D)`` (rounded up) that all
-    coefficients obey; ``primes_checked``: primes at which the root count modulo p
-    matched the prime-form class; ``principal_primes``: those among them represented by
-    the principal form (where ``H_D`` splits into linear factors).
+    ``precision_bits``: the ball arithmetic ran at this precision; ``radius_log2``:
+    every coefficient ball had radius ``< 2^radius_log2`` (< 1/2) and contained exactly
+    one integer — the proof that the rounding is right; ``bound_digits``: the bound
+    ``B(D)`` (rounded up) that all coefficients obey; ``primes_checked``: primes at
+    which the root count modulo p matched the prime-form class; ``principal_primes``:
+    those among them represented by the principal form (where ``H_D`` splits into
+    linear factors).
     """
 
-    recomputed_digits: int
-    residual_exponent: int
+    precision_bits: int
+    radius_log2: int
     bound_digits: int
     primes_checked: tuple[int, ...]
     principal_primes: tuple[int, ...]
 
     def to_dict(self) -> dict:
         return {
-            "recomputed_digits": self.recomputed_digits,
-            "residual_exponent": self.residual_exponent,
+            "method": "ball arithmetic (every coefficient ball contains exactly one integer)",
+            "precision_bits": self.precision_bits,
+            "radius_log2": self.radius_log2,
             "bound_digits": self.bound_digits,
             "primes_checked": list(self.primes_checked),
             "principal_primes": list(self.principal_primes),
@@ -252,8 +246,11 @@ class ClassPolynomial:
 
     def _how(self) -> str:
         if self.verification is None:
-            return f"computed with {self.working_digits} digits, not verified"
-        return f"verified: recomputed with {self.verification.recomputed_digits} digits, roots modulo small primes checked"
+            return f"certified by ball arithmetic at {self.working_digits} digits; bound and roots modulo p not checked"
+        return (
+            f"certified by ball arithmetic at {self.verification.precision_bits} bits (every coefficient ball "
+            "contains exactly one integer); coefficient bound and roots modulo small primes checked"
+        )
 
     def _repr_latex_(self) -> str:
         return f"$H_{{{self.discriminant}}}(x) = {self._text(latex=True)}$ ({self._how()})"
@@ -268,53 +265,33 @@ class ClassPolynomial:
         return f"H<sub>{self.discriminant}</sub>(x) = {html.escape(text)}<br><small>{self._how()}</small>"
 
 
-def _product(D: int, forms: Sequence[tuple[int, int, int]], digits: int):
-    """Integer coefficients (leading first) of ∏(x − j(τ_Q)) and the largest rounding residual.
+def _ball_product(D: int, forms: Sequence[tuple[int, int, int]], prec: int):
+    """∏(x − j(τ_Q)) as a real ball polynomial at ``prec`` bits (rigorous enclosure).
 
-    The j-values are computed with ``digits`` significant digits; the product is then
-    formed in fixed point with ``P = ⌈digits·log₂10⌉`` fractional bits (exact integer
-    arithmetic apart from one truncation per step), which keeps the same absolute
-    accuracy ``≈ 10^{B − digits}`` as a floating-point product at ``digits`` digits.
+    Real roots (``b = 0``, ``b = a`` or ``a = c``) give ``x − Re j``; the conjugate pairs
+    ``(a, ±b, c)`` give ``x² − 2 Re(j) x + |j|²``.  The factors are multiplied by a
+    product tree (:func:`formkit.analytic.ball_polynomials.product_tree`).
     """
-    P = math.ceil(digits * math.log2(10)) + 8
-    one = mpz(1) << P
-    poly = [one]  # leading first, fixed point
-    from ..core.progress import progress_bar
+    from flint import arb_poly, ctx
 
-    with (
-        mpmath.workdps(digits),
-        progress_bar(total=len(forms), desc=f"class polynomial at {digits} digits", unit="form") as bar,
-    ):
-        for a, b, c in forms:
-            bar.update(1 if b == 0 or b == a or a == c else 2)
+    factors = []
+    with ctx.workprec(prec), progress_bar(total=len(forms), desc=f"j-values (D = {D})", unit="form") as bar:
+        for a, b, _c in forms:
+            bar.update(1)
             if b < 0:
                 continue  # paired with (a, −b, c)
-            j = _j_of_form(a, b, D)
-            if b == 0 or b == a or a == c:  # real root: factor x − j
-                s = mpz(_fixed(-j.real, P))
-                new = poly + [mpz(0)]
-                for i in range(1, len(new)):
-                    new[i] += (s * poly[i - 1]) >> P
-            else:  # conjugate pair: x² − 2 Re(j) x + |j|²
-                s = mpz(_fixed(-2 * j.real, P))
-                t = mpz(_fixed(j.real * j.real + j.imag * j.imag, P))
-                n = len(poly)
-                new = poly + [mpz(0), mpz(0)]
-                for i in range(1, n + 2):
-                    if i - 1 < n:
-                        new[i] += (s * poly[i - 1]) >> P
-                    if i >= 2:
-                        new[i] += (t * poly[i - 2]) >> P
-            poly = new
-    half = one >> 1
-    rounded = [int((x + half) >> P) for x in poly]
-    worst = max(abs(x - (r << P)) for x, r in zip(poly, rounded))
-    residual = mpmath.ldexp(mpmath.mpf(int(worst)), -P)
-    return rounded, residual
+            j = _j_ball_of_form(a, b, D, prec)
+            if b == 0 or b == a or a == _c:  # j is real: its real part encloses it
+                factors.append(arb_poly([-j.real, 1]))
+            else:
+                re, im = j.real, j.imag
+                factors.append(arb_poly([re * re + im * im, -2 * re, 1]))
+        return product_tree(factors)
 
 
-def _working_digits(bound: float, h: int) -> int:
-    return math.ceil(bound) + 2 * math.ceil(math.log10(h + 2)) + 25
+def _working_bits(bound: float, h: int) -> int:
+    """Bits for coefficients up to ``10^bound`` to come out with radius < 1/2, with room."""
+    return math.ceil(bound * math.log2(10)) + 4 * math.ceil(math.log2(h + 2)) + 64
 
 
 def class_polynomial_cost(h: int, digits: int, verify: bool = True) -> tuple[float, float]:
@@ -343,30 +320,27 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
     forms = _reduced_forms(D)
     h = len(forms)
     bound = class_polynomial_bound(D)
-    digits = _working_digits(bound, h)
-    seconds, memory = class_polynomial_cost(h, digits, verify)
+    prec = _working_bits(bound, h)
+    seconds, memory = class_polynomial_cost(h, math.ceil(prec / 3.33), verify)
     check_cost(
-        f"the Hilbert class polynomial of D = {D} (degree {h}, {digits} working digits)",
+        f"the Hilbert class polynomial of D = {D} (degree {h}, {prec} working bits)",
         seconds=seconds,
         memory=memory,
         further="its degree is h(D) and its coefficients have about π·√|D|·Σ1/a digits, so "
         "only a smaller |D| is cheaper",
     )
-    for _attempt in range(2):
-        coeffs, res1 = _product(D, forms, digits)
-        if not verify:
-            break
-        digits2 = digits + 20 + digits // 8
-        coeffs2, res2 = _product(D, forms, digits2)
-        residual = max(res1, res2)
-        if coeffs == coeffs2 and residual < _RESIDUAL_LIMIT:
-            break
-        digits = digits2 + 20 + digits // 4  # one retry with more room
-    else:
-        raise RuntimeError(
-            f"class polynomial of D = {D}: two computations at {digits} and {digits2} digits "
-            f"disagree or do not round cleanly (largest residual {mpmath.nstr(residual, 5)})"
-        )
+    with slow_notice(f"class polynomial of D = {D} (h = {h}, {prec} bits)"):
+        for _attempt in range(6):
+            poly = _ball_product(D, forms, prec)
+            coeffs = certified_integer_coefficients(poly)
+            if coeffs is not None:
+                break
+            prec += prec // 2 + 64  # the balls were too wide: more precision, same method
+        else:  # pragma: no cover - the bound B(D) makes the first attempt succeed
+            raise RuntimeError(
+                f"class polynomial of D = {D}: coefficient balls still contain no unique integer at {prec} bits"
+            )
+    radius_log2 = largest_radius_log2(poly)
     check = None
     if verify:
         limit = 10 ** math.ceil(bound)
@@ -377,10 +351,9 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
                 f"the bound 10^{math.ceil(bound)}"
             )
         primes, principal = _split_check(D, coeffs, forms)
-        exp = math.floor(mpmath.log10(residual)) + 1 if residual > 0 else -digits
         check = ClassPolynomialCheck(
-            recomputed_digits=digits2,
-            residual_exponent=int(exp),
+            precision_bits=prec,
+            radius_log2=radius_log2,
             bound_digits=math.ceil(bound),
             primes_checked=tuple(primes),
             principal_primes=tuple(principal),
@@ -389,7 +362,7 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
         discriminant=D,
         coefficients=tuple(coeffs),
         forms=tuple(Form(*f) for f in forms),
-        working_digits=digits,
+        working_digits=math.floor(prec * math.log10(2)),
         verification=check,
     )
 
@@ -454,7 +427,7 @@ def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
 
     The Hilbert class polynomial when ``D`` is fundamental, the ring class polynomial
     of the order of discriminant ``D`` otherwise: ``∏ (x − j(τ_Q))`` over the primitive
-    reduced forms ``Q`` of discriminant ``D``, computed with mpmath at a precision
+    reduced forms ``Q`` of discriminant ``D``, computed in ball arithmetic at a precision
     derived from :func:`class_polynomial_bound`, rounded to integers and verified as
     described in the module docstring.  Results are cached.
 

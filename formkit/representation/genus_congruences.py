@@ -35,7 +35,8 @@ References
 from __future__ import annotations
 
 from ..classgroups.dispatch import class_group
-from ..core.arith import as_int, factorint, kronecker
+from ..core.arith import as_int, kronecker
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike
 from ..core.modular_roots import crt
 from ..errors import FormkitError
@@ -133,7 +134,7 @@ def genus_residues(form: FormLike) -> tuple[int, tuple[int, ...]]:
     """
     Q = _check_form(form)
     D = Q.discriminant
-    fac = factorint(abs(D))
+    fac = prime_factorisation(abs(D))
     count = 1
     for q, e in fac.items():
         count *= q ** (e - 1) * (q - 1) // (2 if q > 2 else 1)

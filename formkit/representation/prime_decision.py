@@ -27,8 +27,9 @@ from __future__ import annotations
 import math
 
 from ..classgroups.dispatch import class_group
-from ..core.arith import as_int, factorint, isqrt, kronecker
+from ..core.arith import as_int, isqrt, kronecker
 from ..core.enumeration import _cycles_cached
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.modular_roots import sqrt_mod, sqrt_mod_prime
 from ..core.raw_reduction import _reduce_definite_raw, _reduce_indefinite_raw
@@ -114,7 +115,9 @@ class _Decider:
         if D > 0:  # reduced form -> representative of its cycle (the canonical class form)
             self.sqrt_D = isqrt(D)
             self.cycle_of = _cycles_cached(D)[1]
-        self.exceptions = tuple(p for p in sorted(factorint(abs(D))) if self._divisor_represented(p))
+        self.exceptions = tuple(
+            p for p in sorted(prime_factorisation(abs(D))) if self._divisor_represented(p)
+        )
 
     def _divisor_represented(self, p: int) -> bool:
         D = self.D

@@ -15,7 +15,7 @@ art. 154–170; Cox, *Primes of the Form x² + ny²*, Lemma 2.5 and §2.A; Buchm
 *Binary Quadratic Forms*, §3.2 and §6.8 — numbers as recalled.)
 
 The roots ``b`` come from :func:`formkit.core.modular_roots.sqrt_mod` with the factorisation of ``n``
-(sympy's ``factorint``, or given by the caller), so ``n`` of 60 digits and more is
+(:func:`formkit.core.factorisation.prime_factorisation`, or given by the caller and checked), so ``n`` of 60 digits and more is
 fine whenever it can be factored.
 
 *Sums over classes* (``D < 0``).  Summing over one primitive form per class,
@@ -48,9 +48,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..core.arith import as_int, factorint, gcd, kronecker, mpz
+from ..core.arith import as_int, gcd, kronecker, mpz
 from ..core.discriminants import discriminant_parts, unit_count, validate_discriminant
 from ..core.equivalence import automorphism_group
+from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, mat_inverse, mat_mul
 from ..core.reduction import _reduce_definite
 from ..errors import DiscriminantError, FormError, FormkitError
@@ -423,7 +424,7 @@ def dirichlet_count(D: object, n: object) -> int:
             f"gcd({n}, {f}) = {gcd(n, f)} (use total_representation_count)"
         )
     w = unit_count(D) if D < 0 else 1
-    fac = factorint(n) if n > 1 else {}
+    fac = prime_factorisation(n) if n > 1 else {}
     # Σ_{d|n} χ(d) is multiplicative: Π_p (1 + χ(p) + … + χ(p)^e)
     total = 1
     for p, e in fac.items():

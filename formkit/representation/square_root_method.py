@@ -20,10 +20,10 @@ References
 
 from __future__ import annotations
 
-from ..core.arith import as_int, factorint, gcd, is_probable_prime
+from ..core.arith import as_int, gcd
+from ..core.factorisation import checked_factorisation, prime_factorisation
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.modular_roots import sqrt_mod
-from ..errors import FormkitError
 
 __all__: list = []
 
@@ -32,27 +32,8 @@ def _factor_abs(n: int, factors: dict[int, int] | None) -> dict[int, int]:
     """Factorisation of ``|n|`` (n ≠ 0), checked if given by the caller."""
     n = abs(n)
     if factors is None:
-        if n > 1 and is_probable_prime(n):
-            return {n: 1}  # skip sympy's trial division on large primes
-        return factorint(n) if n > 1 else {}
-    fac: dict[int, int] = {}
-    prod = 1
-    for p, e in dict(factors).items():
-        p = as_int(p, "prime factor")
-        e = as_int(e, "exponent")
-        if e < 0 or p < 2:
-            raise FormkitError(f"factorisation entries must be primes p ≥ 2 with exponents ≥ 0, not {p}^{e}")
-        if e == 0:
-            continue
-        if e > max(1, n.bit_length()):  # p^e would exceed |n|: refuse before computing it
-            raise FormkitError(f"the given factor {p}^{e} exceeds |n| = {n}")
-        if not is_probable_prime(p):
-            raise FormkitError(f"the given factorisation of {n} contains {p}, which is not prime")
-        fac[p] = fac.get(p, 0) + e
-        prod *= p**e
-    if prod != n:
-        raise FormkitError(f"the given factors multiply to {prod}, not to |n| = {n}")
-    return dict(sorted(fac.items()))
+        return prime_factorisation(n, what="N") if n > 1 else {}
+    return checked_factorisation(n, factors)
 
 
 def _square_divisors(fac: dict[int, int]) -> list[tuple[int, dict[int, int]]]:
@@ -113,7 +94,7 @@ def _scaled_factors(factors, n: int, m: int):
         return None
     fac = _factor_abs(n, factors)
     q = abs(n) // abs(m)
-    for p in factorint(q) if q > 1 else {}:
+    for p in prime_factorisation(q) if q > 1 else {}:
         while q % p == 0:
             fac[p] -= 1
             q //= p

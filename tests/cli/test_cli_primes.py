@@ -87,7 +87,7 @@ def test_hilbert_text(capsys):
     code, out, err = run(capsys, "hilbert", "-15")
     assert code == 0 and err == ""
     assert "H(x) = x^2 + 191025x - 121287375" in out  # Cox §13 (from memory)
-    assert "verified" in out
+    assert "certified: ball arithmetic" in out
 
 
 @pytest.mark.parametrize(

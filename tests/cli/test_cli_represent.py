@@ -135,6 +135,29 @@ def test_factors_option_for_a_large_n(capsys):
         assert x * x + y * y == p * q
 
 
+def test_large_n_is_factored_without_help(capsys):
+    # N = p·q with random 22-digit primes p, q ≡ 1 (mod 4) (sympy.nextprime, outside
+    # reference), far apart so no shortcut applies; formkit factors N itself (python-flint)
+    # and Jacobi's two-square theorem gives r₂(N) = 4·(d₁ − d₃) = 16, as with --factors.
+    import random
+
+    from sympy import nextprime
+
+    rng = random.Random(17)
+
+    def prime_1_mod_4():
+        p = nextprime(rng.randrange(10**21, 10**22))
+        while p % 4 != 1:
+            p = nextprime(p)
+        return int(p)
+
+    p, q = prime_1_mod_4(), prime_1_mod_4()
+    d = run_json(capsys, "represent", "1,0,1", str(p * q))
+    assert d["count"] == 16 and d["primitive_count"] == 16
+    assert all(x * x + y * y == p * q for x, y in d["solutions"])
+    assert run_json(capsys, "represent", "1,0,1", str(p * q), "--factors", f"{q}*{p}") == d
+
+
 @pytest.mark.parametrize(
     "factors, needle",
     [

@@ -169,8 +169,8 @@ def test_verification_record():
     H = class_polynomial(-455)  # h = 20
     v = H.verification
     assert H.degree == 20
-    assert v.recomputed_digits > H.working_digits
-    assert v.residual_exponent <= -10
+    assert v.precision_bits >= H.working_digits  # bits ≥ digits
+    assert v.radius_log2 <= -10  # every coefficient ball far narrower than 1/2
     assert len(v.primes_checked) >= 6 and len(v.principal_primes) >= 1
     for p in v.principal_primes:
         assert _represented_brute(Form.principal(-455).coefficients, p)
@@ -252,7 +252,7 @@ def test_large_class_numbers_verify(D):
     # h = 50 and h = 100: full verification (second computation, residuals, root counts)
     H = class_polynomial(D)
     assert H.degree == _brute_reduced_count(D)
-    assert H.verification.residual_exponent <= -10
+    assert H.verification.radius_log2 <= -10
 
 
 # ---------------------------------------------------------------------------
