@@ -33,7 +33,9 @@ def _emit_example(args: argparse.Namespace, example) -> int:
 
     if args.fragment and args.format != "tex":
         raise CommandError("--fragment applies to --format tex only")
-    text = example.render(args.format, fragment=args.fragment)
+    text = example.render(
+        args.format, fragment=args.fragment, sectioning=args.heading_level, numbered=args.numbered_headings
+    )
     if args.output:
         try:
             with open(args.output, "w", encoding="utf-8") as fh:
@@ -87,8 +89,18 @@ def _format_parent() -> argparse.ArgumentParser:
     p.add_argument(
         "--fragment",
         action="store_true",
-        help="with --format tex: only the body, to paste into a document (default: a complete, "
-        "compilable article using amsmath and longtable)",
+        help="with --format tex: only the body, to \\input into a document that loads amsmath, array and "
+        "longtable (default: a complete, compilable article)",
+    )
+    p.add_argument(
+        "--heading-level",
+        choices=("part", "chapter", "section", "subsection", "subsubsection"),
+        default="section",
+        help="with --format tex: the sectioning command of the title (default section; lower headings "
+        "go one level down each)",
+    )
+    p.add_argument(
+        "--numbered-headings", action="store_true", help="with --format tex: numbered headings (\\section)"
     )
     p.add_argument("-o", "--output", metavar="FILE", help="write the document to FILE instead of printing it")
     return p
