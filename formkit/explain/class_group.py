@@ -256,7 +256,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             prod_plain = " · ".join(_char_math(chars[i]).plain for i in S) or "1"
             blocks.append(
                 Paragraph(
-                    text(f"For every @m@ prime to @D@ the Kronecker symbol satisfies ")
+                    text("For every @m@ prime to @D@ the Kronecker symbol satisfies ")
                     + (Math(rf"\left(\frac{{{D}}}{{m}}\right) = {prod_tex}", f"({D}/m) = {prod_plain}"),)
                     + text(
                         f" (checked for all residues @m@ modulo {abs(D)}). A value @m@ prime to @D@ of a form "

@@ -118,7 +118,7 @@ def line(*parts: Inline) -> Line:
 _MATRIX = re.compile(r"\[\[([^\[\]]*), ([^\[\]]*)\], \[([^\[\]]*), ([^\[\]]*)\]\]")
 
 _TEX_RULES = (
-    (_MATRIX, lambda m: r"\begin{pmatrix} %s & %s \\ %s & %s \end{pmatrix}" % m.groups()),
+    (_MATRIX, lambda m: r"\begin{{pmatrix}} {} & {} \\ {} & {} \end{{pmatrix}}".format(*m.groups())),
     (re.compile(r"floor\(sqrt\(D\)\)"), r"\\lfloor\\sqrt{D}\\rfloor"),
     (re.compile(r"sqrt\(([^()]*)\)"), r"\\sqrt{\1}"),
     (re.compile(r"<="), r"\\le "),
