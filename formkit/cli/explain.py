@@ -212,5 +212,48 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     g.set_defaults(handler=_cmd_group)
 
+    hp = sub.add_parser(
+        "handout",
+        parents=[parent, fmt],
+        help="one complete handout on a discriminant (LaTeX or Markdown)",
+        description=(
+            "Write one complete document on a discriminant D: the order and its class number formula, the "
+            "reduced forms, the structure with generators, genera and characters, the ring class polynomial "
+            "(D < 0), a representation worked out, and the primes a form represents with the criterion (a "
+            "congruence criterion exactly when the genus of the form is {Q, Q^-1}). "
+            "Python: formkit.worked_handout(D, form, n, bound=X).render('tex'). " + _JSON_NOTE
+        ),
+        epilog=(
+            "examples:\n  formkit handout -56 --form 3,2,5 --format tex -o handout.tex\n"
+            "  formkit handout -16428 --represent 13 --bound 10^4\n  formkit handout 316 --format md"
+        ),
+        formatter_class=raw,
+    )
+    add_discriminant_argument(hp, "the discriminant (e.g. -56, -16428, 316)", metavar="D")
+    hp.add_argument(
+        "--form", default=None, help="the form worked out (default: the first generator); " + _FORM_HELP
+    )
+    hp.add_argument(
+        "--represent",
+        default=None,
+        metavar="N",
+        help="the number represented (default: the least prime it represents)",
+    )
+    hp.add_argument(
+        "--bound", default="1000", metavar="X", help="list the represented primes up to X (default 1000)"
+    )
+    hp.set_defaults(handler=_cmd_handout)
+
+
+def _cmd_handout(args: argparse.Namespace) -> int:
+    from ..explain.handout import worked_handout
+    from .conventions import discriminant_of
+
+    D = discriminant_of(args)
+    form = as_form(args.form) if args.form is not None else None
+    n = parse_integer(args.represent, "--represent") if args.represent is not None else None
+    X = parse_integer(args.bound, "--bound")
+    return _emit_example(args, worked_handout(D, form, n, bound=X))
+
 
 __all__ = ["register"]

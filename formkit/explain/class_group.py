@@ -183,7 +183,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                 by_a.setdefault(x.form.a, []).append(x.form)
             blocks.append(
                 Table(
-                    (("a",), ("reduced forms",)),
+                    ((Math("a", "a"),), ("reduced forms",)),
                     tuple(
                         ((m_int(a),), tuple(p for g in fs for p in (m_form(g), " "))[:-1])
                         for a, fs in sorted(by_a.items())

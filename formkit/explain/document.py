@@ -129,6 +129,8 @@ _TEX_RULES = (
     (re.compile(r"\bmod\b"), r"\\bmod "),
     (re.compile(r"\bgcd\b"), r"\\gcd"),
     (re.compile(r"\brho\b"), r"\\rho"),
+    (re.compile(r"\btau"), r"\\tau"),
+    (re.compile(r"∏"), r"\\prod "),
     (re.compile(r"\bchi_D\b"), r"\\chi_D"),
     (re.compile(r"\bdelta\b"), r"\\delta"),
     (re.compile(r"\bmu\b"), r"\\mu"),
@@ -155,6 +157,7 @@ _PLAIN_RULES = (
     (re.compile(r"!="), "≠"),
     (re.compile(r"->"), "→"),
     (re.compile(r"\brho\b"), "ρ"),
+    (re.compile(r"\btau"), "τ"),
     (re.compile(r"\bchi_D\b"), "χ_D"),
     (re.compile(r"\bdelta\b"), "δ"),
     (re.compile(r"\bmu\b"), "μ"),
@@ -473,6 +476,14 @@ def _column_spec(table: Table) -> str:
     return "".join(spec)
 
 
+def _after_title(text: str, note: str) -> str:
+    """``note`` as a paragraph after the first heading (or at the start)."""
+    first, sep, rest = text.partition("\n\n")
+    if first.startswith("\\") and "{" in first and sep:
+        return first + "\n\n" + note + "\n\n" + rest
+    return note + "\n\n" + text
+
+
 def render_latex(
     blocks: Sequence[Block],
     *,
@@ -537,6 +548,9 @@ def render_latex(
         else:  # pragma: no cover - programming error
             raise TypeError(f"unknown block {b!r}")
     text = "\n\n".join(body) + "\n"
+    bad = sorted({ch for ch in text if ord(ch) > 127})
+    if bad:  # pragma: no cover - a builder passed a formula without a TeX spelling
+        raise ValueError(f"non-ASCII characters {bad!r} would reach the LaTeX document")
     if fragment:
         return text
     cls = "report" if top <= 1 else "article"
@@ -551,7 +565,7 @@ def render_latex(
         "\\setlength{\\emergencystretch}{3em}\n"
         "\\allowdisplaybreaks\n"
         f"% {escape_tex(title)} -- written by formkit\n"
-        "\\begin{document}\n\n" + NOTATION + "\n\n" + text + "\n\\end{document}\n"
+        "\\begin{document}\n\n" + _after_title(text, NOTATION) + "\n\\end{document}\n"
     )
 
 

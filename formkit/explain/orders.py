@@ -19,7 +19,7 @@ References
 
 from __future__ import annotations
 
-from .document import Block, Display, Heading, Math, Paragraph, Table, m_form, para
+from .document import Block, Display, Heading, Math, Table, m_form, para
 
 __all__ = ["order_blocks", "ring_class_polynomial_blocks"]
 
@@ -68,14 +68,12 @@ def order_blocks(D: int) -> tuple[list[Block], dict]:
     )  # chi = (d_K/p)
     prod_plain = "".join(f"(1 - ({chi})/{p})" for p, chi, _v in oc.euler_factors)
     blocks.append(
-        Paragraph(
-            (
-                Math(
-                    rf"h(\mathcal{{O}}) = \frac{{h(\mathcal{{O}}_K)\, f}}{{[\mathcal{{O}}_K^\times : "
-                    rf"\mathcal{{O}}^\times]}} \prod_{{p \mid f}} \left(1 - \frac{{(d_K/p)}}{{p}}\right) = "
-                    rf"\frac{{{hK} \cdot {f}}}{{{u}}} {prod_tex} = {h}",
-                    f"h(O) = h(O_K)·f/[O_K^× : O^×] · ∏_(p|f) (1 − (d_K/p)/p) = {hK}·{f}/{u} · {prod_plain} = {h}",
-                ),
+        Display(
+            Math(
+                rf"h(\mathcal{{O}}) = \frac{{h(\mathcal{{O}}_K)\, f}}{{[\mathcal{{O}}_K^\times : "
+                rf"\mathcal{{O}}^\times]}} \prod_{{p \mid f}} \left(1 - \frac{{(d_K/p)}}{{p}}\right) = "
+                rf"\frac{{{hK} \cdot {f}}}{{{u}}} {prod_tex} = {h}",
+                f"h(O) = h(O_K)·f/[O_K^× : O^×] · ∏_(p|f) (1 − (d_K/p)/p) = {hK}·{f}/{u} · {prod_plain} = {h}",
             )
         )
     )
@@ -183,7 +181,7 @@ def ring_class_polynomial_blocks(D: int) -> tuple[list[Block], dict]:
 def _poly_terms(coeffs: tuple[int, ...]) -> list[str]:
     """The nonzero terms of a polynomial (leading coefficient first), signed, one per row."""
     n = len(coeffs) - 1
-    out = []
+    out: list[str] = []
     for i, c in enumerate(coeffs):
         if c == 0:
             continue

@@ -43,6 +43,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from fractions import Fraction
+from typing import Any
 
 from ..classgroups.dispatch import class_group
 from ..core.forms import Form, FormLike
@@ -339,7 +340,7 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
     order = dec.C.order
     size, pair = _genus_classes(dec)
     density = Fraction(1, 2 * h) if order <= 2 else Fraction(1, h)
-    common = {
+    common: dict[str, Any] = {
         "form": Q,
         "discriminant": D,
         "class_number": h,

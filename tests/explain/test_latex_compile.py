@@ -99,3 +99,13 @@ def test_fragment_in_a_report(tmp_path):
         "\\begin{document}\n" + body + "\\end{document}\n"
     )
     _check_log(_compile(tmp_path, "report", doc))
+
+
+@pytest.mark.parametrize(
+    "D,form",
+    [(-56, (3, 2, 5)), (-4, None), (-108, None), (-16428, None), (5, None), (180, None), (316, None)],
+)
+def test_handout_compiles(tmp_path, D, form):
+    from formkit.explain.handout import worked_handout
+
+    _check_log(_compile(tmp_path, "handout", worked_handout(D, form, bound=1000).render("tex")))
