@@ -35,7 +35,7 @@ __all__ = ["worked_class_group", "explain_class_group"]
 
 #: The sources, printed once at the end of the example.
 REFERENCES_LINE = (
-    "References: D. A. Cox, Primes of the Form x^2 + ny^2, 2nd ed., Wiley 2013, Section 3 (genus theory) and "
+    "References: D. A. Cox, Primes of the Form @x^2 + ny^2@, 2nd ed., Wiley 2013, Section 3 (genus theory) and "
     "Section 7 (orders); C. F. Gauss, Disquisitiones Arithmeticae, 1801, art. 229-287."
 )
 

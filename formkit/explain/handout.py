@@ -129,7 +129,7 @@ def worked_handout(
             text(f"The {len(primes)} primes @p <= {X}@ represented by ")
             + (m_form(Q),)
             + (
-                (": " + ", ".join(map(str, shown)) + (", ..." if len(primes) > len(shown) else "") + ".")
+                (": " + ", ".join(map(str, shown)) + (f", ... (the first {len(shown)} listed)" if len(primes) > len(shown) else "") + ".")
                 if shown
                 else ".",
             )
@@ -137,7 +137,7 @@ def worked_handout(
     )
     data["criterion"] = crit.criterion_dict()
     data["primes"] = primes
-    blocks.append(para("References: " + crit.references))
+    blocks.append(para("References: " + crit.references.replace("x^2 + ny^2", "@x^2 + ny^2@")))
     return WorkedExample("handout", title, data, tuple(blocks))
 
 
