@@ -4,7 +4,8 @@
 ``Q``, a number ``n`` to represent and a prime bound): the order and its class number
 formula (conductor ``f > 1``), the reduced forms, the structure with generators, genera
 and characters (:func:`~formkit.explain.class_group.worked_class_group`), the ring class
-polynomial (``D < 0``), a representation worked out
+polynomial (``D < 0``) or the continued fraction behind the fundamental unit and narrow
+against wide class numbers (``D > 0``), a representation worked out
 (:func:`~formkit.explain.representation.worked_representation`), and the primes ``Q``
 represents with the criterion of :func:`formkit.representation.prime_criteria.prime_criterion`
 (a congruence criterion exactly when the genus of ``Q`` is ``{Q, Q⁻¹}``).  Every sentence
@@ -92,6 +93,12 @@ def worked_handout(
         pb, pdata = ring_class_polynomial_blocks(D)
         blocks.extend(pb)
         data["class_polynomial"] = pdata
+    else:
+        from .real_fields import real_field_blocks
+
+        rb, rdata = real_field_blocks(D)
+        blocks.extend(rb)
+        data["unit"] = rdata
     crit = prime_criterion(Q, polynomial=False)
     primes = represented_primes(Q, X)
     if n is None:
@@ -129,7 +136,12 @@ def worked_handout(
             text(f"The {len(primes)} primes @p <= {X}@ represented by ")
             + (m_form(Q),)
             + (
-                (": " + ", ".join(map(str, shown)) + (f", ... (the first {len(shown)} listed)" if len(primes) > len(shown) else "") + ".")
+                (
+                    ": "
+                    + ", ".join(map(str, shown))
+                    + (f", ... (the first {len(shown)} listed)" if len(primes) > len(shown) else "")
+                    + "."
+                )
                 if shown
                 else ".",
             )
