@@ -224,8 +224,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "Python: formkit.worked_handout(D, form, n, bound=X).render('tex'). " + _JSON_NOTE
         ),
         epilog=(
-            "examples:\n  formkit handout -56 --form 3,2,5 --format tex -o handout.tex\n"
-            "  formkit handout -16428 --represent 13 --bound 10^4\n  formkit handout 316 --format md"
+            "examples:\n  formkit handout -56 --form 3,2,5 --bound 10^4\n"
+            "  formkit handout -16428 --represent 13 --format tex -o handout.tex\n  formkit handout 316 --format md"
         ),
         formatter_class=raw,
     )
