@@ -28,7 +28,9 @@ def _emit_example(args: argparse.Namespace, example) -> int:
 
     if args.fragment and args.format != "tex":
         raise CommandError("--fragment applies to --format tex only")
-    text = example.render(args.format, fragment=args.fragment)
+    text = example.render(
+        args.format, fragment=args.fragment, sectioning=args.heading_level, numbered=args.numbered_headings
+    )
     if args.output:
         try:
             with open(args.output, "w", encoding="utf-8") as fh:
@@ -84,8 +86,18 @@ def _format_parent() -> argparse.ArgumentParser:
     p.add_argument(
         "--fragment",
         action="store_true",
-        help="with --format tex: only the body, to paste into a document (default: a complete, "
-        "compilable article using amsmath and longtable)",
+        help="with --format tex: only the body, to \\input into a document that loads amsmath, array and "
+        "longtable (default: a complete, compilable article)",
+    )
+    p.add_argument(
+        "--heading-level",
+        choices=("part", "chapter", "section", "subsection", "subsubsection"),
+        default="section",
+        help="with --format tex: the sectioning command of the title (default section; lower headings "
+        "go one level down each)",
+    )
+    p.add_argument(
+        "--numbered-headings", action="store_true", help="with --format tex: numbered headings (\\section)"
     )
     p.add_argument("-o", "--output", metavar="FILE", help="write the document to FILE instead of printing it")
     return p
@@ -184,6 +196,49 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(g, "the discriminant (e.g. -84, 316)")
     add_limit_options(g, "classes (at least 1)", 500)
     g.set_defaults(handler=_cmd_group)
+
+    hp = sub.add_parser(
+        "handout",
+        parents=[parent, fmt],
+        help="one complete handout on a discriminant (LaTeX or Markdown)",
+        description=(
+            "Write one complete document on a discriminant D: the order and its class number formula, the "
+            "reduced forms, the structure with generators, genera and characters, the ring class polynomial "
+            "(D < 0), a representation worked out, and the primes a form represents with the criterion (a "
+            "congruence criterion exactly when the genus of the form is {Q, Q^-1}). "
+            "Python: formkit.worked_handout(D, form, n, bound=X).render('tex'). " + _JSON_NOTE
+        ),
+        epilog=(
+            "examples:\n  formkit handout -56 --form 3,2,5 --bound 10^4\n"
+            "  formkit handout -16428 --represent 13 --format tex -o handout.tex\n  formkit handout 316 --format md"
+        ),
+        formatter_class=raw,
+    )
+    add_discriminant_argument(hp, "the discriminant (e.g. -56, -16428, 316)", metavar="D")
+    hp.add_argument(
+        "--form", default=None, help="the form worked out (default: the first generator); " + _FORM_HELP
+    )
+    hp.add_argument(
+        "--represent",
+        default=None,
+        metavar="N",
+        help="the number represented (default: the least prime it represents)",
+    )
+    hp.add_argument(
+        "--bound", default="1000", metavar="X", help="list the represented primes up to X (default 1000)"
+    )
+    hp.set_defaults(handler=_cmd_handout)
+
+
+def _cmd_handout(args: argparse.Namespace) -> int:
+    from ..explain.handout import worked_handout
+    from .conventions import discriminant_of
+
+    D = discriminant_of(args)
+    form = as_form(args.form) if args.form is not None else None
+    n = parse_integer(args.represent, "--represent") if args.represent is not None else None
+    X = parse_integer(args.bound, "--bound")
+    return _emit_example(args, worked_handout(D, form, n, bound=X))
 
 
 __all__ = ["register"]

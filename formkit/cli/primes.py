@@ -77,6 +77,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
             f"exceptions:    {list(c.exceptions) or 'none'}  (primes dividing D that the form represents)"
         )
         lines.append("statement:     " + c.statement)
+        lines.append("references:    " + c.references)
         limit = limit_of(args)
         listed = primes if limit is None else primes[:limit]
         lines.append(
@@ -151,7 +152,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="which primes a form represents: criterion, density, and the list up to a bound",
         description=(
             "Describe the primes represented by a primitive form: a congruence criterion modulo |D| "
-            "when the genus of the form has one class, else the class-polynomial criterion (D < 0) or "
+            "when the genus of the form is {Q, Q^-1} (exactly then one exists), else the class-polynomial criterion (D < 0) or "
             "the ideal-class criterion (D > 0); the Chebotarev density (among all primes); the "
             "primes dividing D that it represents; and every prime up to the bound that it represents. "
             "Python: formkit.prime_criterion(form), formkit.represented_primes(form, upto)."

@@ -10,6 +10,8 @@ complete document, or a fragment to paste into one).
 * :mod:`~formkit.explain.composition` — Dirichlet composition with every intermediate value;
 * :mod:`~formkit.explain.representation` — the square-root method behind each solution
   of Q(x, y) = n;
+* :mod:`~formkit.explain.handout` — one complete handout on a discriminant;
+* :mod:`~formkit.explain.orders` — class number formula and kernel for orders;
 * :mod:`~formkit.explain.class_group` — the class table with orders, discrete logarithms
   and genus characters.
 
@@ -26,6 +28,8 @@ from .class_group import __all__ as _class_group_all
 from .composition import *  # noqa: F403
 from .composition import __all__ as _composition_all
 from .document import EXPLAIN_FORMATS, WorkedExample
+from .handout import *  # noqa: F403
+from .handout import __all__ as _handout_all
 from .reduction import *  # noqa: F403
 from .reduction import __all__ as _reduction_all
 from .representation import *  # noqa: F403
@@ -38,4 +42,5 @@ __all__ = [
     *_composition_all,
     *_representation_all,
     *_class_group_all,
+    *_handout_all,
 ]

@@ -33,6 +33,12 @@ from .document import (
 
 __all__ = ["worked_class_group", "explain_class_group"]
 
+#: The sources, printed once at the end of the example.
+REFERENCES_LINE = (
+    "References: D. A. Cox, Primes of the Form @x^2 + ny^2@, 2nd ed., Wiley 2013, Section 3 (genus theory) and "
+    "Section 7 (orders); C. F. Gauss, Disquisitiones Arithmeticae, 1801, art. 229-287."
+)
+
 
 def _char_math(ch) -> Math:
     if ch.kind == "odd prime":
@@ -46,12 +52,48 @@ def _char_math(ch) -> Math:
 
 def _char_formula(ch) -> Math:
     if ch.kind == "odd prime":
-        return Math(rf"\text{{Legendre symbol modulo }} {ch.prime}", f"Legendre symbol modulo {ch.prime}")
+        q = ch.prime
+        return Math(
+            rf"+1 \text{{ if }} m \text{{ is a square modulo }} {q}\text{{, }} -1 \text{{ if not}}",
+            f"+1 if m is a square modulo {q}, -1 if not",
+        )
     return {
         "delta": Math(r"(-1)^{(m-1)/2}", "(-1)^((m-1)/2)"),
         "epsilon": Math(r"(-1)^{(m^2-1)/8}", "(-1)^((m²-1)/8)"),
         "delta*epsilon": Math(r"(-1)^{(m-1)/2 + (m^2-1)/8}", "(-1)^((m-1)/2 + (m²-1)/8)"),
     }[ch.kind]
+
+
+def _kronecker_relation(D: int, chars, limit: int = 2 * 10**5) -> tuple[int, ...] | None:
+    """The indices ``S`` with ``(D/m) = ∏_{i ∈ S} χ_i(m)`` for every ``m`` prime to ``D``.
+
+    ``(D/m)`` is the Kronecker symbol, a character modulo ``|D|`` (even when ``D > 0``);
+    the assigned characters are characters modulo ``|D|`` as well, so the relation is
+    checked on every unit modulo ``|D|``.  ``None`` when ``|D| > limit`` (not checked)
+    or when no product matches (not expected).
+    """
+    from itertools import combinations
+
+    from ..core.arith import gcd, kronecker
+
+    m_ = abs(D)
+    if m_ > limit:
+        return None
+    units = [r for r in range(1, m_ + 1) if gcd(r, m_) == 1]
+    table = [(kronecker(D, r), [ch(r) for ch in chars]) for r in units]
+    idx = range(len(chars))
+    for k in range(len(chars) + 1):
+        for S in combinations(idx, k):
+            if all(kd == _prod(v[i] for i in S) for kd, v in table):
+                return S
+    return None
+
+
+def _prod(values) -> int:
+    out = 1
+    for v in values:
+        out *= v
+    return out
 
 
 def _sign(s: int) -> Math:
@@ -99,6 +141,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     h = G.order
     blocks: list[Block] = [Heading(1, title)]
     what = "narrow class group" if D > 0 else "class group"
+    plus = "^+" if D > 0 else ""
     blocks.append(
         para(
             (
@@ -106,7 +149,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                 if f > 1
                 else f"@D = {D}@ is a fundamental discriminant. "
             )
-            + f"Its {what} @Cl({D})@ has order @h = {h}@; "
+            + f"Its {what} @Cl{plus}({D})@ has order @h{plus} = {h}@; "
             + (
                 "computed by complete enumeration of the reduced forms (unconditional)."
                 if prov.certified
@@ -130,7 +173,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             A = int(isqrt(-D // 3))
             blocks.append(
                 para(
-                    f"A reduced form @(a, b, c)@ has @3a^2 <= |D|@, so @a <= {A}@; for each a the b with "
+                    f"A reduced form @(a, b, c)@ has @3a^2 <= |D|@, so @a <= {A}@; for each @a@ the values of @b@ with "
                     f"@|b| <= a@, @b ≡ D (mod 2)@ and @4a | b^2 - D@ give @c = (b^2 - D)/4a@, kept when "
                     f"@a <= c@ (and @b >= 0@ if @|b| = a@ or @a = c@) and @gcd(a, b, c) = 1@. The {h} primitive "
                     "reduced forms, one per class:"
@@ -141,7 +184,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                 by_a.setdefault(x.form.a, []).append(x.form)
             blocks.append(
                 Table(
-                    (("a",), ("reduced forms",)),
+                    ((Math("a", "a"),), ("reduced forms",)),
                     tuple(
                         ((m_int(a),), tuple(p for g in fs for p in (m_form(g), " "))[:-1])
                         for a, fs in sorted(by_a.items())
@@ -163,12 +206,18 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                 cycle_text = tuple(p for g in cyc for p in (m_form(g), " "))[:-1]
                 cycle_rows.append(((m_form(x.form),), cycle_text + (() if complete else (" ...",))))
             blocks.append(Table((("class",), ("its cycle",)), tuple(cycle_rows)))
+    if f > 1:
+        from .orders import order_blocks
+
+        ob, odata = order_blocks(D)
+        blocks.extend(ob)
+        data["order"] = odata
     blocks.append(Heading(2, "Structure"))
     gens = G.generators
     if gens:
         blocks.append(
             Paragraph(
-                text(f"@Cl({D}) ≅ {G.structure.replace(' x ', ' × ')}@")
+                text(f"@Cl{plus}({D}) ≅ {G.structure.replace(' x ', ' × ')}@")
                 + (", generated by ",)
                 + tuple(
                     p for g, n in zip(gens, G.invariants) for p in (m_form(g.form), f" (order {n})", ", ")
@@ -190,19 +239,36 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     if chars:
         blocks.append(
             para(
-                f"The assigned characters of D (Cox, Primes of the Form @x^2 + ny^2@, Section 3) are evaluated at a "
-                f"value m of the form prime to D; with @mu = {mu}@ characters there are "
-                f"@2^{{mu - 1}} = {expected}@ genera."
+                f"The genus of a form is read off from any value @m@ of the form prime to @D@: the forms of one genus "
+                f"take the same values in @(Z/{abs(D)}Z)^×@. The assigned characters of @D = {D}@ are the "
+                f"following characters modulo @|D|@, evaluated at @m@ (at @2@, for odd @m@); "
+                f"with @mu = {mu}@ characters there are @2^{{mu - 1}} = {expected}@ genera."
             )
         )
         blocks.append(
             Table(
-                (("character",), ("value at m",)),
+                (("character",), ("definition",)),
                 tuple(((_char_math(c),), (_char_formula(c),)) for c in chars),
             )
         )
+        S = _kronecker_relation(D, chars)
+        if S is not None:
+            prod_tex = r" \cdot ".join(_char_math(chars[i]).tex for i in S) or "1"
+            prod_plain = " · ".join(_char_math(chars[i]).plain for i in S) or "1"
+            blocks.append(
+                Paragraph(
+                    text("For every @m@ prime to @D@ the Kronecker symbol satisfies ")
+                    + (Math(rf"\left(\frac{{{D}}}{{m}}\right) = {prod_tex}", f"({D}/m) = {prod_plain}"),)
+                    + text(
+                        f" (checked for all residues @m@ modulo {abs(D)}). A value @m@ prime to @D@ of a form "
+                        f"of discriminant @D@ has @(D/m) = 1@, because @D ≡ b^2@ modulo @4m@ for a proper "
+                        "representation; so this product is @+1@ on every genus symbol, and only half of the "
+                        f"@2^{{mu}}@ sign patterns occur."
+                    )
+                )
+            )
     else:
-        blocks.append(para("D has no assigned characters: there is one genus."))
+        blocks.append(para("@D@ has no assigned characters: there is one genus."))
 
     blocks.append(Heading(2, "Class table"))
     elements = list(G.elements())
@@ -244,8 +310,8 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     header.extend((_char_math(c),) for c in chars)
     blocks.append(
         para(
-            "Discrete logarithms are the exponents on the generators listed above; m is a value of the form prime "
-            "to D, at the (x, y) shown."
+            "Discrete logarithms are the exponents on the generators listed above; @m = Q(x, y)@ is a value of the "
+            "form @Q@ prime to @D@, at the @(x, y)@ shown."
         )
     )
     blocks.append(Table(tuple(header), tuple(rows)))
@@ -290,7 +356,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             + ("." if ok_count else " -- MISMATCH.")
         ),
         text(
-            f"Each genus has @h/{expected} = {h // expected if expected else h}@ classes"
+            f"Each genus has @h{plus}/{expected} = {h // expected if expected else h}@ classes"
             + ("." if ok_sizes else " -- MISMATCH: sizes " + str(sorted(sizes)) + ".")
         ),
         text(
@@ -298,7 +364,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             + ("." if ok_squares else " -- MISMATCH.")
         ),
         text(
-            f"The number of genera equals @2^r@ with r the 2-rank {G.two_rank} of the class group"
+            f"The number of genera equals @2^r@ with @r = {G.two_rank}@ the 2-rank of the class group"
             + ("." if ok_rank else " -- MISMATCH.")
         ),
     ]
@@ -308,6 +374,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     data["genus_count"] = len(genera)
     data["expected_genus_count"] = expected
     data["principal_genus_is_squares"] = ok_squares
+    blocks.append(para(REFERENCES_LINE))
     return WorkedExample("group", title, data, tuple(blocks))
 
 

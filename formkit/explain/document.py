@@ -7,9 +7,13 @@ formula: LaTeX for ``.tex`` output and plain text (Unicode allowed) for Markdown
 it is set in code spans so that it reads well in a terminal and renders everywhere.
 
 The LaTeX writer escapes the characters that are special to TeX in text (``\\ { } $ &
-# ^ _ % ~``), produces pure ASCII, and uses only ``amsmath`` and ``longtable`` (both in
-every standard LaTeX installation).  A complete document (``article`` class) is written
-unless a fragment is asked for.
+# ^ _ % ~``), sets signed integers and lone letters of running text in math mode (so no
+hyphen stands for a minus sign and no variable is upright), produces pure ASCII, and
+uses only ``geometry``, ``amsmath``, ``array`` and ``longtable`` (all in
+texlive-latex-base / -recommended).  Tables too wide for the text width get paragraph
+columns; long tables break across pages with their header repeated.  A complete document
+(``article`` class, with a line stating the notation) is written unless a fragment is
+asked for; headings start at a chosen sectioning level.
 """
 
 from __future__ import annotations
@@ -35,6 +39,8 @@ __all__ = [
     "render_markdown",
     "render_latex",
     "escape_tex",
+    "SECTIONING",
+    "NOTATION",
 ]
 
 #: Output formats of the worked examples.
@@ -109,7 +115,10 @@ def line(*parts: Inline) -> Line:
 # ---------------------------------------------------------------------------
 # a small markup: formulas written once, spelled for TeX and for plain text
 
+_MATRIX = re.compile(r"\[\[([^\[\]]*), ([^\[\]]*)\], \[([^\[\]]*), ([^\[\]]*)\]\]")
+
 _TEX_RULES = (
+    (_MATRIX, lambda m: r"\begin{{pmatrix}} {} & {} \\ {} & {} \end{{pmatrix}}".format(*m.groups())),
     (re.compile(r"floor\(sqrt\(D\)\)"), r"\\lfloor\\sqrt{D}\\rfloor"),
     (re.compile(r"sqrt\(([^()]*)\)"), r"\\sqrt{\1}"),
     (re.compile(r"<="), r"\\le "),
@@ -120,11 +129,19 @@ _TEX_RULES = (
     (re.compile(r"\bmod\b"), r"\\bmod "),
     (re.compile(r"\bgcd\b"), r"\\gcd"),
     (re.compile(r"\brho\b"), r"\\rho"),
+    (re.compile(r"\btau"), r"\\tau"),
+    (re.compile(r"\bomega\b"), r"\\omega"),
+    (re.compile(r"\balpha\b"), r"\\alpha"),
+    (re.compile(r"∏"), r"\\prod "),
     (re.compile(r"\bchi_D\b"), r"\\chi_D"),
     (re.compile(r"\bdelta\b"), r"\\delta"),
     (re.compile(r"\bmu\b"), r"\\mu"),
     (re.compile(r"\bepsilon\b"), r"\\varepsilon"),
     (re.compile(r"\bCl\b"), r"\\mathrm{Cl}"),
+    (re.compile(r"\bO_K\b"), r"\\mathcal{O}_K"),
+    (re.compile(r"(?<![{\\\w])O(?![\w}])"), r"\\mathcal{O}"),
+    (re.compile(r"⁻¹"), r"^{-1}"),
+    (re.compile(r"−"), r"-"),
     (re.compile(r"·"), r"\\cdot "),
     (re.compile(r"≡"), r"\\equiv "),
     (re.compile(r"≅"), r"\\cong "),
@@ -142,6 +159,10 @@ _PLAIN_RULES = (
     (re.compile(r"!="), "≠"),
     (re.compile(r"->"), "→"),
     (re.compile(r"\brho\b"), "ρ"),
+    (re.compile(r"\btau"), "τ"),
+    (re.compile(r"\bomega\b"), "ω"),
+    (re.compile(r"\balpha\b"), "α"),
+    (re.compile(r"sqrt\((-?[A-Za-z0-9]+)\)"), r"√\1"),
     (re.compile(r"\bchi_D\b"), "χ_D"),
     (re.compile(r"\bdelta\b"), "δ"),
     (re.compile(r"\bmu\b"), "μ"),
@@ -218,9 +239,17 @@ class WorkedExample:
     data: dict = field(repr=False)
     blocks: tuple[Block, ...] = field(repr=False)
 
-    def render(self, format: str = "md", *, fragment: bool = False) -> str:
+    def render(
+        self,
+        format: str = "md",
+        *,
+        fragment: bool = False,
+        sectioning: str = "section",
+        numbered: bool = False,
+    ) -> str:
         """The example as ``"md"`` (Markdown) or ``"tex"`` (LaTeX; ``fragment=True``
-        leaves out the preamble and the ``document`` environment).
+        leaves out the preamble and the ``document`` environment; ``sectioning`` and
+        ``numbered`` as in :func:`render_latex`).
 
         Raises
         ------
@@ -230,7 +259,9 @@ class WorkedExample:
         if format == "md":
             return render_markdown(self.blocks)
         if format == "tex":
-            return render_latex(self.blocks, title=self.title, fragment=fragment)
+            return render_latex(
+                self.blocks, title=self.title, fragment=fragment, sectioning=sectioning, numbered=numbered
+            )
         raise FormkitError(f"format must be 'md' or 'tex', not {format!r}")
 
     def to_dict(self) -> dict:
@@ -326,7 +357,7 @@ _TEX_UNICODE = {
     "≥": r"$\ge$",
     "·": r"$\cdot$",
     "×": r"$\times$",
-    "−": "-",
+    "−": r"$-$",
     "≡": r"$\equiv$",
     "√": r"$\sqrt{\phantom{x}}$",
     "²": r"$^2$",
@@ -361,28 +392,148 @@ def escape_tex(text: str) -> str:
     return "".join(out)
 
 
+# In running text: a signed integer, a lone letter other than the words "a", "A", "I"
+# (a variable: "the value m", "for each b"), and the Greek names, are set in math mode,
+# so that no hyphen stands for a minus sign and no variable is set upright.
+_AUTO_MATH = re.compile(
+    r"(?<![\w.'’\-])([-−]\d+)(?![\w])"  # a negative integer
+    r"|(?<![\w.'’\\])([b-zB-HJ-Z])(?![\w'’]|\.\w)"  # a lone letter (not "e.g.", "i.e.")
+    r"|\b(rho|mu|delta|epsilon|chi)\b"
+)
+_GREEK = {"rho": r"\rho", "mu": r"\mu", "delta": r"\delta", "epsilon": r"\varepsilon", "chi": r"\chi"}
+
+
+def _text_to_tex(text: str) -> str:
+    out = []
+    pos = 0
+    for m in _AUTO_MATH.finditer(text):
+        out.append(escape_tex(text[pos : m.start()]))
+        number, letter, greek = m.groups()
+        if number:
+            out.append("$-" + number[1:] + "$")
+        elif letter:
+            out.append(f"${letter}$")
+        else:
+            out.append(f"${_GREEK[greek]}$")
+        pos = m.end()
+    out.append(escape_tex(text[pos:]))
+    return "".join(out)
+
+
 def _tex_inline(parts: Sequence[Inline]) -> str:
     out = []
     for p in _merged(parts):
         if isinstance(p, Math):
             out.append(f"${p.tex}$")
         else:
-            out.append(escape_tex(p))
+            out.append(_text_to_tex(p))
     return "".join(out)
 
 
-_SECTION = {1: r"\section*", 2: r"\subsection*", 3: r"\subsubsection*"}
+#: Sectioning commands, from the top; a heading of level k is set ``k − 1`` below the
+#: level asked for (``sectioning="section"``: title → \section, level 2 → \subsection).
+SECTIONING = ("part", "chapter", "section", "subsection", "subsubsection", "paragraph")
+
+#: The notation stated at the head of every complete document.
+NOTATION = (
+    r"Notation. A triple $(a, b, c)$ is the binary quadratic form $ax^2 + bxy + cy^2$, of discriminant "
+    r"$D = b^2 - 4ac$; forms and classes are written as triples throughout. $C_n$ is the cyclic group of "
+    r"order $n$, class groups are written as products $C_{n_1} \times C_{n_2} \times \cdots$ with "
+    r"$n_1 \mid n_2 \mid \cdots$, and $C_1$ is the trivial group."
+)
+
+_TEXT_WIDTH_PT = 450.0  # a4paper with 2.5 cm margins (the complete documents' geometry)
+_CHAR_PT = 6.0  # a generous average width of a character at 11 pt (digits are 5.5 pt)
+_COL_SEP_PT = 12.0  # 2 \tabcolsep
 
 
-def render_latex(blocks: Sequence[Block], *, title: str = "", fragment: bool = False) -> str:
-    """The blocks as LaTeX: a complete ``article`` document, or the body alone.
+def _cell_width(cell) -> float:
+    parts = _merged(cell)
+    n = 0.0
+    for p in parts:
+        n += len(p.plain) * 1.1 if isinstance(p, Math) else len(p)
+    return n * _CHAR_PT
 
-    The document needs only ``amsmath`` and ``longtable``.
+
+def _column_spec(table: Table) -> str:
+    """``l`` columns when the table fits the text width, else the widest columns become
+    ragged-right paragraph columns sharing what is left of the width."""
+    ncol = len(table.header)
+    nat = [
+        max([_cell_width(table.header[i])] + [_cell_width(r[i]) for r in table.rows if i < len(r)])
+        for i in range(ncol)
+    ]
+    if sum(nat) + _COL_SEP_PT * ncol <= _TEXT_WIDTH_PT:
+        return "l" * ncol
+    # narrow columns keep their width; the others share the rest in proportion
+    avail = _TEXT_WIDTH_PT - _COL_SEP_PT * ncol
+    fair = avail / ncol
+    narrow = {i for i in range(ncol) if nat[i] <= fair}
+    rest = avail - sum(nat[i] for i in narrow)
+    wide = sum(nat[i] for i in range(ncol) if i not in narrow)
+    spec = []
+    for i in range(ncol):
+        if i in narrow:
+            spec.append("l")
+        else:
+            frac = max(0.05, rest * nat[i] / wide / _TEXT_WIDTH_PT * 0.97)
+            spec.append(rf">{{\raggedright\arraybackslash}}p{{{frac:.3f}\linewidth}}")
+    return "".join(spec)
+
+
+def _after_title(text: str, note: str) -> str:
+    """``note`` as a paragraph after the first heading (or at the start)."""
+    first, sep, rest = text.partition("\n\n")
+    if first.startswith("\\") and "{" in first and sep:
+        return first + "\n\n" + note + "\n\n" + rest
+    return note + "\n\n" + text
+
+
+def render_latex(
+    blocks: Sequence[Block],
+    *,
+    title: str = "",
+    fragment: bool = False,
+    sectioning: str = "section",
+    numbered: bool = False,
+) -> str:
+    r"""The blocks as LaTeX: a complete ``article`` document, or the body alone.
+
+    Parameters
+    ----------
+    blocks : sequence of blocks
+    title : str
+        Written as a comment at the head of a complete document.
+    fragment : bool
+        Leave out the preamble and the ``document`` environment (to ``\input`` the
+        text into a larger document, which must load ``amsmath``, ``array`` and
+        ``longtable``).
+    sectioning : str
+        The sectioning command of the title heading, one of :data:`SECTIONING`
+        (default ``"section"``); lower headings go one step down each.
+    numbered : bool
+        Numbered headings (``\section``) instead of unnumbered (``\section*``).
+
+    Raises
+    ------
+    FormkitError
+        For an unknown sectioning level.
+
+    Examples
+    --------
+    >>> print(render_latex([Heading(1, "Forms of discriminant -23")], fragment=True, sectioning="subsection"))
+    \subsection*{Forms of discriminant $-23$}
+    <BLANKLINE>
     """
+    if sectioning not in SECTIONING:
+        raise FormkitError(f"sectioning must be one of {', '.join(SECTIONING)}, not {sectioning!r}")
+    top = SECTIONING.index(sectioning)
+    star = "" if numbered else "*"
     body: list[str] = []
     for b in blocks:
         if isinstance(b, Heading):
-            body.append(f"{_SECTION.get(b.level, _SECTION[3])}{{{escape_tex(b.text)}}}")
+            cmd = SECTIONING[min(top + b.level - 1, len(SECTIONING) - 1)]
+            body.append(f"\\{cmd}{star}{{{_text_to_tex(b.text)}}}")
         elif isinstance(b, Paragraph):
             body.append(_tex_inline(b.parts))
         elif isinstance(b, Items):
@@ -390,29 +541,36 @@ def render_latex(blocks: Sequence[Block], *, title: str = "", fragment: bool = F
             items = "\n".join(r"  \item " + _tex_inline(item) for item in b.items)
             body.append(f"\\begin{{{env}}}\n{items}\n\\end{{{env}}}")
         elif isinstance(b, Table):
-            cols = "l" * len(b.header)
+            cols = _column_spec(b)
             head = " & ".join(_tex_inline(c) for c in b.header) + r" \\"
             rows = "\n".join(" & ".join(_tex_inline(c) for c in r) + r" \\" for r in b.rows)
             body.append(
                 f"\\begin{{longtable}}{{{cols}}}\n\\hline\n{head}\n\\hline\n\\endhead\n"
-                f"{rows}\n\\hline\n\\end{{longtable}}"
+                f"\\hline\n\\endfoot\n{rows}\n\\end{{longtable}}"
             )
         elif isinstance(b, Display):
             body.append("\\[\n" + b.math.tex + "\n\\]")
         else:  # pragma: no cover - programming error
             raise TypeError(f"unknown block {b!r}")
     text = "\n\n".join(body) + "\n"
+    bad = sorted({ch for ch in text if ord(ch) > 127})
+    if bad:  # pragma: no cover - a builder passed a formula without a TeX spelling
+        raise ValueError(f"non-ASCII characters {bad!r} would reach the LaTeX document")
     if fragment:
         return text
+    cls = "report" if top <= 1 else "article"
     return (
-        "\\documentclass[11pt]{article}\n"
+        f"\\documentclass[11pt,a4paper]{{{cls}}}\n"
+        "\\usepackage[margin=2.5cm]{geometry}\n"
         "\\usepackage{amsmath}\n"
+        "\\usepackage{array}\n"
         "\\usepackage{longtable}\n"
         "\\setlength{\\parindent}{0pt}\n"
         "\\setlength{\\parskip}{0.6ex}\n"
+        "\\setlength{\\emergencystretch}{3em}\n"
         "\\allowdisplaybreaks\n"
         f"% {escape_tex(title)} -- written by formkit\n"
-        "\\begin{document}\n\n" + text + "\n\\end{document}\n"
+        "\\begin{document}\n\n" + _after_title(text, NOTATION) + "\n\\end{document}\n"
     )
 
 

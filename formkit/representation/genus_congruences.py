@@ -9,9 +9,11 @@ values of the principal form; this coset is the same for all forms of one genus 
 determines the genus.  Hence when the genus of ``Q`` consists of the class of ``Q``
 alone — which happens for every ``Q`` exactly when ``Cl(D)`` has exponent ≤ 2, i.e.
 one class per genus, since the principal genus is ``Cl(D)²`` — a prime ``p ∤ D`` is
-represented by ``Q`` iff ``p mod |D|`` lies in that coset.  When the genus has several
-classes the congruence class of ``p`` only tells the genus, and no congruence
-criterion is offered.  The modulus ``|D|`` always suffices: for ``x² + ny²`` it is
+represented by ``Q`` iff ``p mod |D|`` lies in that coset.  The same holds when the
+genus is ``{C, C⁻¹}`` (``C`` of order 4 in a genus of two classes), since ``Q`` and
+``Q⁻¹`` represent the same numbers; in every other case the congruence class of ``p``
+only tells the genus, and no congruence criterion exists
+(:func:`formkit.representation.prime_criteria.has_congruence_criterion`).  The modulus ``|D|`` always suffices: for ``x² + ny²`` it is
 already ``4n``, and the characters at 2 have period dividing ``|D|`` (below).
 
 The coset is computed locally, without trusting a table of characters: by the Chinese

@@ -14,6 +14,14 @@ and an odd prime ``p ∤ D·disc(H_D)``, the principal form represents ``p`` iff
 ``p`` with ``χ_D(p) = 1``, ``H_D`` factors modulo ``p`` into irreducible factors all
 of degree equal to the order of the class of the prime form at ``p``.
 
+*When congruences suffice* (Chebotarev; Cox §9).  The primes represented by ``Q``
+are described by congruence conditions exactly when the genus ``C·Cl²`` of ``Q`` is
+``{C, C⁻¹}`` (:func:`has_congruence_criterion`): the genus always contains ``C`` and
+``C⁻¹``, these two classes represent the same numbers, and a congruence condition only
+sees the Frobenius modulo the commutator subgroup ``Cl²`` of ``Cl ⋊ Z/2``.  So a class
+and its inverse alone in a genus (``h/2^r = 2``, ``C`` of order 4) have a criterion too,
+although that discriminant has more than one class per genus.
+
 *Densities* (Chebotarev; Cox Theorem 9.12 / §9.B, number as recalled).  The ring class
 field ``L`` (narrow ring class field when ``D > 0``) is Galois over ``Q`` with group
 ``Cl(D) ⋊ Z/2``, the generator of ``Z/2`` acting by inversion; the primes represented
@@ -40,7 +48,7 @@ from typing import Any
 from ..classgroups.dispatch import class_group
 from ..core.forms import Form, FormLike
 from ..errors import FormkitError
-from .genus_congruences import genus_residues
+from .genus_congruences import RESIDUE_LIMIT, genus_residues
 from .prime_decision import _check_bound, _check_form, _Decider, primes_up_to
 
 __all__ = [
@@ -50,7 +58,18 @@ __all__ = [
     "prime_density",
     "density_count",
     "represented_primes",
+    "has_congruence_criterion",
+    "REFERENCES",
 ]
+
+
+#: The sources of the statements, printed as one references line beside a criterion.
+REFERENCES = (
+    "Cox, Primes of the Form x^2 + ny^2 (2nd ed., 2013): Lemma 2.5 (primes represented by some form), "
+    "Thm 2.26 and Cor. 2.27 (genus cosets mod |D|), Thm 3.15 (principal genus = squares), "
+    "Thm 9.2/9.4 (class polynomials), Thm 9.12 and Sect. 9.B (Chebotarev densities); theorem numbers "
+    "from memory."
+)
 
 
 # ---------------------------------------------------------------------------
@@ -140,16 +159,21 @@ class PrimeCriterion:
     density : Fraction
         Among all primes.
     kind : str
-        ``"congruence"`` (one class in the genus), ``"class_polynomial"`` (``D < 0``,
-        several classes in the genus) or ``"ideal_class"`` (``D > 0``, several classes).
+        ``"congruence"`` (the genus of ``Q`` is ``{Q, Q⁻¹}``), ``"class_polynomial"``
+        (``D < 0``, otherwise) or ``"ideal_class"`` (``D > 0``, otherwise).
     modulus, residues
         For ``"congruence"``: ``p ∤ D`` is represented iff ``p mod modulus ∈ residues``.
     polynomial : tuple of int
         For ``"class_polynomial"``: ``H_D``, leading coefficient first.
     exceptions : tuple of int
         The primes dividing ``D`` that ``Q`` represents.
+    genus_size : int
+        The number of classes in the genus of ``Q`` (``h / 2^r``, ``r`` the 2-rank).
     statement : str
-        The criterion in words, with its hypotheses.
+        The criterion in words, with its hypotheses; every factual sentence in it is
+        chosen by a condition checked here (genus size, class order, discriminant sign).
+    references : str
+        The sources, one line (:data:`REFERENCES`).
     """
 
     form: Form
@@ -162,7 +186,9 @@ class PrimeCriterion:
     residues: tuple[int, ...] = ()
     polynomial: tuple[int, ...] = ()
     exceptions: tuple[int, ...] = ()
+    genus_size: int = 1
     statement: str = field(default="", compare=False)
+    references: str = field(default=REFERENCES, compare=False)
 
     def criterion_dict(self) -> dict:
         """The ``criterion`` object of ``formkit primes --json``."""
@@ -174,6 +200,8 @@ class PrimeCriterion:
             d = {"kind": "ideal_class"}
         d["principal"] = self.class_order == 1
         d["statement"] = self.statement
+        d["genus_size"] = self.genus_size
+        d["references"] = self.references
         return d
 
     def to_dict(self) -> dict:
@@ -203,34 +231,79 @@ class PrimeCriterion:
         return rf"\text{{{self.statement}}}\ (\text{{density }} {self.density.numerator}/{self.density.denominator})"
 
 
-def _congruence_text(Q: Form, m: int, residues: tuple[int, ...]) -> str:
+def _genus_classes(dec: _Decider) -> tuple[int, int]:
+    """``(|genus of C|, |{C, C⁻¹}|)``; the genus is the coset ``C·Cl²`` of size ``h / 2^r``."""
+    G = dec.G
+    return G.order // 2**G.two_rank, 1 if dec.C.order <= 2 else 2
+
+
+def has_congruence_criterion(form: FormLike) -> bool:
+    """True if the primes represented by ``Q`` are described by congruences.
+
+    Theorem: this happens exactly when the genus of ``Q`` is ``{Q, Q⁻¹}``.  The genus
+    ``C·Cl²`` always contains ``C`` and ``C⁻¹ = C·C⁻²``, and ``Q``, ``Q⁻¹`` represent the
+    same numbers, so when the genus is ``{C, C⁻¹}`` the genus coset modulo ``|D|``
+    (:func:`~formkit.representation.genus_congruences.genus_residues`) is a criterion.
+    Conversely the represented primes are (up to finitely many) those whose Frobenius
+    in ``Gal(L/Q) ≅ Cl ⋊ Z/2`` (``L`` the ring class field) lies in ``{σ_C, σ_C⁻¹}``; a
+    congruence condition is a condition on the Frobenius in an abelian subextension,
+    i.e. on the image modulo the commutator subgroup ``Cl²``, so the set must be a union
+    of cosets of ``Cl²``, which forces ``C·Cl² = {C, C⁻¹}`` (Chebotarev; Cox §9).
+
+    Examples
+    --------
+    >>> has_congruence_criterion((3, 2, 5)), has_congruence_criterion((1, 0, 14))
+    (True, False)
+    """
+    size, pair = _genus_classes(_Decider(_check_form(form)))
+    return size == pair
+
+
+def _congruence_text(Q: Form, m: int, residues: tuple[int, ...], size: int, inverse: Form) -> str:
+    D = Q.discriminant
     shown = ", ".join(map(str, residues[:40])) + (", …" if len(residues) > 40 else "")
+    if size == 1:
+        genus = f"The genus of {Q} consists of its class alone"
+    else:
+        genus = (
+            f"The genus of {Q} consists of its class and the inverse class, that of {inverse}, "
+            "and the two represent the same numbers"
+        )
     return (
-        f"The genus of {Q} consists of its class alone (one class per genus for D = {Q.discriminant}). "
-        f"For primes p ∤ {abs(Q.discriminant)}: p is represented by {Q} iff p ≡ {shown} (mod {m}) "
-        f"[{len(residues)} residues]. (Cox Thm 2.26 / Cor. 2.27, as recalled.)"
+        f"{genus}; so a congruence criterion exists. For primes p not dividing {abs(D)}: p is represented "
+        f"by {Q} if and only if p ≡ {shown} (mod {m}) [{len(residues)} residue"
+        f"{'s' if len(residues) != 1 else ''}]."
     )
 
 
-def _class_text(Q: Form, D: int, order: int, polynomial: bool) -> str:
+def _class_text(Q: Form, D: int, order: int, polynomial: bool, size: int, pair: int) -> str:
     what = "the class of the prime ideal above p" if D < 0 else "the narrow class of the prime ideal above p"
+    if size == pair:  # the criterion exists but has too many residues to list
+        head = (
+            f"The genus of {Q} is {{Q, Q⁻¹}}, so a congruence criterion modulo {abs(D)} exists, but it has more "
+            f"than {RESIDUE_LIMIT} residues and is not listed. "
+        )
+    else:
+        head = (
+            f"The genus of {Q} has {size} classes, more than the {pair} class{'es' if pair > 1 else ''} of "
+            f"{{Q, Q⁻¹}}, so no congruence criterion exists (one exists exactly when the genus is {{Q, Q⁻¹}}). "
+        )
     text = (
-        f"The genus of {Q} contains other classes, so no congruence criterion exists. "
-        f"For primes p ∤ {abs(D)}: p is represented by {Q} iff ({D}/p) = 1 and {what} — the class of "
-        f"the prime form (p, b, (b²−({D}))/4p) with b² ≡ {D} (mod 4p) — is that of {Q} or its inverse "
-        f"(order {order} in Cl({D})). formkit.represent(Q, p) decides a single p with its solutions."
+        head
+        + f"For primes p not dividing {abs(D)}: p is represented by {Q} if and only if ({D}/p) = 1 and {what} "
+        f"(the class of the prime form (p, b, (b² − ({D}))/(4p)) with b² ≡ {D} (mod 4p)) is that of {Q} or "
+        f"its inverse (order {order} in Cl({D}))."
     )
     if polynomial and order == 1:
         text += (
-            f" Equivalently, for odd p ∤ {abs(D)}·disc(H): p is represented iff ({D}/p) = 1 and H(x) ≡ 0 (mod p) "
-            f"is solvable, H the class polynomial of D = {D} (Cox Thm 9.2 / Thm 9.4, as recalled); "
-            f"formkit.class_polynomial_discriminant({D}) gives the primes dividing disc(H)."
+            f" Equivalently, for odd p not dividing {abs(D)}·disc(H): p is represented if and only if "
+            f"({D}/p) = 1 and H(x) ≡ 0 (mod p) has a solution, H the class polynomial of discriminant {D}."
         )
     elif polynomial:
         text += (
-            f" In terms of the class polynomial H of D = {D}: for odd p ∤ {abs(D)}·disc(H) with ({D}/p) = 1, "
-            f"H splits modulo p into irreducible factors all of degree equal to the order of the prime ideal "
-            f"class; p represented by {Q} forces that degree to be {order}."
+            f" For odd p not dividing {abs(D)}·disc(H) with ({D}/p) = 1, the class polynomial H of "
+            f"discriminant {D} splits modulo p into irreducible factors all of degree equal to the order of "
+            f"the prime ideal class; if {Q} represents p, that degree is {order}."
         )
     return text
 
@@ -238,8 +311,8 @@ def _class_text(Q: Form, D: int, order: int, polynomial: bool) -> str:
 def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterion:
     """Describe the primes represented by a primitive form.
 
-    Offers a congruence criterion modulo ``|D|`` exactly when the genus of ``Q``
-    consists of one class; otherwise (``D < 0``) the class-polynomial criterion with
+    Offers a congruence criterion modulo ``|D|`` exactly when the genus of ``Q`` is
+    ``{Q, Q⁻¹}`` (:func:`has_congruence_criterion`); otherwise (``D < 0``) the class-polynomial criterion with
     ``H_D`` and the prime-ideal-class description, or (``D > 0``) the ideal-class
     description.  Always gives the density and the exceptional primes dividing ``D``.
 
@@ -270,13 +343,14 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
 
     References
     ----------
-    Cox, *Primes of the Form x² + ny²*, Cor. 2.27, Thm 9.2, Thm 9.4 (as recalled).
+    :data:`REFERENCES`.
     """
     Q = _check_form(form)
     D = Q.discriminant
     dec = _Decider(Q)
     h = dec.G.order
     order = dec.C.order
+    size, pair = _genus_classes(dec)
     density = Fraction(1, 2 * h) if order <= 2 else Fraction(1, h)
     common: dict[str, Any] = {
         "form": Q,
@@ -285,8 +359,9 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
         "class_order": order,
         "density": density,
         "exceptions": dec.exceptions,
+        "genus_size": size,
     }
-    if dec.G.exponent <= 2:
+    if size == pair:
         try:
             m, residues = genus_residues(Q)
         except FormkitError:
@@ -296,7 +371,7 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
                 kind="congruence",
                 modulus=m,
                 residues=residues,
-                statement=_congruence_text(Q, m, residues),
+                statement=_congruence_text(Q, m, residues, size, dec.C.inverse().form),
                 **common,
             )
     if D < 0:
@@ -306,9 +381,12 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
 
             poly = class_polynomial(D).coefficients
         return PrimeCriterion(
-            kind="class_polynomial", polynomial=poly, statement=_class_text(Q, D, order, bool(poly)), **common
+            kind="class_polynomial",
+            polynomial=poly,
+            statement=_class_text(Q, D, order, bool(poly), size, pair),
+            **common,
         )
-    return PrimeCriterion(kind="ideal_class", statement=_class_text(Q, D, order, False), **common)
+    return PrimeCriterion(kind="ideal_class", statement=_class_text(Q, D, order, False, size, pair), **common)
 
 
 def represented_primes(form: FormLike, upto: object, *, method: str = "auto") -> list[int]:
@@ -322,7 +400,7 @@ def represented_primes(form: FormLike, upto: object, *, method: str = "auto") ->
         The bound (at most 10^8).
     method : {"auto", "congruence", "classes"}
         ``"congruence"`` uses the residues modulo ``|D|`` (only when the genus of ``Q``
-        has one class); ``"classes"`` reduces the prime form at every split prime;
+        is ``{Q, Q⁻¹}``); ``"classes"`` reduces the prime form at every split prime;
         ``"auto"`` takes the congruence when it applies.  Both give the same list.
 
     Returns
@@ -332,7 +410,7 @@ def represented_primes(form: FormLike, upto: object, *, method: str = "auto") ->
     Raises
     ------
     FormkitError
-        For a bad bound or method, or ``"congruence"`` when the genus has several classes.
+        For a bad bound or method, or ``"congruence"`` when the genus is not ``{Q, Q⁻¹}``.
 
     Examples
     --------
@@ -348,12 +426,13 @@ def represented_primes(form: FormLike, upto: object, *, method: str = "auto") ->
     D = Q.discriminant
     dec = _Decider(Q)
     primes = primes_up_to(X)
-    use_congruence = method == "congruence" or (method == "auto" and dec.G.exponent <= 2)
+    size, pair = _genus_classes(dec)
+    use_congruence = method == "congruence" or (method == "auto" and size == pair)
     if use_congruence:
-        if dec.G.exponent > 2:
+        if size != pair:
             raise FormkitError(
-                f"no congruence criterion for {Q!r}: its genus has more than one class (Cl({D}) has exponent "
-                f"{dec.G.exponent})"
+                f"no congruence criterion for {Q!r}: its genus has {size} classes, more than the class of "
+                f"the form and its inverse"
             )
         m, residues = genus_residues(Q)
         ok = bytearray(m)

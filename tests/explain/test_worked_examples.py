@@ -71,7 +71,7 @@ def _tex_structure_problems(tex: str, complete: bool = True) -> list[str]:
         if tex.count("\\begin{document}") != 1 or not tex.rstrip().endswith("\\end{document}"):
             problems.append("document environment")
         for pkg in re.findall(r"\\usepackage(?:\[[^]]*\])?\{([^}]*)\}", tex):
-            if pkg not in ("amsmath", "longtable"):
+            if pkg not in ("amsmath", "longtable", "array", "geometry"):  # latex-base + -recommended
                 problems.append(f"non-standard package {pkg}")
     else:
         if "\\documentclass" in tex or "\\begin{document}" in tex:
