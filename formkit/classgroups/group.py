@@ -379,7 +379,7 @@ class ClassGroup:
             return self(value.form)
         if isinstance(value, (Form, str)):
             return self(value)
-        items = list(value)  # type: ignore[arg-type]
+        items = list(value)
         if len(items) == 3 and all(isinstance(v, int) for v in items):
             a, b, c = items
             if b * b - 4 * a * c == self._D:

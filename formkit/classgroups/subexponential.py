@@ -142,7 +142,7 @@ class _Base:
 
 
 def _is_probable_prime(n: int) -> bool:
-    import gmpy2  # type: ignore[import-untyped]
+    import gmpy2
 
     return bool(gmpy2.is_prime(n))
 

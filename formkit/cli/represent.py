@@ -45,6 +45,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
         lines = [f"form: {Q}   {form_text(Q)}   (D = {D}, {Q.kind})", f"N = {n}"]
         which = "primitive solutions" if args.primitive else "solutions"
         if res.definite:
+            assert res.count is not None  # definite forms always have a finite count
             lines.append(
                 f"{plural(res.count, 'solution')} in all, {res.primitive_count} primitive (gcd(x, y) = 1)"
             )

@@ -177,7 +177,7 @@ def _reduce_any(a, b, c, D) -> Form:
 
 def _representative_indefinite(r, D) -> Form:
     # the form that formkit.core.reduction.class_representative chooses (one per class)
-    rep = _cycle_representative_raw(*r, D, isqrt(D))
+    rep = _cycle_representative_raw(r[0], r[1], r[2], D, isqrt(D))
     if rep is None:
         raise FormError(
             f"the cycle of the composite ({int(r[0])}, {int(r[1])}, {int(r[2])}) has more than "

@@ -62,7 +62,7 @@ def _as_int(x: object, name: str) -> int:
     """``x`` as a Python int (integers only; bool refused), else NotAnIntegerError."""
     if isinstance(x, bool) or not hasattr(x, "__index__"):
         raise NotAnIntegerError(f"{name} must be an integer, not {x!r}")
-    return int(x.__index__())  # type: ignore[attr-defined]
+    return int(x.__index__())
 
 
 def _is_probable_prime(n: int) -> bool:
