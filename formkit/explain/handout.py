@@ -110,7 +110,7 @@ def worked_handout(
     rep = worked_representation(Q, n)
     triple = f"({Q.a}, {Q.b}, {Q.c})"
     blocks.append(Heading(2, f"A representation by {triple}"))
-    blocks.extend(_shift(rep.blocks[1:]))
+    blocks.extend(_shift(rep.blocks[1:-1]))  # without its title and references line
     data["representation"] = rep.data
     ib, idata = _ideal_reading(Q, n, rep.data.get("solutions") or [])
     blocks.extend(ib)

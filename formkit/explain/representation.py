@@ -50,6 +50,13 @@ from .document import (
 
 __all__ = ["worked_representation", "explain_representation"]
 
+#: The sources, printed once at the end of the example.
+REFERENCES_LINE = (
+    "References: D. A. Cox, Primes of the Form @x^2 + ny^2@, 2nd ed., Wiley 2013, Section 2.A, Lemmas 2.3 "
+    "and 2.5 (proper representations and the forms (m, b, c)); C. F. Gauss, Disquisitiones Arithmeticae, "
+    "1801, Section V (numbers from memory)."
+)
+
 #: Longest cycle of reduced forms a worked representation walks (indefinite forms).
 MAX_CYCLE = 100_000
 
@@ -111,7 +118,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             + text(f" for integers x, y; the form has discriminant @D = {D}@.")
         ),
         para(
-            "Method (Gauss; Cox, Primes of the Form @x^2 + ny^2@, Lemma 2.5): a proper solution (@gcd(x, y) = 1@) "
+            "Method (Gauss): a proper solution (@gcd(x, y) = 1@) "
             "of @Q(x, y) = m@ is the first column of a matrix M of determinant 1 with @Q·M = (m, b, c)@, where "
             "b is determined modulo 2m and @b^2 ≡ D (mod 4m)@. So we list those b, reduce each form "
             "@(m, b, (b^2 - D)/4m)@ and keep the ones properly equivalent to Q; the matrix of the equivalence "
@@ -123,7 +130,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     if n == 0:
         blocks.append(para("Since D is not a square, the form vanishes only at @(x, y) = (0, 0)@."))
         data.update(count=1, primitive_count=0, solutions=[[0, 0]], roots=[])
-        return WorkedExample("represent", title, data, tuple(blocks))
+        return WorkedExample("represent", title, data, (*blocks, para(REFERENCES_LINE)))
     P, m, note = Q, n, []
     if D < 0 and Q.a < 0:
         P, m = -Q, -n
@@ -144,7 +151,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     if none is not None:
         blocks.append(Paragraph((none,)))
         data.update(count=0, primitive_count=0, solutions=[], roots=[])
-        return WorkedExample("represent", title, data, tuple(blocks))
+        return WorkedExample("represent", title, data, (*blocks, para(REFERENCES_LINE)))
 
     DP = P.discriminant
     blocks.append(Heading(2, "The reduced form of Q"))
@@ -331,7 +338,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             )
         else:
             blocks.append(para(f"No solutions: Q does not represent {n}."))
-    return WorkedExample("represent", title, data, tuple(blocks))
+    return WorkedExample("represent", title, data, (*blocks, para(REFERENCES_LINE)))
 
 
 def explain_representation(
