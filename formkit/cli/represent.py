@@ -62,7 +62,7 @@ def _cmd_represent(args: argparse.Namespace) -> int:
         A = fundamental_automorph(Q)
         lines.append(
             f"infinitely many solutions in {plural(res.orbit_count, 'orbit')} "
-            f"({res.primitive_orbit_count} of primitive solutions) under ±A^k, "
+            f"({res.primitive_orbit_count} of them of primitive solutions) under ±A^k, "
             f"A = [[{A[0][0]}, {A[0][1]}], [{A[1][0]}, {A[1][1]}]]"
         )
         lines.append(
