@@ -15,7 +15,8 @@ option ``--budget`` changes it (``--budget 2h``, ``--budget 16G``, ``--budget
 manager :func:`budget` do.
 
 The estimates are deliberately rough (constants measured on the development machine,
-see ``docs/performance.md``, rounded up); they only decide whether to start.  A
+stated in the docstring of each cost function, rounded up); they only decide whether
+to start.  A
 method that is long but within budget shows progress through
 :mod:`formkit.core.progress`.
 
