@@ -345,34 +345,21 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     fast = n > 60 if edges == "auto" else edges == "straight"
 
     def draw_edges(el, colour, rad, alpha=1.0, directed=True):
+        common = {
+            "edgelist": el,
+            "ax": ax,
+            "edge_color": colour,
+            "width": width,
+            "node_size": node_size,
+            "alpha": alpha,
+        }
         if not directed:  # a generator of order 2: one straight undirected edge per pair
-            nx.draw_networkx_edges(
-                C,
-                pos,
-                edgelist=el,
-                ax=ax,
-                edge_color=colour,
-                width=width,
-                arrows=False,
-                node_size=node_size,
-                alpha=alpha,
-            )
-            return
-        if fast:
+            nx.draw_networkx_edges(C, pos, arrows=False, **common)
+        elif fast:
             _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale)
         else:
             nx.draw_networkx_edges(
-                C,
-                pos,
-                edgelist=el,
-                ax=ax,
-                edge_color=colour,
-                width=width,
-                arrows=True,
-                arrowsize=arrow,
-                node_size=node_size,
-                connectionstyle=f"arc3,rad={rad:.2f}",
-                alpha=alpha,
+                C, pos, arrows=True, arrowsize=arrow, connectionstyle=f"arc3,rad={rad:.2f}", **common
             )
 
     if kind == "cayley":
