@@ -41,6 +41,7 @@ def _cmd_primes(args: argparse.Namespace) -> int:
         "exceptions": list(crit.exceptions),
         "primes": primes,
         "class_number": crit.class_number,
+        "class_number_narrow": crit.class_number_narrow,
         "class_order": crit.class_order,
         "prime_count": {
             "bound": X,
@@ -52,13 +53,18 @@ def _cmd_primes(args: argparse.Namespace) -> int:
 
     def human() -> str:
         c = crit
+        hs = "h⁺" if c.discriminant > 0 else "h"
         lines = [
             f"form:          {c.form}   {form_text(c.form)}",
-            f"discriminant:  {c.discriminant}   class number {c.class_number}"
-            + (" (narrow)" if c.discriminant > 0 else "")
-            + f", class of the form has order {c.class_order}",
+            f"discriminant:  {c.discriminant}   class number h = {c.class_number}"
+            + (
+                f", narrow class number h⁺ = {c.class_number_narrow}; the class of the form has order "
+                f"{c.class_order} in Cl⁺({c.discriminant})"
+                if c.discriminant > 0
+                else f", class of the form has order {c.class_order}"
+            ),
             f"density:       {c.density} of all primes "
-            + ("(1/(2h): class of order ≤ 2)" if c.class_order <= 2 else "(1/h: class of order > 2)"),
+            + (f"(1/(2{hs}): class of order ≤ 2)" if c.class_order <= 2 else f"(1/{hs}: class of order > 2)"),
         ]
         if c.kind == "congruence":
             lines.append(f"criterion:     congruence modulo {c.modulus}: residues {list(c.residues)}")

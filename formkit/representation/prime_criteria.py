@@ -153,9 +153,13 @@ class PrimeCriterion:
     form : Form
     discriminant : int
     class_number : int
-        ``h(D)``, narrow for ``D > 0``.
+        ``h(D)``, the class number (for ``D > 0`` the wide one: forms up to equivalence
+        by ``GL₂(Z)`` acting with the sign of the determinant, i.e. ideal classes).
+    class_number_narrow : int
+        ``h⁺(D)``, the number of classes of forms up to proper equivalence (``= h`` for
+        ``D < 0``); the criterion and the density are stated in this group.
     class_order : int
-        The order of the class of ``Q`` in ``Cl(D)``.
+        The order of the class of ``Q`` in ``Cl(D)`` (the narrow group for ``D > 0``).
     density : Fraction
         Among all primes.
     kind : str
@@ -179,6 +183,7 @@ class PrimeCriterion:
     form: Form
     discriminant: int
     class_number: int
+    class_number_narrow: int
     class_order: int
     density: Fraction
     kind: str
@@ -209,6 +214,7 @@ class PrimeCriterion:
             "form": self.form.to_list(),
             "discriminant": self.discriminant,
             "class_number": self.class_number,
+            "class_number_narrow": self.class_number_narrow,
             "class_order": self.class_order,
             "density": f"{self.density.numerator}/{self.density.denominator}",
             "criterion": self.criterion_dict(),
@@ -355,7 +361,8 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
     common: dict[str, Any] = {
         "form": Q,
         "discriminant": D,
-        "class_number": h,
+        "class_number": dec.G.class_number,
+        "class_number_narrow": h,
         "class_order": order,
         "density": density,
         "exceptions": dec.exceptions,

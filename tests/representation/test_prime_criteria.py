@@ -361,8 +361,10 @@ def test_indefinite_against_search_and_represent(form):
 def test_indefinite_criteria():
     c = prime_criterion((1, 0, -2))  # Fermat/Euler: p = x² − 2y² iff p = 2 or p ≡ ±1 mod 8
     assert (c.kind, c.modulus, c.residues, c.exceptions) == ("congruence", 8, (1, 7), (2,))
-    c = prime_criterion((1, 0, -79))  # narrow h⁺(4·79) = 6, cyclic
-    assert c.kind == "ideal_class" and c.class_number == 6 and c.density == Fraction(1, 12)
+    # narrow h⁺(4·79) = 6, cyclic; wide h = 3 (the fundamental unit 80 + 9√79 has norm +1; from memory)
+    c = prime_criterion((1, 0, -79))
+    assert c.kind == "ideal_class" and c.class_number_narrow == 6 and c.density == Fraction(1, 12)
+    assert c.class_number == 3
 
 
 def test_represents_prime_matches_list():
