@@ -36,8 +36,14 @@ __all__ = ["worked_class_group", "explain_class_group"]
 #: The sources, printed once at the end of the example.
 REFERENCES_LINE = (
     "References: D. A. Cox, Primes of the Form @x^2 + ny^2@, 2nd ed., Wiley 2013, Section 3 (genus theory) and "
-    "Section 7 (orders); C. F. Gauss, Disquisitiones Arithmeticae, 1801, art. 229-287."
+    "Section 7 (orders), Sections 11 and 13 (ring class fields and class polynomials); H. Cohen, A Course in "
+    "Computational Algebraic Number Theory, Springer 1993, Section 5.7 (continued fractions and the fundamental "
+    "unit); C. F. Gauss, Disquisitiones Arithmeticae, 1801, art. 229-287."
 )
+
+#: Work out the ring class polynomial in the example up to this degree (its coefficients grow
+#: like ``exp(π·Σ 1/a)·…``; at degree 100 they have thousands of digits and are only summarised).
+POLYNOMIAL_DEGREE_LIMIT = 100
 
 
 def _char_math(ch) -> Math:
@@ -324,6 +330,8 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
                 f"({len(elements) - len(shown)} further classes not listed; raise max_classes, on the command line --limit N or --all.)"
             )
         )
+        blocks.extend(_field_blocks(D, h, data))
+        blocks.append(para(REFERENCES_LINE))
         return WorkedExample("group", title, data, tuple(blocks))
 
     blocks.append(Heading(2, "Genera"))
@@ -360,7 +368,7 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
             + ("." if ok_sizes else " -- MISMATCH: sizes " + str(sorted(sizes)) + ".")
         ),
         text(
-            "The principal genus is the set of squares @Cl(D)^2@ (Gauss)"
+            f"The principal genus is the set of squares @Cl{plus}(D)^2@ (Gauss)"
             + ("." if ok_squares else " -- MISMATCH.")
         ),
         text(
@@ -374,8 +382,32 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
     data["genus_count"] = len(genera)
     data["expected_genus_count"] = expected
     data["principal_genus_is_squares"] = ok_squares
+    blocks.extend(_field_blocks(D, h, data))
     blocks.append(para(REFERENCES_LINE))
     return WorkedExample("group", title, data, tuple(blocks))
+
+
+def _field_blocks(D: int, h: int, data: dict) -> list[Block]:
+    """The ring class polynomial (``D < 0``, up to degree :data:`POLYNOMIAL_DEGREE_LIMIT`) or the
+    continued fraction, fundamental unit and narrow against wide (``D > 0``); fills ``data``."""
+    if D > 0:
+        from .real_fields import real_field_blocks
+
+        rb, data["unit"] = real_field_blocks(D)
+        return rb
+    from .orders import ring_class_polynomial_blocks
+
+    if h <= POLYNOMIAL_DEGREE_LIMIT:
+        pb, data["class_polynomial"] = ring_class_polynomial_blocks(D)
+        return pb
+    name = "Hilbert" if data.get("conductor", 1) == 1 else "ring"
+    return [
+        Heading(2, f"The {name} class polynomial"),
+        para(
+            f"Its degree is @h = {h}@, more than the {POLYNOMIAL_DEGREE_LIMIT} worked out here; the command "
+            f"formkit hilbert {D} computes it."
+        ),
+    ]
 
 
 def explain_class_group(

@@ -23,8 +23,7 @@ from ..core.arith import as_int
 from ..core.forms import FormLike, as_form
 from ..errors import FormkitError
 from .class_group import worked_class_group
-from .document import Block, Heading, Math, Paragraph, Table, WorkedExample, m_form, para, text
-from .orders import ring_class_polynomial_blocks
+from .document import Block, Heading, Math, Paragraph, WorkedExample, m_form, para, text
 from .representation import worked_representation
 
 __all__ = ["worked_handout"]
@@ -89,16 +88,10 @@ def worked_handout(
     blocks: list[Block] = [Heading(1, title)]
     blocks.extend(_shift(group.blocks[:-1]))  # all but its references line
     data: dict = {"discriminant": D, "form": Q.to_list(), "group": group.data}
-    if D < 0:
-        pb, pdata = ring_class_polynomial_blocks(D)
-        blocks.extend(pb)
-        data["class_polynomial"] = pdata
-    else:
-        from .real_fields import real_field_blocks
-
-        rb, rdata = real_field_blocks(D)
-        blocks.extend(rb)
-        data["unit"] = rdata
+    # the group's example already carries the ring class polynomial (D < 0) or the unit (D > 0)
+    for key in ("class_polynomial", "unit"):
+        if key in group.data:
+            data[key] = group.data[key]
     crit = prime_criterion(Q, polynomial=False)
     primes = represented_primes(Q, X)
     if n is None:
@@ -112,9 +105,7 @@ def worked_handout(
     blocks.append(Heading(2, f"A representation by {triple}"))
     blocks.extend(_shift(rep.blocks[1:-1]))  # without its title and references line
     data["representation"] = rep.data
-    ib, idata = _ideal_reading(Q, n, rep.data.get("solutions") or [])
-    blocks.extend(ib)
-    data["ideal_reading"] = idata
+    data["ideal_reading"] = rep.data.get("ideal_reading", [])
     blocks.append(Heading(2, f"The primes represented by {triple}"))
     blocks.extend(_criterion_blocks(Q, crit))
     dens = crit.density
@@ -201,60 +192,3 @@ def _criterion_blocks(Q, crit) -> list[Block]:
             )
         )
     ]
-
-
-#: Solutions read as ideals in the handout.
-IDEAL_READINGS_SHOWN = 8
-
-
-def _ideal_reading(Q, n, solutions) -> tuple[list[Block], list]:
-    """Each solution ``Q(x, y) = n`` as an element ``α = (2ax + by − y√D)/2`` of the ideal
-    ``A = [a, (−b + √D)/2]`` of norm ``|a|`` with ``N(α) = a·n``; so ``(α) = A·B`` with
-    ``B`` integral of norm ``n`` in the class of ``A⁻¹`` (wide class for ``D > 0``).
-    Every norm is checked before it is printed."""
-    from ..core.ideals import ideal_from_form
-
-    a, b, _c = Q.coefficients
-    D = Q.discriminant
-    n = int(n)
-    if not solutions or n <= 0:
-        return [], []
-    ideal = ideal_from_form(Q)
-    blocks: list[Block] = [Heading(3, "The solutions read as ideals")]
-    cls = "class" if D < 0 else "wide class"
-    blocks.append(
-        Paragraph(
-            text("Let ")
-            + (
-                Math(
-                    "A = " + ideal._repr_latex_().strip("$"),
-                    "A = " + str(ideal).split(", ", 1)[1][:-1],
-                ),
-            )
-            + text(
-                f", the ideal @[a, (-b + sqrt(D))/2]@ of the order of discriminant @{D}@ attached to @Q@, of norm "
-                f"@{abs(a)}@. A solution @Q(x, y) = {n}@ gives @alpha = (2ax + by - y sqrt(D))/2@ in it with "
-                f"@N(alpha) = a · Q(x, y) = {a * n}@, so the principal ideal @(alpha)@ is the product of "
-                f"@A@ and an integral ideal of norm @{n}@ in the {cls} inverse to it:"
-            )
-        )
-    )
-    rows = []
-    recs = []
-    for x, y in solutions[:IDEAL_READINGS_SHOWN]:
-        A, B = 2 * a * x + b * y, -y  # alpha = (A + B sqrt(D))/2
-        if 4 * a * n != A * A - D * B * B:  # pragma: no cover - would be a wrong solution
-            raise ArithmeticError(f"N(alpha) != a*n for the solution ({x}, {y}) of {Q!r} = {n}")
-        sign = "-" if B < 0 else "+"
-        al = f"({A} {sign} {abs(B)} sqrt({D}))/2" if B else str(A // 2)
-        rows.append(((m_form_pair(x, y),), text(f"@alpha = {al}@"), text(f"@N(alpha) = {a * n}@")))
-        recs.append({"solution": [x, y], "alpha": [A, B], "norm": a * n})
-    blocks.append(Table((("(x, y)",), ("element of the ideal",), ("norm",)), tuple(rows)))
-    if len(solutions) > IDEAL_READINGS_SHOWN:
-        blocks.append(para(f"({len(solutions) - IDEAL_READINGS_SHOWN} further solutions read the same way.)"))
-    return blocks, recs
-
-
-def m_form_pair(x: int, y: int) -> Math:
-    s = f"({x}, {y})"
-    return Math(s, s)

@@ -151,8 +151,10 @@ def ring_class_polynomial_blocks(D: int) -> tuple[list[Block], dict]:
         para(
             f"@H(x) = ∏ (x - j(tau_Q))@ over the {H.degree} reduced forms @Q = (a, b, c)@, with "
             "@tau_Q = (-b + sqrt(D))/2a@ and @j@ the modular invariant; its coefficients are integers, and a "
-            f"root generates the {'Hilbert' if H.kind == 'Hilbert' else 'ring'} class field over @K@. Computed in "
-            "floating point, rounded, and verified by a second computation at higher precision."
+            f"root generates the {'Hilbert' if H.kind == 'Hilbert' else 'ring'} class field over @K@. Each "
+            "@j(tau_Q)@ is enclosed in a ball of complex numbers and the balls are multiplied out: "
+            + H._how()  # the polynomial's own account of its certificate
+            + "."
         )
     )
     terms = _poly_terms(H.coefficients)

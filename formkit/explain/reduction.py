@@ -66,7 +66,7 @@ def worked_reduction(form: FormLike) -> WorkedExample:
     f = as_form(form)
     res = reduce_form(f, steps=True)
     D = f.discriminant
-    title = f"Reduction of {f.to_list()}"
+    title = f"Reduction of ({f.a}, {f.b}, {f.c})"
     blocks: list[Block] = [
         Heading(1, title),
         Paragraph(
@@ -127,6 +127,6 @@ def explain_reduction(form: FormLike, *, format: str = "md", fragment: bool = Fa
     Examples
     --------
     >>> print(explain_reduction((3, 1, 2)).splitlines()[0])
-    # Reduction of [3, 1, 2]
+    # Reduction of (3, 1, 2)
     """
     return worked_reduction(form).render(format, fragment=fragment)

@@ -9,7 +9,7 @@ automorphs of ``Q`` give the others (``w`` of them when ``D < 0``; one orbit und
 infinite automorphism group when ``D > 0``).  All solutions are ``g`` times the proper
 ones of ``n/g²``, ``g² | n``.  (Gauss, *Disquisitiones* art. 154–170; Cox, *Primes of
 the Form x² + ny²*, Lemma 2.5 and §2.A; Buchmann–Vollmer, *Binary Quadratic Forms*,
-§3.2 — numbers as recalled.)  Written from the mathematics; the tests compare its
+§3.2 — section numbers from memory.)  Written from the mathematics; the tests compare its
 solutions with :func:`formkit.representation.representations.represent`.
 :func:`explain_representation` returns the rendered text (``formkit explain represent``).
 
@@ -54,7 +54,8 @@ __all__ = ["worked_representation", "explain_representation"]
 REFERENCES_LINE = (
     "References: D. A. Cox, Primes of the Form @x^2 + ny^2@, 2nd ed., Wiley 2013, Section 2.A, Lemmas 2.3 "
     "and 2.5 (proper representations and the forms (m, b, c)); C. F. Gauss, Disquisitiones Arithmeticae, "
-    "1801, Section V (numbers from memory)."
+    "1801, Section V (numbers from memory); for the reading as ideals, Cox Section 7.B (forms and ideals of "
+    "orders)."
 )
 
 #: Longest cycle of reduced forms a worked representation walks (indefinite forms).
@@ -110,7 +111,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
     D = _require_nonsquare(Q, "representations")
     n = as_int(n, "n")
     max_detail = _check_count(max_detail, "max_detail", 0)
-    title = f"Representations of {n} by {Q.to_list()}"
+    title = f"Representations of {n} by ({Q.a}, {Q.b}, {Q.c})"
     blocks: list[Block] = [
         Heading(1, title),
         Paragraph(
@@ -172,7 +173,7 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             para(
                 f"Q is indefinite: a form is properly equivalent to Q exactly when its reduction lands on the cycle "
                 f"of the reduced form of Q, which has {len(cyc)} forms: "
-                + ", ".join(f"@{g.to_list()}@" for g in cyc.forms[:40])
+                + ", ".join(f"@({g.a}, {g.b}, {g.c})@" for g in cyc.forms[:40])
                 + (" and more." if len(cyc) > 40 else ".")
             )
         )
@@ -338,7 +339,137 @@ def worked_representation(form: FormLike, n: object, *, max_detail: int = 32) ->
             )
         else:
             blocks.append(para(f"No solutions: Q does not represent {n}."))
+    ib, data["ideal_reading"] = _ideal_reading(Q, n, solutions)
+    blocks.extend(ib)
     return WorkedExample("represent", title, data, (*blocks, para(REFERENCES_LINE)))
+
+
+#: Solutions read as ideals in the worked example.
+IDEAL_READINGS_SHOWN = 8
+
+
+def _ideal_reading(Q: Form, n: int, solutions: list) -> tuple[list[Block], list]:
+    """Each solution ``Q(x, y) = n`` as an element ``α = (2ax + by − y√D)/2`` of the ideal
+    ``A = [a, (−b + √D)/2]`` of norm ``|a|`` with ``N(α) = a·n``; so ``(α) = A·B`` with
+    ``B`` integral of norm ``n`` in the class of ``A⁻¹`` (wide class for ``D > 0``).
+    Every norm is checked before it is printed."""
+    from ..core.ideals import ideal_from_form
+
+    a, b, _c = Q.coefficients
+    D = Q.discriminant
+    n = int(n)
+    if not solutions or n <= 0:
+        return [], []
+    if Q.content != 1:
+        return [
+            para(
+                f"(The form has content {Q.content}, so it is not attached to an invertible ideal of an order; "
+                "the solutions have no reading as ideals.)"
+            )
+        ], []
+    ideal = ideal_from_form(Q)
+    blocks: list[Block] = [Heading(3, "The solutions read as ideals")]
+    cls = "class" if D < 0 else "wide class"
+    blocks.append(
+        Paragraph(
+            text("Let ")
+            + (
+                Math(
+                    "A = " + ideal._repr_latex_().strip("$"),
+                    "A = " + str(ideal).split(", ", 1)[1][:-1],
+                ),
+            )
+            + text(
+                f", the ideal @[a, (-b + sqrt(D))/2]@ of the order of discriminant @{D}@ attached to @Q@, of norm "
+                f"@{abs(a)}@. A solution @Q(x, y) = {n}@ gives @alpha = (2ax + by - y sqrt(D))/2@ in it with "
+                f"@N(alpha) = a · Q(x, y) = {a * n}@, so the principal ideal @(alpha)@ is the product of "
+                f"@A@ and an integral ideal of norm @{n}@ in the {cls} inverse to it:"
+            )
+        )
+    )
+    rows = []
+    recs = []
+    for x, y in solutions[:IDEAL_READINGS_SHOWN]:
+        A, B = 2 * a * x + b * y, -y  # alpha = (A + B sqrt(D))/2
+        if 4 * a * n != A * A - D * B * B:  # pragma: no cover - would be a wrong solution
+            raise ArithmeticError(f"N(alpha) != a*n for the solution ({x}, {y}) of {Q!r} = {n}")
+        al = _alpha_text(A, B, D)
+        g, beta = _cofactor_ideal(Q, n, x, y)
+        m = n // (g * g)
+        ideal_b = f"[{m}, (" + (f"{beta} + " if beta else "") + "sqrt(D))/2]"
+        if g > 1:
+            ideal_b = f"{g} · " + ideal_b
+        rows.append(
+            (
+                (_m_pair(x, y),),
+                text(f"@alpha = {al}@"),
+                text(f"@N(alpha) = {a * n}@"),
+                text(f"@B = {ideal_b}@"),
+            )
+        )
+        recs.append({"solution": [x, y], "alpha": [A, B], "norm": a * n, "cofactor": [g, m, beta]})
+    blocks.append(Table((("(x, y)",), ("element of A",), ("norm",), ("the ideal B of norm n",)), tuple(rows)))
+    blocks.append(
+        para(
+            "Here @B = (alpha) A^{-1}@, written @g · [m, (beta + sqrt(D))/2]@ with @g = gcd(x, y)@, "
+            "@m = n/g^2@ and @beta^2 ≡ D (mod 4m)@ (checked); proper solutions (@g = 1@) give ideals not "
+            "divisible by any rational integer, and distinct proper solutions up to the units give distinct "
+            "@B@."
+        )
+    )
+    if len(solutions) > IDEAL_READINGS_SHOWN:
+        blocks.append(para(f"({len(solutions) - IDEAL_READINGS_SHOWN} further solutions read the same way.)"))
+    return blocks, recs
+
+
+def _cofactor_ideal(Q: Form, n: int, x: int, y: int) -> tuple[int, int]:
+    """``(g, β)`` with ``B = (α)·A⁻¹ = g·[n/g², (β + √D)/2]``, ``g = gcd(x, y)``.
+
+    ``B = α·Ā/a`` has the Z-basis ``α = (2ax + by − y√D)/2`` and ``α·(−b − √D)/(2a) =
+    (−bx − 2cy − x√D)/2``; the combination ``x·α − y·(…)`` is the integer ``n``, and a
+    combination with ``√D``-coefficient ``g`` gives ``β``, reduced modulo ``2m``.  The
+    congruence ``β² ≡ D (mod 4m)`` is checked.
+    """
+    a, b, c = Q.coefficients
+    D = Q.discriminant
+    g, s, t = _xgcd(-y, -x)  # s·(−y) + t·(−x) = g
+    u = s * (2 * a * x + b * y) + t * (-b * x - 2 * c * y)
+    m = n // (g * g)
+    beta = (u // g) % (2 * m)
+    if beta > m:
+        beta -= 2 * m
+    if (beta * beta - D) % (4 * m):  # pragma: no cover - would contradict the algebra above
+        raise ArithmeticError(f"cofactor ideal of ({x}, {y}) for {Q!r} = {n}: beta = {beta} is no root")
+    return g, beta
+
+
+def _xgcd(p: int, q: int) -> tuple[int, int, int]:
+    """``(g, s, t)`` with ``s·p + t·q = g = gcd(p, q) ≥ 0``."""
+    s0, s1, t0, t1 = 1, 0, 0, 1
+    while q:
+        k = p // q
+        p, q = q, p - k * q
+        s0, s1 = s1, s0 - k * s1
+        t0, t1 = t1, t0 - k * t1
+    return (p, s0, t0) if p >= 0 else (-p, -s0, -t0)
+
+
+def _alpha_text(A: int, B: int, D: int) -> str:
+    """``(A + B√D)/2`` in lowest terms: ``A/2 + (B/2)·√D`` written as ``A/2 ± |B| √(D/4)`` when ``4 | D``
+    (then ``A`` is even), coefficient 1 left out."""
+    if B == 0:
+        return str(A // 2)
+    sign = "-" if B < 0 else "+"
+    if D % 4 == 0:
+        root = f"sqrt({D // 4})" if abs(B) == 1 else f"{abs(B)} sqrt({D // 4})"
+        return f"{A // 2} {sign} {root}"
+    root = f"sqrt({D})" if abs(B) == 1 else f"{abs(B)} sqrt({D})"
+    return f"({A} {sign} {root})/2"
+
+
+def _m_pair(x: int, y: int) -> Math:
+    s = f"({x}, {y})"
+    return Math(s, s)
 
 
 def explain_representation(
@@ -349,6 +480,6 @@ def explain_representation(
     Examples
     --------
     >>> print(explain_representation((1, 0, 5), 21).splitlines()[0])
-    # Representations of 21 by [1, 0, 5]
+    # Representations of 21 by (1, 0, 5)
     """
     return worked_representation(form, n, max_detail=max_detail).render(format, fragment=fragment)

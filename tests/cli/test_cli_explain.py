@@ -23,7 +23,7 @@ def test_reduce_markdown_is_the_python_text(capsys):
     code, out, err = run(["explain", "reduce", "10,37,35"], capsys)
     assert code == 0 and err == ""
     assert out == explain_reduction((10, 37, 35))
-    assert out.startswith("# Reduction of [10, 37, 35]")
+    assert out.startswith("# Reduction of (10, 37, 35)")
 
 
 def test_compose_tex_document_and_fragment(capsys):

@@ -41,6 +41,11 @@ def test_handout_tex_is_ascii_and_math():
     outside = re.sub(r"\$[^$]*\$", "", re.sub(r"\\\[.*?\\\]", "", body, flags=re.S))
     assert not re.search(r"(?<![\w\\])-\d", outside)  # every minus sign of a number is in math mode
     assert "[[" not in tex
+    # Greek letters are typeset, never spelled out in the text or in math mode (common practice)
+    for handout in (tex, worked_handout(-16428, (13, 2, 316), 13, bound=100).render("tex")):
+        words = re.sub(r"\\[A-Za-z]+", "", handout)  # drop the TeX commands (\beta, \alpha, ...)
+        found = re.findall(r"\b(alpha|beta|gamma|delta|epsilon|rho|tau|omega|chi|mu)\b", words)
+        assert not found, found
 
 
 def test_handout_errors():
