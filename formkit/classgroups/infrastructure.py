@@ -405,7 +405,7 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     Returns
     -------
     RealClassNumber
-        ``provenance.assumption == "GRH"``: the class number rests on the GRH interval
+        ``provenance.method == "infrastructure"``, ``provenance.assumption == "GRH"``: the class number rests on the GRH interval
         for ``L(1, χ_D)``; the regulator is unconditional (exact up to double-precision
         rounding); ``provenance.detail`` says what fixed ``h``.
 
@@ -493,7 +493,7 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     )
     if used:
         detail += f"; orders of the prime forms at {used[:8]}{'…' if len(used) > 8 else ''} divide h⁺"
-    prov = Provenance("infrastructure+analytic", False, "GRH", Pused, detail + f": h⁺ = {narrow}")
+    prov = Provenance("infrastructure", False, "GRH", Pused, detail + f": h⁺ = {narrow}")
     return RealClassNumber(D, narrow, h, R, norm, prov, stats)
 
 
@@ -643,7 +643,7 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
             f"the cycles of reduced forms of D = {disc} are longer than {CYCLE_LIMIT} forms "
             f"(regulator {r.regulator:.6g}), too long for the class group structure here; "
             f"h⁺ = {narrow}, h = {r.class_number} and R come from real_class_number "
-            f"('formkit class-number {disc}')"
+            f"('formkit class-number {disc} --method infrastructure')"
         ) from None
 
     def canonical(x: Triple) -> Triple:
