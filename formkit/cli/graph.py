@@ -40,19 +40,41 @@ def _format_of(args: argparse.Namespace) -> str:
     return "json"
 
 
+#: What the nodes and the edges of each kind of graph are, for the summary line.
+_COUNTED = {
+    "cayley": ("class", "classes", "{x, x·[p]}", "x → x·[p]"),
+    "cycles": ("reduced form", "reduced forms", "{f, ρ(f)}", "f → ρ(f)"),
+    "fibres": ("class", "classes", "", "x → image of x"),
+}
+
+
+def _counts_text(payload: dict) -> str:
+    """``24 classes; 48 undirected edges {x, x·[p]}; 72 directed edges x → x·[p]``."""
+    from .conventions import plural
+
+    one, many, edge, arrow = _COUNTED[payload["kind"]]
+    n, e, d = payload["node_count"], payload["edge_count"], payload["directed_edge_count"]
+    if not edge:  # fibres: nothing is joined both ways
+        return f"{plural(n, one, many)}; {plural(e, 'edge')} {arrow}"
+    return (
+        f"{plural(n, one, many)}; {plural(e, 'undirected edge')} {edge}; {plural(d, 'directed edge')} {arrow}"
+    )
+
+
 def _cmd_graph(args: argparse.Namespace) -> int:
     from ..core.discriminants import validate_discriminant
     from ..core.parse import parse_integer
     from ..graphs import (
         cayley_graph,
         cycle_graph,
+        edge_count,
         fibre_graph,
         graph_title,
         graph_to_dot,
         graph_to_graphml,
         graph_to_json,
     )
-    from .conventions import CommandError, discriminant_of, emit, plural
+    from .conventions import CommandError, discriminant_of, emit
 
     D = validate_discriminant(discriminant_of(args))
     fmt = _format_of(args)
@@ -77,7 +99,8 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         "kind": args.kind,
         "discriminant": D,
         "node_count": C.number_of_nodes(),
-        "edge_count": C.number_of_edges(),
+        "edge_count": edge_count(C),
+        "directed_edge_count": edge_count(C, directed=True),
         "title": graph_title(C),
     }
     if args.kind == "cayley":
@@ -113,11 +136,7 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         except OSError as exc:
             raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
 
-    emit(
-        args,
-        payload,
-        f"wrote {fmt}: {graph_title(C)} ({plural(payload['node_count'], 'node')}, {plural(payload['edge_count'], 'edge')}) to {args.output}",
-    )
+    emit(args, payload, f"wrote {fmt}: {graph_title(C)} ({_counts_text(payload)}) to {args.output}")
     return 0
 
 
@@ -136,7 +155,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "one cycle per narrow class. --kind fibres (D = f^2 d_K, f > 1): the map "
             "Cl(D) -> Cl(d_K). Text formats go to stdout unless --output is given; the format "
             "is taken from the --output suffix when --format is not given. With --json one JSON "
-            "object is printed: a summary (node_count, edge_count, primes, output file) holding the graph "
+            "object is printed: a summary (node_count; edge_count, the undirected edges {x, x·[p]}, a "
+            "generator of order 2 joining each pair once; directed_edge_count, the arrows x -> x·[p] "
+            "of the node-link graph; primes; output file) holding the graph "
             "under 'graph' (node-link) or the GraphML/DOT text under 'text' when written to stdout. "
             "Python: formkit.cayley_graph(D, primes), formkit.cycle_graph(D), formkit.fibre_graph(D), "
             "formkit.graph_to_json / graph_to_graphml / graph_to_dot, formkit.graphs.plotting.save_picture."

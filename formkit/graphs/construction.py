@@ -31,6 +31,11 @@ until they generate the whole group.  This always stops (every class contains pr
 forms) and gives at most ``log₂ h`` primes, so the picture stays readable.
 :func:`usable_primes` lists every such prime up to a bound instead.
 
+Counting edges (:func:`edge_count`): the graphs are stored directed, one arrow
+``x → x·[p]`` per class and prime; an edge of the graph as it is usually counted is an
+unordered pair ``{x, x·[p]}``.  The two coincide except for a generator of order 2 (and a
+ρ-cycle of two forms), whose arrows come in opposite pairs: each pair is one edge.
+
 Reading structure back: :func:`generated_subgroup` (the classes reachable from the
 identity) and :func:`prime_orders` / :func:`cycle_lengths` (cycles of one prime).
 
@@ -72,6 +77,7 @@ __all__ = [
     "generated_subgroup",
     "cycle_lengths",
     "prime_orders",
+    "edge_count",
     "GRAPH_KINDS",
 ]
 
@@ -536,3 +542,32 @@ def prime_orders(C: nx.MultiDiGraph) -> dict[int, int]:
             x, n = step[x], n + 1
         out[p] = n
     return out
+
+
+def edge_count(C: nx.Graph, *, directed: bool = False) -> int:
+    """The number of edges of a graph built here, counted as undirected edges (default).
+
+    An undirected edge is an unordered pair ``{x, y}`` joined by one generator: for a
+    Cayley graph ``{x, x·[p]}`` for each class ``x`` and prime ``p`` — ``h`` edges for a
+    prime of order ``≥ 3``, ``h/2`` for one of order 2 (its arrows ``x → x·[p]`` and
+    ``x·[p] → x`` are one edge), ``h`` loops for a principal one; parallel edges of
+    different primes count separately.  For a cycle graph the generator is ρ (a cycle of
+    two forms is one edge), for a fibre graph each class of ``Cl(D)`` gives one edge to its
+    image.  ``directed=True`` counts the arrows stored in the graph instead
+    (``C.number_of_edges()``, the ``edges`` of its node-link JSON).
+
+    Examples
+    --------
+    >>> C = cayley_graph(-84)              # C2 × C2, primes 2 and 3 of order 2
+    >>> edge_count(C), edge_count(C, directed=True)
+    (4, 8)
+    >>> edge_count(cayley_graph(-23, [2]))  # C3: a triangle
+    3
+    """
+    if directed:
+        return int(C.number_of_edges())
+    if not C.is_directed():
+        return int(C.number_of_edges())
+    arrows = set(C.edges(keys=True)) if C.is_multigraph() else {(u, v, None) for u, v in C.edges()}
+    both_ways = sum(1 for u, v, k in arrows if u != v and (v, u, k) in arrows)
+    return len(arrows) - both_ways // 2

@@ -26,7 +26,7 @@ import json
 import networkx as nx
 
 from ..errors import FormkitError
-from .labels import genus_label, graph_title, node_label
+from .labels import form_label, genus_label, graph_title, node_label
 
 __all__ = [
     "graph_to_json",
@@ -171,7 +171,7 @@ def graph_to_dot(C: nx.Graph) -> str:
     """The graph as Graphviz DOT text (written here; Graphviz is not needed).
 
     Every id and value is double-quoted with ``\\`` and ``"`` escaped.  Nodes are
-    labelled ``[a,b,c]`` and filled by genus; edges are labelled and coloured by prime
+    labelled ``(a, b, c)`` and filled by genus; edges are labelled and coloured by prime
     (Cayley graphs) or by ``t`` of the matrix (cycle graphs).
 
     Examples
@@ -181,7 +181,7 @@ def graph_to_dot(C: nx.Graph) -> str:
     digraph "Cl(-23)" {
       graph [label="Cayley graph of Cl(-23) = C3, h = 3, primes 2", ...];
       node [style="filled", fontsize="10"];
-      "1,1,6" [label="[1,1,6]", order="1", genus="+", fillcolor="#8dd3c7"];
+      "1,1,6" [label="(1, 1, 6)", order="1", genus="+", fillcolor="#8dd3c7"];
     ...
       "1,1,6" -> "2,1,3" [label="2", prime="2", color="#1b9e77"];
     ...
@@ -199,7 +199,7 @@ def graph_to_dot(C: nx.Graph) -> str:
         f"  node {_dot_attrs({'style': 'filled', 'fontsize': 10})};",
     ]
     for n, d in C.nodes(data=True):
-        attrs = {"label": "[" + node_label(n) + "]", "order": d.get("order")}
+        attrs = {"label": form_label(n), "order": d.get("order")}
         attrs["genus"] = genus_label(d.get("genus"))
         if "bipartite" in d:
             attrs["discriminant"] = d["discriminant"]

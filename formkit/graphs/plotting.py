@@ -19,7 +19,7 @@ Layout (chosen to stay legible up to a few hundred classes):
   a ring of circles, its fibre (so the edges are spokes and never cross).
 
 Nodes are filled by genus (legend), edges coloured by prime (legend); node labels
-``[a,b,c]`` are drawn only for at most 40 nodes, and the principal class has a black
+``(a, b, c)`` are drawn only for at most 40 nodes, and the principal class has a black
 rim.
 
 References
@@ -289,7 +289,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     Parameters
     ----------
     labels : bool, optional
-        Write ``[a,b,c]`` beside each node; default: when there are at most 40 nodes.
+        Write ``(a, b, c)`` beside each node; default: when there are at most 40 nodes.
     title : str, optional
         Default :func:`formkit.graphs.graph_title`.
     edges : {"auto", "curved", "straight"}
@@ -307,7 +307,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     FormkitError
         If matplotlib is not installed, or ``edges`` is not one of the three styles.
     """
-    from .labels import graph_title, node_label
+    from .labels import form_label, graph_title
 
     if edges not in ("auto", "curved", "straight"):
         raise FormkitError(f"edges must be 'auto', 'curved' or 'straight', not {edges!r}")
@@ -409,7 +409,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             )
     if labels:
         fs = 9 if n <= 12 else (7 if n <= 24 else 6)
-        text = {v: "[" + node_label(v) + "]" for v in C.nodes}
+        text = {v: form_label(v) for v in C.nodes}
         offset = {v: (x, y - 0.09) for v, (x, y) in pos.items()}
         nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment="top")
     elif kind == "cycles" and C.graph.get("class_number", 0) <= 60:
@@ -421,7 +421,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             ax.text(
                 cx,
                 cy,
-                "[" + node_label(cast("tuple[int, int, int]", ring[0])) + "]",
+                form_label(cast("tuple[int, int, int]", ring[0])),
                 ha="center",
                 va="center",
                 fontsize=7,

@@ -44,6 +44,7 @@ from formkit.graphs import (
     cayley_graph,
     cycle_graph,
     cycle_lengths,
+    edge_count,
     fibre_graph,
     generated_subgroup,
     generating_primes,
@@ -200,6 +201,42 @@ def test_default_picture_has_at_most_rank_times_h_edges(D):
     for p in C.graph["primes"]:
         mine = [e for e in drawn if e[2] == p]
         assert len(mine) == (G.order // 2 if orders[p] == 2 else G.order)
+
+
+@given(D=st.one_of(NEG, POS), data=st.data())
+def test_edge_count_counts_unordered_pairs(D, data):
+    # brute force: the undirected edges of a Cayley graph are the unordered pairs {x, x·[p]},
+    # one set per prime (parallel edges of distinct primes count apart); the directed count
+    # is one arrow per class and prime
+    G = class_group(D)
+    avail = usable_primes(D, 40)
+    primes = data.draw(st.lists(st.sampled_from(avail), unique=True, max_size=4) if avail else st.just([]))
+    C = cayley_graph(D, primes)
+    pairs = {(p, frozenset((x, x * G.prime_form(p)))) for x in G for p in primes}
+    assert edge_count(C) == len(pairs)
+    assert edge_count(C, directed=True) == G.order * len(primes) == C.number_of_edges()
+    # per prime: h/2 for order 2, h otherwise (h loops for a principal prime form)
+    orders = prime_orders(C)
+    assert edge_count(C) == sum(G.order // 2 if orders[p] == 2 else G.order for p in primes)
+
+
+@pytest.mark.parametrize("D", [12, 40, 60, 96, 316, 1001])
+def test_edge_count_of_cycle_graphs(D):
+    # brute force: the unordered pairs {f, ρ(f)}; a ρ-cycle of two forms is one edge, a
+    # longer cycle of L forms L edges (networkx: the undirected simple graph has the same count)
+    Y = cycle_graph(D)
+    pairs = {frozenset((u, v)) for u, v in Y.edges()}
+    assert edge_count(Y) == len(pairs) == nx.Graph(Y).number_of_edges()
+    assert edge_count(Y, directed=True) == Y.number_of_nodes()
+
+
+def test_labels_write_forms_as_in_text():
+    # shared decision: forms are (a, b, c) in text and pictures; node keys stay "a,b,c"
+    from formkit.graphs import form_label
+
+    assert form_label((2, -1, 3)) == "(2, -1, 3)"
+    assert 'label="(2, -1, 3)"' in graph_to_dot(cayley_graph(-23, [2]))
+    assert "[2,-1,3]" not in graph_to_dot(cayley_graph(-23, [2]))
 
 
 @pytest.mark.parametrize("D", [-3, -4, -7, -8, -11, -19, -43, -67, -163, 5, 13])
