@@ -48,7 +48,7 @@ def _jsonable(v: object) -> object:
 
 def _relabelled(C: nx.Graph) -> nx.Graph:
     """A copy with text node keys ``"a,b,c"`` and JSON-ready attributes."""
-    H = C.__class__()
+    H = (nx.MultiDiGraph if C.is_multigraph() else nx.DiGraph)() if C.is_directed() else nx.Graph()
     H.graph.update({k: _jsonable(v) for k, v in C.graph.items()})
     for n, d in C.nodes(data=True):
         H.add_node(node_label(n), **{k: _jsonable(v) for k, v in d.items()})
@@ -108,6 +108,11 @@ def graph_from_json(text: str) -> nx.Graph:
         raise FormkitError(f"not a node-link JSON graph: {exc}") from exc
     mapping = {n: _key(n) for n in H.nodes}
     H = nx.relabel_nodes(H, mapping)
+    from .results import GRAPH_CLASSES
+
+    kind = GRAPH_CLASSES.get(str(H.graph.get("kind")))
+    if kind is not None and kind().is_multigraph() == H.is_multigraph():
+        H = kind(H)  # the class the builders return, with its displays
     for k in ("identity", "identity_maximal"):
         if k in H.graph:
             H.graph[k] = tuple(H.graph[k])

@@ -89,7 +89,7 @@ def picture_edges(C: nx.Graph) -> list[tuple[Hashable, Hashable, int | None, boo
     """
     if C.graph.get("kind") != "cayley":
         return [(u, v, None, True) for u, v in C.edges()]
-    from .construction import prime_orders
+    from .reading import prime_orders
 
     orders = prime_orders(C)
     out: list[tuple[Hashable, Hashable, int | None, bool]] = []
@@ -108,7 +108,7 @@ def picture_edges(C: nx.Graph) -> list[tuple[Hashable, Hashable, int | None, boo
 
 def _ring_prime(C: nx.Graph) -> int | None:
     """The prime of largest class order (smallest such prime), None without primes."""
-    from .construction import prime_orders
+    from .reading import prime_orders
 
     primes = list(C.graph.get("primes", []))
     if not primes:
@@ -450,7 +450,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     if len(genera) > len(shown):
         handles.append(Line2D([], [], linestyle="", label=f"… {len(genera)} genera in all"))
     if kind == "cayley":
-        from .construction import prime_orders
+        from .reading import prime_orders
 
         orders = prime_orders(C) if C.graph["primes"] else {}
         for p, colour in ecol.items():
