@@ -35,4 +35,12 @@ from .structure import __all__ as _structure_all
 from .theta import *  # noqa: F403
 from .theta import __all__ as _theta_all
 
-__all__ = [*_display_all, *_rows_all, *_parallel_all, *_store_all, *_theta_all, *_structure_all, *_statistics_all]
+__all__ = [
+    *_display_all,
+    *_rows_all,
+    *_parallel_all,
+    *_store_all,
+    *_theta_all,
+    *_structure_all,
+    *_statistics_all,
+]

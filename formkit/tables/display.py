@@ -92,7 +92,8 @@ def rows_html(rows: list[Any], provenance: str, shown: int = SHOWN_ROWS) -> str:
     real = _real(rows)
     head = "".join(f"<th>{html.escape(h)}</th>" for h in _head(real))
     body = "".join(
-        "<tr>" + "".join(f"<td>{html.escape(c)}</td>" for c in _cells(r, real)) + "</tr>" for r in rows[:shown]
+        "<tr>" + "".join(f"<td>{html.escape(c)}</td>" for c in _cells(r, real)) + "</tr>"
+        for r in rows[:shown]
     )
     more = len(rows) - min(len(rows), shown)
     tail = f"<p>… {more} more row{'s' if more != 1 else ''}</p>" if more > 0 else ""
@@ -144,7 +145,11 @@ class ClassNumberTable(list):
         first = "; ".join(
             f"{r.discriminant}: h = {r.class_number}"
             + (f", h⁺ = {r.class_number_narrow}" if r.discriminant > 0 else "")
-            + (f", {'Cl⁺ ' if r.discriminant > 0 else ''}{_structure(r.invariants)}" if r.invariants is not None else "")
+            + (
+                f", {'Cl⁺ ' if r.discriminant > 0 else ''}{_structure(r.invariants)}"
+                if r.invariants is not None
+                else ""
+            )
             for r in self[:5]
         )
         more = f"; … {n - 5} more" if n > 5 else ""

@@ -108,7 +108,11 @@ class GroupStatistic:
         }
 
     def _text(self) -> str:
-        pred = "no prediction" if self.predicted is None else f"predicted {self.predicted:.4f} ({self.prediction})"
+        pred = (
+            "no prediction"
+            if self.predicted is None
+            else f"predicted {self.predicted:.4f} ({self.prediction})"
+        )
         return f"{self.quantity}: {self.count} times, frequency {self.frequency:.4f}; {pred}"
 
     def __repr__(self) -> str:

@@ -301,7 +301,7 @@ class HurwitzNumbers:
         def frac(v: Fraction) -> str:
             return str(v.numerator) if v.denominator == 1 else rf"\tfrac{{{v.numerator}}}{{{v.denominator}}}"
 
-        vals = ",\ ".join(f"H({n}) = {frac(v)}" for n, v in self._first())
+        vals = r",\ ".join(f"H({n}) = {frac(v)}" for n, v in self._first())
         more = r",\ \ldots" if self.bound > 12 else ""
         return f"${vals}{more}$ ({self.provenance})"
 
