@@ -176,3 +176,41 @@ def test_picture_without_matplotlib_is_a_clean_error(monkeypatch, tmp_path, caps
     monkeypatch.setitem(sys.modules, "matplotlib", None)
     code, _out, err = run(["graph", "-23", "--output", str(tmp_path / "x.png")], capsys)
     assert code == 2 and "formkit[plot]" in err and len(err.splitlines()) == 1
+
+
+def test_picture_options_on_the_command_line(tmp_path, capsys):
+    base = ["graph", "-4620", "-o", str(tmp_path / "a.png"), "--json"]
+    code, out, _ = run(base, capsys)
+    plain = json.loads(out)
+    code, out, _ = run(
+        [*base, "--layout", "coordinates", "--labels", "logs", "--edge-style", "curved"], capsys
+    )
+    assert code == 0 and json.loads(out) == plain  # --json unaffected by the picture options
+    assert (tmp_path / "a.png").read_bytes()[:4] == b"\x89PNG"
+
+
+@pytest.mark.parametrize(
+    "argv, needle",
+    [
+        (["graph", "-23", "--layout", "circle"], "--layout shapes a picture (png, svg), not --format json"),
+        (
+            ["graph", "316", "--kind", "cycles", "--layout", "coordinates", "-o", "x.png"],
+            "needs --kind cayley",
+        ),
+        (["graph", "316", "--kind", "cycles", "--labels", "logs", "-o", "x.png"], "needs --kind cayley"),
+        (["graph", "-23", "--layout", "spiral", "-o", "x.png"], "invalid choice"),
+    ],
+)
+def test_picture_options_bad_use(argv, needle, tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    code, out, err = run(argv, capsys)
+    assert code == 2 and out == "" and needle in err and err.count("\n") == 1
+
+
+def test_cli_picture_choices_match_the_library():
+    from formkit.cli import graph as cli_graph
+    from formkit.graphs import plotting
+
+    assert cli_graph.LAYOUTS == plotting.LAYOUTS
+    assert cli_graph.LABELS == plotting.LABELS
+    assert cli_graph.EDGE_STYLES == plotting.EDGE_STYLES

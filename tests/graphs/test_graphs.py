@@ -18,6 +18,7 @@ from __future__ import annotations
 import io
 import itertools
 import json
+import math
 import re
 import sys
 from math import isqrt
@@ -562,3 +563,67 @@ def test_error_messages_name_value_and_rule():
         cayley_graph(-23, [4])
     with pytest.raises(DiscriminantError, match="fundamental"):
         fibre_graph(-23)
+
+
+# ---------------------------------------------------------------------------
+# the layout by discrete-log coordinates
+
+
+@pytest.mark.parametrize("D", [-4620, -16428, -420, -84, -23, -4, 316, -3 * 49])
+def test_coordinate_layout_places_classes_at_their_exponents(D):
+    # brute force in the group: the class at coordinates e is ∏ [b_i]^e_i for the basis b
+    # (the graph's primes when they form a basis, else the group's generators); distinct
+    # classes get distinct points
+    from formkit.graphs.layouts import _discrete_logs, coordinate_layout
+
+    G = class_group(D)
+    C = cayley_graph(D)
+    pos = coordinate_layout(C)
+    assert len(set(pos.values())) == len(pos) == G.order
+    radices, logs, _basis = _discrete_logs(C)
+    assert math.prod(radices) == G.order
+    primes = C.graph["primes"]
+    orders = prime_orders(C)
+    if primes and sorted(orders[p] for p in primes) == list(radices):
+        basis = [G.prime_form(p) for p in sorted(primes, key=lambda p: (orders[p], primes.index(p)))]
+    else:
+        basis = list(G.generators)
+    for v, e in logs.items():
+        x = G.identity
+        for b, k in zip(basis, e):
+            x = x * b**k
+        assert x == G(v)
+
+
+def test_coordinate_layout_unit_steps_on_the_default_grid():
+    # Cl(-4620) = C2 × C2 × C6 with the default primes 3, 5, 17 (orders 2, 2, 6): a basis,
+    # so every edge that does not wrap around is one unit step along one axis
+    from formkit.graphs.layouts import coordinate_layout
+
+    C = cayley_graph(-4620)
+    pos = coordinate_layout(C)
+    lengths = sorted({round(math.dist(pos[u], pos[v]), 6) for u, v in C.edges()})
+    assert lengths[0] == 1.0
+    # within a block of the grid a step of [17] moves one to the right (or wraps by 5 back)
+    for u, v, p in C.edges(data="prime"):
+        if p == 17:
+            dx, dy = pos[v][0] - pos[u][0], pos[v][1] - pos[u][1]
+            assert dy == 0 and dx in (1.0, -5.0)
+
+
+def test_coordinate_layout_needs_a_cayley_graph():
+    from formkit.graphs.layouts import coordinate_layout
+
+    with pytest.raises(FormkitError, match="needs a Cayley graph"):
+        coordinate_layout(cycle_graph(316))
+    with pytest.raises(FormkitError, match="layout must be one of"):
+        graph_layout(cayley_graph(-23), "spiral")
+
+
+@pytest.mark.parametrize("layout", ["rings", "coordinates", "circle"])
+@pytest.mark.parametrize("labels", ["forms", "orders", "logs", "none"])
+def test_picture_options(layout, labels, tmp_path):
+    pytest.importorskip("matplotlib")
+    path = tmp_path / "x.png"
+    save_picture(cayley_graph(-420), path, layout=layout, labels=labels, edges="straight")
+    assert path.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
