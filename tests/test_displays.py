@@ -177,3 +177,13 @@ def test_compact_product_display():
     h = c._repr_html_()
     assert "2 terms" in h and f"{math.log(1 + math.sqrt(2)):.8f}"[:8] in h
     assert c._repr_latex_().startswith("$\\text{compact product of 2 terms")
+
+
+def test_graph_str_counts_undirected_edges():
+    # Cl(-84) = C2 × C2 on the primes 2, 3 (order 2 each): the square, 4 edges (networkx's
+    # 2-cube), stored as 8 arrows
+    import networkx as nx
+
+    C = cayley_graph(-84)
+    assert nx.hypercube_graph(2).number_of_edges() == 4
+    assert str(C).endswith("4 nodes, 4 edges undirected, 8 directed; enumeration, unconditional")

@@ -67,6 +67,9 @@ class _ClassGraphDisplay:
         C: nx.Graph = self
         return f"<{graph_title(C)}: {_counts(C)}; {_how(C)}>"
 
+    def __str__(self) -> str:
+        return repr(self)[1:-1]
+
     def _repr_html_(self) -> str:
         from .labels import graph_title
 
