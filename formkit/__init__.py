@@ -56,14 +56,19 @@ _graphs_all = [
     "generated_subgroup",
     "cycle_lengths",
     "prime_orders",
+    "edge_count",
     "genus_label",
     "node_label",
+    "form_label",
     "graph_to_json",
     "graph_from_json",
     "graph_to_graphml",
     "graph_to_dot",
     "graph_title",
     "GRAPH_KINDS",
+    "CayleyGraph",
+    "CycleGraph",
+    "FibreGraph",
 ]
 
 __all__ = [

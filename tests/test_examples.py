@@ -136,7 +136,7 @@ def test_notebook_tour_runs_headless_with_rich_outputs():
         for o in c.outputs
         if o.get("output_type") == "execute_result"
     ]
-    assert len(results) == 7  # one per result cell of the tour
+    assert len(results) == 9  # one per result cell of the tour
     for data in results:
         assert "text/html" in data and "text/latex" in data, sorted(data)
     html = " ".join(d["text/html"] for d in results)
@@ -144,3 +144,8 @@ def test_notebook_tour_runs_headless_with_rich_outputs():
     assert "C36" in html and "unconditional" in html  # Cl(-16428) by enumeration
     assert "[GRH]" in html and "conditional on GRH" in latex  # the bsgs group is marked
     assert "(13, 2, 316) in Cl(-16428): order 36" in html and "<sup>2</sup>" in html
+    # the table of -60 ≤ D ≤ -3 (h(-23) = 3, h(-47) = 5: Buell's table) and the Cayley graph
+    # of Cl(-4620) drawn inline; the last cell draws a picture (a figure, no result)
+    assert "<td>-47</td><td>-47</td><td>1</td><td>5</td><td>C5</td>" in html
+    assert "C2 × C2 × C6" in html and "<svg" in html
+    assert "\\operatorname{Cl}(-4620)" in latex

@@ -68,7 +68,7 @@ from ..core.budget import check_cost
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _prime_forms
 from ..core.factorisation import prime_factorisation
-from ..core.progress import announces_slowness
+from ..core.progress import ProgressBar, announces_slowness, progress_bar
 from ..core.raw_reduction import _reduce_definite_raw
 from ..errors import DiscriminantError
 from .abelian_groups import BABY_STEP_LIMIT, BSGSStatistics, _order_from_multiple, _Structure, _Sylow
@@ -228,15 +228,29 @@ class _Ops:
 # orders
 
 
+#: Steps between two updates of the progress bar of an order search.
+_PROGRESS_EVERY = 1024
+
+
 def _order_multiple(ops: _Ops, x: Triple, center: int, spread: float, limit: int) -> int:
     """A positive ``k`` with ``x^k = 1``: baby steps ``x^j`` (0 ≤ j ≤ s) keyed by ``(a, |b|)``,
-    giant steps outwards from ``center`` in strides of ``2s+1``.  Exhaustive up to ``limit``."""
+    giant steps outwards from ``center`` in strides of ``2s+1``.  Exhaustive up to ``limit``.
+
+    A progress bar on stderr (:mod:`formkit.core.progress`) counts the steps; its total is
+    the ``s`` baby steps and the giant steps that cover the window ``spread`` around the
+    estimate, where the order lies unless the estimate of ``h`` is far off."""
+    s = int(min(BABY_STEP_LIMIT, max(4, math.isqrt(max(1, int(spread))))))
+    expected = s + int(spread / (2 * s + 1)) + 1
+    with progress_bar(total=expected, desc="baby-step giant-step (order of a class)", unit="step") as bar:
+        return _order_search(ops, x, center, s, limit, bar)
+
+
+def _order_search(ops: _Ops, x: Triple, center: int, s: int, limit: int, bar: ProgressBar) -> int:
     st = ops.stats
     st.searches += 1
     one = ops.one
     if x == one:
         return 1
-    s = int(min(BABY_STEP_LIMIT, max(4, math.isqrt(max(1, int(spread))))))
     table: dict[tuple[int, int], tuple[int, int]] = {(one[0], abs(one[1])): (0, one[1])}
     y = x
     for j in range(1, s + 1):
@@ -249,6 +263,8 @@ def _order_multiple(ops: _Ops, x: Triple, center: int, spread: float, limit: int
             i, bi = hit
             return j - i if bi == b else j + i
         table[key] = (j, b)
+        if j % _PROGRESS_EVERY == 0:
+            bar.update(_PROGRESS_EVERY)
         if j < s:
             y = ops.mul(y, x)
     st.baby_steps += s
@@ -262,6 +278,8 @@ def _order_multiple(ops: _Ops, x: Triple, center: int, spread: float, limit: int
     down_alive = True
     while True:
         st.giant_steps += 1
+        if st.giant_steps % _PROGRESS_EVERY == 0:
+            bar.update(_PROGRESS_EVERY)
         a, b, _ = up
         hit = table.get((a, abs(b)))
         if hit is not None:

@@ -21,6 +21,7 @@ __all__ = [
     "ENUMERATION_LIMIT",
     "REAL_ENUMERATION_LIMIT",
     "METHODS",
+    "SUMMARY_METHODS",
 ]
 
 #: The method names: the option values of ``formkit group --method`` and the ``"method"`` of
@@ -28,6 +29,12 @@ __all__ = [
 #: (:mod:`formkit.classgroups.subexponential`, fundamental D < 0 only) is never chosen by
 #: ``"auto"`` yet: at 18 digits it is slower than baby-step giant-step here (11 s CPU).
 METHODS = ("auto", "enumeration", "bsgs", "subexponential")
+#: The methods of :func:`class_number_summary` (``formkit class-number --method``): those of
+#: :func:`class_group` but ``"subexponential"``, and ``"infrastructure"`` (D > 0 only: the
+#: regulator by the infrastructure and ``h`` from the analytic interval, no structure).  The
+#: ``"method"`` of a summary is the method run: the one asked for, or under ``"auto"`` the one
+#: chosen.
+SUMMARY_METHODS = ("auto", "enumeration", "bsgs", "infrastructure")
 _METHOD_ALIASES = {"enumerate": "enumeration"}
 
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
@@ -46,6 +53,26 @@ _GROUP_CACHE: dict[int, ClassGroup] = {}
 def _infrastructure_path(D: int, method: str) -> bool:
     """True when ``D > 0`` is handled by :mod:`formkit.classgroups.infrastructure` (GRH) for ``method``."""
     return D > 0 and (method == "bsgs" or (method == "auto" and D > REAL_ENUMERATION_LIMIT))
+
+
+def _check_method(D: int, method: str, allowed: tuple[str, ...]) -> str:
+    """The method name (aliases resolved), or a FormkitError saying why it cannot run for ``D``."""
+    method = _METHOD_ALIASES.get(method, method)
+    if method not in allowed:
+        names = ", ".join(repr(m) for m in allowed)
+        extra = ""
+        if method == "infrastructure":
+            extra = (
+                " ('infrastructure' gives the class numbers and the regulator, not the structure: "
+                "class_number_summary, formkit class-number)"
+            )
+        raise FormkitError(f"method must be one of {names}, not {method!r}{extra}")
+    if method == "infrastructure" and D < 0:
+        raise FormkitError(
+            f"method 'infrastructure' (the regulator of a real quadratic order) needs D > 0, not "
+            f"D = {D}; for D < 0 use 'bsgs' (baby-step giant-step) or 'enumeration'"
+        )
+    return method
 
 
 def class_group(D: object, method: str = "auto") -> ClassGroup:
@@ -73,6 +100,9 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     ------
     DiscriminantError
         If ``D`` is not a discriminant.
+    FormkitError
+        If ``method`` is unknown (``"infrastructure"`` gives no structure: see
+        :func:`class_number_summary`).
 
     Examples
     --------
@@ -84,11 +114,7 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     (6, 3, (6,))
     """
     D = validate_discriminant(D)
-    method = _METHOD_ALIASES.get(method, method)
-    if method not in METHODS:
-        raise FormkitError(
-            f"method must be 'auto', 'enumeration', 'bsgs' or 'subexponential', not {method!r}"
-        )
+    method = _check_method(D, method, METHODS)
     if method == "subexponential":
         from .subexponential import class_group_subexponential
 
@@ -120,16 +146,21 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
 def class_number_summary(D: object, method: str = "auto", *, interval: bool = False) -> dict:
     """The class number(s) of ``D`` and, for ``D > 0``, the regulator, without the structure.
 
-    For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="bsgs"``) this is
-    :func:`formkit.classgroups.infrastructure.real_class_number`, which needs no cycle walk beyond
-    ``√(h·R)`` steps and so reaches much further than :func:`class_group`.
+    For ``D > 0`` above :data:`REAL_ENUMERATION_LIMIT` (or with ``method="infrastructure"``)
+    this is :func:`formkit.classgroups.infrastructure.real_class_number`, which needs no cycle
+    walk beyond ``√(h·R)`` steps and so reaches much further than :func:`class_group`.
 
     Parameters
     ----------
     D : int
         A non-square discriminant.
-    method : {"auto", "enumeration", "bsgs"}
-        As for :func:`class_group`.
+    method : {"auto", "enumeration", "bsgs", "infrastructure"}
+        ``"enumeration"`` and ``"bsgs"`` as for :func:`class_group` (for ``D > 0``, ``"bsgs"``
+        finds the structure by baby-step giant-step among the classes, which needs short
+        cycles of reduced forms); ``"infrastructure"`` (``D > 0``): the regulator by the
+        infrastructure and ``h`` from the analytic interval under GRH; ``"auto"``: enumeration
+        up to the limits of :func:`class_group`, then ``"bsgs"`` (``D < 0``) or
+        ``"infrastructure"`` (``D > 0``).  The ``"method"`` of the result is the method run.
     interval : bool
         Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
         (``D > 0``) from :func:`formkit.analytic.lseries.class_number_estimate` (primes up to
@@ -149,7 +180,8 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     DiscriminantError
         If ``D`` is not a non-square discriminant.
     FormkitError
-        If ``method`` is unknown, or (D > 0) the class number is not determined.
+        If ``method`` is unknown or cannot run for ``D`` (``"infrastructure"`` with
+        ``D < 0``), or (D > 0) the class number is not determined.
 
     Examples
     --------
@@ -158,14 +190,12 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     (6, 3, 1, 'enumeration')
     >>> class_number_summary(-23)["class_number"]
     3
+    >>> [class_number_summary(316, m)["method"] for m in ("bsgs", "infrastructure")]
+    ['bsgs', 'infrastructure']
     """
     D = validate_discriminant(D)
-    method = _METHOD_ALIASES.get(method, method)
-    if method not in METHODS:
-        raise FormkitError(
-            f"method must be 'auto', 'enumeration', 'bsgs' or 'subexponential', not {method!r}"
-        )
-    if _infrastructure_path(D, method):
+    method = _check_method(D, method, SUMMARY_METHODS)
+    if method == "infrastructure" or (method == "auto" and D > REAL_ENUMERATION_LIMIT):
         from .infrastructure import real_class_number
 
         r = real_class_number(D)

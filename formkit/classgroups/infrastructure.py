@@ -51,7 +51,7 @@ from math import isqrt
 from ..analytic.lseries import MAX_PRIME_BOUND, class_number_estimate, default_prime_bound
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _prime_forms
-from ..core.progress import announces_slowness
+from ..core.progress import announces_slowness, progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .abelian_groups import BSGSStatistics
 from .group import ClassGroup, Provenance
@@ -101,16 +101,10 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     doubles, each step adding a relative rounding error below 2^-52.
     ``hR_upper`` (an upper bound for ``h·R``) only sizes the baby range.
     """
-    from ..core.composition import _compose_parts
-    from ..core.raw_reduction import (
-        _is_reduced_indefinite_raw,
-        _principal_reduced_indefinite,
-        _rho_indefinite_raw,
-    )
+    from ..core.raw_reduction import _rho_indefinite_raw
 
     sq = isqrt(D)
     sD = math.sqrt(D)
-    a0, b0, c0 = _principal_reduced_indefinite(D)
 
     def step(a: int, b: int, c: int):
         na, nb, nc, _ = _rho_indefinite_raw(a, b, c, D, sq)
@@ -120,18 +114,37 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     # distance moved by reducing a composite, at most about ½·log D) never skips the range
     target = max(4 * math.log(D) + 20.0, math.sqrt(hR_upper) * 2.0)
     _check_regulator_cost(D, target)
+    with progress_bar(total=round(target, 1), desc="regulator: baby steps (distance)", unit="") as bar:
+        closed, baby, T, giant = _regulator_baby_steps(D, step, target, stats, hR_upper, bar)
+    if closed is not None:  # the whole principal cycle walked: R directly
+        return closed
+    # each giant step advances about T/2; R ≤ h·R ≤ hR_upper bounds their number
+    with progress_bar(
+        total=max(1, int(2 * hR_upper / max(T, 1.0)) + 1), desc="regulator: giant steps", unit="step"
+    ) as bar:
+        return _regulator_giant_steps(D, step, sq, baby, T, giant, stats, bar)
+
+
+def _regulator_baby_steps(D: int, step, target: float, stats: BSGSStatistics, hR_upper: float, bar):
+    """Baby steps of :func:`_regulator_infrastructure` up to distance ``target``:
+    ``((R, N(ε)) if the principal cycle closed first else None, baby table, distance reached,
+    giant form)``."""
+    from ..core.raw_reduction import _principal_reduced_indefinite
+
+    a0, b0, c0 = _principal_reduced_indefinite(D)
     baby: dict[tuple[int, int], tuple[float, int]] = {(1, b0): (0.0, 1)}
     a, b, c = a0, b0, c0
     dist, sign = 0.0, 1
     half = target / 2
     giant = (abs(half), (a0, b0, c0), 0.0, 1)  # the baby form nearest to distance target/2
+    shown = 0.0
     while dist < target:
         a, b, c, dd, s = step(a, b, c)
         dist += dd
         sign *= s
         stats.baby_steps += 1
         if (abs(a), b) == (1, b0):  # the whole cycle: R directly
-            return dist, sign
+            return (dist, sign), baby, dist, giant
         if len(baby) > REGULATOR_STEP_LIMIT:
             raise FormkitError(
                 f"the regulator of D = {D} needs more than {REGULATOR_STEP_LIMIT} stored reduction "
@@ -140,7 +153,17 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
         baby[(abs(a), b)] = (dist, sign)
         if abs(dist - half) < giant[0]:
             giant = (abs(dist - half), (a, b, c), dist, sign)
-    T = dist
+        if stats.baby_steps % 4096 == 0:
+            bar.update(round(dist - shown, 1))
+            shown = dist
+    return None, baby, dist, giant
+
+
+def _regulator_giant_steps(D: int, step, sq: int, baby, T: float, giant, stats: BSGSStatistics, bar):
+    """Giant steps of :func:`_regulator_infrastructure` until one lands among the baby steps."""
+    from ..core.composition import _compose_parts
+    from ..core.raw_reduction import _is_reduced_indefinite_raw
+
     # giant form: made positive (the same ideal)
     _gap, (ga, gb, gc), gdist, gsign = giant
     if ga < 0:
@@ -149,6 +172,8 @@ def _regulator_infrastructure(D: int, stats: BSGSStatistics, hR_upper: float) ->
     while True:
         stats.giant_steps += 1
         stats.operations += 1
+        if stats.giant_steps % 256 == 0:
+            bar.update(256)
         d1, v1, v2, r, B2, _ = _compose_parts(fa, fb, fc, ga, gb, gc)
         A = v1 * v2
         B = B2 + 2 * v2 * r
@@ -405,7 +430,7 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     Returns
     -------
     RealClassNumber
-        ``provenance.assumption == "GRH"``: the class number rests on the GRH interval
+        ``provenance.method == "infrastructure"``, ``provenance.assumption == "GRH"``: the class number rests on the GRH interval
         for ``L(1, χ_D)``; the regulator is unconditional (exact up to double-precision
         rounding); ``provenance.detail`` says what fixed ``h``.
 
@@ -493,7 +518,7 @@ def real_class_number(D: object, *, prime_bound: int | None = None) -> RealClass
     )
     if used:
         detail += f"; orders of the prime forms at {used[:8]}{'…' if len(used) > 8 else ''} divide h⁺"
-    prov = Provenance("infrastructure+analytic", False, "GRH", Pused, detail + f": h⁺ = {narrow}")
+    prov = Provenance("infrastructure", False, "GRH", Pused, detail + f": h⁺ = {narrow}")
     return RealClassNumber(D, narrow, h, R, norm, prov, stats)
 
 
@@ -643,7 +668,7 @@ def real_class_group(D: object, *, prime_bound: int | None = None) -> ClassGroup
             f"the cycles of reduced forms of D = {disc} are longer than {CYCLE_LIMIT} forms "
             f"(regulator {r.regulator:.6g}), too long for the class group structure here; "
             f"h⁺ = {narrow}, h = {r.class_number} and R come from real_class_number "
-            f"('formkit class-number {disc}')"
+            f"('formkit class-number {disc} --method infrastructure')"
         ) from None
 
     def canonical(x: Triple) -> Triple:

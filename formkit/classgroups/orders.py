@@ -388,6 +388,27 @@ class IdealClassGroup:
     def __repr__(self) -> str:
         return f"<class group Cl({self.narrow.discriminant}) of ideal classes ≅ {self.structure}; {self.narrow.provenance}>"
 
+    def _repr_html_(self) -> str:
+        import html
+
+        prov = self.narrow.provenance
+        mark = "" if prov.certified else " <b>[GRH]</b>"
+        gens = ", ".join(f"({g.a}, {g.b}, {g.c})" for g in self.generators) or "none"
+        D = self.narrow.discriminant
+        beside = (
+            f"; the narrow group Cl<sup>+</sup>({D}) ≅ {html.escape(self.narrow.structure)}" if D > 0 else ""
+        )
+        return (
+            f"Cl({D}) ≅ {html.escape(self.structure)} (ideal classes), h = {self.class_number}; "
+            f"generators {gens}{beside}{mark}<br><small>{html.escape(str(prov))}</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        prov = self.narrow.provenance
+        inv = r" \times ".join(f"C_{{{n}}}" for n in self.invariants) or "C_1"
+        cond = "" if prov.certified else rf"\ [\text{{conditional on {prov.assumption}}}]"
+        return rf"$\operatorname{{Cl}}({self.narrow.discriminant}) \cong {inv},\ h = {self.class_number}{cond}$ ({prov})"
+
 
 def _relations(G) -> list[list[int]]:
     r = len(G.invariants)
@@ -479,6 +500,27 @@ class OrderKernel:
         inv = " × ".join(f"C{n}" for n in self.invariants) or "C1"
         return (
             f"<kernel of Cl({self.discriminant}) → Cl(d_K): {inv}, {self.order} classes; {self.provenance}>"
+        )
+
+    def _repr_html_(self) -> str:
+        import html
+
+        inv = " × ".join(f"C{n}" for n in self.invariants) or "C1"
+        gens = ", ".join(f"({g.a}, {g.b}, {g.c})" for g in self.generators) or "none"
+        mark = "" if self.provenance.certified else " <b>[GRH]</b>"
+        return (
+            f"kernel of Cl({self.discriminant}) → Cl({discriminant_parts(self.discriminant)[0]}) ≅ {html.escape(inv)}, "
+            f"{self.order} classes; generators {gens}{mark}<br><small>{html.escape(str(self.provenance))}</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        inv = r" \times ".join(f"C_{{{n}}}" for n in self.invariants) or "C_1"
+        p = self.provenance
+        cond = "" if p.certified else rf"\ [\text{{conditional on {p.assumption}}}]"
+        return (
+            rf"$\ker\left(\operatorname{{Cl}}({self.discriminant}) \to "
+            rf"\operatorname{{Cl}}({discriminant_parts(self.discriminant)[0]})\right) "
+            rf"\cong {inv},\ {self.order}\text{{ classes}}{cond}$ ({p})"
         )
 
 

@@ -9,6 +9,11 @@ import sys
 
 FORMATS = ("json", "graphml", "dot", "png", "svg")
 TEXT_FORMATS = ("json", "graphml", "dot")
+# the picture options of formkit.graphs.plotting (LAYOUTS, LABELS, EDGE_STYLES), written out
+# here so that building the parser does not import networkx; a test checks they agree
+LAYOUTS = ("rings", "coordinates", "circle")
+LABELS = ("auto", "forms", "orders", "logs", "none")
+EDGE_STYLES = ("auto", "curved", "straight")
 
 
 def _parse_primes(text: str) -> list[int]:
@@ -40,19 +45,41 @@ def _format_of(args: argparse.Namespace) -> str:
     return "json"
 
 
+#: What the nodes and the edges of each kind of graph are, for the summary line.
+_COUNTED = {
+    "cayley": ("class", "classes", "{x, x·[p]}", "x → x·[p]"),
+    "cycles": ("reduced form", "reduced forms", "{f, ρ(f)}", "f → ρ(f)"),
+    "fibres": ("class", "classes", "", "x → image of x"),
+}
+
+
+def _counts_text(payload: dict) -> str:
+    """``24 classes; 48 undirected edges {x, x·[p]}; 72 directed edges x → x·[p]``."""
+    from .conventions import plural
+
+    one, many, edge, arrow = _COUNTED[payload["kind"]]
+    n, e, d = payload["node_count"], payload["edge_count"], payload["directed_edge_count"]
+    if not edge:  # fibres: nothing is joined both ways
+        return f"{plural(n, one, many)}; {plural(e, 'edge')} {arrow}"
+    return (
+        f"{plural(n, one, many)}; {plural(e, 'undirected edge')} {edge}; {plural(d, 'directed edge')} {arrow}"
+    )
+
+
 def _cmd_graph(args: argparse.Namespace) -> int:
     from ..core.discriminants import validate_discriminant
     from ..core.parse import parse_integer
     from ..graphs import (
         cayley_graph,
         cycle_graph,
+        edge_count,
         fibre_graph,
         graph_title,
         graph_to_dot,
         graph_to_graphml,
         graph_to_json,
     )
-    from .conventions import CommandError, discriminant_of, emit, plural
+    from .conventions import CommandError, discriminant_of, emit
 
     D = validate_discriminant(discriminant_of(args))
     fmt = _format_of(args)
@@ -60,6 +87,18 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         raise CommandError(f"--format {fmt} writes a picture: give a file with --output FILE.{fmt}")
     if args.kind != "cayley" and (args.primes is not None or args.bound is not None):
         raise CommandError(f"--primes and --bound choose the edges of --kind cayley, not --kind {args.kind}")
+    picture = {"layout": args.layout, "labels": args.labels, "edge_style": args.edge_style}
+    given = [f"--{k.replace('_', '-')}" for k, v in picture.items() if v is not None]
+    if given and fmt in TEXT_FORMATS:
+        verb = "shapes" if len(given) == 1 else "shape"
+        raise CommandError(f"{' and '.join(given)} {verb} a picture (png, svg), not --format {fmt}")
+    if args.layout == "coordinates" and args.kind != "cayley":
+        raise CommandError(
+            "--layout coordinates places classes by their discrete logarithms: it needs --kind cayley, "
+            f"not --kind {args.kind}"
+        )
+    if args.labels == "logs" and args.kind != "cayley":
+        raise CommandError(f"--labels logs (discrete logarithms) needs --kind cayley, not --kind {args.kind}")
     if args.kind == "cayley":
         primes = _parse_primes(args.primes) if args.primes is not None else None
         bound = parse_integer(args.bound, "--bound") if args.bound is not None else None
@@ -77,7 +116,8 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         "kind": args.kind,
         "discriminant": D,
         "node_count": C.number_of_nodes(),
-        "edge_count": C.number_of_edges(),
+        "edge_count": edge_count(C),
+        "directed_edge_count": edge_count(C, directed=True),
         "title": graph_title(C),
     }
     if args.kind == "cayley":
@@ -109,15 +149,18 @@ def _cmd_graph(args: argparse.Namespace) -> int:
         from ..graphs.plotting import save_picture
 
         try:
-            save_picture(C, args.output, fmt)
+            save_picture(
+                C,
+                args.output,
+                fmt,
+                labels=args.labels or "auto",
+                edges=args.edge_style or "auto",
+                layout=args.layout or "rings",
+            )
         except OSError as exc:
             raise CommandError(f"cannot write {args.output!r}: {exc.strerror}") from exc
 
-    emit(
-        args,
-        payload,
-        f"wrote {fmt}: {graph_title(C)} ({plural(payload['node_count'], 'node')}, {plural(payload['edge_count'], 'edge')}) to {args.output}",
-    )
+    emit(args, payload, f"wrote {fmt}: {graph_title(C)} ({_counts_text(payload)}) to {args.output}")
     return 0
 
 
@@ -136,16 +179,20 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "one cycle per narrow class. --kind fibres (D = f^2 d_K, f > 1): the map "
             "Cl(D) -> Cl(d_K). Text formats go to stdout unless --output is given; the format "
             "is taken from the --output suffix when --format is not given. With --json one JSON "
-            "object is printed: a summary (node_count, edge_count, primes, output file) holding the graph "
+            "object is printed: a summary (node_count; edge_count, the undirected edges {x, x·[p]}, a "
+            "generator of order 2 joining each pair once; directed_edge_count, the arrows x -> x·[p] "
+            "of the node-link graph; primes; output file) holding the graph "
             "under 'graph' (node-link) or the GraphML/DOT text under 'text' when written to stdout. "
             "Python: formkit.cayley_graph(D, primes), formkit.cycle_graph(D), formkit.fibre_graph(D), "
-            "formkit.graph_to_json / graph_to_graphml / graph_to_dot, formkit.graphs.plotting.save_picture."
+            "formkit.graph_to_json / graph_to_graphml / graph_to_dot, "
+            "formkit.graphs.plotting.save_picture(C, file, layout=..., labels=..., edges=...)."
         ),
         epilog=(
             "examples:\n"
             "  formkit graph -23 --primes 2\n"
             "  formkit graph -23 --primes 2 --format dot\n"
             "  formkit graph -4620 --bound 20 --output cl4620.png\n"
+            "  formkit graph -4620 --layout coordinates --labels logs --output cl4620-grid.png\n"
             "  formkit graph 316 --kind cycles --format graphml --output cycles.graphml\n"
             "  formkit graph -207 --kind fibres"
         ),
@@ -170,6 +217,25 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="which graph (default cayley)",
     )
     p.add_argument("--format", choices=FORMATS, help="output format (default: from --output, else json)")
+    p.add_argument(
+        "--layout",
+        choices=LAYOUTS,
+        help="pictures: rings (default; the cosets of the largest cyclic subgroup as rings), "
+        "coordinates (--kind cayley: each class at its discrete logarithm, a circle for a cyclic "
+        "group, a grid of the two largest factors, blocks for the others), circle (one circle)",
+    )
+    p.add_argument(
+        "--labels",
+        choices=LABELS,
+        help="pictures: write beside each node its form (a, b, c), its order, its discrete "
+        "logarithm (logs, --kind cayley) or nothing (none); default auto: forms up to 40 nodes",
+    )
+    p.add_argument(
+        "--edge-style",
+        choices=EDGE_STYLES,
+        help="pictures: curved arrows, straight arrows (faster for hundreds of edges), or auto "
+        "(default: straight above 60 nodes)",
+    )
     p.add_argument("--output", "-o", metavar="FILE", help="write to FILE (needed for png and svg)")
     p.set_defaults(handler=_cmd_graph)
 

@@ -138,7 +138,7 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
     from .conventions import CommandError, emit
 
     if args.db is not None and (start is None) == (stop is None):
-        rows = query_table(args.db, start=start, stop=stop)
+        rows: list = query_table(args.db, start=start, stop=stop)
         if table_info(args.db)["meta"].get("invariants") != "1":
             raise CommandError(f"{args.db} was built without invariants; p-ranks need them")
         source = f"rows of {args.db}"

@@ -46,7 +46,7 @@ from .arith import as_int, gcd, is_probable_prime, kronecker, xgcd
 from .discriminants import discriminant_parts, validate_discriminant
 from .factorisation import prime_factorisation
 from .forms import Form, FormLike, as_form
-from .quadratic_numbers import QuadraticNumber
+from .quadratic_numbers import QuadraticNumber, _latex_text
 from .quadratic_orders import Order
 
 __all__ = [
@@ -308,7 +308,7 @@ class QuadraticIdeal:
     def _repr_html_(self) -> str:
         return (
             f"ideal {html.escape(self.text())} of {html.escape(self.order.ring_text)}: norm {self.norm}, "
-            f"form {html.escape(str(self.form.to_list()))}"
+            f"form ({self.form.a}, {self.form.b}, {self.form.c})"
         )
 
 
@@ -506,7 +506,7 @@ class PrimeIdeals:
         return html.escape(self.statement())
 
     def _repr_latex_(self) -> str:
-        return r"\text{" + self.statement().replace("√", r"\sqrt{}") + "}"
+        return _latex_text(self.statement())
 
 
 def prime_ideals_above(D: object, p: object) -> PrimeIdeals:
@@ -576,7 +576,16 @@ class IdealFactorization:
         return f"IdealFactorization({self.ideal.text()} = {self.text()})"
 
     def _repr_html_(self) -> str:
-        return html.escape(f"{self.ideal.text()} = {self.text()}")
+        return (
+            html.escape(f"{self.ideal.text()} = {self.text()}")
+            + "<br><small>verified by multiplying back</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        if not self.factors:
+            return "$" + self.ideal._repr_latex_().strip("$") + r" = (1)$"
+        parts = [P._repr_latex_().strip("$") + (f"^{{{e}}}" if e > 1 else "") for _p, P, e in self.factors]
+        return "$" + self.ideal._repr_latex_().strip("$") + " = " + r" \cdot ".join(parts) + "$"
 
 
 def factor_ideal(ideal: QuadraticIdeal) -> IdealFactorization:

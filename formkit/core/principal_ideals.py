@@ -49,7 +49,7 @@ from ..errors import FormkitError
 from .arith import isqrt
 from .discriminants import fundamental_unit, validate_discriminant
 from .ideals import QuadraticIdeal, principal_ideal
-from .quadratic_numbers import QuadraticNumber
+from .quadratic_numbers import QuadraticNumber, _latex_text
 
 __all__ = ["CompactProduct", "PrincipalityResult", "principal_generator", "EXPLICIT_LIMIT", "MAX_CYCLE_WALK"]
 
@@ -135,6 +135,17 @@ class CompactProduct:
     def __repr__(self) -> str:
         return f"CompactProduct(D={self.discriminant}, {len(self.terms)} terms, log|γ| ≈ {float(self.log_abs(15)):.6g})"
 
+    def _repr_html_(self) -> str:
+        return (
+            f"compact product of {len(self.terms)} terms, log|γ| ≈ {float(self.log_abs(15)):.10g}, "
+            f"N(γ) sign {self.norm_sign:+d}<br><small>{html.escape(self.text()[:400])}</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        return _latex_text(
+            f"compact product of {len(self.terms)} terms, log|γ| ≈ {float(self.log_abs(15)):.10g}"
+        )
+
 
 class PrincipalityResult:
     """Whether an ideal is principal, with a generator; how it was decided.
@@ -205,6 +216,9 @@ class PrincipalityResult:
 
     def _repr_html_(self) -> str:
         return html.escape(self.statement())
+
+    def _repr_latex_(self) -> str:
+        return _latex_text(self.statement())
 
 
 # -- steps on reduced ideals, with their multipliers ----------------------------------------------

@@ -44,16 +44,19 @@ __all__ = [
 ]
 
 _forced: bool | None = None
+_delay: float | None = None
 
 
-def set_progress(enabled: bool | None) -> None:
+def set_progress(enabled: bool | None, *, delay: float | None = None) -> None:
     """Turn progress output on (``True``), off (``False``) or back to automatic (``None``).
 
     Automatic means: shown when stderr is a terminal.  The command line calls
-    ``set_progress(False)`` for ``--quiet``.
+    ``set_progress(False)`` for ``--quiet``.  ``delay`` (seconds) replaces the delay of
+    every bar and notice until the next call (tests show bars at once with ``delay=0``).
     """
-    global _forced
+    global _forced, _delay
     _forced = enabled
+    _delay = delay
 
 
 def progress_enabled(stream: TextIO | None = None) -> bool:
@@ -76,6 +79,7 @@ class ProgressBar:
 
     def __init__(self, total: float | None, desc: str, unit: str, delay: float) -> None:
         self._bar: Any = None
+        delay = delay if _delay is None else _delay
         if progress_enabled():
             from tqdm import tqdm
 
@@ -143,6 +147,7 @@ def slow_notice(what: str, hint: str = "", after: float = 3.0) -> Iterator[None]
     if not progress_enabled():
         yield
         return
+    after = after if _delay is None else _delay
     done = threading.Event()
     start = time.monotonic()
 

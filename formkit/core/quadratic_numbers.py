@@ -206,6 +206,29 @@ class QuadraticNumber:
         body = _linear_text(P, Q, m, latex=True)
         return f"${body}$" if den == 1 else rf"$\frac{{{body}}}{{{den}}}$"
 
+    def _repr_html_(self) -> str:
+        import html
+
+        m = self.field_terms()[2]
+        return f"{html.escape(self.text())} in Q(√{m}) (order of discriminant {self._D})"
+
+
+def _latex_text(text: str) -> str:
+    r"""Plain text as LaTeX ``$\text{…}$``, the characters LaTeX reserves escaped.
+
+    >>> _latex_text("h_K = 1 & 50%")
+    '$\\text{h\\_K = 1 \\& 50\\%}$'
+    """
+    out = []
+    for ch in text:
+        if ch in "_%&#${}":
+            out.append("\\" + ch)
+        elif ch == "\\":
+            out.append(r"\textbackslash{}")
+        else:
+            out.append(ch)
+    return r"$\text{" + "".join(out) + "}$"
+
 
 def _linear_text(P: int, Q: int, m: int, *, latex: bool = False) -> str:
     root = rf"\sqrt{{{m}}}" if latex else f"√{m}"

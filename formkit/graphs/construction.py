@@ -31,6 +31,11 @@ until they generate the whole group.  This always stops (every class contains pr
 forms) and gives at most ``log₂ h`` primes, so the picture stays readable.
 :func:`usable_primes` lists every such prime up to a bound instead.
 
+Counting edges (:func:`edge_count`): the graphs are stored directed, one arrow
+``x → x·[p]`` per class and prime; an edge of the graph as it is usually counted is an
+unordered pair ``{x, x·[p]}``.  The two coincide except for a generator of order 2 (and a
+ρ-cycle of two forms), whose arrows come in opposite pairs: each pair is one edge.
+
 Reading structure back: :func:`generated_subgroup` (the classes reachable from the
 identity) and :func:`prime_orders` / :func:`cycle_lengths` (cycles of one prime).
 
@@ -54,14 +59,14 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 
-import networkx as nx
-
 from ..classgroups.dispatch import class_group
 from ..classgroups.group import ClassGroup, ClassGroupElement
 from ..core.arith import as_int, is_probable_prime, isqrt, kronecker, mpz, next_prime
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.forms import Form
 from ..errors import DiscriminantError, FormError, FormkitError, NotPrimeError
+from .reading import cycle_lengths, edge_count, generated_subgroup, prime_orders
+from .results import CayleyGraph, CycleGraph, FibreGraph
 
 __all__ = [
     "usable_primes",
@@ -72,6 +77,7 @@ __all__ = [
     "generated_subgroup",
     "cycle_lengths",
     "prime_orders",
+    "edge_count",
     "GRAPH_KINDS",
 ]
 
@@ -240,7 +246,7 @@ def cayley_graph(
     primes: Iterable[object] | None = None,
     *,
     bound: object | None = None,
-) -> nx.MultiDiGraph:
+) -> CayleyGraph:
     """The Cayley graph of ``Cl(D)`` for the classes of prime forms.
 
     Parameters
@@ -255,8 +261,9 @@ def cayley_graph(
 
     Returns
     -------
-    networkx.MultiDiGraph
-        Nodes ``(a, b, c)`` (canonical reduced forms) with attributes ``form``,
+    CayleyGraph
+        A :class:`networkx.MultiDiGraph` (with a readable ``repr`` and notebook displays,
+        :mod:`formkit.graphs.results`).  Nodes ``(a, b, c)`` (canonical reduced forms) with attributes ``form``,
         ``order``, ``genus``; for every node ``x`` and prime ``p`` one edge
         ``x → x·[p]`` with key ``p`` and attribute ``prime = p``.  Graph attributes:
         ``kind = "cayley"``, ``discriminant``, ``primes``, ``class_number``,
@@ -302,7 +309,7 @@ def cayley_graph(
                 plist.append(p)
     gens = [(p, _prime_class(G, p)) for p in plist]
     genus_of = _genus_function()
-    C = nx.MultiDiGraph(
+    C = CayleyGraph(
         kind="cayley",
         discriminant=D,
         primes=list(plist),
@@ -322,13 +329,13 @@ def cayley_graph(
     return C
 
 
-def cycle_graph(D: object) -> nx.DiGraph:
+def cycle_graph(D: object) -> CycleGraph:
     """The reduced forms of ``D > 0`` with the reduction operator ρ as edges.
 
     Returns
     -------
-    networkx.DiGraph
-        Nodes: every primitive reduced form ``(a, b, c)`` (attributes ``form``,
+    CycleGraph
+        A :class:`networkx.DiGraph`.  Nodes: every primitive reduced form ``(a, b, c)`` (attributes ``form``,
         ``class_form`` — the canonical form of its narrow class —, ``order`` and
         ``genus`` of that class).  Edges ``f → ρ(f)`` with ``matrix`` ``[[0, −1], [1, t]]``
         (``f·M = ρ(f)``).  One directed cycle per narrow class.  Graph attributes:
@@ -341,6 +348,7 @@ def cycle_graph(D: object) -> nx.DiGraph:
 
     Examples
     --------
+    >>> import networkx as nx
     >>> Y = cycle_graph(28)          # Q(√7): h = 1, N(8 + 3√7) = +1, so h⁺ = 2
     >>> Y.number_of_nodes(), nx.number_weakly_connected_components(Y)
     (8, 2)
@@ -359,7 +367,7 @@ def cycle_graph(D: object) -> nx.DiGraph:
     G = class_group(D)
     genus_of = _genus_function()
     sq, Dz = isqrt(D), mpz(D)
-    Y = nx.DiGraph(
+    Y = CycleGraph(
         kind="cycles",
         discriminant=D,
         class_number=G.order,
@@ -382,13 +390,13 @@ def cycle_graph(D: object) -> nx.DiGraph:
     return Y
 
 
-def fibre_graph(D: object) -> nx.DiGraph:
+def fibre_graph(D: object) -> FibreGraph:
     """The map ``Cl(D) → Cl(d_K)`` of an order of conductor ``f > 1``, as a graph of fibres.
 
     Returns
     -------
-    networkx.DiGraph
-        Nodes for the classes of both groups, keyed by canonical reduced forms (their
+    FibreGraph
+        A :class:`networkx.DiGraph`.  Nodes for the classes of both groups, keyed by canonical reduced forms (their
         discriminants differ, so the keys do not collide), with ``form``, ``order``,
         ``genus``, ``discriminant`` and ``bipartite`` (0 for ``Cl(D)``, 1 for
         ``Cl(d_K)``); the ``Cl(d_K)`` nodes also carry ``fibre_size``.  One edge from
@@ -427,7 +435,7 @@ def fibre_graph(D: object) -> nx.DiGraph:
     ratio, rem = divmod(G.order, GK.order)
     if rem:  # pragma: no cover - the map is onto (Cox Theorem 7.24)
         raise ArithmeticError(f"h({D}) = {G.order} is not a multiple of h({d_K}) = {GK.order}")
-    F = nx.DiGraph(
+    F = FibreGraph(
         kind="fibres",
         discriminant=D,
         fundamental_discriminant=d_K,
@@ -449,90 +457,3 @@ def fibre_graph(D: object) -> nx.DiGraph:
         F.add_edge(tuple(x.form), image)
         F.nodes[image]["fibre_size"] += 1
     return F
-
-
-# ---------------------------------------------------------------------------
-# reading structure back
-
-
-def _check_cayley(C: nx.Graph) -> None:
-    if C.graph.get("kind") != "cayley":
-        raise FormkitError(
-            f"this needs a Cayley graph from cayley_graph(), not a graph of kind {C.graph.get('kind')!r}"
-        )
-
-
-def _prime_edges(C: nx.Graph, p: int) -> dict[Triple, Triple]:
-    if p not in C.graph["primes"]:
-        raise FormkitError(f"the prime {p} labels no edge of this graph (its primes: {C.graph['primes']})")
-    return {u: v for u, v, q in C.edges(data="prime") if q == p}
-
-
-def generated_subgroup(C: nx.MultiDiGraph, primes: Iterable[int] | None = None) -> set[Triple]:
-    """The classes reachable from the identity along edges of ``primes`` (default: all).
-
-    In a Cayley graph this is the subgroup the classes of those primes generate
-    (the group is finite, so forward paths already give inverses).
-
-    Examples
-    --------
-    >>> C = cayley_graph(-420, [2, 3, 5])
-    >>> len(generated_subgroup(C)), len(generated_subgroup(C, [2, 3]))
-    (8, 4)
-    """
-    _check_cayley(C)
-    chosen = list(C.graph["primes"]) if primes is None else [as_int(p, "prime") for p in primes]
-    for p in chosen:
-        _prime_edges(C, p)  # checks p labels edges
-    H = nx.DiGraph()
-    H.add_nodes_from(C.nodes)
-    H.add_edges_from((u, v) for u, v, q in C.edges(data="prime") if q in chosen)
-    start = tuple(C.graph["identity"])
-    return {start} | nx.descendants(H, start)
-
-
-def cycle_lengths(C: nx.MultiDiGraph, p: int) -> list[int]:
-    """Lengths of the cycles formed by the edges of the prime ``p`` (sorted).
-
-    Each has length the order of ``[p]``; there are ``h / order`` of them.
-
-    Examples
-    --------
-    >>> cycle_lengths(cayley_graph(-420, [2]), 2)
-    [2, 2, 2, 2]
-    """
-    _check_cayley(C)
-    step = _prime_edges(C, as_int(p, "prime"))
-    seen: set[Triple] = set()
-    out = []
-    for start in step:
-        if start in seen:
-            continue
-        n, x = 0, start
-        while True:
-            seen.add(x)
-            x, n = step[x], n + 1
-            if x == start:
-                break
-        out.append(n)
-    return sorted(out)
-
-
-def prime_orders(C: nx.MultiDiGraph) -> dict[int, int]:
-    """The order of each prime's class: the length of its cycle through the identity.
-
-    Examples
-    --------
-    >>> prime_orders(cayley_graph(-71, [2, 3]))
-    {2: 7, 3: 7}
-    """
-    _check_cayley(C)
-    out = {}
-    start = tuple(C.graph["identity"])
-    for p in C.graph["primes"]:
-        step = _prime_edges(C, p)
-        n, x = 1, step[start]
-        while x != start:
-            x, n = step[x], n + 1
-        out[p] = n
-    return out

@@ -26,7 +26,7 @@ import json
 import networkx as nx
 
 from ..errors import FormkitError
-from .labels import genus_label, graph_title, node_label
+from .labels import form_label, genus_label, graph_title, node_label
 
 __all__ = [
     "graph_to_json",
@@ -48,7 +48,7 @@ def _jsonable(v: object) -> object:
 
 def _relabelled(C: nx.Graph) -> nx.Graph:
     """A copy with text node keys ``"a,b,c"`` and JSON-ready attributes."""
-    H = C.__class__()
+    H = (nx.MultiDiGraph if C.is_multigraph() else nx.DiGraph)() if C.is_directed() else nx.Graph()
     H.graph.update({k: _jsonable(v) for k, v in C.graph.items()})
     for n, d in C.nodes(data=True):
         H.add_node(node_label(n), **{k: _jsonable(v) for k, v in d.items()})
@@ -108,6 +108,11 @@ def graph_from_json(text: str) -> nx.Graph:
         raise FormkitError(f"not a node-link JSON graph: {exc}") from exc
     mapping = {n: _key(n) for n in H.nodes}
     H = nx.relabel_nodes(H, mapping)
+    from .results import GRAPH_CLASSES
+
+    kind = GRAPH_CLASSES.get(str(H.graph.get("kind")))
+    if kind is not None and kind().is_multigraph() == H.is_multigraph():
+        H = kind(H)  # the class the builders return, with its displays
     for k in ("identity", "identity_maximal"):
         if k in H.graph:
             H.graph[k] = tuple(H.graph[k])
@@ -171,7 +176,7 @@ def graph_to_dot(C: nx.Graph) -> str:
     """The graph as Graphviz DOT text (written here; Graphviz is not needed).
 
     Every id and value is double-quoted with ``\\`` and ``"`` escaped.  Nodes are
-    labelled ``[a,b,c]`` and filled by genus; edges are labelled and coloured by prime
+    labelled ``(a, b, c)`` and filled by genus; edges are labelled and coloured by prime
     (Cayley graphs) or by ``t`` of the matrix (cycle graphs).
 
     Examples
@@ -181,7 +186,7 @@ def graph_to_dot(C: nx.Graph) -> str:
     digraph "Cl(-23)" {
       graph [label="Cayley graph of Cl(-23) = C3, h = 3, primes 2", ...];
       node [style="filled", fontsize="10"];
-      "1,1,6" [label="[1,1,6]", order="1", genus="+", fillcolor="#8dd3c7"];
+      "1,1,6" [label="(1, 1, 6)", order="1", genus="+", fillcolor="#8dd3c7"];
     ...
       "1,1,6" -> "2,1,3" [label="2", prime="2", color="#1b9e77"];
     ...
@@ -199,7 +204,7 @@ def graph_to_dot(C: nx.Graph) -> str:
         f"  node {_dot_attrs({'style': 'filled', 'fontsize': 10})};",
     ]
     for n, d in C.nodes(data=True):
-        attrs = {"label": "[" + node_label(n) + "]", "order": d.get("order")}
+        attrs = {"label": form_label(n), "order": d.get("order")}
         attrs["genus"] = genus_label(d.get("genus"))
         if "bipartite" in d:
             attrs["discriminant"] = d["discriminant"]

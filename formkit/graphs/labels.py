@@ -12,6 +12,7 @@ import networkx as nx
 
 __all__ = [
     "node_label",
+    "form_label",
     "genus_label",
     "graph_title",
 ]
@@ -28,6 +29,17 @@ def node_label(node: Sequence[int]) -> str:
     '2,-1,3'
     """
     return ",".join(str(int(v)) for v in node)
+
+
+def form_label(node: Sequence[int]) -> str:
+    """A node ``(a, b, c)`` as a form is written in text: ``"(a, b, c)"`` (pictures, DOT labels).
+
+    Examples
+    --------
+    >>> form_label((2, -1, 3))
+    '(2, -1, 3)'
+    """
+    return "(" + ", ".join(str(int(v)) for v in node) + ")"
 
 
 def genus_label(symbol: Sequence[int] | None) -> str:

@@ -19,7 +19,7 @@ Layout (chosen to stay legible up to a few hundred classes):
   a ring of circles, its fibre (so the edges are spokes and never cross).
 
 Nodes are filled by genus (legend), edges coloured by prime (legend); node labels
-``[a,b,c]`` are drawn only for at most 40 nodes, and the principal class has a black
+``(a, b, c)`` are drawn only for at most 40 nodes, and the principal class has a black
 rim.
 
 References
@@ -43,6 +43,9 @@ from .colours import edge_colours, genus_colours, genus_key
 __all__ = [
     "picture_edges",
     "graph_layout",
+    "LAYOUTS",
+    "LABELS",
+    "EDGE_STYLES",
     "draw_graph",
     "save_picture",
     "PICTURE_FORMATS",
@@ -50,6 +53,16 @@ __all__ = [
 
 #: Picture formats written by :func:`save_picture`.
 PICTURE_FORMATS = ("png", "svg")
+#: Layouts of :func:`graph_layout`: ``"rings"`` (default: cosets of the largest cyclic
+#: subgroup as rings), ``"coordinates"`` (Cayley graphs: the classes at their discrete
+#: logarithms, :mod:`formkit.graphs.layouts`), ``"circle"`` (every node on one circle).
+LAYOUTS = ("rings", "coordinates", "circle")
+#: Node labels of :func:`draw_graph`: ``"auto"`` (forms for at most 40 nodes), ``"forms"``
+#: (the reduced form ``(a, b, c)``), ``"orders"`` (the order of the class), ``"logs"``
+#: (Cayley graphs: the discrete logarithm), ``"none"``.
+LABELS = ("auto", "forms", "orders", "logs", "none")
+#: Edge styles of :func:`draw_graph`.
+EDGE_STYLES = ("auto", "curved", "straight")
 
 Point = tuple[float, float]
 
@@ -89,7 +102,7 @@ def picture_edges(C: nx.Graph) -> list[tuple[Hashable, Hashable, int | None, boo
     """
     if C.graph.get("kind") != "cayley":
         return [(u, v, None, True) for u, v in C.edges()]
-    from .construction import prime_orders
+    from .reading import prime_orders
 
     orders = prime_orders(C)
     out: list[tuple[Hashable, Hashable, int | None, bool]] = []
@@ -108,7 +121,7 @@ def picture_edges(C: nx.Graph) -> list[tuple[Hashable, Hashable, int | None, boo
 
 def _ring_prime(C: nx.Graph) -> int | None:
     """The prime of largest class order (smallest such prime), None without primes."""
-    from .construction import prime_orders
+    from .reading import prime_orders
 
     primes = list(C.graph.get("primes", []))
     if not primes:
@@ -207,8 +220,10 @@ def _fibre_layout(C: nx.Graph) -> dict[Hashable, Point]:
     return pos
 
 
-def graph_layout(C: nx.Graph) -> dict[Hashable, Point]:
+def graph_layout(C: nx.Graph, layout: str = "rings") -> dict[Hashable, Point]:
     """Node positions for a graph of :mod:`formkit.graphs` (see the module docstring).
+
+    ``layout`` is one of :data:`LAYOUTS`; ``"coordinates"`` needs a Cayley graph.
 
     Examples
     --------
@@ -217,9 +232,18 @@ def graph_layout(C: nx.Graph) -> dict[Hashable, Point]:
     >>> [tuple(round(c, 3) for c in pos[n]) for n in [(1, 1, 6), (2, 1, 3), (2, -1, 3)]]
     [(0.0, 1.0), (0.866, -0.5), (-0.866, -0.5)]
     """
+    if layout not in LAYOUTS:
+        raise FormkitError(f"layout must be one of {', '.join(LAYOUTS)}, not {layout!r}")
     kind = C.graph.get("kind")
     if C.number_of_nodes() == 0:
         return {}
+    if layout == "coordinates":
+        from .layouts import coordinate_layout
+
+        return coordinate_layout(C)
+    if layout == "circle":
+        nodes = sorted(C.nodes, key=lambda v: (v != tuple(C.graph.get("identity", ())), v))
+        return dict(zip(nodes, _ring(len(nodes), (0.0, 0.0), 1.0)))
     if kind == "cayley":
         return _place_rings(_cayley_rings(C), False)
     if kind == "cycles":
@@ -283,13 +307,48 @@ def _fast_arrows(ax, pos, el, colour, width, alpha, node_size, scale) -> None:
         )
 
 
-def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = None, edges: str = "auto"):
+def _label_kind(labels: bool | str | None, n: int) -> str:
+    if labels is None or labels == "auto":
+        return "forms" if n <= 40 else "none"
+    if labels is True or labels is False:
+        return "forms" if labels else "none"
+    if labels not in LABELS:
+        raise FormkitError(f"labels must be one of {', '.join(LABELS)}, not {labels!r}")
+    return str(labels)
+
+
+def _label_texts(C: nx.Graph, kind: str) -> dict[Hashable, str]:
+    from .labels import form_label
+
+    if kind == "forms":
+        return {v: form_label(v) for v in C.nodes}
+    if kind == "orders":
+        return {v: str(d.get("order", "?")) for v, d in C.nodes(data=True)}
+    if C.graph.get("kind") != "cayley":
+        raise FormkitError("discrete-logarithm labels need a Cayley graph")
+    from .layouts import _discrete_logs
+
+    _inv, logs, _basis = _discrete_logs(C)
+    return {v: "(" + ", ".join(str(x) for x in e) + ")" for v, e in logs.items()}
+
+
+def draw_graph(
+    C: nx.Graph,
+    *,
+    labels: bool | str | None = None,
+    title: str | None = None,
+    edges: str = "auto",
+    layout: str = "rings",
+):
     """Draw a graph of :mod:`formkit.graphs` on a new matplotlib ``Figure`` (no pyplot state).
 
     Parameters
     ----------
-    labels : bool, optional
-        Write ``[a,b,c]`` beside each node; default: when there are at most 40 nodes.
+    labels : str or bool, optional
+        One of :data:`LABELS`: ``"forms"`` writes ``(a, b, c)`` beside each node,
+        ``"orders"`` the order of the class, ``"logs"`` its discrete logarithm, ``"none"``
+        nothing; default ``"auto"``: forms when there are at most 40 nodes (``True`` and
+        ``False`` mean ``"forms"`` and ``"none"``).
     title : str, optional
         Default :func:`formkit.graphs.graph_title`.
     edges : {"auto", "curved", "straight"}
@@ -297,6 +356,8 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
         apart); ``"straight"``: straight arrows drawn as one matplotlib ``quiver`` per
         colour, several times faster for hundreds of edges (see
         ``benchmarks/bench_graphs.py``); ``"auto"``: straight above 60 nodes.
+    layout : str
+        One of :data:`LAYOUTS` (:func:`graph_layout`).
 
     Returns
     -------
@@ -307,17 +368,18 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     FormkitError
         If matplotlib is not installed, or ``edges`` is not one of the three styles.
     """
-    from .labels import graph_title, node_label
+    from .labels import form_label, graph_title
 
-    if edges not in ("auto", "curved", "straight"):
+    if edges not in EDGE_STYLES:
         raise FormkitError(f"edges must be 'auto', 'curved' or 'straight', not {edges!r}")
 
-    _mpl, Figure, Line2D = _matplotlib()
     n = C.number_of_nodes()
     kind = C.graph.get("kind")
-    pos = graph_layout(C)
-    if labels is None:
-        labels = n <= 40
+    pos = graph_layout(C, layout)
+    label_kind = _label_kind(labels, n)
+    text = _label_texts(C, label_kind) if label_kind != "none" else {}
+    labels = bool(text)
+    _mpl, Figure, Line2D = _matplotlib()
     side = 6.0 if n <= 12 else (8.0 if n <= 60 else 10.0)
     fig = Figure(figsize=(side + 2.5, side))
     box = (0.02, 0.02, side / (side + 2.5) - 0.02, 0.9)
@@ -326,9 +388,18 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     ax.set_aspect("equal")
     xs = [p[0] for p in pos.values()] or [0.0]
     ys = [p[1] for p in pos.values()] or [0.0]
-    pad = 0.25
+    spacing = 1.0  # the rings are laid out for labels 0.09 below a node
+    if layout == "coordinates" and n > 1:  # a grid: labels scaled to its mesh
+        pts = list(pos.values())
+        mesh = min(math.dist(p, q) for i, p in enumerate(pts) for q in pts[i + 1 :]) if n <= 400 else 0.1
+        spacing = min(1.0, 3.0 * mesh)
+    pad = 0.6 if (layout == "coordinates" and spacing >= 1.0) or (layout == "circle" and labels) else 0.25
+    if layout == "coordinates" and len(C.graph.get("invariants", ())) == 1 and labels:
+        pad = 0.6  # a circle with its labels outside
     xlim = (min(xs) - pad, max(xs) + pad)
-    ylim = (min(ys) - pad - (0.1 if labels else 0), max(ys) + pad)
+    # a grid: room above the top row for the bowed edges that wrap around
+    top = 0.5 if layout == "coordinates" and spacing >= 1.0 else 0.0
+    ylim = (min(ys) - pad - (0.1 if labels else 0), max(ys) + pad + top)
     ax.set_xlim(*xlim)
     ax.set_ylim(*ylim)
 
@@ -369,9 +440,13 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             drawn = [(u, v, d) for u, v, q, d in picture_edges(C) if q == p]
             el = [(u, v) for u, v, _d in drawn]
             directed = all(d for _u, _v, d in drawn)
-            draw_edges(
-                el, ecol[p], 0.06 if p == p1 else 0.1 + 0.1 * i, 0.75 if fast and p != p1 else 1.0, directed
-            )
+            alpha = 0.75 if fast and p != p1 else 1.0
+            if layout == "coordinates":  # unit steps straight, the steps that wrap around bowed
+                short = [(u, v) for u, v in el if math.dist(pos[u], pos[v]) <= 1.01]
+                draw_edges(short, ecol[p], 0.0, alpha, directed)
+                draw_edges([e for e in el if e not in short], ecol[p], 0.25, alpha, directed)
+                continue
+            draw_edges(el, ecol[p], 0.06 if p == p1 else 0.1 + 0.1 * i, alpha, directed)
     else:
         draw_edges(list(C.edges()), "#555555", 0.08 if kind == "cycles" else 0.0)
 
@@ -409,9 +484,31 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             )
     if labels:
         fs = 9 if n <= 12 else (7 if n <= 24 else 6)
-        text = {v: "[" + node_label(v) + "]" for v in C.nodes}
-        offset = {v: (x, y - 0.09) for v, (x, y) in pos.items()}
-        nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment="top")
+        on_circle = layout != "rings" and all(abs(math.hypot(*p) - 1) < 1e-9 for p in pos.values())
+        if on_circle and n > 1:  # a circle: each label outside its node, pointing away
+            for v, (x, y) in pos.items():
+                ax.text(
+                    1.09 * x,
+                    1.09 * y,
+                    text[v],
+                    fontsize=fs,
+                    ha="left" if x > 0.15 else ("right" if x < -0.15 else "center"),
+                    va="bottom" if y > 0.15 else ("top" if y < -0.15 else "center"),
+                )
+        elif layout == "coordinates" and spacing >= 1.0:  # a grid: below and above in turn
+            for parity, va, dy in ((0, "top", -0.16), (1, "bottom", 0.16)):
+                chosen = {v: t for v, t in text.items() if round(pos[v][0]) % 2 == parity}
+                nx.draw_networkx_labels(
+                    C,
+                    {v: (pos[v][0], pos[v][1] + dy) for v in chosen},
+                    labels=chosen,
+                    ax=ax,
+                    font_size=fs,
+                    verticalalignment=va,
+                )
+        else:
+            offset = {v: (x, y - 0.09 * spacing) for v, (x, y) in pos.items()}
+            nx.draw_networkx_labels(C, offset, labels=text, ax=ax, font_size=fs, verticalalignment="top")
     elif kind == "cycles" and C.graph.get("class_number", 0) <= 60:
         for ring in _cycle_rings(C):
             cx = sum(pos[v][0] for v in ring) / len(ring)
@@ -421,7 +518,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
             ax.text(
                 cx,
                 cy,
-                "[" + node_label(cast("tuple[int, int, int]", ring[0])) + "]",
+                form_label(cast("tuple[int, int, int]", ring[0])),
                 ha="center",
                 va="center",
                 fontsize=7,
@@ -450,7 +547,7 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
     if len(genera) > len(shown):
         handles.append(Line2D([], [], linestyle="", label=f"… {len(genera)} genera in all"))
     if kind == "cayley":
-        from .construction import prime_orders
+        from .reading import prime_orders
 
         orders = prime_orders(C) if C.graph["primes"] else {}
         for p, colour in ecol.items():
@@ -480,6 +577,11 @@ def draw_graph(C: nx.Graph, *, labels: bool | None = None, title: str | None = N
                 label=f"class of Cl({C.graph['discriminant']})",
             )
         )
+    if label_kind == "logs":
+        from .layouts import _discrete_logs
+
+        basis = _discrete_logs(C)[2].split(", [")
+        handles.append(Line2D([], [], linestyle="", label="labels: exponents of\n  " + ",\n  [".join(basis)))
     if identity in pos:
         handles.append(
             Line2D(
@@ -504,8 +606,9 @@ def save_picture(
     path: str | os.PathLike[str],
     format: str | None = None,
     *,
-    labels: bool | None = None,
+    labels: bool | str | None = None,
     edges: str = "auto",
+    layout: str = "rings",
     dpi: int = 150,
 ) -> str:
     """Draw a graph and write it as PNG or SVG; returns the format written.
@@ -516,7 +619,7 @@ def save_picture(
         The output file.
     format : {"png", "svg"}, optional
         Default: from the file suffix.
-    labels, edges
+    labels, edges, layout
         As for :func:`draw_graph`.
     dpi : int
         Resolution of PNG output.
@@ -533,6 +636,6 @@ def save_picture(
         raise FormkitError(
             f"picture format must be one of {', '.join(PICTURE_FORMATS)}, not {fmt!r} (from {os.fspath(path)!r})"
         )
-    fig = draw_graph(C, labels=labels, edges=edges)
+    fig = draw_graph(C, labels=labels, edges=edges, layout=layout)
     fig.savefig(path, format=fmt, dpi=dpi)
     return fmt

@@ -53,6 +53,7 @@ from ..core.discriminants import discriminant_parts, unit_count, validate_discri
 from ..core.equivalence import automorphism_group
 from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, mat_inverse, mat_mul
+from ..core.progress import progress_bar
 from ..core.reduction import _reduce_definite
 from ..errors import DiscriminantError, FormError, FormkitError
 from .square_root_method import (
@@ -87,16 +88,30 @@ def _definite_primitive_solutions(P: Form, m: int, fac: dict[int, int], automorp
     red_P = _reduce_definite(P, False)
     target = red_P.reduced
     out: list[Vector] = []
-    for b in _proper_roots(D, m, fac):
-        F = Form(m, b, (b * b - D) // (4 * m))
-        rf = _reduce_definite(F, False)
-        if rf.reduced != target:
-            continue
-        M = mat_mul(red_P.matrix, mat_inverse(rf.matrix))  # P·M = F
-        x, y = M[0][0], M[1][0]
-        for N in automorphs:
-            out.append((N[0][0] * x + N[0][1] * y, N[1][0] * x + N[1][1] * y))
+    roots = _proper_roots(D, m, fac)
+    with progress_bar(total=len(roots), desc=f"solutions of Q(x, y) = {_short(m)}", unit="root") as bar:
+        for b in roots:
+            bar.update(1)
+            _solutions_from_root(D, m, b, target, red_P, automorphs, out)
     return out
+
+
+def _short(n: int) -> str:
+    """``n`` for a progress line: in full up to 20 digits, else its number of digits."""
+    s = str(n)
+    return s if len(s) <= 20 else f"a {len(s)}-digit number"
+
+
+def _solutions_from_root(D: int, m: int, b: int, target, red_P, automorphs, out: list[Vector]) -> None:
+    """The solutions of ``P(x, y) = m`` belonging to the root ``b`` (none unless ``(m, b, ·) ~ P``)."""
+    F = Form(m, b, (b * b - D) // (4 * m))
+    rf = _reduce_definite(F, False)
+    if rf.reduced != target:
+        return
+    M = mat_mul(red_P.matrix, mat_inverse(rf.matrix))  # P·M = F
+    x, y = M[0][0], M[1][0]
+    for N in automorphs:
+        out.append((N[0][0] * x + N[0][1] * y, N[1][0] * x + N[1][1] * y))
 
 
 def _definite_primitive_count(P: Form, m: int, fac: dict[int, int], w: int) -> int:

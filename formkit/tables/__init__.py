@@ -1,5 +1,6 @@
 """The table layer: class numbers and class groups over ranges of discriminants.
 
+* :mod:`~formkit.tables.display` — the list of rows returned, with notebook displays;
 * :mod:`~formkit.tables.rows` — table rows, chunks of a range, :func:`table_rows` and
   :func:`class_numbers`;
 * :mod:`~formkit.tables.sweep` — the sweeps that count reduced forms for a whole chunk of
@@ -19,6 +20,8 @@ the theta series, structures forced by ``h`` or built from explicit relations.  
 :mod:`formkit`.
 """
 
+from .display import *  # noqa: F403
+from .display import __all__ as _display_all
 from .parallel import *  # noqa: F403
 from .parallel import __all__ as _parallel_all
 from .rows import *  # noqa: F403
@@ -32,4 +35,12 @@ from .structure import __all__ as _structure_all
 from .theta import *  # noqa: F403
 from .theta import __all__ as _theta_all
 
-__all__ = [*_rows_all, *_parallel_all, *_store_all, *_theta_all, *_structure_all, *_statistics_all]
+__all__ = [
+    *_display_all,
+    *_rows_all,
+    *_parallel_all,
+    *_store_all,
+    *_theta_all,
+    *_structure_all,
+    *_statistics_all,
+]

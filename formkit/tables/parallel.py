@@ -58,6 +58,26 @@ class BuildSummary:
     def to_dict(self) -> dict:
         return dict(self.__dict__)
 
+    def _text(self) -> str:
+        where = f"into {self.path!r}" if self.path else "in memory"
+        how = f"on the Dask cluster {self.cluster}" if self.cluster else f"with {self.workers} worker(s)"
+        return (
+            f"table of D from {self.start} to {self.stop} {where}: {self.chunks_computed} of "
+            f"{self.chunks_total} chunks computed ({self.chunks_already_done} already stored), "
+            f"{self.rows_written} rows written in {self.seconds:.1f} s {how}; every row unconditional"
+        )
+
+    def __repr__(self) -> str:
+        return f"<{self._text()}>"
+
+    def _repr_html_(self) -> str:
+        import html
+
+        return html.escape(self._text())
+
+    def _repr_latex_(self) -> str:
+        return r"$\text{" + self._text().replace("_", r"\_").replace("%", r"\%") + "}$"
+
 
 def _watch_parent(parent: int) -> None:  # pragma: no cover - runs in pool workers
     while True:

@@ -40,6 +40,7 @@ from dataclasses import dataclass
 
 from ..core.arith import as_int
 from ..errors import FormkitError
+from .display import ClassNumberTable
 from .sweep import (
     _chunk_arith_np,
     _chunk_arith_py,
@@ -114,6 +115,32 @@ class TableRow:
             "genus_count": self.genus_count,
             "regulator": self.regulator,
         }
+
+    def __repr__(self) -> str:
+        from .display import _structure
+
+        parts = [f"D = {self.discriminant}"]
+        if self.conductor > 1:
+            parts.append(f"d_K = {self.fundamental_discriminant}, f = {self.conductor}")
+        parts.append(f"h = {self.class_number}")
+        if self.discriminant > 0:
+            parts.append(f"h⁺ = {self.class_number_narrow}")
+        if self.invariants is not None:
+            parts.append(f"{'Cl⁺' if self.discriminant > 0 else 'Cl'} = {_structure(self.invariants)}")
+        parts.append(f"{self.genus_count} genera" if self.genus_count != 1 else "1 genus")
+        if self.regulator is not None:
+            parts.append(f"R = {self.regulator:.10g}")
+        return f"<table row: {', '.join(parts)}; unconditional>"
+
+    def _repr_html_(self) -> str:
+        from .display import TABLE_PROVENANCE, rows_html
+
+        return rows_html([self], TABLE_PROVENANCE)
+
+    def _repr_latex_(self) -> str:
+        from .display import TABLE_PROVENANCE, rows_latex
+
+        return rows_latex([self], TABLE_PROVENANCE)
 
 
 # ---------------------------------------------------------------------------
@@ -413,7 +440,7 @@ def table_rows(
     fundamental: bool = False,
     invariants: bool = True,
     engine: str = "auto",
-) -> list[TableRow]:
+) -> ClassNumberTable:
     """The table rows of all discriminants ``start ≤ D ≤ stop``, in this process.
 
     For large ranges, parallel runs and a resumable file use
@@ -435,8 +462,9 @@ def table_rows(
 
     Returns
     -------
-    list of TableRow
-        In order of increasing ``|D|`` (negative before positive for equal ``|D|``).
+    ClassNumberTable
+        A list of :class:`TableRow` in order of increasing ``|D|`` (negative before
+        positive for equal ``|D|``), with notebook displays.
 
     Raises
     ------
@@ -461,4 +489,4 @@ def table_rows(
     for lo, hi in split_range(start, stop, 1 << 20):
         raw.extend(compute_chunk(ChunkSpec(lo, hi, bool(fundamental), bool(invariants), engine))[1])
     raw.sort(key=lambda t: (abs(t[0]), t[0]))
-    return [TableRow._from_raw(t) for t in raw]
+    return ClassNumberTable(TableRow._from_raw(t) for t in raw)

@@ -107,6 +107,23 @@ class GroupStatistic:
             "prediction": self.prediction,
         }
 
+    def _text(self) -> str:
+        pred = (
+            "no prediction"
+            if self.predicted is None
+            else f"predicted {self.predicted:.4f} ({self.prediction})"
+        )
+        return f"{self.quantity}: {self.count} times, frequency {self.frequency:.4f}; {pred}"
+
+    def __repr__(self) -> str:
+        return f"<{self._text()}>"
+
+    def _repr_html_(self) -> str:
+        return html.escape(self._text())
+
+    def _repr_latex_(self) -> str:
+        return r"$\text{" + self._text().replace("_", r"\_").replace("%", r"\%").replace("&", r"\&") + "}$"
+
 
 @dataclass(frozen=True)
 class GroupStatistics:

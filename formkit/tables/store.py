@@ -34,6 +34,7 @@ from typing import Any
 
 from ..core.arith import as_int
 from ..errors import FormkitError, StoreDamagedError
+from .display import ClassNumberTable
 from .rows import ChunkSpec, RawRow, TableRow, _check_range
 
 __all__ = [
@@ -406,7 +407,7 @@ def query_table(
     fundamental_discriminant: int | None = None,
     genus_count: int | None = None,
     limit: int | None = None,
-) -> list[TableRow]:
+) -> ClassNumberTable:
     """Rows of the table store ``path`` that pass every given filter.
 
     Parameters
@@ -429,8 +430,8 @@ def query_table(
 
     Returns
     -------
-    list of TableRow
-        In order of increasing ``|D|``.
+    ClassNumberTable
+        A list of :class:`TableRow` in order of increasing ``|D|``, with notebook displays.
 
     Raises
     ------
@@ -508,7 +509,7 @@ def query_table(
                 f"{os.fspath(path)!r} is damaged (SQLite: {exc}); delete it and rebuild with the same "
                 "formkit table --from/--to --db command"
             ) from None
-        return out
+        return ClassNumberTable(out)
     finally:
         conn.close()
 

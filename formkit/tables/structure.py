@@ -84,6 +84,18 @@ class StructureFromOrder:
     def __repr__(self) -> str:
         return f"StructureFromOrder(D={self.discriminant}, {self.structure}; {self.provenance})"
 
+    def _repr_html_(self) -> str:
+        import html
+
+        return (
+            f"Cl({self.discriminant}) ≅ {html.escape(self.structure)}, h = {self.class_number}"
+            f"<br><small>{html.escape(self.provenance)}</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        inv = r" \times ".join(f"C_{{{n}}}" for n in self.invariants) or "C_1"
+        return rf"$\operatorname{{Cl}}({self.discriminant}) \cong {inv},\ h = {self.class_number}$ ({self.provenance})"
+
 
 def _forced_sylow_exponents(ell: int, e: int, rank: int | None) -> list[int] | None:
     """Exponents ``c_1 ≤ … ≤ c_r`` of the ℓ-Sylow subgroup of order ``ℓ^e`` if forced."""

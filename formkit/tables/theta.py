@@ -284,6 +284,27 @@ class HurwitzNumbers:
     def __repr__(self) -> str:
         return f"HurwitzNumbers(bound={self.bound}; {self.provenance})"
 
+    def _first(self) -> list[tuple[int, Fraction]]:
+        return [(n, self.values[n]) for n in range(1, min(self.bound, 12) + 1)]
+
+    def _repr_html_(self) -> str:
+        import html
+
+        vals = ", ".join(f"H({n}) = {v}" for n, v in self._first())
+        more = " …" if self.bound > 12 else ""
+        return (
+            f"Hurwitz class numbers H(n), 1 ≤ n ≤ {self.bound}: {html.escape(vals)}{more}"
+            f"<br><small>{html.escape(self.provenance)}</small>"
+        )
+
+    def _repr_latex_(self) -> str:
+        def frac(v: Fraction) -> str:
+            return str(v.numerator) if v.denominator == 1 else rf"\tfrac{{{v.numerator}}}{{{v.denominator}}}"
+
+        vals = r",\ ".join(f"H({n}) = {frac(v)}" for n, v in self._first())
+        more = r",\ \ldots" if self.bound > 12 else ""
+        return f"${vals}{more}$ ({self.provenance})"
+
 
 def hurwitz_class_numbers(bound: int, *, block: int | None = None) -> HurwitzNumbers:
     """Hurwitz class numbers ``H(0), …, H(bound)`` from the theta series of three squares.

@@ -202,11 +202,24 @@ def test_class_group_dispatch_and_units():
 def test_class_number_summary_function():
     a = class_number_summary(10**12 + 1)
     assert a["class_number_narrow"] == 50280  # enumeration (3 min, see the slow test) gives 50280
-    assert a["assumption"] == "GRH" and a["method"] == "infrastructure+analytic"
+    assert a["assumption"] == "GRH" and a["method"] == "infrastructure"
     b = class_number_summary(316, method="enumeration")
     assert (b["class_number_narrow"], b["class_number"], b["certified"]) == (6, 3, True)
     with pytest.raises(FormkitError, match="method"):
         class_number_summary(316, method="fast")
+
+
+def test_summary_methods_round_trip():
+    # the method asked for is the method run and named (shared decision: method names round-trip)
+    for m in ("enumeration", "bsgs", "infrastructure"):
+        r = class_number_summary(316, method=m)
+        assert r["method"] == m
+        assert (r["class_number_narrow"], r["class_number"]) == (6, 3)  # enumeration of Cl⁺(316)
+    assert class_number_summary(-23, method="bsgs")["method"] == "bsgs"
+    with pytest.raises(FormkitError, match="needs D > 0, not D = -23"):
+        class_number_summary(-23, method="infrastructure")
+    with pytest.raises(FormkitError, match="not the structure"):
+        class_group(316, method="infrastructure")
 
 
 @pytest.mark.slow

@@ -94,7 +94,24 @@ def test_json_summary_with_output(tmp_path, capsys):
     assert code == 0
     payload = json.loads(out)
     assert payload["format"] == "dot" and payload["output"] == str(path)
-    assert payload["node_count"] == 20 and payload["edge_count"] == 20 * len(payload["primes"])
+    # Cl(-455) = C2 × C10: directed arrows one per class and prime; undirected edges
+    # {x, x·[p]}: h/2 for a prime of order 2, h otherwise (brute force in the group itself)
+    from formkit import class_group
+
+    G = class_group(-455)
+    h, ps = G.order, payload["primes"]
+    assert payload["node_count"] == h == 20 and payload["directed_edge_count"] == h * len(ps)
+    orders = {p: G.prime_form(p).order for p in ps}
+    assert payload["edge_count"] == sum(h // 2 if orders[p] == 2 else h for p in ps)
+
+
+def test_summary_line_says_what_is_counted(tmp_path, capsys):
+    # Cl(-84) = C2 × C2 with the primes 2, 3 (both of order 2): 4 classes, the 4 undirected
+    # edges of a square (networkx: the 2-cube has 4 edges), 8 arrows
+    code, out, _ = run(["graph", "-84", "-o", str(tmp_path / "g.dot")], capsys)
+    assert code == 0
+    assert "4 classes; 4 undirected edges {x, x·[p]}; 8 directed edges x → x·[p]" in out
+    assert nx.hypercube_graph(2).number_of_edges() == 4
 
 
 def test_json_flag_to_stdout_is_one_object(capsys):
@@ -159,3 +176,41 @@ def test_picture_without_matplotlib_is_a_clean_error(monkeypatch, tmp_path, caps
     monkeypatch.setitem(sys.modules, "matplotlib", None)
     code, _out, err = run(["graph", "-23", "--output", str(tmp_path / "x.png")], capsys)
     assert code == 2 and "formkit[plot]" in err and len(err.splitlines()) == 1
+
+
+def test_picture_options_on_the_command_line(tmp_path, capsys):
+    base = ["graph", "-4620", "-o", str(tmp_path / "a.png"), "--json"]
+    code, out, _ = run(base, capsys)
+    plain = json.loads(out)
+    code, out, _ = run(
+        [*base, "--layout", "coordinates", "--labels", "logs", "--edge-style", "curved"], capsys
+    )
+    assert code == 0 and json.loads(out) == plain  # --json unaffected by the picture options
+    assert (tmp_path / "a.png").read_bytes()[:4] == b"\x89PNG"
+
+
+@pytest.mark.parametrize(
+    "argv, needle",
+    [
+        (["graph", "-23", "--layout", "circle"], "--layout shapes a picture (png, svg), not --format json"),
+        (
+            ["graph", "316", "--kind", "cycles", "--layout", "coordinates", "-o", "x.png"],
+            "needs --kind cayley",
+        ),
+        (["graph", "316", "--kind", "cycles", "--labels", "logs", "-o", "x.png"], "needs --kind cayley"),
+        (["graph", "-23", "--layout", "spiral", "-o", "x.png"], "invalid choice"),
+    ],
+)
+def test_picture_options_bad_use(argv, needle, tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    code, out, err = run(argv, capsys)
+    assert code == 2 and out == "" and needle in err and err.count("\n") == 1
+
+
+def test_cli_picture_choices_match_the_library():
+    from formkit.cli import graph as cli_graph
+    from formkit.graphs import plotting
+
+    assert cli_graph.LAYOUTS == plotting.LAYOUTS
+    assert cli_graph.LABELS == plotting.LABELS
+    assert cli_graph.EDGE_STYLES == plotting.EDGE_STYLES

@@ -299,8 +299,30 @@ def test_class_number_json_and_text(capsys):
 
 
 @pytest.mark.parametrize(
+    "D, method", [("316", "enumeration"), ("316", "bsgs"), ("316", "infrastructure"), ("-23", "bsgs")]
+)
+def test_class_number_method_round_trips(D, method, capsys):
+    # shared decision: the value given to --method is the method run and the one printed
+    d = run_json(["class-number", D, "--method", method], capsys)
+    assert d["method"] == method
+    # h⁺(316) = 6, h(316) = 3, h(−23) = 3: brute force of the reduced forms (tests/_classgroup_reference.py)
+    narrow = (
+        len(set(indefinite_cycles(int(D)).values())) if int(D) > 0 else len(brute_reduced_definite(int(D)))
+    )
+    assert d["class_number_narrow"] == narrow
+    code, out, _err = run(["class-number", D, "--method", method], capsys)
+    assert code == 0 and f"method: {method}," in out
+
+
+def test_class_number_auto_names_the_method_chosen(capsys):
+    assert run_json(["class-number", "316"], capsys)["method"] == "enumeration"
+    assert run_json(["class-number", "10^12+1"], capsys)["method"] == "infrastructure"
+
+
+@pytest.mark.parametrize(
     "argv, needle",
     [
+        (["class-number", "-23", "--method", "infrastructure"], "needs D > 0, not D = -23"),
         (["class-number", "17^2"], "289"),
         (["class-number", "-5"], "-5"),
         (["class-number", "x1"], "x1"),

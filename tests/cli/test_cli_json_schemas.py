@@ -90,3 +90,27 @@ def test_schema_rejects_drift():
         jsonschema.validate({**d, "nodes": 3}, schema)
     with pytest.raises(jsonschema.ValidationError):
         jsonschema.validate({**d, "class_number": "3"}, schema)
+
+
+def _properties(schema, path=()):
+    """(path, key, subschema) of every property of a schema, nested ones included."""
+    if not isinstance(schema, dict):
+        return
+    for key, sub in schema.get("properties", {}).items():
+        yield path, key, sub
+        yield from _properties(sub, (*path, key))
+    for kk in ("items", "additionalProperties"):
+        if isinstance(schema.get(kk), dict):
+            yield from _properties(schema[kk], (*path, "[]"))
+    for kk in ("anyOf", "oneOf", "allOf"):
+        for sub in schema.get(kk, []):
+            yield from _properties(sub, path)
+
+
+@pytest.mark.parametrize("path", LEAVES, ids=lambda p: " ".join(p))
+def test_every_property_is_described(path):
+    # issue 15: the schemas document the data model; every key says what it holds
+    props = list(_properties(_schema(path)))
+    assert props, "a schema with no properties"
+    missing = ["/".join((*p, k)) for p, k, sub in props if not str(sub.get("description", "")).strip()]
+    assert missing == []

@@ -18,6 +18,7 @@ from __future__ import annotations
 import io
 import itertools
 import json
+import math
 import re
 import sys
 from math import isqrt
@@ -44,6 +45,7 @@ from formkit.graphs import (
     cayley_graph,
     cycle_graph,
     cycle_lengths,
+    edge_count,
     fibre_graph,
     generated_subgroup,
     generating_primes,
@@ -200,6 +202,42 @@ def test_default_picture_has_at_most_rank_times_h_edges(D):
     for p in C.graph["primes"]:
         mine = [e for e in drawn if e[2] == p]
         assert len(mine) == (G.order // 2 if orders[p] == 2 else G.order)
+
+
+@given(D=st.one_of(NEG, POS), data=st.data())
+def test_edge_count_counts_unordered_pairs(D, data):
+    # brute force: the undirected edges of a Cayley graph are the unordered pairs {x, x·[p]},
+    # one set per prime (parallel edges of distinct primes count apart); the directed count
+    # is one arrow per class and prime
+    G = class_group(D)
+    avail = usable_primes(D, 40)
+    primes = data.draw(st.lists(st.sampled_from(avail), unique=True, max_size=4) if avail else st.just([]))
+    C = cayley_graph(D, primes)
+    pairs = {(p, frozenset((x, x * G.prime_form(p)))) for x in G for p in primes}
+    assert edge_count(C) == len(pairs)
+    assert edge_count(C, directed=True) == G.order * len(primes) == C.number_of_edges()
+    # per prime: h/2 for order 2, h otherwise (h loops for a principal prime form)
+    orders = prime_orders(C)
+    assert edge_count(C) == sum(G.order // 2 if orders[p] == 2 else G.order for p in primes)
+
+
+@pytest.mark.parametrize("D", [12, 40, 60, 96, 316, 1001])
+def test_edge_count_of_cycle_graphs(D):
+    # brute force: the unordered pairs {f, ρ(f)}; a ρ-cycle of two forms is one edge, a
+    # longer cycle of L forms L edges (networkx: the undirected simple graph has the same count)
+    Y = cycle_graph(D)
+    pairs = {frozenset((u, v)) for u, v in Y.edges()}
+    assert edge_count(Y) == len(pairs) == nx.Graph(Y).number_of_edges()
+    assert edge_count(Y, directed=True) == Y.number_of_nodes()
+
+
+def test_labels_write_forms_as_in_text():
+    # shared decision: forms are (a, b, c) in text and pictures; node keys stay "a,b,c"
+    from formkit.graphs import form_label
+
+    assert form_label((2, -1, 3)) == "(2, -1, 3)"
+    assert 'label="(2, -1, 3)"' in graph_to_dot(cayley_graph(-23, [2]))
+    assert "[2,-1,3]" not in graph_to_dot(cayley_graph(-23, [2]))
 
 
 @pytest.mark.parametrize("D", [-3, -4, -7, -8, -11, -19, -43, -67, -163, 5, 13])
@@ -525,3 +563,67 @@ def test_error_messages_name_value_and_rule():
         cayley_graph(-23, [4])
     with pytest.raises(DiscriminantError, match="fundamental"):
         fibre_graph(-23)
+
+
+# ---------------------------------------------------------------------------
+# the layout by discrete-log coordinates
+
+
+@pytest.mark.parametrize("D", [-4620, -16428, -420, -84, -23, -4, 316, -3 * 49])
+def test_coordinate_layout_places_classes_at_their_exponents(D):
+    # brute force in the group: the class at coordinates e is ∏ [b_i]^e_i for the basis b
+    # (the graph's primes when they form a basis, else the group's generators); distinct
+    # classes get distinct points
+    from formkit.graphs.layouts import _discrete_logs, coordinate_layout
+
+    G = class_group(D)
+    C = cayley_graph(D)
+    pos = coordinate_layout(C)
+    assert len(set(pos.values())) == len(pos) == G.order
+    radices, logs, _basis = _discrete_logs(C)
+    assert math.prod(radices) == G.order
+    primes = C.graph["primes"]
+    orders = prime_orders(C)
+    if primes and sorted(orders[p] for p in primes) == list(radices):
+        basis = [G.prime_form(p) for p in sorted(primes, key=lambda p: (orders[p], primes.index(p)))]
+    else:
+        basis = list(G.generators)
+    for v, e in logs.items():
+        x = G.identity
+        for b, k in zip(basis, e):
+            x = x * b**k
+        assert x == G(v)
+
+
+def test_coordinate_layout_unit_steps_on_the_default_grid():
+    # Cl(-4620) = C2 × C2 × C6 with the default primes 3, 5, 17 (orders 2, 2, 6): a basis,
+    # so every edge that does not wrap around is one unit step along one axis
+    from formkit.graphs.layouts import coordinate_layout
+
+    C = cayley_graph(-4620)
+    pos = coordinate_layout(C)
+    lengths = sorted({round(math.dist(pos[u], pos[v]), 6) for u, v in C.edges()})
+    assert lengths[0] == 1.0
+    # within a block of the grid a step of [17] moves one to the right (or wraps by 5 back)
+    for u, v, p in C.edges(data="prime"):
+        if p == 17:
+            dx, dy = pos[v][0] - pos[u][0], pos[v][1] - pos[u][1]
+            assert dy == 0 and dx in (1.0, -5.0)
+
+
+def test_coordinate_layout_needs_a_cayley_graph():
+    from formkit.graphs.layouts import coordinate_layout
+
+    with pytest.raises(FormkitError, match="needs a Cayley graph"):
+        coordinate_layout(cycle_graph(316))
+    with pytest.raises(FormkitError, match="layout must be one of"):
+        graph_layout(cayley_graph(-23), "spiral")
+
+
+@pytest.mark.parametrize("layout", ["rings", "coordinates", "circle"])
+@pytest.mark.parametrize("labels", ["forms", "orders", "logs", "none"])
+def test_picture_options(layout, labels, tmp_path):
+    pytest.importorskip("matplotlib")
+    path = tmp_path / "x.png"
+    save_picture(cayley_graph(-420), path, layout=layout, labels=labels, edges="straight")
+    assert path.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
