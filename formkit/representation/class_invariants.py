@@ -64,6 +64,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from ..analytic.ball_polynomials import certified_integer_coefficients, largest_radius_log2, product_tree
+from ..core.discriminants import discriminant_parts
 from ..core.forms import Form
 from ..core.polynomials_mod_p import root_count_mod_prime
 from ..core.progress import announces_slowness, progress_bar
@@ -260,7 +261,8 @@ class WeberPolynomial:
             "degree": self.degree,
             "coefficient_order": "descending",
             "coefficients": list(self.coefficients),
-            "working_bits": self.working_bits,
+            "kind": "Hilbert" if discriminant_parts(self.discriminant)[1] == 1 else "ring",
+            "working_digits": math.floor(self.working_bits * math.log10(2)),
             "verification": None if self.verification is None else self.verification.to_dict(),
         }
 
