@@ -102,38 +102,101 @@ def _cmd_primes(args: argparse.Namespace) -> int:
     return 0
 
 
+def _short_list(values: list[int], shown: int = 6) -> str:
+    """``[a, b, c, …]`` with at most ``shown`` entries and the count of the rest."""
+    if len(values) <= shown:
+        return "[" + ", ".join(map(str, values)) + "]"
+    return "[" + ", ".join(map(str, values[:shown])) + f", … ({len(values) - shown} more)]"
+
+
 def _cmd_hilbert(args: argparse.Namespace) -> int:
     from ..representation.class_polynomials import class_polynomial
-    from .conventions import emit
+    from .conventions import CommandError, emit
 
     D = discriminant_of(args)
-    H = class_polynomial(D, verify=not args.no_verify)
-    payload = H.to_dict()
+    weber = args.invariant == "weber"
+    if weber:
+        from ..representation.class_invariants import weber_polynomial
+
+        if args.discriminant_factors:
+            raise CommandError("--discriminant-factors is for H_D; leave out --invariant weber")
+        if D % 8 != 1:
+            raise CommandError(
+                f"--invariant weber needs D ≡ 1 (mod 8), not D = {D} (≡ {D % 8} mod 8); use the default j"
+            )
+        P = weber_polynomial(D, verify=not args.no_verify)
+        payload = P.to_dict()
+    else:
+        H = class_polynomial(D, verify=not args.no_verify)
+        payload = {**H.to_dict(), "invariant": "j"}
     disc = None
     if args.discriminant_factors:
         from ..representation.class_polynomials import class_polynomial_discriminant
 
         disc = class_polynomial_discriminant(D)
         payload["polynomial_discriminant"] = disc.to_dict()
+    roots = None
+    if args.roots_mod is not None:
+        from ..errors import FormkitError
+        from ..representation.class_invariants import weber_root_to_j
+        from ..representation.cm_method import polynomial_roots_mod_prime
+
+        p = args.roots_mod
+        try:
+            xs = polynomial_roots_mod_prime(payload["coefficients"], p)
+        except FormkitError as exc:
+            raise CommandError(f"--roots-mod: {exc}") from None
+        js = sorted({weber_root_to_j(x, p, D) for x in xs if x}) if weber else xs
+        roots = {"p": p, "roots": xs, "j_invariants": js}
+        payload["roots_mod_p"] = roots
+    curve = None
+    if args.cm_curve is not None:
+        from ..representation.cm_method import cm_curve, cm_j_invariants, cm_prime
+
+        if D >= -4:
+            raise CommandError(f"--cm-curve needs D < -4 (j ≠ 0, 1728), not {D}")
+        if not 16 <= args.cm_curve <= 1024:
+            raise CommandError(f"--cm-curve BITS must be in [16, 1024], not {args.cm_curve}")
+        p, t, v = cm_prime(D, args.cm_curve)
+        js = cm_j_invariants(D, p, invariant="weber" if weber else "j")
+        curve = {**cm_curve(D, p, t, js[0]).to_dict(), "v": v, "roots_found": len(js)}
+        payload["cm_curve"] = curve
 
     def human() -> str:
-        lines = [
-            f"discriminant:  {H.discriminant}   ({'Hilbert' if H.kind == 'Hilbert' else 'ring'} class polynomial, "
-            f"degree h = {H.degree})",
-            f"H(x) = {H}",
-        ]
-        v = H.verification
-        if v is None:
+        if weber:
+            lines = [
+                f"discriminant:  {P.discriminant}   (Weber class polynomial, degree h = {P.degree}; roots: "
+                f"{P.invariant} and its conjugates, m = {-D})",
+                f"W(x) = {P}",
+                f"j-invariants: for every root x, {P.j_relation.replace(', u', ' with u')} is a root of H_D",
+            ]
+            v = P.verification
             lines.append(
-                f"certified by ball arithmetic ({H.working_digits} digits: every coefficient ball holds exactly one "
-                "integer); bound and root-count checks skipped (--no-verify)"
+                f"certified: ball arithmetic at {P.working_bits} bits, every coefficient ball holds exactly one integer"
+                + (
+                    ""
+                    if v is None
+                    else f"; root counts mod {list(v.primes_checked)} match the prime-form classes"
+                )
             )
         else:
-            lines.append(
-                f"certified: ball arithmetic at {v.precision_bits} bits, every coefficient ball (radius "
-                f"< 2^{v.radius_log2}) holds exactly one integer; coefficients < 10^{v.bound_digits} (stated bound); root counts "
-                f"mod {list(v.primes_checked)} match the prime-form classes"
-            )
+            lines = [
+                f"discriminant:  {H.discriminant}   ({'Hilbert' if H.kind == 'Hilbert' else 'ring'} class polynomial, "
+                f"degree h = {H.degree})",
+                f"H(x) = {H}",
+            ]
+            v = H.verification
+            if v is None:
+                lines.append(
+                    f"certified by ball arithmetic ({H.working_digits} digits: every coefficient ball holds exactly one "
+                    "integer); bound and root-count checks skipped (--no-verify)"
+                )
+            else:
+                lines.append(
+                    f"certified: ball arithmetic at {v.precision_bits} bits, every coefficient ball (radius "
+                    f"< 2^{v.radius_log2}) holds exactly one integer; coefficients < 10^{v.bound_digits} (stated bound); root counts "
+                    f"mod {list(v.primes_checked)} match the prime-form classes"
+                )
         if disc is not None:
             sign = "-" if disc.value < 0 else ""
             fac = " * ".join(f"{p}^{e}" if e > 1 else str(p) for p, e in disc.factors) or "1"
@@ -144,6 +207,24 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
             )
             n = len(str(abs(disc.value)))
             lines.append(f"disc(H) = {sign}{fac}{rest}   ({n} digit{'s' if n != 1 else ''})")
+        if roots is not None:
+            name = "W" if weber else "H"
+            lines.append(
+                f"roots of {name} mod {roots['p']}: {plural(len(roots['roots']), 'root')} {_short_list(roots['roots'])}"
+            )
+            if weber:
+                lines.append(
+                    f"  their images j, roots of H_D mod {roots['p']}: {_short_list(roots['j_invariants'])}"
+                )
+        if curve is not None:
+            lines.append(
+                f"CM curve: p = {curve['p']} ({args.cm_curve} bits), 4p = t^2 + {-D}*v^2 with t = {curve['trace']}, "
+                f"v = {curve['v']}; j = {curve['j']} (one of {curve['roots_found']} roots of H_D mod p)"
+            )
+            lines.append(
+                f"  y^2 = x^3 + {curve['a4']}x + {curve['a6']} has p + 1 - t = {curve['order']} points "
+                f"([p + 1 - t]P = O checked for {curve['points_checked']} random points P)"
+            )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -191,12 +272,21 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="the Hilbert (or ring) class polynomial H_D(x) of a negative discriminant",
         description=(
             "Compute the class polynomial of a negative discriminant D from the j-invariants of the "
-            "reduced forms, rounded to integers and verified (second computation at higher precision, "
-            "rounding residuals, coefficient bound, roots modulo small primes). For fundamental D this "
-            "is the Hilbert class polynomial, otherwise the ring class polynomial of the order. "
-            "Python: formkit.class_polynomial(D) (and formkit.class_polynomial_discriminant(D))."
+            "reduced forms in ball arithmetic, the rounding to integers certified (every coefficient ball "
+            "holds exactly one integer) and checked (coefficient bound, roots modulo small primes). For "
+            "fundamental D this is the Hilbert class polynomial, otherwise the ring class polynomial of "
+            "the order. With --invariant weber (D ≡ 1 mod 8) the Weber class polynomial instead: the same "
+            "class field, coefficients about 72 times shorter. --roots-mod P gives the roots modulo a prime "
+            "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
+            "that size with complex multiplication by the order of discriminant D. "
+            "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.cm_prime, "
+            "formkit.cm_curve (and formkit.class_polynomial_discriminant(D))."
         ),
-        epilog="examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors",
+        epilog=(
+            "examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors\n"
+            "  formkit hilbert -71 --invariant weber --roots-mod 10007\n"
+            "  formkit hilbert -191 --invariant weber --cm-curve 256"
+        ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     add_discriminant_argument(q, "a negative discriminant, D ≡ 0 or 1 (mod 4)")
@@ -206,6 +296,28 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         action="store_true",
         help="also compute disc(H) exactly and its prime factors (the primes the class-polynomial "
         "criterion for p = x^2 + ny^2 must exclude)",
+    )
+    q.add_argument(
+        "--invariant",
+        choices=("j", "weber"),
+        default="j",
+        help="j: the class polynomial H_D (default); weber: the Weber class polynomial of "
+        "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8; cubed when 3 | D)",
+    )
+    q.add_argument(
+        "--roots-mod",
+        type=integer_type("--roots-mod", 3),
+        default=None,
+        metavar="P",
+        help="also the roots of the polynomial modulo the odd prime P (any size, e.g. 2^255-19)",
+    )
+    q.add_argument(
+        "--cm-curve",
+        type=integer_type("--cm-curve", 16),
+        default=None,
+        metavar="BITS",
+        help="also a prime p of BITS bits with 4p = t^2 - D v^2 and a curve over F_p with p + 1 - t "
+        "points whose j is a root of H_D mod p (the CM method)",
     )
     q.set_defaults(handler=_cmd_hilbert)
 

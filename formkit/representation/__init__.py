@@ -9,6 +9,10 @@
   (reduction of (p, b, ·), Cornacchia's algorithm);
 * :mod:`~formkit.representation.class_polynomials` — Hilbert and ring class polynomials
   from j-invariants, verified;
+* :mod:`~formkit.representation.class_invariants` — Weber class polynomials (the same
+  ring class field, much smaller coefficients);
+* :mod:`~formkit.representation.cm_method` — roots of class polynomials modulo a prime and
+  the elliptic curves with complex multiplication they give;
 * :mod:`~formkit.representation.prime_decision` — does Q represent the prime p (the class
   of the prime form decides); primes up to a bound;
 * :mod:`~formkit.representation.genus_congruences` — the values of a genus modulo |D|, one
@@ -26,8 +30,12 @@ This layer imports :mod:`formkit.core`, :mod:`formkit.analytic`,
 :mod:`formkit`.
 """
 
+from .class_invariants import *  # noqa: F403
+from .class_invariants import __all__ as _class_invariants_all
 from .class_polynomials import *  # noqa: F403
 from .class_polynomials import __all__ as _class_polynomials_all
+from .cm_method import *  # noqa: F403
+from .cm_method import __all__ as _cm_method_all
 from .cornacchia import *  # noqa: F403
 from .cornacchia import __all__ as _cornacchia_all
 from .genus_congruences import *  # noqa: F403
@@ -46,6 +54,8 @@ __all__ = [
     *_orbits_all,
     *_cornacchia_all,
     *_class_polynomials_all,
+    *_class_invariants_all,
+    *_cm_method_all,
     *_prime_decision_all,
     *_genus_congruences_all,
     *_prime_criteria_all,

@@ -12,12 +12,12 @@ field of that order.  In both cases ``H_D`` is monic with integer coefficients a
 irreducible over ``Q`` of degree ``h(D)`` (Cox, *Primes of the Form x² + ny²*,
 Theorem 11.1 and Proposition 13.2; numbers as recalled).
 
-*Computation.*  ``j(τ_Q)`` is enclosed in a complex ball (python-flint's arb arithmetic) from
-Dedekind's η in ball arithmetic (:mod:`formkit.analytic.eta`): ``t = (η(2τ)/η(τ))²⁴`` and
-``j = (1 + 256t)³/t``.  Complex conjugate roots (the forms ``(a, ±b, c)``) are paired into
-real quadratic factors ``x² − 2Re(j)x + |j|²``, and the factors are multiplied by a
-product tree of ball-polynomial multiplications
-(:mod:`formkit.analytic.ball_polynomials`).
+*Computation.*  ``j(τ_Q)`` is enclosed in a complex ball by FLINT's modular ``j`` in ball
+arithmetic (python-flint's ``acb.modular_j``, a rigorous enclosure; our own η series of
+:mod:`formkit.analytic.eta` gives the same balls about three times more slowly).  Complex
+conjugate roots (the forms ``(a, ±b, c)``) are paired into real quadratic factors
+``x² − 2Re(j)x + |j|²``, and the factors are multiplied by a product tree of
+ball-polynomial multiplications (:mod:`formkit.analytic.ball_polynomials`).
 
 *Precision.*  For ``τ`` in the closure of the standard fundamental domain,
 ``|j(τ) − 1/q| ≤ 2079`` (A. Enge, "The complexity of class polynomial computation via
@@ -27,7 +27,11 @@ bounded by ``∏(1 + |root|)``, whence the stated bound
 
     log₁₀ max |coefficient| ≤ B(D) = Σ_Q π√|D| / (a·ln 10) + h·log₁₀ 2081,
 
-which :func:`class_polynomial_bound` returns.  The balls are computed with ``⌈B·log₂10⌉ + 4⌈log₂(h + 2)⌉ + 64`` bits.
+which :func:`class_polynomial_bound` returns.  The true size is close to the first sum
+alone (the constant term is ``∏ j(τ_Q)``), so the balls are computed with
+``L = Σ_Q π√|D|/(a ln 2)`` bits plus ``0.4h + 8⌈log₂(h + 2)⌉ + 64`` bits of room; the
+certification below decides whether that was enough (if not, the precision is raised by
+an eighth and the product recomputed).
 
 *Certification.*  The product is accepted only when every coefficient ball has radius
 < 1/2 and contains an integer; since the balls enclose the exact coefficients, which are
@@ -57,7 +61,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from ..analytic.ball_polynomials import certified_integer_coefficients, largest_radius_log2, product_tree
-from ..analytic.j_function import _J_TAIL, _j_ball_of_form
+from ..analytic.j_function import _J_TAIL
 from ..core.arith import as_int, gcd, is_probable_prime, kronecker, next_prime
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.enumeration import _reduced_forms_cached
@@ -268,19 +272,22 @@ class ClassPolynomial:
 def _ball_product(D: int, forms: Sequence[tuple[int, int, int]], prec: int):
     """∏(x − j(τ_Q)) as a real ball polynomial at ``prec`` bits (rigorous enclosure).
 
-    Real roots (``b = 0``, ``b = a`` or ``a = c``) give ``x − Re j``; the conjugate pairs
-    ``(a, ±b, c)`` give ``x² − 2 Re(j) x + |j|²``.  The factors are multiplied by a
-    product tree (:func:`formkit.analytic.ball_polynomials.product_tree`).
+    ``j(τ_Q)`` is FLINT's modular ``j`` of the ball ``τ_Q`` (``acb.modular_j``: a rigorous
+    enclosure, from theta functions after moving τ into the fundamental domain).  Real
+    roots (``b = 0``, ``b = a`` or ``a = c``) give ``x − Re j``; the conjugate pairs
+    ``(a, ±b, c)`` give ``x² − 2 Re(j) x + |j|²`` (``j(−τ̄) = conj j(τ)``).  The factors
+    are multiplied by a product tree (:func:`formkit.analytic.ball_polynomials.product_tree`).
     """
-    from flint import arb_poly, ctx
+    from flint import acb, arb, arb_poly, ctx
 
     factors = []
     with ctx.workprec(prec), progress_bar(total=len(forms), desc=f"j-values (D = {D})", unit="form") as bar:
+        root = arb(-D).sqrt()
         for a, b, _c in forms:
             bar.update(1)
             if b < 0:
                 continue  # paired with (a, −b, c)
-            j = _j_ball_of_form(a, b, D, prec)
+            j = acb(arb(-b) / (2 * a), root / (2 * a)).modular_j()
             if b == 0 or b == a or a == _c:  # j is real: its real part encloses it
                 factors.append(arb_poly([-j.real, 1]))
             else:
@@ -289,27 +296,40 @@ def _ball_product(D: int, forms: Sequence[tuple[int, int, int]], prec: int):
         return product_tree(factors)
 
 
-def _working_bits(bound: float, h: int) -> int:
-    """Bits for coefficients up to ``10^bound`` to come out with radius < 1/2, with room."""
-    return math.ceil(bound * math.log2(10)) + 4 * math.ceil(math.log2(h + 2)) + 64
+def _leading_term_bits(D: int, forms: Sequence[tuple[int, int, int]]) -> float:
+    """``Σ_Q π√|D|/(a ln 2)``: log₂ of ``∏ |1/q_Q|``, the size of the constant term of ``H_D``.
+
+    ``|j(τ_Q)| = e^{π√|D|/a} + O(2079)``, so this is (up to ``h·O(1)`` bits) the size of the
+    largest coefficient; it sets the working precision, and the certification of the
+    rounding (every coefficient ball holds exactly one integer) decides whether it was
+    enough.
+    """
+    s = math.pi * math.sqrt(-D) / math.log(2)
+    return sum(s / a for a, _, _ in forms)
+
+
+def _working_bits(bits: float, h: int) -> int:
+    """Bits for coefficients up to ``2^bits`` to come out with radius < 1/2, with room."""
+    return math.ceil(bits) + 2 * h // 5 + 8 * math.ceil(math.log2(h + 2)) + 64
 
 
 def class_polynomial_cost(h: int, digits: int, verify: bool = True) -> tuple[float, float]:
-    """Estimated (seconds, bytes) of the product of ``h`` factors at ``digits`` digits.
+    """Estimated (seconds, bytes) of ``H_D`` of degree ``h`` at ``digits`` digits.
 
-    About ``h²`` products of ``P = 3.32·digits``-bit integers at ``3·10⁻⁵·(P/10⁴)^1.5`` s
-    each (measured here: 2.5 s for D = −300007, h = 145; 45 s for D = −2000003,
-    h = 357; the model gives 2.2 s and 51 s), times 2.5 with the verification; memory
-    three polynomials of ``h`` coefficients of ``P`` bits.
+    The ``h/2`` values of ``j`` at ``P = 3.32·digits`` bits dominate: about
+    ``0.0032·h·(P/10⁴)^1.6`` CPU seconds (measured here, benchmarks/bench_class_polynomials.py:
+    0.62 s for h = 200 at 9662 bits, 4.7 s for h = 400 at 23 100 bits, 55 s for h = 1000
+    at 60 700 bits; the model gives 0.61, 4.6 and 58 s), times 1.1 with the verification;
+    memory three polynomials of ``h`` coefficients of ``P`` bits.
 
     Examples
     --------
-    >>> t, m = class_polynomial_cost(145, 3668)
-    >>> 1 < t < 5
+    >>> t, m = class_polynomial_cost(200, 2908)
+    >>> 0.3 < t < 1.5
     True
     """
     P = digits * 3.33
-    seconds = (2.5 if verify else 1.0) * h * h * 3e-5 * (P / 1e4) ** 1.5
+    seconds = (1.1 if verify else 1.0) * h * 0.0032 * (P / 1e4) ** 1.6
     return seconds, 3 * h * P / 8 + 50e6
 
 
@@ -320,7 +340,7 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
     forms = _reduced_forms(D)
     h = len(forms)
     bound = class_polynomial_bound(D)
-    prec = _working_bits(bound, h)
+    prec = _working_bits(_leading_term_bits(D, forms), h)
     seconds, memory = class_polynomial_cost(h, math.ceil(prec / 3.33), verify)
     check_cost(
         f"the Hilbert class polynomial of D = {D} (degree {h}, {prec} working bits)",
@@ -335,7 +355,7 @@ def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
             coeffs = certified_integer_coefficients(poly)
             if coeffs is not None:
                 break
-            prec += prec // 2 + 64  # the balls were too wide: more precision, same method
+            prec += prec // 8 + 256  # the balls were too wide: more precision, same method
         else:  # pragma: no cover - the bound B(D) makes the first attempt succeed
             raise RuntimeError(
                 f"class polynomial of D = {D}: coefficient balls still contain no unique integer at {prec} bits"
@@ -436,8 +456,8 @@ def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
     D : int
         A negative discriminant (``D ≡ 0, 1 mod 4``).
     verify : bool
-        Run the verification (second computation at higher precision, rounding
-        residuals, coefficient bound, root counts modulo primes).  Default ``True``.
+        Run the verification (coefficient bound, root counts modulo primes; the rounding
+        is certified in every case).  Default ``True``.
 
     Returns
     -------

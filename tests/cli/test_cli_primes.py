@@ -104,6 +104,12 @@ def test_hilbert_text(capsys):
         (["hilbert", "-22"], "-22"),
         (["hilbert", "x"], "discriminant: cannot read 'x' as an integer"),
         (["hilbert"], "required"),
+        (["hilbert", "-20", "--invariant", "weber"], "D ≡ 1 (mod 8)"),
+        (["hilbert", "-23", "--invariant", "gamma"], "invalid choice"),
+        (["hilbert", "-23", "--roots-mod", "91"], "p must be an odd prime, not 91"),
+        (["hilbert", "-23", "--cm-curve", "8"], "--cm-curve must be at least 16"),
+        (["hilbert", "-4", "--cm-curve", "32"], "D < -4"),
+        (["hilbert", "-23", "--invariant", "weber", "--discriminant-factors"], "--discriminant-factors"),
     ],
 )
 def test_bad_input_one_line_exit_2(capsys, argv, words):
@@ -133,3 +139,30 @@ def test_hilbert_discriminant_factors(capsys):
     code = main(["hilbert", "-15", "--discriminant-factors"])
     out, _ = capsys.readouterr()
     assert "disc(H) = 3^6 * 5^3 * 7^4 * 13^2" in out
+
+
+def test_hilbert_weber_json_and_roots(capsys):
+    # Weber's x³ − x − 1 for D = −23 (Yui–Zagier's table; from memory)
+    d = run_json(capsys, "hilbert", "-23", "--invariant", "weber", "--roots-mod", "59")
+    assert d["invariant"] == "weber" and d["coefficients"] == [1, 0, -1, -1] and d["power"] == 1
+    # 4·59 = 12² + 23·2²: 59 splits completely, so three roots; brute force over F_59
+    assert d["roots_mod_p"]["roots"] == [x for x in range(59) if (x**3 - x - 1) % 59 == 0]
+    H = run_json(capsys, "hilbert", "-23", "--roots-mod", "59")
+    assert H["invariant"] == "j"
+    brute = [x for x in range(59) if sum(c * x ** (3 - i) for i, c in enumerate(H["coefficients"])) % 59 == 0]
+    assert d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"] == brute
+
+
+def test_hilbert_cm_curve(capsys):
+    d = run_json(capsys, "hilbert", "-71", "--invariant", "weber", "--cm-curve", "16")
+    c = d["cm_curve"]
+    p, t = c["p"], c["trace"]
+    assert p.bit_length() == 16 and sympy.isprime(p) and 4 * p == t * t + 71 * c["v"] ** 2
+    # brute-force point count of y² = x³ + a4 x + a6 over F_p (Euler's criterion)
+    n = 1 + sum(
+        1 if r == 0 else 1 + pow(r, (p - 1) // 2, p) if pow(r, (p - 1) // 2, p) == 1 else 0
+        for r in ((x**3 + c["a4"] * x + c["a6"]) % p for x in range(p))
+    )
+    assert n == c["order"] == p + 1 - t
+    code, out, _err = run(capsys, "hilbert", "-71", "--invariant", "weber", "--cm-curve", "64")
+    assert code == 0 and "has p + 1 - t =" in out and "random points P" in out

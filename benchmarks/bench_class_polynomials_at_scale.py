@@ -1,0 +1,129 @@
+"""Benchmark: class polynomials at h = 200, 400, 1000 — H_D, the Weber polynomial, roots mod a 256-bit prime.
+
+Run:  python3 benchmarks/bench_class_polynomials_at_scale.py [--repeat N] [--previous-large]
+
+Prints medians of N runs (default 3) of CPU time (``time.process_time``), measured side by
+side in one run, for D = −100015 (h = 200), −400095 (h = 400), −2000311 (h = 1000), all
+≡ 1 (mod 8) so that the Weber invariant applies:
+
+Columns: "prec" is the working precision in decimal digits, "digits" the length of the
+largest coefficient.
+
+* H_D (``verify=False`` and verified) by FLINT's modular j in balls at the precision of
+  Σ π√|D|/a plus room;
+* the previous path (our own η series in balls at the precision of the proved bound B(D),
+  the code on main before this change, rebuilt here from the same modules) for h = 200 and
+  400, and for h = 1000 with ``--previous-large`` (about 160 s a run);
+* the Weber polynomial (``verify=False`` and verified) and the ratio H_D / Weber;
+* the CM step at a 256-bit prime p with 4p = t² − D v²: all roots of the Weber polynomial
+  modulo p, their images j, and a curve with p + 1 − t points.
+"""
+
+from __future__ import annotations
+
+import argparse
+import math
+import statistics
+import sys
+import time
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+
+from formkit.analytic.ball_polynomials import certified_integer_coefficients, product_tree
+from formkit.analytic.j_function import _j_ball_of_form
+from formkit.representation import class_invariants as ci
+from formkit.representation import class_polynomials as cp
+from formkit.representation.cm_method import cm_curve, cm_prime, polynomial_roots_mod_prime
+
+CASES = [(-100015, 200), (-400095, 400), (-2000311, 1000)]
+
+
+def median_time(fn, repeat: int) -> float:
+    """Median CPU seconds of this process over ``repeat`` runs."""
+    times = []
+    for _ in range(repeat):
+        t = time.process_time()
+        fn()
+        times.append(time.process_time() - t)
+    return statistics.median(times)
+
+
+def previous_path(D: int) -> list[int]:
+    """The code on main before this change: own η-series j in balls at B(D)-based precision."""
+    from flint import arb_poly, ctx
+
+    forms = cp._reduced_forms(D)
+    h = len(forms)
+    bound = cp.class_polynomial_bound(D)
+    prec = math.ceil(bound * math.log2(10)) + 4 * math.ceil(math.log2(h + 2)) + 64
+    factors = []
+    with ctx.workprec(prec):
+        for a, b, c in forms:
+            if b < 0:
+                continue
+            j = _j_ball_of_form(a, b, D, prec)
+            if b == 0 or b == a or a == c:
+                factors.append(arb_poly([-j.real, 1]))
+            else:
+                factors.append(arb_poly([j.real * j.real + j.imag * j.imag, -2 * j.real, 1]))
+        coeffs = certified_integer_coefficients(product_tree(factors))
+    assert coeffs is not None
+    return coeffs
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--repeat", type=int, default=3)
+    ap.add_argument("--quick", action="store_true", help="h = 200 only")
+    ap.add_argument("--previous-large", action="store_true", help="also time the previous path at h = 1000")
+    args = ap.parse_args()
+    r = args.repeat
+    print(f"## class polynomials at scale (median CPU seconds of {r} runs)")
+    print(
+        f"{'D':>9} {'h':>5} {'H prec':>7} {'H s':>7} {'H ver s':>8} {'prev s':>8} {'prev/H':>7}"
+        f" {'W prec':>7} {'W s':>6} {'W ver s':>8} {'H/W':>6} {'W digits':>9} {'H digits':>9}"
+    )
+    rows = []
+    for D, h in CASES[:1] if args.quick else CASES:
+
+        def hd(verify: bool, D: int = D):
+            cp._class_polynomial.cache_clear()
+            return cp.class_polynomial(D, verify=verify)
+
+        def wd(verify: bool, D: int = D):
+            ci._weber_polynomial.cache_clear()
+            return ci.weber_polynomial(D, verify=verify)
+
+        t_h = median_time(lambda: hd(False), r)
+        t_hv = median_time(lambda: hd(True), r)
+        H = hd(False)
+        assert H.degree == h
+        t_prev = None
+        if h < 1000 or args.previous_large:
+            t_prev = median_time(lambda D=D: previous_path(D), r)
+            assert tuple(previous_path(D)) == H.coefficients  # same polynomial
+        t_w = median_time(lambda: wd(False), r)
+        t_wv = median_time(lambda: wd(True), r)
+        W = wd(False)
+        prev = "-" if t_prev is None else f"{t_prev:.2f}"
+        ratio = "-" if t_prev is None else f"{t_prev / t_h:.2f}"
+        print(
+            f"{D:>9} {h:>5} {H.working_digits:>7} {t_h:>7.2f} {t_hv:>8.2f} {prev:>8} {ratio:>7}"
+            f" {math.floor(W.working_bits * math.log10(2)):>7} {t_w:>6.2f} {t_wv:>8.2f} {t_h / t_w:>6.0f}"
+            f" {len(str(max(abs(c) for c in W.coefficients))):>9} {len(str(max(abs(c) for c in H.coefficients))):>9}"
+        )
+        rows.append((D, W))
+    print("\n## CM step at a 256-bit prime (median CPU seconds; Weber polynomial already computed)")
+    print(f"{'D':>9} {'h':>5} {'roots s':>8} {'curve s':>8} {'roots':>6}")
+    for D, W in rows:
+        p, t, _v = cm_prime(D, 256)
+        t_r = median_time(lambda p=p, W=W: polynomial_roots_mod_prime(W.coefficients, p), r)
+        xs = polynomial_roots_mod_prime(W.coefficients, p)
+        js = sorted({ci.weber_root_to_j(x, p, D) for x in xs})
+        t_c = median_time(lambda D=D, p=p, t=t, js=js: cm_curve(D, p, t, js[0]), r)
+        print(f"{D:>9} {W.degree:>5} {t_r:>8.2f} {t_c:>8.2f} {len(js):>6}")
+
+
+if __name__ == "__main__":
+    main()
