@@ -11,8 +11,8 @@ Prints medians over N runs (default 3) of **CPU time**, measured side by side in
   sympy's ``ecm`` (default bounds).  The sympy calls run in a child process limited to
   T seconds of CPU time (default 60; ``RLIMIT_CPU``); a call that does not finish is reported as
   ``> T s`` and the median is ``> T s`` once half the runs have timed out (the remaining
-  runs of that row are then skipped).  ``ecm`` with its default bounds may also give up;
-  that is reported as ``failed``.
+  runs of that row are then skipped).  ``ecm`` with its default bounds may also give up
+  (no factor found); that is reported as ``gave up``, and counts as no answer.
 * *Smith normal form of class group relation matrices*: relations among the first n prime
   forms of a negative discriminant (n = 50, 200, 1000 columns, 1.1·n + 10 rows, about
   ten non-zero entries per row), collected by formkit's own relation search (the one of
@@ -150,9 +150,11 @@ def outside_series(
 ) -> tuple[str, float | None]:
     """Run ``kind`` on each task (one child each) and summarise: ``(text, median or None)``.
 
-    The text is the median CPU time; ``> T s`` once at least half of the runs timed out
-    (the other runs are then skipped, the median being known to exceed T); runs that
-    give up (sympy's ``ecm`` with its default bounds) are counted as ``failed``.
+    The text is the median CPU time, a run without an answer counting as +∞; ``> T s``
+    once at least half of the runs timed out (the other runs are then skipped, the
+    median being known to exceed T); ``gave up k of n`` when at least half of the runs
+    ended without an answer and some of them gave up (sympy's ``ecm`` with its default
+    bounds raises ValueError).
     ``check(i, result)`` compares a result with the known answer of task ``i``.
     """
     vals: list[float] = []
@@ -168,13 +170,16 @@ def outside_series(
         else:
             check(i, r["result"])
             vals.append(r["cpu"])
-    note = f" ({failed} of {len(tasks)} failed)" if failed else ""
-    if tout and 2 * tout >= len(tasks):
-        return f"> {limit:g} s{note}", None
-    if not vals:
-        return f"failed ({failed} of {len(tasks)})", None
-    # a timed-out run counts as +∞ in the median
-    m = statistics.median(sorted(vals) + [float("inf")] * tout)
+    if failed + tout and 2 * (failed + tout) >= len(tasks):
+        # no answer in at least half of the runs: there is no median to quote
+        if not failed:
+            return f"> {limit:g} s", None
+        got = f"; answered in {', '.join(f'{v:.3f}' for v in vals)} s" if vals else ""
+        over = f", {tout} over {limit:g} s" if tout else ""
+        return f"gave up {failed} of {len(tasks)}{over}{got}", None
+    # a run without an answer (timed out or gave up) counts as +∞ in the median
+    m = statistics.median(sorted(vals) + [float("inf")] * (tout + failed))
+    note = f" ({failed} of {len(tasks)} gave up)" if failed else ""
     return f"{m:.3f}{note}", m
 
 
