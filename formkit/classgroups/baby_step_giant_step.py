@@ -24,7 +24,7 @@ is computed from the prime forms of small norm:
    generator's ℓ-part ``z`` contributes the relation ``z^{ℓ^j} = ∏ b_i^{d_i}`` with
    ``j`` minimal, found with an ℓ-adic discrete logarithm (Pohlig–Hellman digit by
    digit, the digits read off in the ℓ-torsion by a table or baby-step giant-step),
-   and a Smith normal form (sympy) of the relation matrix gives the new basis
+   and a Smith normal form of the relation matrix (:mod:`formkit.core.lattice`) gives the new basis
    (Cohen GTM 138, §2.4.3 and §5.5; Teske, "A space efficient algorithm for group
    structure computation", Math. Comp. 67 (1998)).  This part lives in
    :mod:`formkit.classgroups.abelian_groups`, shared with :mod:`formkit.classgroups.infrastructure`.

@@ -7,6 +7,7 @@ in the library tests; here the JSON shape and the error conventions are checked.
 
 from __future__ import annotations
 
+import json
 from math import gcd
 
 import pytest
@@ -174,3 +175,53 @@ def test_factors_option_bad_input(factors, needle, capsys):
     code, out, err = run(capsys, "represent", "1,0,1", "1625", "--factors", factors)
     assert code == 2 and out == ""
     assert err.startswith("formkit: error: ") and err.count("\n") == 1 and needle in err
+
+
+def _semiprime_1_mod_4(digits: int, seed: int) -> tuple[int, int]:
+    """Two random primes ≡ 1 (mod 4) of ``digits`` digits (sympy.nextprime, outside reference)."""
+    import random
+
+    from sympy import nextprime
+
+    rng = random.Random(seed)
+    out = []
+    for _ in range(2):
+        p = nextprime(rng.randrange(10 ** (digits - 1), 10**digits))
+        while p % 4 != 1:
+            p = nextprime(p)
+        out.append(int(p))
+    return out[0], out[1]
+
+
+def test_progress_line_while_factoring(monkeypatch, capsys):
+    # The notice waits 3 s; make it 0 so a quick 40-digit factorisation shows it, and
+    # pretend stderr is a terminal.  It names N and --factors, goes to stderr only, and
+    # --quiet silences it.
+    import formkit.core.factorisation as fz
+    import formkit.core.progress as pg
+
+    real = fz.slow_notice
+    monkeypatch.setattr(fz, "slow_notice", lambda what, hint="": real(what, hint=hint, after=0.0))
+    monkeypatch.setattr(pg, "progress_enabled", lambda stream=None: pg._forced is not False)
+    p, q = _semiprime_1_mod_4(20, 5)
+    fz._factor_cached.cache_clear()
+    code, out, err = run(capsys, "represent", "1,0,1", str(p * q), "--json")
+    assert code == 0
+    assert "formkit: factoring N (40 digits)" in err and "--factors" in err
+    assert out.count("\n") == 1 and json.loads(out)["count"] == 16  # stdout: the JSON object only
+    fz._factor_cached.cache_clear()
+    code, out, err = run(capsys, "represent", "1,0,1", str(p * q), "--json", "--quiet")
+    assert code == 0 and err == ""
+
+
+def test_wrong_factors_of_a_large_n_are_refused(capsys):
+    # the check refuses a composite "prime" and a wrong product before any factoring
+    p, q = _semiprime_1_mod_4(30, 6)
+    for given, needle in (
+        (f"{p * q}", "not prime"),
+        (f"{p}*{q + 1}", "not prime"),
+        (f"{p}*{p}", "multiply to"),
+    ):
+        code, out, err = run(capsys, "represent", "1,0,1", str(p * q), "--factors", given)
+        assert code == 2 and out == ""
+        assert err.startswith("formkit: error: ") and err.count("\n") == 1 and needle in err
