@@ -25,11 +25,12 @@ from dataclasses import dataclass
 from typing import Any
 
 from ..core.arith import as_int, isqrt
+from ..core.budget import check_cost
 from ..core.forms import Form, FormLike, as_form
 from ..core.reduction import reduced
 from ..errors import FormError, FormkitError
 
-__all__ = ["MAX_THETA_BOUND", "ThetaSeries", "theta_series"]
+__all__ = ["MAX_THETA_BOUND", "ThetaSeries", "theta_series", "theta_points", "theta_cost"]
 
 #: The largest ``N`` accepted (memory: one int64 per coefficient and per tallied point).
 MAX_THETA_BOUND = 10**8
@@ -135,6 +136,50 @@ def _counts(a: int, b: int, c: int, N: int):
     return total
 
 
+def theta_points(a: int, b: int, c: int, N: int) -> float:
+    """An upper estimate of the lattice points ``(x, y)`` with ``Q(x, y) ≤ N`` that :func:`_counts` visits.
+
+    The ellipse ``Q ≤ N`` has area ``2πN/√|D|``; the points in it are at most the area plus
+    the boundary rows, ``2·(2·y_max + 1) + 2·x_max + 1`` with ``y_max = √(4aN/|D|)`` and
+    ``x_max = √(4cN/|D|)`` (every row meets the ellipse in an interval).
+
+    Examples
+    --------
+    >>> int(theta_points(1, 0, 1, 100)) >= sum(1 for x in range(-10, 11) for y in range(-10, 11) if x*x + y*y <= 100)
+    True
+    """
+    import math
+
+    absD = 4 * a * c - b * b
+    area = 2 * math.pi * N / math.sqrt(absD)
+    ymax, xmax = math.sqrt(4 * a * N / absD), math.sqrt(4 * c * N / absD)
+    return area + 2 * (2 * ymax + 1) + 2 * xmax + 1
+
+
+def theta_cost(a: int, b: int, c: int, N: int) -> tuple[float, float]:
+    """Estimated ``(seconds, bytes)`` of :func:`theta_series` for the reduced form ``(a, b, c)`` up to ``N``.
+
+    Work: the lattice points of :func:`theta_points` (numpy, measured about 24 ns each with
+    the counting, ``(1, 0, 1)`` to ``10^7`` in 0.74 s CPU on the development machine), one
+    Python step per row ``y`` (about 5 µs) and one ``O(N)`` count per buffer of ``2^22``
+    values (about 5 ns per coefficient); taken as 75 ns, 15 µs and 15 ns (3 times over).
+    Memory: the ``N + 1`` coefficients (8 bytes) twice (the count and the total) and the
+    buffer of ``2^22`` values (8 bytes, twice while merging).
+
+    Examples
+    --------
+    >>> t, m = theta_cost(1, 0, 1, 10**8)
+    >>> 10 < t < 600 and m < 2**31
+    True
+    """
+    import math
+
+    pts = theta_points(a, b, c, N)
+    rows = math.sqrt(4 * a * N / (4 * a * c - b * b)) + 1
+    seconds = 7.5e-8 * pts + 1.5e-5 * rows + 1.5e-8 * (N + 1) * (pts / _CHUNK + 1)
+    return seconds, 16.0 * (N + 1) + 16.0 * _CHUNK
+
+
 def theta_series(form: FormLike, N: object) -> ThetaSeries:
     """The coefficients ``r_Q(n)``, ``0 ≤ n ≤ N``, of the theta series of a positive definite form.
 
@@ -173,6 +218,13 @@ def theta_series(form: FormLike, N: object) -> ThetaSeries:
     if not 0 <= N <= MAX_THETA_BOUND:
         raise FormkitError(f"N must lie in [0, {MAX_THETA_BOUND}], not {N}")
     R = reduced(Q)
+    seconds, memory = theta_cost(R.a, R.b, R.c, N)
+    check_cost(
+        f"the theta series of {Q} up to q^{N}",
+        seconds=seconds,
+        memory=memory,
+        further="a smaller bound N is cheaper (the work grows like N·(1 + N/4·10^6))",
+    )
     coeffs = _counts(R.a, R.b, R.c, N)
     coeffs = np.asarray(coeffs)
     coeffs.flags.writeable = False

@@ -138,12 +138,14 @@ def _cmd_theta(args: argparse.Namespace) -> int:
     if args.output and not args.genus:
         raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
     if not args.genus:
+        import numpy as np
+
         th = theta_series(Q, N)
         payload = {"kind": "theta", **th.to_dict(limit=show)}
 
         def human() -> str:
             m = min(N, show)
-            nonzero = sum(1 for n in range(1, N + 1) if th[n])
+            nonzero = int(np.count_nonzero(th.coefficients[1:]))
             lines = [
                 f"theta series of Q = {form_text(Q)} (D = {Q.discriminant}) up to q^{N}: exact counts r_Q(n) "
                 f"of (x, y) with Q(x, y) = n",

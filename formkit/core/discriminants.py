@@ -19,11 +19,13 @@ References
 
 from __future__ import annotations
 
+import time
 from collections.abc import Callable
 from dataclasses import dataclass
 from functools import lru_cache
 
-from ..errors import DiscriminantError, FormkitError
+from ..errors import BudgetError, DiscriminantError, FormkitError
+from . import budget as _budget
 from .arith import as_int, is_square, isqrt, kronecker
 from .factorisation import prime_factorisation
 
@@ -352,7 +354,20 @@ def _fundamental_unit(D: int) -> tuple[int, int]:
     a, b, c = a0, b0, c0
     # accumulated matrix P (det 1): form0 · P = current form
     p, q, r, s = 1, 0, 0, 1
+    # the walk has R/1.19 steps for the regulator R, unknown in advance: stopped when it
+    # outruns the time budget (callers that can price it first do so)
+    limit = _budget.current_budget().seconds
+    t0 = time.monotonic()
+    steps = 0
     while True:
+        steps += 1
+        if steps & 0xFFF == 0 and time.monotonic() - t0 > limit:
+            raise BudgetError(
+                f"the fundamental unit of D = {_budget.describe_integer(int(D))}: the cycle of the principal form "
+                f"has more than {steps} reduced forms, and walking it has taken "
+                f"longer than the budget of {_budget.format_seconds(limit)}; the unit's coefficients have about "
+                "R/log 10 digits; raise --budget, or use a smaller discriminant"
+            )
         a, b, c, tt = _rho_indefinite_raw(a, b, c, D, sq)
         # step matrix [[0, -1], [1, tt]]
         p, q, r, s = q, -p + tt * q, s, -r + tt * s

@@ -23,6 +23,13 @@ few seconds a line on stderr (:func:`formkit.core.progress.slow_notice`) says th
 factorisation is still running and that ``--factors`` (``factors=`` in Python) skips it.
 Measured reach on this machine: ``docs/performance.md`` (section *Factorisation*).
 
+*Cost and budget.*  The prime factors below ``2^32`` are removed first (FLINT's
+``factor_smooth``, well under a second at any size allowed by the number syntax).  What
+is left, if composite, is priced at its worst case, two primes of equal size, by
+:func:`factorisation_cost`; the child process is stopped when the time budget
+(:mod:`formkit.core.budget`) runs out, and the refusal names the estimate, the budget and
+``--factors``.
+
 References
 ----------
 .. [1] R. Crandall, C. Pomerance, *Prime Numbers: A Computational Perspective*, 2nd ed.,
@@ -42,7 +49,7 @@ from functools import lru_cache
 from ..errors import FormkitError, NotAnIntegerError
 from .progress import slow_notice
 
-__all__ = ["prime_factorisation", "checked_factorisation", "FACTORS_HINT"]
+__all__ = ["prime_factorisation", "checked_factorisation", "factorisation_cost", "FACTORS_HINT"]
 
 #: What the slow-job notice suggests (names the command line's option and the keyword).
 FACTORS_HINT = "if you know the prime factors, pass them with --factors (factors= in Python)"
@@ -56,6 +63,43 @@ _CHILD_SCRIPT = (
     "n = flint.fmpz(int(sys.stdin.read()))\n"
     "sys.stdout.write(' '.join(f'{int(p)}^{int(e)}' for p, e in n.factor()))\n"
 )
+
+
+#: Bits of the prime factors removed by FLINT's ``factor_smooth`` before the worst case
+#: of the cofactor is priced (about 0.05 s for a 100-digit number on this machine).
+_SMOOTH_BITS = 32
+
+
+def factorisation_cost(digits: int) -> tuple[float, float]:
+    """Worst-case ``(seconds, bytes)`` to factor a composite of ``digits`` decimal digits.
+
+    The worst case is a product of two primes of equal size, where FLINT's quadratic
+    sieve does the work.  Measured on the development machine (CPU seconds, medians of
+    products of two primes near ``10^(d/2)``): 0.02 s at 30 digits, 0.1 s at 40, 0.8 s
+    at 50, 8.4 s at 60 -- a factor of about 10 per 10 digits in this range, which the
+    quadratic sieve's ``L(n)^(1 + o(1))``, ``L(n) = exp(√(log n · log log n))``, flattens
+    only slowly.  The estimate is ``0.8 s · L(10^d)/L(10^50)`` times 3 (rounded up),
+    at least 0.1 s; memory ``20 MB + 3 MB`` per digit above 40 (the sieve's relations
+    and matrix, rounded up).  Larger numbers are usually factored far sooner (a small
+    factor is found by ECM), so this decides only whether to *start* without a time limit.
+
+    Examples
+    --------
+    >>> t, m = factorisation_cost(60)
+    >>> 10 < t < 60 and m < 2**30
+    True
+    >>> factorisation_cost(200)[0] > 86400 * 365
+    True
+    """
+    import math
+
+    def L(d: float) -> float:
+        ln = d * math.log(10)
+        return math.sqrt(ln * math.log(ln))
+
+    d = max(int(digits), 1)
+    seconds = 3 * 0.8 * math.exp(min(700.0, L(d) - L(50)))
+    return max(0.1, seconds), 20e6 + 3e6 * max(0, d - 40)
 
 
 def _as_int(x: object, name: str) -> int:
@@ -182,20 +226,68 @@ def _factor_cached(n: int, what: str) -> tuple[tuple[int, int], ...]:
         return ()
     if _is_probable_prime(n):
         return ((n, 1),)
-    if n.bit_length() <= _IN_PROCESS_BITS:
-        import flint
+    import flint
 
+    if n.bit_length() <= _IN_PROCESS_BITS:
         pairs = [(int(p), int(e)) for p, e in flint.fmpz(n).factor()]
     else:
-        with slow_notice(f"factoring {what} ({len(str(n))} digits)", hint=FACTORS_HINT):
-            pairs = _factor_in_child(n)
+        # small primes first (cheap at any size); the rest, if composite, in a child process
+        pairs = []
+        rest = 1
+        for fp, fe in flint.fmpz(n).factor_smooth(_SMOOTH_BITS):
+            q, k = int(fp), int(fe)
+            if _is_probable_prime(q):
+                pairs.append((q, k))
+            else:
+                rest *= q**k
+        if rest > 1:
+            pairs += _factor_cofactor(n, rest, what)
+    merged: dict[int, int] = {}
+    for q, k in pairs:
+        merged[q] = merged.get(q, 0) + k
+    pairs = list(merged.items())
     pairs.sort()
     _verify(n, pairs)
     return tuple(pairs)
 
 
-def _factor_in_child(n: int) -> list[tuple[int, int]]:
-    """FLINT's factorisation of ``n`` in a child Python process (killed on Ctrl-C)."""
+def _factor_cofactor(n: int, rest: int, what: str) -> list[tuple[int, int]]:
+    """Factor the composite cofactor ``rest`` of ``n`` (no prime factor below 2^32) within the budget."""
+    from .budget import check_cost, current_budget, describe_integer, format_seconds
+
+    if rest.bit_length() <= _IN_PROCESS_BITS:
+        import flint
+
+        return [(int(p), int(e)) for p, e in flint.fmpz(rest).factor()]
+    digits = len(str(rest))
+    seconds, memory = factorisation_cost(digits)
+    what_text = f"factoring {what} = {describe_integer(n)}"
+    if rest != n:
+        what_text += f" (a {digits}-digit cofactor without prime factors below 2^{_SMOOTH_BITS})"
+    else:
+        what_text += f" ({digits} digits, no prime factor below 2^{_SMOOTH_BITS})"
+    check_cost(what_text, memory=memory)  # memory first: the time limit below stops a long run
+    limit = current_budget().seconds
+    hint = FACTORS_HINT
+    if seconds > limit:
+        hint += f"; stopped after the time budget of {format_seconds(limit)} (--budget) if not done"
+    with slow_notice(f"factoring {what} ({len(str(n))} digits)", hint=hint):
+        pairs = _factor_in_child(rest, None if limit == float("inf") else limit)
+    if pairs is None:
+        from ..errors import BudgetError
+
+        raise BudgetError(
+            f"{what_text} did not finish within the budget of {format_seconds(limit)} (the worst case, two "
+            f"primes of {digits // 2} digits, needs about {format_seconds(seconds)}); {FACTORS_HINT}, or raise "
+            "the budget with --budget"
+        )
+    return pairs
+
+
+def _factor_in_child(n: int, timeout: float | None = None) -> list[tuple[int, int]] | None:
+    """FLINT's factorisation of ``n`` in a child Python process (killed on Ctrl-C).
+
+    ``None`` if it did not finish within ``timeout`` seconds (the child is killed)."""
     proc = subprocess.Popen(
         [sys.executable, "-c", _CHILD_SCRIPT],
         stdin=subprocess.PIPE,
@@ -204,7 +296,9 @@ def _factor_in_child(n: int) -> list[tuple[int, int]]:
         text=True,
     )
     try:
-        out, err = proc.communicate(str(n))
+        out, err = proc.communicate(str(n), timeout=timeout)
+    except subprocess.TimeoutExpired:
+        return None
     finally:
         if proc.poll() is None:
             proc.kill()

@@ -333,22 +333,32 @@ def class_polynomial_cost(h: int, digits: int, verify: bool = True) -> tuple[flo
     return seconds, 3 * h * P / 8 + 50e6
 
 
-@lru_cache(maxsize=64)
-def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
+_DEFAULT_FURTHER = (
+    "its degree is h(D) and its coefficients have about π·√|D|·Σ1/a digits, so only a smaller |D| is cheaper"
+)
+
+
+def _check_class_polynomial_cost(D: int, verify: bool, further: str | None) -> None:
     from ..core.budget import check_cost
 
     forms = _reduced_forms(D)
     h = len(forms)
-    bound = class_polynomial_bound(D)
     prec = _working_bits(_leading_term_bits(D, forms), h)
     seconds, memory = class_polynomial_cost(h, math.ceil(prec / 3.33), verify)
     check_cost(
         f"the Hilbert class polynomial of D = {D} (degree {h}, {prec} working bits)",
         seconds=seconds,
         memory=memory,
-        further="its degree is h(D) and its coefficients have about π·√|D|·Σ1/a digits, so "
-        "only a smaller |D| is cheaper",
+        further=further or _DEFAULT_FURTHER,
     )
+
+
+@lru_cache(maxsize=64)
+def _class_polynomial(D: int, verify: bool) -> ClassPolynomial:
+    forms = _reduced_forms(D)
+    h = len(forms)
+    bound = class_polynomial_bound(D)
+    prec = _working_bits(_leading_term_bits(D, forms), h)
     with slow_notice(f"class polynomial of D = {D} (h = {h}, {prec} bits)"):
         for _attempt in range(6):
             poly = _ball_product(D, forms, prec)
@@ -442,7 +452,7 @@ def _split_check(D: int, coeffs: list[int], forms, want: int = 6, want_principal
 @announces_slowness(
     lambda D, **k: f"the class polynomial of discriminant {D}", "--no-verify skips the verification"
 )
-def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
+def class_polynomial(D: object, *, verify: bool = True, further: str | None = None) -> ClassPolynomial:
     """The class polynomial ``H_D(x)`` of a negative discriminant ``D``.
 
     The Hilbert class polynomial when ``D`` is fundamental, the ring class polynomial
@@ -458,6 +468,9 @@ def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
     verify : bool
         Run the verification (coefficient bound, root counts modulo primes; the rounding
         is certified in every case).  Default ``True``.
+    further : str, optional
+        What a refusal under the budget names as the cheaper way (default: a smaller
+        ``|D|``); callers that can do without the polynomial say so here.
 
     Returns
     -------
@@ -469,6 +482,8 @@ def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
         If ``D`` is not a negative discriminant.
     RuntimeError
         If a verification check fails (this would be a bug; please report it).
+    BudgetError
+        If the estimate (:func:`class_polynomial_cost`) is over the budget.
 
     Examples
     --------
@@ -486,6 +501,7 @@ def class_polynomial(D: object, *, verify: bool = True) -> ClassPolynomial:
     recalled; the worked examples for D = −15, −20, −23).
     """
     D = _check_negative(D)
+    _check_class_polynomial_cost(D, bool(verify), further)
     return _class_polynomial(D, bool(verify))
 
 

@@ -46,10 +46,12 @@ from fractions import Fraction
 from typing import Any
 
 from ..classgroups.dispatch import class_group
+from ..core.budget import check_cost
 from ..core.forms import Form, FormLike
+from ..core.progress import progress_bar
 from ..errors import FormkitError
 from .genus_congruences import RESIDUE_LIMIT, genus_residues
-from .prime_decision import _check_bound, _check_form, _Decider, primes_up_to
+from .prime_decision import _check_bound, _check_form, _Decider, prime_listing_cost, primes_up_to
 
 __all__ = [
     "PrimeCriterion",
@@ -386,7 +388,11 @@ def prime_criterion(form: FormLike, *, polynomial: bool = True) -> PrimeCriterio
         if polynomial:
             from .class_polynomials import class_polynomial
 
-            poly = class_polynomial(D).coefficients
+            poly = class_polynomial(
+                D,
+                further="without the polynomial (formkit primes --no-polynomial, polynomial=False in Python) "
+                "the criterion costs only the class group",
+            ).coefficients
         return PrimeCriterion(
             kind="class_polynomial",
             polynomial=poly,
@@ -432,9 +438,16 @@ def represented_primes(form: FormLike, upto: object, *, method: str = "auto") ->
         raise FormkitError(f"method must be 'auto', 'congruence' or 'classes', not {method!r}")
     D = Q.discriminant
     dec = _Decider(Q)
-    primes = primes_up_to(X)
     size, pair = _genus_classes(dec)
     use_congruence = method == "congruence" or (method == "auto" and size == pair)
+    seconds, memory = prime_listing_cost(X, per_prime=not use_congruence)
+    check_cost(
+        f"listing the primes p ≤ {X} represented by {Q}",
+        seconds=seconds,
+        memory=memory,
+        further="a smaller bound reaches the answer sooner (the criterion and density do not depend on it)",
+    )
+    primes = primes_up_to(X)
     if use_congruence:
         if size != pair:
             raise FormkitError(
@@ -446,4 +459,10 @@ def represented_primes(form: FormLike, upto: object, *, method: str = "auto") ->
         for r in residues:
             ok[r] = 1
         return [p for p in primes if (ok[p % m] if D % p else p in dec.exceptions)]
-    return [p for p in primes if dec(p)]
+    out: list[int] = []
+    step = 1 << 14
+    with progress_bar(total=len(primes), desc=f"primes ≤ {X} represented by {Q}", unit="prime") as bar:
+        for i in range(0, len(primes), step):
+            out += [p for p in primes[i : i + step] if dec(p)]
+            bar.update(len(primes[i : i + step]))
+    return out
