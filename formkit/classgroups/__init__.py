@@ -16,7 +16,9 @@
 * :mod:`~formkit.classgroups.class_series` — Dirichlet series over the classes: Σ Z_C = w·ζ_K,
   L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
-  Eisenstein series from the genus characters, the cusp part.
+  Eisenstein series from the genus characters, the cusp part;
+* :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
+  eigenforms, the cusp part as a sum of eigenforms.
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -32,6 +34,8 @@ from .genus import *  # noqa: F403
 from .genus import __all__ as _genus_all
 from .genus_theta import *  # noqa: F403
 from .genus_theta import __all__ as _genus_theta_all
+from .hecke_theta import *  # noqa: F403
+from .hecke_theta import __all__ as _hecke_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
 from .infrastructure import *  # noqa: F403
@@ -51,4 +55,5 @@ __all__ = [
     *_infrastructure_all,
     *_class_series_all,
     *_genus_theta_all,
+    *_hecke_theta_all,
 ]

@@ -137,6 +137,10 @@ def _cmd_theta(args: argparse.Namespace) -> int:
         show = N
     if args.output and not args.genus:
         raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
+    if args.eigenforms:
+        if args.genus:
+            raise CommandError("--eigenforms and --genus are two views of theta: give one of them")
+        return _theta_eigenforms(args, Q, N, show)
     if not args.genus:
         th = theta_series(Q, N)
         payload = {"kind": "theta", **th.to_dict(limit=show)}
@@ -192,6 +196,80 @@ def _cmd_theta(args: argparse.Namespace) -> int:
         return "\n".join(lines)
 
     emit(args, payload, human_genus)
+    return 0
+
+
+def _theta_eigenforms(args: argparse.Namespace, Q, N: int, show: int) -> int:
+    from ..classgroups.hecke_theta import hecke_decomposition
+    from .conventions import emit
+
+    h = hecke_decomposition(Q, N)
+    payload = {"kind": "hecke_eigenforms", **h.to_dict(limit=show)}
+
+    def poly_line(factors) -> str:
+        return " * ".join(
+            f"({fac['text']})" + (f"^{fac['multiplicity']}" if fac["multiplicity"] > 1 else "")
+            for fac in factors
+        )
+
+    def human() -> str:
+        m = min(N, show)
+        d = h.to_dict(limit=show)
+        lines = [
+            f"Q = {form_text(Q)} (D = {h.discriminant}): the theta series of the classes of D span a space of "
+            f"dimension {h.span_dimension}; the cusp parts theta_C - (genus average) span {h.cusp_dimension}",
+            f"Hecke operators T_p (U_p for p | D) on q-expansions, each matrix proved by Sturm's bound "
+            f"(coefficients up to q^{h.sturm_bound} fix a weight-1 form on Gamma_0({-h.discriminant}))",
+            "characteristic polynomials on the cusp span:",
+        ]
+        for p, factors in d["hecke_polynomials"].items():
+            lines.append(
+                f"  p = {p:>3}{' (U_p)' if h.discriminant % int(p) == 0 else '       '}  {poly_line(factors)}"
+            )
+        if h.cusp_dimension == 0:
+            lines.append("the genus of Q has one class: theta_Q is its genus average, the cusp part is 0")
+        for i, f in enumerate(h.eigenforms, 1):
+            where = (
+                "Q"
+                if f.degree == 1
+                else f"Q(a), {f.to_dict()['field_polynomial_text'].replace('x', 'a')} = 0"
+            )
+            lines.append(f"eigenform f{i} over {where}, normalised a({f.normalised_at}) = 1:")
+            lines.append("  " + ", ".join(f"{n}: {f.coefficient_text(n)}" for n in range(1, m + 1)))
+            lines.append(
+                "  eigenvalues: "
+                + ", ".join(
+                    f"{'U' if h.discriminant % p == 0 else 'T'}_{p}: {_poly_text(v, 'a')}"
+                    for p, v in f.eigenvalues.items()
+                )
+            )
+        if h.unsplit:
+            lines.append(
+                "not split by these operators (eigenspaces of dimension > 1, e.g. old forms): "
+                + ", ".join(f"({_poly_text(g)})^{e}" for g, e in h.unsplit)
+            )
+        check = {
+            True: f"the sum of the traces equals theta_Q - theta_G up to q^{N} (checked exactly)",
+            False: "the sum of the traces DIFFERS from theta_Q - theta_G",
+            None: "no reconstruction: part of the cusp span is unsplit",
+        }[h.reconstructs]
+        if h.eigenforms:
+            terms = [
+                f"({f.component_text})*f{i}" if f.degree == 1 else f"Tr_{{Q(a)/Q}}(({f.component_text})*f{i})"
+                for i, f in enumerate(h.eigenforms, 1)
+            ]
+            lines.append("theta_Q - theta_G = " + " + ".join(terms))
+        if h.cusp_dimension:
+            lines.append(check)
+        lines.append(
+            "cusp part theta_Q - theta_G: " + ", ".join(f"{n}: {h.cusp_part[n]}" for n in range(m + 1))
+        )
+        lines.append(f"classes: {h.provenance}")
+        return "\n".join(lines)
+
+    from ..classgroups.hecke_theta import _poly_text
+
+    emit(args, payload, human)
     return 0
 
 
@@ -318,13 +396,18 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "(classes by complete enumeration), its comparison with the Eisenstein series given by the genus "
             "characters (fundamental D), and the cusp part theta_Q - average; with --output FILE.png|svg also "
             "a picture of r_Q(n) against the genus average (needs matplotlib). --limit K prints the first K+1 "
-            "coefficients (the computation goes to N). "
-            "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N)."
+            "coefficients (the computation goes to N). --eigenforms computes the Hecke operators T_p on the span "
+            "of the theta series of all classes of D (exact q-expansions, proved by Sturm's bound), their "
+            "characteristic polynomials, the simultaneous eigenforms over number fields Q(a), and theta_Q - "
+            "(genus average) as a sum of traces of eigenforms (|D| <= 20000). "
+            "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N), "
+            "formkit.hecke_decomposition(Q, N)."
         ),
         epilog=(
             "examples:\n  formkit theta 1,0,1 --bound 20\n  formkit theta 2,1,3 --bound 30 --genus\n"
             "  formkit theta 1,1,6 --bound 60 --genus --output cusp23.png\n"
-            "  formkit theta 1,0,1 --bound 10^6 --limit 5"
+            "  formkit theta 1,0,1 --bound 10^6 --limit 5\n"
+            "  formkit theta 1,1,6 --bound 30 --eigenforms\n  formkit theta 1,1,12 --bound 20 --eigenforms"
         ),
         formatter_class=raw,
     )
@@ -335,6 +418,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_limit_options(t, "coefficients after the constant term in the text output", 20)
     t.add_argument("--genus", action="store_true", help="genus average, Eisenstein comparison and cusp part")
     t.add_argument("--output", "-o", metavar="FILE", help="with --genus: write a PNG/SVG picture")
+    t.add_argument(
+        "--eigenforms",
+        action="store_true",
+        help="the cusp part as a sum of Hecke eigenforms (Hecke operators on the theta series of D)",
+    )
     t.set_defaults(handler=_cmd_theta)
 
     c = sub.add_parser(

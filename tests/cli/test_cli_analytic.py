@@ -57,6 +57,20 @@ def test_theta(capsys):
     assert g["siegel_agrees"] is True and g["cusp_part"][:3] == ["0", "-2/3", "2/3"]
 
 
+def test_theta_eigenforms(capsys):
+    # D = −47, Cl ≅ C5: one cusp eigenform over Q(√5); a(2) is a root of x² + x − 1 (Hecke: 2cos(4π/5)
+    # for the class of the prime form at 2, of order 5 — theorem, from memory)
+    e = run_json(capsys, "theta", "1,1,12", "--bound", "12", "--eigenforms")
+    assert e["kind"] == "hecke_eigenforms" and e["reconstructs"] is True and e["cusp_dimension"] == 2
+    (f,) = e["eigenforms"]
+    assert f["field_polynomial_text"] == "x^2 + x - 1" and f["coefficients"][2] == ["0", "1"]
+    assert e["hecke_polynomials"]["2"][0]["text"] == "x^2 + x - 1"
+    code, text, _err = run(capsys, "theta", "1,1,6", "--bound", "10", "--eigenforms")
+    assert code == 0 and "theta_Q - theta_G = (4/3)*f1" in text and "checked exactly" in text
+    code, _out, err = run(capsys, "theta", "1,1,6", "--bound", "10", "--eigenforms", "--genus")
+    assert code == 2 and "give one of them" in err
+
+
 def test_pictures(capsys, tmp_path):
     pytest.importorskip("matplotlib")
     png = tmp_path / "r.png"
