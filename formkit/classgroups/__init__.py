@@ -17,6 +17,8 @@
   L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
   Eisenstein series from the genus characters, the cusp part;
+* :mod:`~formkit.classgroups.partial_zeta` — partial zeta functions ζ(s, C) of the narrow classes
+  of D > 0, Σ_C ζ(s, C) = ζ_K(s), narrow class and genus character L-series for D > 0;
 * :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
   eigenforms, the cusp part as a sum of eigenforms.
 
@@ -34,14 +36,16 @@ from .genus import *  # noqa: F403
 from .genus import __all__ as _genus_all
 from .genus_theta import *  # noqa: F403
 from .genus_theta import __all__ as _genus_theta_all
-from .hecke_theta import *  # noqa: F403
-from .hecke_theta import __all__ as _hecke_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
+from .hecke_theta import *  # noqa: F403
+from .hecke_theta import __all__ as _hecke_theta_all
 from .infrastructure import *  # noqa: F403
 from .infrastructure import __all__ as _infrastructure_all
 from .orders import *  # noqa: F403
 from .orders import __all__ as _orders_all
+from .partial_zeta import *  # noqa: F403
+from .partial_zeta import __all__ as _partial_zeta_all
 from .principal_genus_theorem import *  # noqa: F403
 from .principal_genus_theorem import __all__ as _theorem_all
 
@@ -56,4 +60,5 @@ __all__ = [
     *_class_series_all,
     *_genus_theta_all,
     *_hecke_theta_all,
+    *_partial_zeta_all,
 ]

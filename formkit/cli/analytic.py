@@ -39,6 +39,10 @@ def _identity_lines(r) -> list[str]:
     ]
 
 
+def _ideal_bound(args: argparse.Namespace) -> int | None:
+    return None if args.bound is None else parse_integer(args.bound, "--bound")
+
+
 def _cmd_l_value(args: argparse.Namespace) -> int:
     from ..analytic.l_series import l_series, quadratic_field_zeta
     from ..classgroups.class_series import class_character_l_series, genus_character_l_series
@@ -49,9 +53,19 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     chosen = [x for x in (args.class_character, args.genus, args.field_zeta or None) if x is not None]
     if len(chosen) > 1:
         raise CommandError("choose at most one of --class-character, --genus and --field-zeta")
+    bound = _ideal_bound(args)
+    if bound is not None and not (D > 0 and (args.genus is not None or args.class_character is not None)):
+        raise CommandError("--bound sets the ideal norms summed for D > 0 with --genus or --class-character")
     if args.genus is not None:
         d1 = parse_integer(args.genus, "--genus")
-        r = genus_character_l_series(D, d1, args.s, digits=digits)
+        if D > 0:
+            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_genus_character_l_series
+
+            r = real_genus_character_l_series(
+                D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+            )
+        else:
+            r = genus_character_l_series(D, d1, args.s, digits=digits)
         payload = {"kind": "genus_character", **r.to_dict()}
         emit(args, payload, lambda: "\n".join(_identity_lines(r)))
         return 0
@@ -62,7 +76,14 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
             raise CommandError(
                 f"--class-character takes exponents such as 1 or 1,0, not {args.class_character!r}"
             ) from exc
-        v = class_character_l_series(D, k, args.s, digits=digits)
+        if D > 0:
+            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_class_character_l_series
+
+            v = real_class_character_l_series(
+                D, k, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+            )
+        else:
+            v = class_character_l_series(D, k, args.s, digits=digits)
         name = v.quantity.replace("L(s, ψ)", f"L({v.s}, ψ)")
         payload = {"kind": "class_character", "discriminant": D, "character": k, **v.to_dict()}
     elif args.field_zeta:
@@ -84,8 +105,13 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
     from .conventions import CommandError, emit
 
     digits = _digits(args)
+    bound = _ideal_bound(args)
     if args.classes or args.chowla_selberg:
         D = parse_discriminant(args.target, "D")
+        if bound is not None and not (args.classes and D > 0):
+            raise CommandError("--bound sets the ideal norms summed for --classes with D > 0")
+        if args.classes and D > 0:
+            return _real_classes(args, D, bound, digits)
         if args.chowla_selberg:
             if args.s is not None:
                 raise CommandError("--chowla-selberg takes no S")
@@ -122,6 +148,49 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
     v = epstein_zeta(Q, args.s, digits=digits)
     payload = {"kind": "epstein", **v.to_dict()}
     emit(args, payload, lambda: "\n".join(_value_lines(v, f"Z_Q({v.s}) for Q = {form_text(Q)}")))
+    return 0
+
+
+def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: int) -> int:
+    from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, partial_zeta_values, real_class_zeta_sum
+    from ..core.discriminants import is_fundamental_discriminant
+    from .conventions import CommandError, emit
+
+    if args.s is None:
+        raise CommandError("--classes needs S (the point s)")
+    z = partial_zeta_values(D, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits)
+    r = real_class_zeta_sum(D, args.s, digits=digits, values=z) if is_fundamental_discriminant(D) else None
+    info = z.to_dict()
+    payload = {
+        "kind": "partial_zeta",
+        "discriminant": D,
+        "s": str(z.s),
+        "bound": z.bound,
+        "tail_bound": info["tail_bound"],
+        "partial_zeta": info["classes"],
+        "provenance": z.provenance,
+    }
+    if r is not None:
+        payload.update({k: v for k, v in r.to_dict().items() if k not in payload})
+
+    def human() -> str:
+        lines = [
+            f"partial zeta functions zeta(s, C) = sum of N(a)^-s over the invertible ideals a of the narrow class C, "
+            f"D = {D}, s = {z.s}:",
+            f"  direct sum over the ideals of norm <= {z.bound}, the rest bounded by {z.tail_bound:.1e} "
+            "(explicit tail bound); ball arithmetic, unconditional",
+        ]
+        for f, v, n in zip(z.classes, z.values, z.ideal_counts):
+            lines.append(
+                f"  C = [{form_text(f)}]: {v.text():<22} (|error| <= {v.error_bound:.1e}; {n} primitive ideals)"
+            )
+        if r is not None:
+            lines.extend(_identity_lines(r))
+        else:
+            lines.append(f"  ({D} is not fundamental: no comparison with zeta(s) L(s, chi_D))")
+        return "\n".join(lines)
+
+    emit(args, payload, human)
     return 0
 
 
@@ -325,17 +394,22 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "by the functional equation and the incomplete-gamma series, in ball arithmetic with an explicit "
             "tail bound (unconditional); at s = 0, -1, -2, ... the exact rational value from generalised "
             "Bernoulli numbers. --field-zeta gives the Dedekind zeta function zeta(s) L(s, chi_dK) of K = Q(sqrt D); "
-            "--class-character K1,K2,... the L-series of the character of Cl(D) (D < 0) sending the i-th "
-            "generator of 'formkit group D' to exp(2 pi i K_i/n_i), as (1/w) sum over classes of psi(C) Z_C(s); "
-            "--genus D1 the genus character for D = D1*D2 (fundamental D < 0), computed by the classes and as "
+            "--class-character K1,K2,... the L-series of the character of Cl(D) sending the i-th "
+            "generator of 'formkit group D' to exp(2 pi i K_i/n_i): for D < 0 as (1/w) sum over classes of "
+            "psi(C) Z_C(s) (Epstein zeta functions, any s); for D > 0 as the sum of psi(C) zeta(s, C) over the "
+            "narrow classes (partial zeta functions summed directly over the ideals of norm <= --bound, real "
+            "s > 1 only, with an explicit tail bound: few digits at s = 2, more at larger s); "
+            "--genus D1 the genus character for D = D1*D2 (fundamental D), computed by the classes and as "
             "L(s, chi_D1) L(s, chi_D2). s is written 2, -3, 0.5, 1/2 or 1/2+14.1347i. "
             "Python: formkit.l_series(D, s, digits=...), formkit.quadratic_field_zeta, "
-            "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s)."
+            "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s), "
+            "formkit.real_class_character_l_series, formkit.real_genus_character_l_series (D > 0)."
         ),
         epilog=(
             "examples:\n  formkit l-value -23 1\n  formkit l-value -4 1/2+6i --digits 20\n"
             "  formkit l-value 5 -1\n  formkit l-value 5 2 --field-zeta\n"
-            "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3"
+            "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3\n"
+            "  formkit l-value 229 3 --class-character 1 --bound 5000\n  formkit l-value 60 3 --genus 5 --bound 5000"
         ),
         formatter_class=raw,
     )
@@ -345,8 +419,15 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument(
         "--field-zeta", action="store_true", help="the Dedekind zeta function of Q(sqrt D) instead"
     )
-    p.add_argument("--class-character", metavar="K1,K2,...", help="a character of Cl(D), D < 0, by exponents")
-    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D < 0)")
+    p.add_argument(
+        "--class-character", metavar="K1,K2,...", help="a character of Cl(D) (narrow for D > 0), by exponents"
+    )
+    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D)")
+    p.add_argument(
+        "--bound",
+        metavar="X",
+        help="D > 0: sum the partial zeta functions over the ideals of norm <= X (default 20000, at most 10^6)",
+    )
     p.set_defaults(handler=_cmd_l_value)
 
     e = sub.add_parser(
@@ -359,15 +440,19 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "arithmetic. --limit-formula: the residue 2 pi/sqrt|D| and the constant term at s = 1 by Kronecker's "
             "first limit formula through Dedekind's eta at the root of Q, checked against the expansion. "
             "--classes: the target is a fundamental D < 0 and the sum of Z_C(s) over its classes is set beside "
-            "w zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D (the product "
-            "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product). "
+            "w zeta(s) L(s, chi_D); for D > 0 (where the forms are indefinite and Z_Q is no sum) the partial zeta "
+            "functions zeta(s, C) of the narrow ideal classes are given instead, summed directly over the ideals "
+            "of norm <= --bound (real s > 1, explicit tail bound), and for fundamental D their sum is set beside "
+            "zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D < 0 (the product "
+            "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product; a statement about CM points, "
+            "so D > 0 is refused). "
             "Python: formkit.epstein_zeta(Q, s), formkit.kronecker_limit(Q), formkit.class_zeta_sum(D, s), "
-            "formkit.chowla_selberg(D)."
+            "formkit.chowla_selberg(D), formkit.partial_zeta_values(D, s), formkit.real_class_zeta_sum(D, s)."
         ),
         epilog=(
             "examples:\n  formkit epstein 1,0,1 2\n  formkit epstein 2,1,3 1/2+3i --digits 20\n"
             "  formkit epstein 1,1,1 --limit-formula\n  formkit epstein -23 2 --classes\n"
-            "  formkit epstein -163 --chowla-selberg"
+            "  formkit epstein -163 --chowla-selberg\n  formkit epstein 229 3 --classes --bound 5000"
         ),
         formatter_class=raw,
     )
@@ -382,7 +467,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="sum over the classes of D against w times the Dedekind zeta function of Q(sqrt D)",
     )
     mode.add_argument(
-        "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula"
+        "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula (D < 0)"
+    )
+    e.add_argument(
+        "--bound",
+        metavar="X",
+        help="--classes with D > 0: ideals of norm <= X are summed (default 20000, at most 10^6)",
     )
     e.set_defaults(handler=_cmd_epstein)
 

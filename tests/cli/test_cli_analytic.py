@@ -71,6 +71,36 @@ def test_theta_eigenforms(capsys):
     assert code == 2 and "give one of them" in err
 
 
+def test_real_quadratic_classes(capsys):
+    # D = 229 > 0: the partial zeta functions sum to ζ(3)·L(3, χ_229) (mpmath's Dirichlet L-series)
+    c = run_json(capsys, "epstein", "229", "3", "--classes", "--bound", "2000", "--digits", "15")
+    assert c["kind"] == "partial_zeta" and c["agrees"] is True and len(c["partial_zeta"]) == 3
+    with mpmath.workdps(20):
+        ref = mpmath.zeta(3) * mpmath.dirichlet(3, [0] + _chi(229))
+    total = sum(mpmath.mpf(x["zeta"]["value"]["real"]) for x in c["partial_zeta"])
+    # each text value is correct to its "digits" significant digits (error bound plus the rounding)
+    tolerance = sum(
+        float(x["zeta"]["error_bound"])
+        + abs(float(x["zeta"]["value"]["real"])) * 10.0 ** (1 - x["zeta"]["digits"])
+        for x in c["partial_zeta"]
+    )
+    assert abs(total - ref) <= tolerance
+    g = run_json(capsys, "l-value", "12", "4", "--genus", "-3", "--bound", "2000", "--digits", "15")
+    assert g["kind"] == "genus_character" and g["agrees"] is True
+    k = run_json(capsys, "l-value", "229", "3", "--class-character", "1", "--bound", "2000")
+    assert k["kind"] == "class_character" and k["discriminant"] == 229
+    code, _out, err = run(capsys, "epstein", "5", "--chowla-selberg")
+    assert code == 2 and "CM points" in err
+    code, _out, err = run(capsys, "l-value", "-23", "2", "--bound", "100")
+    assert code == 2 and "--bound" in err
+
+
+def _chi(D):
+    from formkit.core.arith import kronecker
+
+    return [kronecker(D, n) for n in range(1, D)]
+
+
 def test_pictures(capsys, tmp_path):
     pytest.importorskip("matplotlib")
     png = tmp_path / "r.png"
