@@ -243,10 +243,15 @@ def _cmd_theta(args: argparse.Namespace) -> int:
 
     def human_genus() -> str:
         m = min(N, show)
+        source = (
+            "the genus characters"
+            if "genus characters" in t.eisenstein_method
+            else "Siegel's local densities"
+        )
         siegel = {
-            True: f"equals the Eisenstein series from the genus characters (checked up to q^{N})",
-            False: "DIFFERS from the genus-character Eisenstein series",
-            None: "(D is not fundamental: no Eisenstein comparison)",
+            True: f"equals the Eisenstein series from {source} (checked exactly up to q^{t.eisenstein_bound})",
+            False: f"DIFFERS from the Eisenstein series from {source}",
+            None: "(no Eisenstein comparison)",
         }[t.siegel_agrees]
         lines = [
             f"Q = {form_text(Q)} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"

@@ -55,6 +55,13 @@ def test_theta(capsys):
     assert t["coefficients"] == [1, 4, 4, 0, 4, 8, 0, 0, 4, 4, 8, 0, 0]  # Jacobi's r₂(n)
     g = run_json(capsys, "theta", "2,1,3", "--bound", "10", "--genus")
     assert g["siegel_agrees"] is True and g["cusp_part"][:3] == ["0", "-2/3", "2/3"]
+    # D = −36 = 3²·(−4), an order: Siegel's formula with local densities against the lattice-point average
+    o = run_json(capsys, "theta", "2,2,5", "--bound", "40", "--genus")
+    assert (
+        o["siegel_agrees"] is True
+        and o["eisenstein_bound"] == 40
+        and "local densities" in o["eisenstein_method"]
+    )
 
 
 def test_theta_eigenforms(capsys):
