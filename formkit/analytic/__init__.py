@@ -14,7 +14,9 @@
 * :mod:`~formkit.analytic.eta` — Dedekind's η(τ), certified;
 * :mod:`~formkit.analytic.epstein` — the Epstein zeta function Z_Q(s) of a positive definite
   form (Chowla–Selberg expansion) and Kronecker's first limit formula;
-* :mod:`~formkit.analytic.theta_series` — θ_Q = Σ r_Q(n) qⁿ of one positive definite form.
+* :mod:`~formkit.analytic.theta_series` — θ_Q = Σ r_Q(n) qⁿ of one positive definite form;
+* :mod:`~formkit.analytic.local_densities` — the local densities α_p(n) of a binary form and
+  Siegel's formula for the genus average, for every D < 0 (orders included).
 
 Floating point appears here only with a stated precision and a verification step.
 This layer imports only :mod:`formkit.core` and :mod:`formkit.errors`; the names below
@@ -35,6 +37,8 @@ from .j_function import *  # noqa: F403
 from .j_function import __all__ as _j_all
 from .l_series import *  # noqa: F403
 from .l_series import __all__ as _l_series_all
+from .local_densities import *  # noqa: F403
+from .local_densities import __all__ as _local_densities_all
 from .lseries import *  # noqa: F403
 from .lseries import __all__ as _lseries_all
 from .special_values import *  # noqa: F403
@@ -53,4 +57,5 @@ __all__ = [
     *_eta_all,
     *_epstein_all,
     *_theta_all,
+    *_local_densities_all,
 ]

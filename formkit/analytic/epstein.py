@@ -22,7 +22,9 @@ opposite poles and together equal ``a^(−½)·(2γ + log(|D|/(64π²a²)))``;
 and ``|n^(s−½)σ_{1−2s}(n)| ≤ n^(μ+1)`` bound the terms ``n > N``; since
 ``πn√|D|/a ≥ π√3·n`` for a reduced form, about ``digits/2.4`` terms are needed.  The
 ζ-values come from :func:`formkit.analytic.l_series.riemann_zeta`'s series; everything
-is ball arithmetic (python-flint) and certified as in :mod:`formkit.analytic.balls`.
+is ball arithmetic (python-flint) and certified as in :mod:`formkit.analytic.balls` —
+the tail bound and the widening of flint's ``K_ν`` for the radii of its arguments too
+(floating point only chooses the number of terms).
 
 **Kronecker's first limit formula.**  With ``τ_Q = (−b + i√|D|)/(2a)``,
 
@@ -67,7 +69,7 @@ from .balls import (
     check_digits,
     meets,
 )
-from .l_series import _series_value
+from .l_series import _error_ball, _series_value
 
 __all__ = ["epstein_zeta", "KroneckerLimit", "kronecker_limit"]
 
@@ -95,8 +97,30 @@ def _zeta_ball(u: ComplexArgument, digits: int):
     return _series_value(1, u, digits)[0]
 
 
+def _bessel_tail_ball(absD: int, a: int, mu: Fraction, N: int):
+    """The bound ``b(N+1)/(1 − ρ)`` for ``Σ_{n>N}`` of the K-Bessel terms, in ball arithmetic.
+
+    ``b(n) = n^E·√(2π/x)·e^(−x + μ²/(2x))``, ``x = nα``, ``α = π√|D|/a``, ``E = μ + 1``, and
+    ``b(n+1)/b(n) ≤ ρ = (1 + 1/(N+1))^E·e^(−α)`` for ``n > N`` (the exponent
+    ``−x − ½log x + μ²/(2x)`` decreases); ``None`` if ``ρ < 1`` is not certain.
+    """
+    from flint import arb, fmpq
+
+    mu_b = arb(fmpq(mu.numerator, mu.denominator))
+    E = mu_b + 1
+    alpha = arb.pi() * arb(absD).sqrt() / a
+    n1 = N + 1
+    x = alpha * n1
+    b = (E * arb(n1).log()).exp() * (2 * arb.pi() / x).sqrt() * (-x + mu_b * mu_b / (2 * x)).exp()
+    rho = (E * (1 + arb(1) / n1).log()).exp() * (-alpha).exp()
+    if not rho < 1:  # pragma: no cover - alpha ≥ π√3 and N chosen with ρ < 0.9
+        return None
+    return b / (1 - rho)
+
+
 def _bessel_terms_needed(alpha: float, mu: float, log_tol: float) -> tuple[int, float]:
-    """``(N, tail)`` with the bound for ``Σ_{n>N}`` below ``e^log_tol``."""
+    """``(N, tail)`` with the bound for ``Σ_{n>N}`` below ``e^log_tol`` (floats: they only choose
+    ``N``; the bound added to the value is :func:`_bessel_tail_ball`)."""
     E = mu + 1
 
     def log_b(n: int) -> float:
@@ -127,16 +151,16 @@ def _bessel_k(x, nu):
     from flint import acb, arb, ctx
 
     xm = arb(x.mid())
-    x_rad = float(x.rad())
+    x_rad_b = arb(x.rad())
     num: acb | arb
     if isinstance(nu, acb):
         num = acb(arb(nu.real.mid()), arb(nu.imag.mid()))
-        nu_rad = float(nu.real.rad()) + float(nu.imag.rad())
-        mu = abs(float(nu.real.mid())) + nu_rad
+        nu_rad_b = arb(nu.real.rad()) + arb(nu.imag.rad())
+        mu_b = abs(arb(nu.real.mid())) + nu_rad_b
     else:
         num = arb(nu.mid())
-        nu_rad = float(nu.rad())
-        mu = abs(float(nu.mid())) + nu_rad
+        nu_rad_b = arb(nu.rad())
+        mu_b = abs(arb(nu.mid())) + nu_rad_b
 
     def k_at(bits: int):
         with ctx.workprec(bits):
@@ -146,17 +170,18 @@ def _bessel_k(x, nu):
     if value.rel_accuracy_bits() < ctx.prec - 12:
         # flint's series for moderate x cancels about 2x/log 2 bits: ask for that many more
         value = k_at(ctx.prec + int(2.9 * float(xm)) + 20)
-    xf = float(xm) * (1 - 1e-12) - x_rad
-    base = math.sqrt(2 * math.pi / xf) * math.exp(-xf)
-    widen = x_rad * base * math.exp((mu + 1) ** 2 / (2 * xf))
-    widen += nu_rad * base * math.exp(mu * mu / (2 * xf)) * (mu / xf + math.sqrt(2 / (math.pi * xf)))
-    widen *= 1 + 1e-9
-    if widen:
-        if isinstance(value, acb):
-            value += acb(arb(0, widen), arb(0, widen))
-        else:
-            value += arb(0, widen)
-    return value
+    # the bounds decrease in x: evaluate them (in ball arithmetic) at the left end x_lo of the ball
+    x_lo = xm - x_rad_b
+    if not x_lo > 0:  # pragma: no cover - x ≥ π√3
+        raise ArithmeticError("K-Bessel argument ball reaches 0")
+    if x_rad_b == 0 and nu_rad_b == 0:
+        return value
+    base = (2 * arb.pi() / x_lo).sqrt() * (-x_lo).exp()
+    widen = x_rad_b * base * ((mu_b + 1) ** 2 / (2 * x_lo)).exp()
+    widen += (
+        nu_rad_b * base * (mu_b * mu_b / (2 * x_lo)).exp() * (mu_b / x_lo + (2 / (arb.pi() * x_lo)).sqrt())
+    )
+    return value + _error_ball(widen, isinstance(value, acb))
 
 
 def _third_term(a: int, b: int, absD: int, s: ComplexArgument, prec: int, log_tol: float):
@@ -175,7 +200,10 @@ def _third_term(a: int, b: int, absD: int, s: ComplexArgument, prec: int, log_to
             + (1 - 2 * sb) / 4 * arb(absD).log()
         ).exp() * sb.rgamma()
         scale = max(ball_upper(coeff), 1e-300)
-        N, tail = _bessel_terms_needed(alpha_f, mu, log_tol - math.log(scale))
+        N, _tail = _bessel_terms_needed(alpha_f, mu, log_tol - math.log(scale))
+        tail = _bessel_tail_ball(absD, a, abs(s.real - Fraction(1, 2)), N)
+        if tail is None:  # pragma: no cover
+            raise ArithmeticError(f"the K-Bessel tail bound does not apply at N = {N}")
         total = arb(0) if s.is_real else acb(0)
         one_minus_2s = 1 - 2 * sb
         for n in range(1, N + 1):
@@ -183,10 +211,7 @@ def _third_term(a: int, b: int, absD: int, s: ComplexArgument, prec: int, log_to
             x = arb.pi() * arb(absD).sqrt() * n / a
             k = _bessel_k(x, (s - Fraction(1, 2)).ball())
             total += ((sb - arb(1) / 2) * arb(n).log()).exp() * sig * arb.cos_pi_fmpq(fmpq(n * b, a)) * k
-        if isinstance(total, acb):
-            total += acb(arb(0, tail), arb(0, tail))
-        else:
-            total += arb(0, tail)
+        total += _error_ball(tail, isinstance(total, acb))
         return coeff * total, N
 
 

@@ -19,8 +19,9 @@ series converges like ``e^(−πn²/q)``, so about ``√(q·digits)`` terms are 
 **Error bound.**  For ``x > c = max(0, Re σ − 1)``, ``|E_{1−σ}(x)| ≤ e^(−x)/(x − c)``
 (bound ``t^(Re σ − 1) ≤ e^(c(t−1))`` under the integral), so the terms ``n > N`` add at
 most ``(N+1)^a·e^(−x)·(1/(x − c₁) + 1/(x − c₂))/(1 − r)^(a+1)`` with ``x = x_{N+1}``
-and ``r = e^(−2π(N+1)/q)``; ``N`` is chosen to make this small enough and the bound is
-added to the radius of the ball.
+and ``r = e^(−2π(N+1)/q)``; ``N`` is chosen (in floating point) to make this small
+enough, and the bound itself is then evaluated in ball arithmetic and added to the radius
+of the ball, so no rounding error of its own is left out.
 
 **Blocks.**  For large ``q`` the terms are grouped into blocks ``n ∈ [n₀ − B, n₀ + B]``
 with ``B ≈ n₀/32`` and each ``E`` expanded in a Taylor series around ``x₀ = x_{n₀}``:
@@ -28,8 +29,8 @@ with ``B ≈ n₀/32`` and each ``E`` expanded in a Taylor series around ``x₀ 
 the coefficients come from one value of ``E``; the block sum needs only the exact
 integer moments ``Σ χ(n)·n^a·(n² − n₀²)^k``.  The remainder after ``K`` terms is at most
 ``h^(K+1)/(K+1)!·Γ(Re σ+K+1)/(x₀−h)^(Re σ+K+1)`` per term (``h`` the largest
-``|x_n − x₀|``), also added to the radius.  This turns the ``√q`` special-function
-values into ``O(log q)`` of them plus integer arithmetic.
+``|x_n − x₀|``), also evaluated in ball arithmetic and added to the radius.  This turns
+the ``√q`` special-function values into ``O(log q)`` of them plus integer arithmetic.
 
 All arithmetic is ball arithmetic (python-flint's ``arb``), so rounding errors are
 bounded as well; the result is returned only when its radius meets the requested
@@ -127,8 +128,41 @@ def _character_table(d: int, N: int):
     return chi
 
 
+def _error_ball(bound, complex_: bool):
+    """A ball ``[−B, B]`` (or ``[−B, B] + [−B, B]i``) containing every number of modulus ``≤ bound``.
+
+    ``bound`` is an arb whose upper end is the bound: the product with the exact ball
+    ``[−1, 1]`` contains ``[−B, B]`` rigorously (no floating-point rounding of ``B``).
+    """
+    from flint import acb, arb
+
+    unit = arb(0, 1)
+    b = unit * bound.upper()
+    return acb(b, b) if complex_ else b
+
+
+def _tail_bound_ball(N: int, q: int, a: int, c1: Fraction, c2: Fraction):
+    """The bound of the module docstring for the terms ``n > N``, in ball arithmetic (``None`` if it does not apply)."""
+    from flint import arb, fmpq
+
+    n1 = N + 1
+    x = arb.pi() * (n1 * n1) / q
+    inverse_gaps = arb(0)
+    for c in (c1, c2):
+        gap = x - arb(fmpq(c.numerator, c.denominator))
+        if not gap > 0:
+            return None
+        inverse_gaps += 1 / gap
+    r = (-2 * arb.pi() * n1 / q).exp()
+    return arb(n1) ** a * (-x).exp() * inverse_gaps / (1 - r) ** (a + 1)
+
+
 def _tail_log_bound(N: int, q: int, a: int, c1: float, c2: float) -> float:
-    """log of the bound for the terms n > N (module docstring); +inf when it does not apply."""
+    """log of the bound for the terms n > N (module docstring); +inf when it does not apply.
+
+    In floating point: it only chooses ``N``; the bound added to the result is
+    :func:`_tail_bound_ball`, in ball arithmetic.
+    """
     x = math.pi * (N + 1) ** 2 / q
     if x <= max(c1, c2) + 1e-9:
         return math.inf
@@ -168,14 +202,39 @@ def _expint(x, sigma):
 
 
 def _remainder_log(h: float, x0: float, sr: float, K: int) -> float:
-    """log of ``h^(K+1)/(K+1)!·Γ(σr+K+1)/(x0−h)^(σr+K+1)`` (the Taylor remainder bound)."""
+    """log of ``h^(K+1)/(K+1)!·Γ(σr+K+1)/(x0−h)^(σr+K+1)`` (the Taylor remainder bound), in floats:
+    it only chooses ``K``; :func:`_remainder_ball` is the bound used."""
     c = sr + K + 1
     if c <= 0:
         return math.inf
     return (K + 1) * math.log(h) - math.lgamma(K + 2) + math.lgamma(c) - c * math.log(x0 - h)
 
 
-def _block_sum(chi, q: int, a: int, lo: int, hi: int, sigmas, sr: tuple[float, float], log_tol: float):
+def _remainder_ball(lo: int, hi: int, n0: int, q: int, sr: Fraction, K: int):
+    """``h^(K+1)/(K+1)!·Γ(σr+K+1)/(x0−h)^(σr+K+1)`` in ball arithmetic, ``x0 = πn0²/q``, ``h = max|x_n − x0|``."""
+    from flint import arb, fmpq
+
+    h = arb.pi() * max(abs(lo * lo - n0 * n0), abs(hi * hi - n0 * n0)) / q
+    x0 = arb.pi() * (n0 * n0) / q
+    c = sr + K + 1
+    gap = x0 - h
+    if not (c > 0 and gap > 0):  # pragma: no cover - blocks are at most 1/16 of their start
+        raise ArithmeticError(f"Taylor remainder bound does not apply to the block [{lo}, {hi}]")
+    cb = arb(fmpq(c.numerator, c.denominator))
+    return h ** (K + 1) / arb(K + 2).gamma() * cb.gamma() / (cb * gap.log()).exp()
+
+
+def _block_sum(
+    chi,
+    q: int,
+    a: int,
+    lo: int,
+    hi: int,
+    sigmas,
+    sr: tuple[float, float],
+    log_tol: float,
+    sr_exact: tuple[Fraction, Fraction],
+):
     """``Σ_{lo ≤ n ≤ hi} χ(n)·n^a·Σ_σ E_{1−σ}(x_n)`` by Taylor expansion at the block centre."""
     import numpy as np
     from flint import acb, arb
@@ -194,7 +253,7 @@ def _block_sum(chi, q: int, a: int, lo: int, hi: int, sigmas, sr: tuple[float, f
         K += 1
         if K > 400:  # pragma: no cover - the blocks are small enough for this never to happen
             raise ArithmeticError(f"Taylor block [{lo}, {hi}] does not converge")
-    remainder = 2 * mass * sum(math.exp(_remainder_log(h, x0f, s, K)) for s in sr)
+    remainder = 2 * mass * sum((_remainder_ball(lo, hi, n0, q, s, K) for s in sr_exact), arb(0))
     # exact moments P_k = Σ w·v^k, k = 0..K, in integer arithmetic (numpy object arrays)
     w = np.array(weights, dtype=object)
     va = np.array(v, dtype=object)
@@ -215,10 +274,7 @@ def _block_sum(chi, q: int, a: int, lo: int, hi: int, sigmas, sr: tuple[float, f
             coeff = coeff * step / k
             part += g * coeff * moments[k]
         total = part if total is None else total + part
-    if isinstance(total, acb):
-        total += acb(arb(0, remainder), arb(0, remainder))
-    else:
-        total += arb(0, remainder)
+    total += _error_ball(remainder, isinstance(total, acb))
     return total, len(idx)
 
 
@@ -230,7 +286,8 @@ def _lambda(d: int, s: ComplexArgument, prec: int, log_tol: float):
     a = 1 if d < 0 else 0
     s1 = (s + a) * Fraction(1, 2)
     s2 = (1 - s + a) * Fraction(1, 2)
-    c1, c2 = max(0.0, float(s1.real) - 1), max(0.0, float(s2.real) - 1)
+    c1_exact, c2_exact = max(Fraction(0), s1.real - 1), max(Fraction(0), s2.real - 1)
+    c1, c2 = float(c1_exact), float(c2_exact)
     N = _terms_needed(q, a, c1, c2, log_tol - math.log(2))
     if N > MAX_SERIES_TERMS:
         raise FormkitError(
@@ -265,14 +322,13 @@ def _lambda(d: int, s: ComplexArgument, prec: int, log_tol: float):
                 lo = hi + 1
             block_tol = log_tol - math.log(2 * len(blocks))
             for lo_, hi_ in blocks:
-                part, k = _block_sum(chi, q, a, lo_, hi_, sig, srs, block_tol)
+                part, k = _block_sum(chi, q, a, lo_, hi_, sig, srs, block_tol, (s1.real, s2.real))
                 total += part
                 count += k
-        tail = math.exp(_tail_log_bound(N, q, a, c1, c2))
-        if isinstance(total, acb):
-            total += acb(arb(0, tail), arb(0, tail))
-        else:
-            total += arb(0, tail)
+        tail = _tail_bound_ball(N, q, a, c1_exact, c2_exact)
+        if tail is None:  # pragma: no cover - _terms_needed chose N with x_{N+1} > c₁, c₂
+            raise ArithmeticError(f"the tail bound does not apply at N = {N}")
+        total += _error_ball(tail, isinstance(total, acb))
     return total, N
 
 

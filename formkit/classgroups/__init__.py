@@ -16,7 +16,11 @@
 * :mod:`~formkit.classgroups.class_series` — Dirichlet series over the classes: Σ Z_C = w·ζ_K,
   L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
-  Eisenstein series from the genus characters, the cusp part.
+  Eisenstein series from the genus characters, the cusp part;
+* :mod:`~formkit.classgroups.partial_zeta` — partial zeta functions ζ(s, C) of the narrow classes
+  of D > 0, Σ_C ζ(s, C) = ζ_K(s), narrow class and genus character L-series for D > 0;
+* :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
+  eigenforms, the cusp part as a sum of eigenforms.
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -34,10 +38,14 @@ from .genus_theta import *  # noqa: F403
 from .genus_theta import __all__ as _genus_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
+from .hecke_theta import *  # noqa: F403
+from .hecke_theta import __all__ as _hecke_theta_all
 from .infrastructure import *  # noqa: F403
 from .infrastructure import __all__ as _infrastructure_all
 from .orders import *  # noqa: F403
 from .orders import __all__ as _orders_all
+from .partial_zeta import *  # noqa: F403
+from .partial_zeta import __all__ as _partial_zeta_all
 from .principal_genus_theorem import *  # noqa: F403
 from .principal_genus_theorem import __all__ as _theorem_all
 
@@ -51,4 +59,6 @@ __all__ = [
     *_infrastructure_all,
     *_class_series_all,
     *_genus_theta_all,
+    *_hecke_theta_all,
+    *_partial_zeta_all,
 ]

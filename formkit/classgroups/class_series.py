@@ -426,6 +426,13 @@ def chowla_selberg(D: object, *, digits: int = 30) -> SeriesIdentity:
 
     from ..analytic.eta import _eta_ball, form_root
 
+    D = validate_discriminant(D)
+    if D > 0:
+        raise DiscriminantError(
+            f"the Chowla–Selberg formula expresses η at the CM points of a discriminant D < 0 by Γ-values "
+            f"(Lerch's formula for L'(0, χ_D), χ_D odd); it has no counterpart for D = {D} > 0, whose forms "
+            "are indefinite (for real quadratic classes see the partial zeta functions, formkit epstein D S --classes)"
+        )
     D = _negative(D, "the Chowla–Selberg formula", fundamental=True)
     digits = check_digits(digits)
     q = -D

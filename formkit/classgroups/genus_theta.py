@@ -26,8 +26,10 @@ memory).  :func:`theta_decomposition` computes both — the average from the lat
 points of every class, the Eisenstein series from the characters — says whether they
 agree coefficient by coefficient (exact rationals), and returns the cusp part
 ``θ_Q − θ_G``, a cusp form of weight 1 on ``Γ₀(|D|)`` with character ``χ_D``.  For
-non-fundamental ``D`` the average and the cusp part are computed, without the
-Eisenstein comparison.
+non-fundamental ``D`` (orders) the genus characters alone do not give the Eisenstein
+series; there the comparison is with Siegel's formula
+``θ_G(n) = (w/(2h))·∏_{p | 2nD} α_p(n)/(1 − χ_D(p)/p)`` with the exact local densities
+``α_p`` (:mod:`formkit.analytic.local_densities`, derived there), up to ``q^2000``.
 
 The classes come from complete enumeration (unconditional).
 
@@ -55,10 +57,19 @@ from ..core.forms import Form, FormLike, as_form
 from ..errors import FormError, FormkitError
 from .genus import genera, value_prime_to
 
-__all__ = ["MAX_GENUS_THETA_BOUND", "ThetaDecomposition", "theta_decomposition", "eisenstein_coefficients"]
+__all__ = [
+    "MAX_GENUS_THETA_BOUND",
+    "MAX_DENSITY_COMPARISON",
+    "ThetaDecomposition",
+    "theta_decomposition",
+    "eisenstein_coefficients",
+]
 
 #: The genus theta series sums ``h`` theta series and an ``O(N log N)`` divisor sieve.
 MAX_GENUS_THETA_BOUND = 2 * 10**6
+
+#: For non-fundamental ``D`` Siegel's formula (local densities) is compared up to this ``n``.
+MAX_DENSITY_COMPARISON = 2000
 
 
 def _dirichlet_convolution(d1: int, d2: int, N: int):
@@ -135,9 +146,12 @@ class ThetaDecomposition:
     """``θ_Q = θ_G + (θ_Q − θ_G)``: the genus average (Siegel) and the cusp part.
 
     ``genus_numerators[n]/genus_denominator`` is the coefficient of ``qⁿ`` in ``θ_G``;
-    ``eisenstein_numerators[n]/class_number`` that of the genus-character Eisenstein
-    series (fundamental ``D``; else ``None``) and ``siegel_agrees`` whether the two are
-    equal up to ``q^N`` (``None`` when not compared).
+    ``eisenstein_numerators[n]/class_number`` that of the Eisenstein series of the genus —
+    from the genus characters (fundamental ``D``) or from Siegel's formula with the local
+    densities (:func:`formkit.analytic.local_densities.siegel_genus_average`, any ``D``; the
+    factors at the primes dividing the conductor are the densities there) — and
+    ``siegel_agrees`` whether the two are equal up to ``q^eisenstein_bound``;
+    ``eisenstein_method`` says which formula was used.
     """
 
     form: Form
@@ -151,6 +165,8 @@ class ThetaDecomposition:
     eisenstein_numerators: Any
     siegel_agrees: bool | None
     provenance: str
+    eisenstein_bound: int = -1
+    eisenstein_method: str = ""
 
     def genus_average(self, n: int) -> Fraction:
         """The coefficient of ``qⁿ`` in Siegel's weighted average ``θ_G``."""
@@ -182,6 +198,8 @@ class ThetaDecomposition:
             "genus_average": [str(self.genus_average(n)) for n in range(m + 1)],
             "cusp_part": [str(self.cusp_coefficient(n)) for n in range(m + 1)],
             "siegel_agrees": self.siegel_agrees,
+            "eisenstein_bound": self.eisenstein_bound,
+            "eisenstein_method": self.eisenstein_method,
             "provenance": self.provenance,
         }
 
@@ -254,12 +272,25 @@ def theta_decomposition(form: FormLike, N: object) -> ThetaDecomposition:
     if g > 1:
         num //= g
         den //= g
-    eis = None
-    agrees = None
     h = P.class_number
     if is_fundamental_discriminant(D):
         eis, h = eisenstein_coefficients(D, G.symbol, N)
         agrees = bool(np.array_equal(num * h, eis * den))
+        bound, method = N, "genus characters: (w/h)·Σ_ψ ψ(G)·Σ_{d|n} χ_{d₁}(d)χ_{d₂}(n/d)"
+    else:
+        from ..analytic.local_densities import siegel_genus_average
+
+        bound = min(N, MAX_DENSITY_COMPARISON)
+        w = unit_count(D)
+        eis = np.zeros(bound + 1, dtype=np.int64)
+        eis[0] = h
+        for n in range(1, bound + 1):
+            value = siegel_genus_average(G.forms[0], n, h, w) * h
+            if value.denominator != 1:  # pragma: no cover - h·r_G(n) = 2^(μ−1)·Σ_{Q∈G} r_Q(n)
+                raise ArithmeticError(f"h·r_G({n}) = {value} is not an integer")
+            eis[n] = int(value)
+        agrees = bool(np.array_equal(num[: bound + 1] * h, eis * den))
+        method = "Siegel's formula (w/(2h))·∏_{p | 2nD} α_p(n)/(1 − χ_D(p)/p) with exact local densities α_p"
     return ThetaDecomposition(
         Q,
         N,
@@ -272,4 +303,6 @@ def theta_decomposition(form: FormLike, N: object) -> ThetaDecomposition:
         eis,
         agrees,
         "classes by complete enumeration (unconditional)",
+        bound,
+        method,
     )

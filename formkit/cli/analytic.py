@@ -39,6 +39,10 @@ def _identity_lines(r) -> list[str]:
     ]
 
 
+def _ideal_bound(args: argparse.Namespace) -> int | None:
+    return None if args.bound is None else parse_integer(args.bound, "--bound")
+
+
 def _cmd_l_value(args: argparse.Namespace) -> int:
     from ..analytic.l_series import l_series, quadratic_field_zeta
     from ..classgroups.class_series import class_character_l_series, genus_character_l_series
@@ -49,9 +53,19 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     chosen = [x for x in (args.class_character, args.genus, args.field_zeta or None) if x is not None]
     if len(chosen) > 1:
         raise CommandError("choose at most one of --class-character, --genus and --field-zeta")
+    bound = _ideal_bound(args)
+    if bound is not None and not (D > 0 and (args.genus is not None or args.class_character is not None)):
+        raise CommandError("--bound sets the ideal norms summed for D > 0 with --genus or --class-character")
     if args.genus is not None:
         d1 = parse_integer(args.genus, "--genus")
-        r = genus_character_l_series(D, d1, args.s, digits=digits)
+        if D > 0:
+            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_genus_character_l_series
+
+            r = real_genus_character_l_series(
+                D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+            )
+        else:
+            r = genus_character_l_series(D, d1, args.s, digits=digits)
         payload = {"kind": "genus_character", **r.to_dict()}
         emit(args, payload, lambda: "\n".join(_identity_lines(r)))
         return 0
@@ -62,7 +76,14 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
             raise CommandError(
                 f"--class-character takes exponents such as 1 or 1,0, not {args.class_character!r}"
             ) from exc
-        v = class_character_l_series(D, k, args.s, digits=digits)
+        if D > 0:
+            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_class_character_l_series
+
+            v = real_class_character_l_series(
+                D, k, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+            )
+        else:
+            v = class_character_l_series(D, k, args.s, digits=digits)
         name = v.quantity.replace("L(s, ψ)", f"L({v.s}, ψ)")
         payload = {"kind": "class_character", "discriminant": D, "character": k, **v.to_dict()}
     elif args.field_zeta:
@@ -84,8 +105,13 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
     from .conventions import CommandError, emit
 
     digits = _digits(args)
+    bound = _ideal_bound(args)
     if args.classes or args.chowla_selberg:
         D = parse_discriminant(args.target, "D")
+        if bound is not None and not (args.classes and D > 0):
+            raise CommandError("--bound sets the ideal norms summed for --classes with D > 0")
+        if args.classes and D > 0:
+            return _real_classes(args, D, bound, digits)
         if args.chowla_selberg:
             if args.s is not None:
                 raise CommandError("--chowla-selberg takes no S")
@@ -125,6 +151,49 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
     return 0
 
 
+def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: int) -> int:
+    from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, partial_zeta_values, real_class_zeta_sum
+    from ..core.discriminants import is_fundamental_discriminant
+    from .conventions import CommandError, emit
+
+    if args.s is None:
+        raise CommandError("--classes needs S (the point s)")
+    z = partial_zeta_values(D, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits)
+    r = real_class_zeta_sum(D, args.s, digits=digits, values=z) if is_fundamental_discriminant(D) else None
+    info = z.to_dict()
+    payload = {
+        "kind": "partial_zeta",
+        "discriminant": D,
+        "s": str(z.s),
+        "bound": z.bound,
+        "tail_bound": info["tail_bound"],
+        "partial_zeta": info["classes"],
+        "provenance": z.provenance,
+    }
+    if r is not None:
+        payload.update({k: v for k, v in r.to_dict().items() if k not in payload})
+
+    def human() -> str:
+        lines = [
+            f"partial zeta functions zeta(s, C) = sum of N(a)^-s over the invertible ideals a of the narrow class C, "
+            f"D = {D}, s = {z.s}:",
+            f"  direct sum over the ideals of norm <= {z.bound}, the rest bounded by {z.tail_bound:.1e} "
+            "(explicit tail bound); ball arithmetic, unconditional",
+        ]
+        for f, v, n in zip(z.classes, z.values, z.ideal_counts):
+            lines.append(
+                f"  C = [{form_text(f)}]: {v.text():<22} (|error| <= {v.error_bound:.1e}; {n} primitive ideals)"
+            )
+        if r is not None:
+            lines.extend(_identity_lines(r))
+        else:
+            lines.append(f"  ({D} is not fundamental: no comparison with zeta(s) L(s, chi_D))")
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
 def _cmd_theta(args: argparse.Namespace) -> int:
     from ..analytic.theta_series import theta_series
     from ..core.forms import as_form
@@ -137,6 +206,10 @@ def _cmd_theta(args: argparse.Namespace) -> int:
         show = N
     if args.output and not args.genus:
         raise CommandError("--output draws r_Q(n) against the genus average: give --genus too")
+    if args.eigenforms:
+        if args.genus:
+            raise CommandError("--eigenforms and --genus are two views of theta: give one of them")
+        return _theta_eigenforms(args, Q, N, show)
     if not args.genus:
         import numpy as np
 
@@ -172,10 +245,15 @@ def _cmd_theta(args: argparse.Namespace) -> int:
 
     def human_genus() -> str:
         m = min(N, show)
+        source = (
+            "the genus characters"
+            if "genus characters" in t.eisenstein_method
+            else "Siegel's local densities"
+        )
         siegel = {
-            True: f"equals the Eisenstein series from the genus characters (checked up to q^{N})",
-            False: "DIFFERS from the genus-character Eisenstein series",
-            None: "(D is not fundamental: no Eisenstein comparison)",
+            True: f"equals the Eisenstein series from {source} (checked exactly up to q^{t.eisenstein_bound})",
+            False: f"DIFFERS from the Eisenstein series from {source}",
+            None: "(no Eisenstein comparison)",
         }[t.siegel_agrees]
         lines = [
             f"Q = {form_text(Q)} (D = {Q.discriminant}); its genus has {len(t.genus_forms)} class"
@@ -194,6 +272,80 @@ def _cmd_theta(args: argparse.Namespace) -> int:
         return "\n".join(lines)
 
     emit(args, payload, human_genus)
+    return 0
+
+
+def _theta_eigenforms(args: argparse.Namespace, Q, N: int, show: int) -> int:
+    from ..classgroups.hecke_theta import hecke_decomposition
+    from .conventions import emit
+
+    h = hecke_decomposition(Q, N)
+    payload = {"kind": "hecke_eigenforms", **h.to_dict(limit=show)}
+
+    def poly_line(factors) -> str:
+        return " * ".join(
+            f"({fac['text']})" + (f"^{fac['multiplicity']}" if fac["multiplicity"] > 1 else "")
+            for fac in factors
+        )
+
+    def human() -> str:
+        m = min(N, show)
+        d = h.to_dict(limit=show)
+        lines = [
+            f"Q = {form_text(Q)} (D = {h.discriminant}): the theta series of the classes of D span a space of "
+            f"dimension {h.span_dimension}; the cusp parts theta_C - (genus average) span {h.cusp_dimension}",
+            f"Hecke operators T_p (U_p for p | D) on q-expansions, each matrix proved by Sturm's bound "
+            f"(coefficients up to q^{h.sturm_bound} fix a weight-1 form on Gamma_0({-h.discriminant}))",
+            "characteristic polynomials on the cusp span:",
+        ]
+        for p, factors in d["hecke_polynomials"].items():
+            lines.append(
+                f"  p = {p:>3}{' (U_p)' if h.discriminant % int(p) == 0 else '       '}  {poly_line(factors)}"
+            )
+        if h.cusp_dimension == 0:
+            lines.append("the genus of Q has one class: theta_Q is its genus average, the cusp part is 0")
+        for i, f in enumerate(h.eigenforms, 1):
+            where = (
+                "Q"
+                if f.degree == 1
+                else f"Q(a), {f.to_dict()['field_polynomial_text'].replace('x', 'a')} = 0"
+            )
+            lines.append(f"eigenform f{i} over {where}, normalised a({f.normalised_at}) = 1:")
+            lines.append("  " + ", ".join(f"{n}: {f.coefficient_text(n)}" for n in range(1, m + 1)))
+            lines.append(
+                "  eigenvalues: "
+                + ", ".join(
+                    f"{'U' if h.discriminant % p == 0 else 'T'}_{p}: {_poly_text(v, 'a')}"
+                    for p, v in f.eigenvalues.items()
+                )
+            )
+        if h.unsplit:
+            lines.append(
+                "not split by these operators (eigenspaces of dimension > 1, e.g. old forms): "
+                + ", ".join(f"({_poly_text(g)})^{e}" for g, e in h.unsplit)
+            )
+        check = {
+            True: f"the sum of the traces equals theta_Q - theta_G up to q^{N} (checked exactly)",
+            False: "the sum of the traces DIFFERS from theta_Q - theta_G",
+            None: "no reconstruction: part of the cusp span is unsplit",
+        }[h.reconstructs]
+        if h.eigenforms:
+            terms = [
+                f"({f.component_text})*f{i}" if f.degree == 1 else f"Tr_{{Q(a)/Q}}(({f.component_text})*f{i})"
+                for i, f in enumerate(h.eigenforms, 1)
+            ]
+            lines.append("theta_Q - theta_G = " + " + ".join(terms))
+        if h.cusp_dimension:
+            lines.append(check)
+        lines.append(
+            "cusp part theta_Q - theta_G: " + ", ".join(f"{n}: {h.cusp_part[n]}" for n in range(m + 1))
+        )
+        lines.append(f"classes: {h.provenance}")
+        return "\n".join(lines)
+
+    from ..classgroups.hecke_theta import _poly_text
+
+    emit(args, payload, human)
     return 0
 
 
@@ -249,17 +401,22 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "by the functional equation and the incomplete-gamma series, in ball arithmetic with an explicit "
             "tail bound (unconditional); at s = 0, -1, -2, ... the exact rational value from generalised "
             "Bernoulli numbers. --field-zeta gives the Dedekind zeta function zeta(s) L(s, chi_dK) of K = Q(sqrt D); "
-            "--class-character K1,K2,... the L-series of the character of Cl(D) (D < 0) sending the i-th "
-            "generator of 'formkit group D' to exp(2 pi i K_i/n_i), as (1/w) sum over classes of psi(C) Z_C(s); "
-            "--genus D1 the genus character for D = D1*D2 (fundamental D < 0), computed by the classes and as "
+            "--class-character K1,K2,... the L-series of the character of Cl(D) sending the i-th "
+            "generator of 'formkit group D' to exp(2 pi i K_i/n_i): for D < 0 as (1/w) sum over classes of "
+            "psi(C) Z_C(s) (Epstein zeta functions, any s); for D > 0 as the sum of psi(C) zeta(s, C) over the "
+            "narrow classes (partial zeta functions summed directly over the ideals of norm <= --bound, real "
+            "s > 1 only, with an explicit tail bound: few digits at s = 2, more at larger s); "
+            "--genus D1 the genus character for D = D1*D2 (fundamental D), computed by the classes and as "
             "L(s, chi_D1) L(s, chi_D2). s is written 2, -3, 0.5, 1/2 or 1/2+14.1347i. "
             "Python: formkit.l_series(D, s, digits=...), formkit.quadratic_field_zeta, "
-            "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s)."
+            "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s), "
+            "formkit.real_class_character_l_series, formkit.real_genus_character_l_series (D > 0)."
         ),
         epilog=(
             "examples:\n  formkit l-value -23 1\n  formkit l-value -4 1/2+6i --digits 20\n"
             "  formkit l-value 5 -1\n  formkit l-value 5 2 --field-zeta\n"
-            "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3"
+            "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3\n"
+            "  formkit l-value 229 3 --class-character 1 --bound 5000\n  formkit l-value 60 3 --genus 5 --bound 5000"
         ),
         formatter_class=raw,
     )
@@ -269,8 +426,15 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument(
         "--field-zeta", action="store_true", help="the Dedekind zeta function of Q(sqrt D) instead"
     )
-    p.add_argument("--class-character", metavar="K1,K2,...", help="a character of Cl(D), D < 0, by exponents")
-    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D < 0)")
+    p.add_argument(
+        "--class-character", metavar="K1,K2,...", help="a character of Cl(D) (narrow for D > 0), by exponents"
+    )
+    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D)")
+    p.add_argument(
+        "--bound",
+        metavar="X",
+        help="D > 0: sum the partial zeta functions over the ideals of norm <= X (default 20000, at most 10^6)",
+    )
     p.set_defaults(handler=_cmd_l_value)
 
     e = sub.add_parser(
@@ -283,15 +447,19 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "arithmetic. --limit-formula: the residue 2 pi/sqrt|D| and the constant term at s = 1 by Kronecker's "
             "first limit formula through Dedekind's eta at the root of Q, checked against the expansion. "
             "--classes: the target is a fundamental D < 0 and the sum of Z_C(s) over its classes is set beside "
-            "w zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D (the product "
-            "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product). "
+            "w zeta(s) L(s, chi_D); for D > 0 (where the forms are indefinite and Z_Q is no sum) the partial zeta "
+            "functions zeta(s, C) of the narrow ideal classes are given instead, summed directly over the ideals "
+            "of norm <= --bound (real s > 1, explicit tail bound), and for fundamental D their sum is set beside "
+            "zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D < 0 (the product "
+            "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product; a statement about CM points, "
+            "so D > 0 is refused). "
             "Python: formkit.epstein_zeta(Q, s), formkit.kronecker_limit(Q), formkit.class_zeta_sum(D, s), "
-            "formkit.chowla_selberg(D)."
+            "formkit.chowla_selberg(D), formkit.partial_zeta_values(D, s), formkit.real_class_zeta_sum(D, s)."
         ),
         epilog=(
             "examples:\n  formkit epstein 1,0,1 2\n  formkit epstein 2,1,3 1/2+3i --digits 20\n"
             "  formkit epstein 1,1,1 --limit-formula\n  formkit epstein -23 2 --classes\n"
-            "  formkit epstein -163 --chowla-selberg"
+            "  formkit epstein -163 --chowla-selberg\n  formkit epstein 229 3 --classes --bound 5000"
         ),
         formatter_class=raw,
     )
@@ -306,7 +474,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="sum over the classes of D against w times the Dedekind zeta function of Q(sqrt D)",
     )
     mode.add_argument(
-        "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula"
+        "--chowla-selberg", action="store_true", help="both sides of the Chowla-Selberg formula (D < 0)"
+    )
+    e.add_argument(
+        "--bound",
+        metavar="X",
+        help="--classes with D > 0: ideals of norm <= X are summed (default 20000, at most 10^6)",
     )
     e.set_defaults(handler=_cmd_epstein)
 
@@ -320,13 +493,18 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "(classes by complete enumeration), its comparison with the Eisenstein series given by the genus "
             "characters (fundamental D), and the cusp part theta_Q - average; with --output FILE.png|svg also "
             "a picture of r_Q(n) against the genus average (needs matplotlib). --limit K prints the first K+1 "
-            "coefficients (the computation goes to N). "
-            "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N)."
+            "coefficients (the computation goes to N). --eigenforms computes the Hecke operators T_p on the span "
+            "of the theta series of all classes of D (exact q-expansions, proved by Sturm's bound), their "
+            "characteristic polynomials, the simultaneous eigenforms over number fields Q(a), and theta_Q - "
+            "(genus average) as a sum of traces of eigenforms (|D| <= 20000). "
+            "Python: formkit.theta_series(Q, N), formkit.theta_decomposition(Q, N), "
+            "formkit.hecke_decomposition(Q, N)."
         ),
         epilog=(
             "examples:\n  formkit theta 1,0,1 --bound 20\n  formkit theta 2,1,3 --bound 30 --genus\n"
             "  formkit theta 1,1,6 --bound 60 --genus --output cusp23.png\n"
-            "  formkit theta 1,0,1 --bound 10^6 --limit 5"
+            "  formkit theta 1,0,1 --bound 10^6 --limit 5\n"
+            "  formkit theta 1,1,6 --bound 30 --eigenforms\n  formkit theta 1,1,12 --bound 20 --eigenforms"
         ),
         formatter_class=raw,
     )
@@ -337,6 +515,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_limit_options(t, "coefficients after the constant term in the text output", 20)
     t.add_argument("--genus", action="store_true", help="genus average, Eisenstein comparison and cusp part")
     t.add_argument("--output", "-o", metavar="FILE", help="with --genus: write a PNG/SVG picture")
+    t.add_argument(
+        "--eigenforms",
+        action="store_true",
+        help="the cusp part as a sum of Hecke eigenforms (Hecke operators on the theta series of D)",
+    )
     t.set_defaults(handler=_cmd_theta)
 
     c = sub.add_parser(

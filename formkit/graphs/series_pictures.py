@@ -99,7 +99,8 @@ def genus_average_picture(decomposition: ThetaDecomposition, path: str | os.Path
         f"{'es' if len(t.genus_forms) != 1 else ''}"
     )
     ax.legend(fontsize=8, loc="upper left")
-    check = {True: "average = genus-character Eisenstein series", False: "AVERAGE ≠ EISENSTEIN", None: ""}[
+    source = "genus-character" if "genus characters" in t.eisenstein_method else "local-density (Siegel)"
+    check = {True: f"average = {source} Eisenstein series", False: "AVERAGE ≠ EISENSTEIN", None: ""}[
         t.siegel_agrees
     ]
     fig.text(

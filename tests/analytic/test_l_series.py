@@ -202,3 +202,56 @@ def test_parse_argument():
     assert str(as_complex_argument("-3i")) == "-3i"
     assert as_complex_argument("2.5e-1").real == Fraction(1, 4)
     assert as_complex_argument(mpmath.mpf(-0.5)).real == Fraction(-1, 2)
+
+
+def test_tail_bounds_in_ball_arithmetic_bound_the_true_tails():
+    # the bound for Σ_{n>N} χ(n)·n^a·[E_{1−σ₁}(x_n) + E_{1−σ₂}(x_n)] against the sum itself,
+    # evaluated with mpmath's generalised exponential integral E_p (general-purpose library)
+    from fractions import Fraction
+
+    import mpmath
+    from flint import ctx
+
+    from formkit.analytic.l_series import _tail_bound_ball
+    from formkit.core.arith import kronecker
+
+    for d, s in ((-4, Fraction(2)), (5, Fraction(3)), (-23, Fraction(1, 2)), (13, Fraction(7, 2))):
+        q, a = abs(d), 1 if d < 0 else 0
+        s1, s2 = (s + a) / 2, (1 - s + a) / 2
+        c1, c2 = max(Fraction(0), s1 - 1), max(Fraction(0), s2 - 1)
+        for N in (3, 6, 10):
+            with ctx.workprec(80):
+                bound = _tail_bound_ball(N, q, a, c1, c2)
+            if bound is None:
+                continue
+            with mpmath.workdps(30):
+                true = mpmath.mpf(0)
+                for n in range(N + 1, N + 80):
+                    x = mpmath.pi * n * n / q
+                    e = mpmath.expint(1 - s1, x) + mpmath.expint(1 - s2, x)
+                    true += kronecker(d, n) * n**a * e
+                assert abs(true) <= float(bound.upper()), (d, s, N)
+
+
+def test_epstein_tail_ball_bounds_the_bessel_series():
+    # Σ_{n>N} n^(s−½)σ_{1−2s}(n)·K_{s−½}(πn√|D|/a) (absolute values) against the ball bound; mpmath's besselk
+    from fractions import Fraction
+
+    import mpmath
+    from flint import ctx
+
+    from formkit.analytic.epstein import _bessel_tail_ball
+
+    for (a, absD), s in (((1, 4), Fraction(2)), ((2, 23), Fraction(1, 3)), ((1, 3), Fraction(5))):
+        mu = abs(s - Fraction(1, 2))
+        for N in (1, 2, 4):
+            with ctx.workprec(80):
+                bound = _bessel_tail_ball(absD, a, mu, N)
+            with mpmath.workdps(30):
+                sv = mpmath.mpf(s.numerator) / s.denominator
+                true = mpmath.mpf(0)
+                for n in range(N + 1, N + 40):
+                    sig = sum(mpmath.mpf(d) ** (1 - 2 * sv) for d in range(1, n + 1) if n % d == 0)
+                    k = mpmath.besselk(sv - mpmath.mpf(1) / 2, mpmath.pi * n * mpmath.sqrt(absD) / a)
+                    true += abs(n ** (sv - mpmath.mpf(1) / 2) * sig * k)
+                assert true <= float(bound.upper()), (a, absD, s, N)

@@ -55,6 +55,57 @@ def test_theta(capsys):
     assert t["coefficients"] == [1, 4, 4, 0, 4, 8, 0, 0, 4, 4, 8, 0, 0]  # Jacobi's r₂(n)
     g = run_json(capsys, "theta", "2,1,3", "--bound", "10", "--genus")
     assert g["siegel_agrees"] is True and g["cusp_part"][:3] == ["0", "-2/3", "2/3"]
+    # D = −36 = 3²·(−4), an order: Siegel's formula with local densities against the lattice-point average
+    o = run_json(capsys, "theta", "2,2,5", "--bound", "40", "--genus")
+    assert (
+        o["siegel_agrees"] is True
+        and o["eisenstein_bound"] == 40
+        and "local densities" in o["eisenstein_method"]
+    )
+
+
+def test_theta_eigenforms(capsys):
+    # D = −47, Cl ≅ C5: one cusp eigenform over Q(√5); a(2) is a root of x² + x − 1 (Hecke: 2cos(4π/5)
+    # for the class of the prime form at 2, of order 5 — theorem, from memory)
+    e = run_json(capsys, "theta", "1,1,12", "--bound", "12", "--eigenforms")
+    assert e["kind"] == "hecke_eigenforms" and e["reconstructs"] is True and e["cusp_dimension"] == 2
+    (f,) = e["eigenforms"]
+    assert f["field_polynomial_text"] == "x^2 + x - 1" and f["coefficients"][2] == ["0", "1"]
+    assert e["hecke_polynomials"]["2"][0]["text"] == "x^2 + x - 1"
+    code, text, _err = run(capsys, "theta", "1,1,6", "--bound", "10", "--eigenforms")
+    assert code == 0 and "theta_Q - theta_G = (4/3)*f1" in text and "checked exactly" in text
+    code, _out, err = run(capsys, "theta", "1,1,6", "--bound", "10", "--eigenforms", "--genus")
+    assert code == 2 and "give one of them" in err
+
+
+def test_real_quadratic_classes(capsys):
+    # D = 229 > 0: the partial zeta functions sum to ζ(3)·L(3, χ_229) (mpmath's Dirichlet L-series)
+    c = run_json(capsys, "epstein", "229", "3", "--classes", "--bound", "2000", "--digits", "15")
+    assert c["kind"] == "partial_zeta" and c["agrees"] is True and len(c["partial_zeta"]) == 3
+    with mpmath.workdps(20):
+        ref = mpmath.zeta(3) * mpmath.dirichlet(3, [0] + _chi(229))
+    total = sum(mpmath.mpf(x["zeta"]["value"]["real"]) for x in c["partial_zeta"])
+    # each text value is correct to its "digits" significant digits (error bound plus the rounding)
+    tolerance = sum(
+        float(x["zeta"]["error_bound"])
+        + abs(float(x["zeta"]["value"]["real"])) * 10.0 ** (1 - x["zeta"]["digits"])
+        for x in c["partial_zeta"]
+    )
+    assert abs(total - ref) <= tolerance
+    g = run_json(capsys, "l-value", "12", "4", "--genus", "-3", "--bound", "2000", "--digits", "15")
+    assert g["kind"] == "genus_character" and g["agrees"] is True
+    k = run_json(capsys, "l-value", "229", "3", "--class-character", "1", "--bound", "2000")
+    assert k["kind"] == "class_character" and k["discriminant"] == 229
+    code, _out, err = run(capsys, "epstein", "5", "--chowla-selberg")
+    assert code == 2 and "CM points" in err
+    code, _out, err = run(capsys, "l-value", "-23", "2", "--bound", "100")
+    assert code == 2 and "--bound" in err
+
+
+def _chi(D):
+    from formkit.core.arith import kronecker
+
+    return [kronecker(D, n) for n in range(1, D)]
 
 
 def test_pictures(capsys, tmp_path):

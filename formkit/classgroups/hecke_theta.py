@@ -1,0 +1,696 @@
+"""Hecke operators on the theta series of a negative discriminant; the cusp part in eigenforms.
+
+For ``D < 0`` the theta series ``θ_C = Σ r_C(n)qⁿ`` of the classes ``C`` of primitive
+positive definite forms of discriminant ``D`` are modular forms of weight 1 on
+``Γ₀(|D|)`` with character ``χ_D`` (Hecke; :mod:`formkit.analytic.theta_series`).  For a
+prime ``p ∤ D`` the Hecke operator of weight 1 is
+
+    (T_p f)(n) = a(pn) + χ_D(p)·a(n/p)        (a(n/p) = 0 unless p | n)
+
+(Diamond–Shurman, *A First Course in Modular Forms*, Prop. 5.3.1, from memory), and for
+``p | D`` the operator ``U_p: a(n) ↦ a(pn)`` (same formula with ``χ_D(p) = 0``), used for
+the primes ``p | D`` up to 60 where it preserves the span — it separates eigenforms that
+are twists of each other by a genus character and so share every ``T_p``, ``p ∤ D``.  This
+module computes everything from the q-expansions, exactly:
+
+* the span ``V`` of the ``θ_C`` and its subspace ``S`` spanned by the cusp parts
+  ``θ_C − θ_{G(C)}`` (``θ_G`` Siegel's genus average, :mod:`formkit.classgroups.genus_theta`;
+  ``θ_G`` is an Eisenstein series and ``θ_C − θ_G`` a cusp form by Siegel's theorem, so
+  ``V = span{θ_G} ⊕ S``);
+* the matrices of ``T_p`` on bases of ``V`` and ``S`` (rational), found from the first
+  coefficients and *proved* by **Sturm's bound**: a form in ``M_1(Γ₀(N), χ)`` whose
+  coefficients ``a(0), …, a(B)`` vanish, ``B = ⌊m/12⌋``, ``m = N·∏_{p|N}(1 + 1/p)`` the
+  index of ``Γ₀(N)``, is zero (Sturm 1987; from memory).  So ``T_p b_i = Σ_j c_ij b_j``
+  checked on ``a(0..B)`` holds as an identity of modular forms; if it fails the span is
+  reported not Hecke-stable (an error: it would contradict the theory);
+* their characteristic polynomials (exact, factored over ``Q`` with python-flint);
+* the simultaneous eigenvectors in ``S``: a combination ``T = Σ k_p T_p`` with a
+  squarefree characteristic polynomial ``χ_T`` is diagonalised over the number fields
+  ``K = Q[x]/(g)`` of its irreducible factors ``g`` — a left eigenvector for the root
+  ``α`` is ``e_j·q(T)`` with ``q(x) = χ_T(x)/(x − α) ∈ K[x]``, and each ``T_p`` preserves
+  the line (it commutes with ``T``).  The eigenvalue of every ``T_p`` is read off and
+  *checked* exactly in ``K``.  Eigenspaces that no such ``T`` splits (old forms, for
+  non-fundamental ``D``) are reported with their polynomials, unsplit;
+* the cusp part ``θ_Q − θ_G`` as ``Σ_f Tr_{K_f/Q}(c_f·f)`` over the eigenforms ``f``
+  (normalised to ``a(n₀) = 1`` at their first non-zero coefficient, usually ``n₀ = 1``),
+  with ``c_f`` from the right eigenvectors; the sum is checked coefficient by
+  coefficient up to ``q^N``.
+
+For fundamental ``D`` the eigenforms are ``Σ_{𝔞} ψ(𝔞)q^{N𝔞}`` for the class group
+characters ``ψ ≠ ψ̄`` up to conjugation, the genus characters giving the Eisenstein part
+(Hecke; Zagier, *Zetafunktionen und quadratische Körper*, §12, from memory); that is a
+test here, not an input.  The classes come from complete enumeration (unconditional).
+
+References
+----------
+.. [1] E. Hecke, "Zur Theorie der elliptischen Modulfunktionen", Math. Ann. 97 (1927)
+       (theta series of binary forms and Hecke operators; from memory).
+.. [2] J. Sturm, "On the congruence of modular forms", in *Number Theory (New York
+       1984–85)*, LNM 1240, Springer 1987, 275–280.
+.. [3] F. Diamond, J. Shurman, *A First Course in Modular Forms*, GTM 228, Springer
+       2005, §5.2–5.3 (Hecke operators with character).
+.. [4] H. Cohen, F. Strömberg, *Modular Forms: A Classical Approach*, GSM 179, AMS
+       2017, Cor. 5.6.14 (Sturm's bound with character; from memory).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from fractions import Fraction
+from typing import Any
+
+from ..analytic.theta_series import theta_series
+from ..core.arith import as_int, kronecker
+from ..core.discriminants import validate_discriminant
+from ..core.factorisation import prime_factorisation
+from ..core.forms import Form, FormLike, as_form
+from ..core.reduction import reduced
+from ..errors import DiscriminantError, FormError, FormkitError
+from .genus import genera
+
+__all__ = [
+    "MAX_HECKE_DISCRIMINANT",
+    "sturm_bound",
+    "HeckeEigenform",
+    "HeckeDecomposition",
+    "hecke_decomposition",
+]
+
+#: The largest ``|D|`` accepted (the q-expansions go to ``p·B ≈ p·|D|/8``).
+MAX_HECKE_DISCRIMINANT = 20_000
+
+#: Primes ``p ∤ D`` tried for the Hecke operators, at most this many.
+_PRIME_COUNT = 8
+
+#: The operators ``U_p`` (``p | D``) are tried for the primes up to this bound.
+_RAMIFIED_LIMIT = 60
+
+
+class _NotStable(Exception):
+    """``U_p`` (``p | D``) does not preserve the span: it is then left out."""
+
+
+def sturm_bound(D: object) -> int:
+    """``B = ⌊m/12⌋``, ``m = |D|·∏_{p | D}(1 + 1/p)``: weight-1 forms on ``Γ₀(|D|)`` are fixed by ``a(0..B)``.
+
+    Examples
+    --------
+    >>> sturm_bound(-23), sturm_bound(-4)          # m = 24 and 6
+    (2, 0)
+    """
+    D = validate_discriminant(D)
+    N = abs(D)
+    m = N
+    for p in prime_factorisation(N) if N > 1 else ():
+        m = m // p * (p + 1)
+    return m // 12
+
+
+# ---------------------------------------------------------------------------------------
+# number fields Q[x]/(g) with python-flint polynomials
+# ---------------------------------------------------------------------------------------
+
+
+def _poly_list(p) -> tuple[Fraction, ...]:
+    """Coefficients (constant first) of an fmpq_poly as Fractions."""
+    return tuple(Fraction(int(c.p), int(c.q)) for c in p.coeffs())
+
+
+def _poly_text(coeffs: tuple[Fraction, ...], var: str = "x") -> str:
+    """``x^2 - x - 1`` from constant-first coefficients."""
+    terms = []
+    for k in range(len(coeffs) - 1, -1, -1):
+        c = coeffs[k]
+        if c == 0:
+            continue
+        sign = "-" if c < 0 else "+"
+        a = abs(c)
+        mono = "" if k == 0 else (var if k == 1 else f"{var}^{k}")
+        body = str(a) if (a != 1 or k == 0) else ""
+        if body and mono:
+            body = f"{body}*{mono}" if "/" not in body else f"({body})*{mono}"
+        elif mono:
+            body = mono
+        terms.append((sign, body))
+    if not terms:
+        return "0"
+    out = ("-" if terms[0][0] == "-" else "") + terms[0][1]
+    for sign, body in terms[1:]:
+        out += f" {sign} {body}"
+    return out
+
+
+class _Field:
+    """``Q[x]/(g)`` for a monic irreducible ``g`` (``deg g = 1``: the rationals)."""
+
+    def __init__(self, g) -> None:
+        from flint import fmpq_mat
+
+        self.g = g
+        self.degree = g.degree()
+        d = self.degree
+        # the companion matrix: multiplication by x on 1, x, …, x^(d−1)
+        c = list(g.coeffs())
+        rows: list[list[Any]] = [[0] * d for _ in range(d)]
+        for i in range(d - 1):
+            rows[i + 1][i] = 1
+        for i in range(d):
+            rows[i][d - 1] = -c[i]
+        # row vector convention: (coordinates of p)·C = coordinates of x·p
+        self._companion = fmpq_mat(d, d, [v for row in rows for v in row]).transpose()
+
+    def reduce(self, p):
+        return p % self.g
+
+    def inverse(self, p):
+        d, u, _v = p.xgcd(self.g)
+        if d.degree() != 0:  # pragma: no cover - g irreducible and p ≢ 0
+            raise ArithmeticError("not invertible in the number field")
+        return self.reduce(u / d[0])
+
+    def trace(self, p) -> Fraction:
+        """``Tr_{K/Q}(p(α))``: the trace of ``p`` at the companion matrix."""
+        from flint import fmpq_mat
+
+        d = self.degree
+        M = fmpq_mat(d, d)
+        P = fmpq_mat(d, d, [1 if i == j else 0 for i in range(d) for j in range(d)])
+        for c in p.coeffs():
+            M += P * c
+            P = P * self._companion
+        return sum((Fraction(int(M[i, i].p), int(M[i, i].q)) for i in range(d)), Fraction(0))
+
+    def coordinates(self, p) -> list:
+        """The coordinates of ``p(α)`` on ``1, α, …, α^(d−1)`` (fmpq)."""
+        from flint import fmpq
+
+        c = list(self.reduce(p).coeffs())
+        return c + [fmpq(0)] * (self.degree - len(c))
+
+    def rebased(self, lam):
+        """``(Q[y]/(m), convert)`` with ``y ↦ lam`` when ``lam`` generates ``K``, else ``None``.
+
+        ``m`` is the minimal polynomial of ``lam``; ``convert`` maps an element of this
+        field to the fmpq_poly in ``y`` with the same value.
+        """
+        from flint import fmpq_mat, fmpq_poly
+
+        d = self.degree
+        rows = []
+        power = fmpq_poly(1)
+        for _k in range(d):
+            rows.append(self.coordinates(power))
+            power = self.reduce(power * lam)
+        L = fmpq_mat(d, d, [v for row in rows for v in row])
+        if L.rank() < d:
+            return None
+        Linv = L.inv()
+        last = fmpq_mat(1, d, self.coordinates(power)) * Linv  # lam^d on 1, lam, …, lam^(d−1)
+        m = fmpq_poly([-last[0, k] for k in range(d)] + [1])
+
+        def convert(beta):
+            c = fmpq_mat(1, d, self.coordinates(beta)) * Linv
+            return fmpq_poly([c[0, k] for k in range(d)])
+
+        return _Field(m), convert
+
+    def polynomial(self) -> tuple[Fraction, ...]:
+        return _poly_list(self.g)
+
+    def element(self, p) -> tuple[Fraction, ...]:
+        out = _poly_list(self.reduce(p))
+        return out + (Fraction(0),) * (self.degree - len(out)) if self.degree > 1 else (out or (Fraction(0),))
+
+
+# ---------------------------------------------------------------------------------------
+# linear algebra on q-expansions
+# ---------------------------------------------------------------------------------------
+
+
+def _independent(rows: list[list[int]], upto: int) -> tuple[list[int], list[int]]:
+    """Indices of a maximal independent subset of ``rows`` (first ``upto + 1`` entries) and pivots."""
+    from flint import fmpq_mat
+
+    chosen: list[int] = []
+    rank = 0
+    for i, _r in enumerate(rows):
+        trial = chosen + [i]
+        M = fmpq_mat(len(trial), upto + 1, [rows[k][n] for k in trial for n in range(upto + 1)])
+        if M.rank() > rank:
+            chosen, rank = trial, rank + 1
+    if not chosen:
+        return [], []
+    M = fmpq_mat(len(chosen), upto + 1, [rows[k][n] for k in chosen for n in range(upto + 1)])
+    R, _rk = M.rref()
+    pivots = []
+    for i in range(len(chosen)):
+        j = next(j for j in range(upto + 1) if R[i, j] != 0)
+        pivots.append(j)
+    return chosen, pivots
+
+
+def _hecke_matrix(basis: list[list[Any]], pivots: list[int], p: int, chi_p: int, B: int):
+    """The rational matrix ``C`` with ``T_p b_i = Σ_j C_ij b_j``, checked on ``a(0..B)``."""
+    from flint import fmpq, fmpq_mat
+
+    r = len(basis)
+    A = fmpq_mat(r, r, [basis[j][pv] for j in range(r) for pv in pivots])  # A[j, k] = b_j(pivot_k)
+    Ainv = A.inv()
+    out = []
+    for b in basis:
+        t = [b[p * n] + (chi_p * b[n // p] if n % p == 0 else 0) for n in range(B + 1)]
+        rhs = fmpq_mat(1, r, [t[pv] for pv in pivots])
+        c = rhs * Ainv
+        for n in range(B + 1):
+            if sum((c[0, j] * basis[j][n] for j in range(r)), fmpq(0)) != t[n]:
+                if chi_p == 0:
+                    raise _NotStable(p)
+                raise ArithmeticError(
+                    f"T_{p} does not preserve the span of the theta series (checked to q^{B}): "
+                    "this contradicts Hecke's theory; please report it"
+                )
+        out.append([c[0, j] for j in range(r)])
+    return fmpq_mat(r, r, [v for row in out for v in row])
+
+
+def _factor_list(poly) -> tuple[tuple[tuple[Fraction, ...], int], ...]:
+    _content, fac = poly.factor()
+    return tuple((_poly_list(g), int(e)) for g, e in fac)
+
+
+# ---------------------------------------------------------------------------------------
+# results
+# ---------------------------------------------------------------------------------------
+
+
+def _elt_text(elt: tuple[Fraction, ...], var: str = "a") -> str:
+    return _poly_text(elt, var)
+
+
+@dataclass(frozen=True, eq=False)
+class HeckeEigenform:
+    """A simultaneous eigenform of the ``T_p`` (``p ∤ D``) in the cusp span, over ``K = Q(a)``.
+
+    ``field_polynomial`` is the minimal polynomial ``g`` of ``a`` (constant coefficient
+    first; degree 1 means the coefficients are rational); every number below is an
+    element of ``K`` written as its coefficients on ``1, a, a², …``.
+    ``coefficients[n]`` is the coefficient of ``qⁿ`` (normalised to 1 at ``n = normalised_at``),
+    ``eigenvalues[p]`` the eigenvalue of ``T_p`` (exact, checked), and ``component`` the
+    ``c`` with ``θ_Q − θ_G = Σ_f Tr_{K_f/Q}(c_f·f)``.
+    """
+
+    field_polynomial: tuple[Fraction, ...]
+    coefficients: tuple[tuple[Fraction, ...], ...]
+    eigenvalues: dict[int, tuple[Fraction, ...]]
+    normalised_at: int
+    component: tuple[Fraction, ...]
+
+    @property
+    def degree(self) -> int:
+        """``[K : Q]``."""
+        return len(self.field_polynomial) - 1
+
+    @property
+    def component_text(self) -> str:
+        """``c_f`` as text in ``a``."""
+        return _elt_text(self.component)
+
+    def coefficient_text(self, n: int) -> str:
+        """The coefficient of ``qⁿ`` as text in ``a``."""
+        return _elt_text(self.coefficients[n])
+
+    def to_dict(self) -> dict:
+        """JSON-ready dictionary (rationals as ``"p/q"`` strings)."""
+
+        def js(e: tuple[Fraction, ...]) -> list[str]:
+            return [str(v) for v in e]
+
+        return {
+            "field_polynomial": js(self.field_polynomial),
+            "field_polynomial_text": _poly_text(self.field_polynomial),
+            "normalised_at": self.normalised_at,
+            "coefficients": [js(c) for c in self.coefficients],
+            "eigenvalues": {str(p): js(v) for p, v in self.eigenvalues.items()},
+            "component": js(self.component),
+            "component_text": _elt_text(self.component),
+        }
+
+    def __repr__(self) -> str:
+        field_ = "Q" if self.degree == 1 else f"Q(a), {_poly_text(self.field_polynomial, 'a')} = 0"
+        head = ", ".join(self.coefficient_text(n) for n in range(min(8, len(self.coefficients))))
+        return f"HeckeEigenform(over {field_}: [{head}, …])"
+
+
+@dataclass(frozen=True, eq=False)
+class HeckeDecomposition:
+    """The Hecke operators on the theta series of ``D`` and the cusp part of ``θ_Q`` in eigenforms.
+
+    ``hecke_polynomials[p]`` is the factored characteristic polynomial of ``T_p`` (``U_p``
+    for ``p | D``) on the
+    cusp span ``S`` (pairs ``(coefficients, multiplicity)``), ``span_polynomials[p]`` on the
+    span ``V`` of all ``θ_C``; ``unsplit`` lists the factors of the combined operator whose
+    eigenspaces the primes used do not separate (their eigenforms are not given);
+    ``reconstructs`` says whether ``Σ_f Tr(c_f·f)`` equals the cusp part up to ``q^bound``
+    (``None`` when some part is unsplit).
+    """
+
+    form: Form
+    discriminant: int
+    bound: int
+    sturm_bound: int
+    primes: tuple[int, ...]
+    span_dimension: int
+    cusp_dimension: int
+    span_polynomials: dict[int, tuple]
+    hecke_polynomials: dict[int, tuple]
+    eigenforms: tuple[HeckeEigenform, ...]
+    unsplit: tuple
+    cusp_part: tuple[Fraction, ...]
+    reconstructs: bool | None
+    provenance: str = field(default="")
+
+    def to_dict(self, limit: int = 30) -> dict:
+        """JSON-ready dictionary; the first ``limit + 1`` coefficients of each series."""
+        m = min(self.bound, limit)
+
+        def polys(d: dict) -> dict:
+            return {
+                str(p): [
+                    {"factor": [str(c) for c in g], "text": _poly_text(g), "multiplicity": e} for g, e in f
+                ]
+                for p, f in d.items()
+            }
+
+        forms = []
+        for f in self.eigenforms:
+            d = f.to_dict()
+            d["coefficients"] = d["coefficients"][: m + 1]
+            forms.append(d)
+        return {
+            "form": self.form.to_list(),
+            "discriminant": self.discriminant,
+            "bound": self.bound,
+            "sturm_bound": self.sturm_bound,
+            "primes": list(self.primes),
+            "span_dimension": self.span_dimension,
+            "cusp_dimension": self.cusp_dimension,
+            "span_polynomials": polys(self.span_polynomials),
+            "hecke_polynomials": polys(self.hecke_polynomials),
+            "eigenforms": forms,
+            "unsplit": [
+                {"factor": [str(c) for c in g], "text": _poly_text(g), "multiplicity": e}
+                for g, e in self.unsplit
+            ],
+            "cusp_part": [str(c) for c in self.cusp_part[: m + 1]],
+            "reconstructs": self.reconstructs,
+            "provenance": self.provenance,
+        }
+
+    def __repr__(self) -> str:
+        return (
+            f"HeckeDecomposition(Q={self.form.to_list()}, D={self.discriminant}: cusp span of dimension "
+            f"{self.cusp_dimension}, {len(self.eigenforms)} eigenform(s) over fields of degrees "
+            f"{[f.degree for f in self.eigenforms]}, reconstructs: {self.reconstructs}; {self.provenance})"
+        )
+
+    def _repr_html_(self) -> str:
+        rows = "".join(
+            f"<li>over Q(a), {_poly_text(f.field_polynomial, 'a')} = 0: "
+            f"<code>{', '.join(f.coefficient_text(n) for n in range(min(10, len(f.coefficients))))}, …</code>; "
+            f"component {_elt_text(f.component)}</li>"
+            for f in self.eigenforms
+        )
+        return (
+            f"<p>θ<sub>Q</sub> − θ<sub>genus</sub> for Q = {self.form.to_list()} in Hecke eigenforms "
+            f"(T_p, p ∈ {list(self.primes)}; proved by Sturm's bound B = {self.sturm_bound}):</p><ul>{rows}</ul>"
+            f"<p><small>{self.provenance}</small></p>"
+        )
+
+    def _repr_latex_(self) -> str:
+        return (
+            rf"$\theta_Q - \theta_{{\mathrm{{gen}}}} = \sum_f \operatorname{{Tr}}(c_f f)$ over "
+            rf"{len(self.eigenforms)} eigenforms \quad(\text{{{self.provenance}}})"
+        )
+
+
+# ---------------------------------------------------------------------------------------
+# the computation
+# ---------------------------------------------------------------------------------------
+
+
+def _check(form: FormLike, bound: object) -> tuple[Form, int]:
+    Q = as_form(form)
+    if not (Q.is_positive_definite and Q.is_primitive):
+        raise FormError(
+            f"the theta series of a class are taken among primitive positive definite forms; {Q!r} is not one"
+        )
+    D = Q.discriminant
+    if -D > MAX_HECKE_DISCRIMINANT:
+        raise DiscriminantError(
+            f"the Hecke operators are computed on q-expansions to about 20·|D|/12 terms; "
+            f"|D| ≤ {MAX_HECKE_DISCRIMINANT}, not {-D}"
+        )
+    N = as_int(bound, "bound")
+    if not 0 <= N <= 10**5:
+        raise FormkitError(f"bound must lie in [0, 100000], not {N}")
+    return Q, N
+
+
+def _class_key(f: Form) -> tuple[int, int, int]:
+    """θ of (a, b, c) and of its inverse (a, −b, c) agree: one key for both."""
+    g = reduced(as_form((f.a, abs(f.b), f.c)))
+    h = reduced(as_form((f.a, -abs(f.b), f.c)))
+    return min(g.coefficients, h.coefficients)
+
+
+def _eigenvector(K: _Field, q: list, powers: list, j: int, right: bool) -> list:
+    """Row ``j`` (left eigenvector) or column ``j`` (right) of ``q(C) = Σ_k q_k·C^k`` over ``K``."""
+    from flint import fmpq_poly
+
+    r = powers[0].nrows()
+    return [
+        K.reduce(
+            sum((q[k] * (powers[k][i, j] if right else powers[k][j, i]) for k in range(len(q))), fmpq_poly(0))
+        )
+        for i in range(r)
+    ]
+
+
+def _eigen_split(C_total, matrices: dict[int, Any], r: int):
+    """Split by a squarefree factor of the characteristic polynomial of ``C_total``."""
+    from flint import fmpq_mat, fmpq_poly
+
+    chi = C_total.charpoly()
+    found = []
+    unsplit = []
+    for g, e in chi.factor()[1]:
+        g = g / g.leading_coefficient()  # monic
+        if e > 1:
+            unsplit.append((_poly_list(g), int(e)))
+            continue
+        K = _Field(g)
+        # q(x) = χ(x)/(x − α) over K, by synthetic division
+        c = list(chi.coeffs())
+        n = len(c) - 1
+        alpha = fmpq_poly([0, 1]) % g
+        q = [fmpq_poly(0)] * n
+        q[n - 1] = fmpq_poly([c[n]])
+        for k in range(n - 1, 0, -1):
+            q[k - 1] = K.reduce(fmpq_poly([c[k]]) + alpha * q[k])
+        powers = [fmpq_mat(r, r, [1 if i == j else 0 for i in range(r) for j in range(r)])]
+        for _k in range(1, n):
+            powers.append(powers[-1] * C_total)
+
+        v = next(
+            vv
+            for vv in (_eigenvector(K, q, powers, j, False) for j in range(r))
+            if any(not x.is_zero() for x in vv)
+        )
+        u = next(
+            uu
+            for uu in (_eigenvector(K, q, powers, j, True) for j in range(r))
+            if any(not x.is_zero() for x in uu)
+        )
+        # eigenvalues of each T_p, checked on every coordinate
+        i0 = next(i for i in range(r) if not v[i].is_zero())
+        eig = {}
+        for p, Cp in matrices.items():
+            vp = [K.reduce(sum((v[i] * Cp[i, j] for i in range(r)), fmpq_poly(0))) for j in range(r)]
+            lam = K.reduce(vp[i0] * K.inverse(v[i0]))
+            if any(not K.reduce(vp[j] - lam * v[j]).is_zero() for j in range(r)):
+                raise ArithmeticError(
+                    f"eigenvector of the combined operator is not one of T_{p}"
+                )  # pragma: no cover
+            eig[p] = lam
+        found.append((K, v, u, eig))
+    return found, unsplit
+
+
+def hecke_decomposition(
+    form: FormLike, bound: object = 30, *, primes: int = _PRIME_COUNT
+) -> HeckeDecomposition:
+    """The Hecke operators on the theta series of ``D = disc(Q) < 0`` and ``θ_Q − θ_G`` in eigenforms.
+
+    Parameters
+    ----------
+    form : FormLike
+        A primitive positive definite form ``Q`` (``|D| ≤ 20000``).
+    bound : int
+        The eigenforms and the cusp part are given up to ``q^bound`` (at most 10^5).
+    primes : int
+        How many primes ``p ∤ D`` (the smallest) define the Hecke operators (default 8).
+
+    Returns
+    -------
+    HeckeDecomposition
+
+    Raises
+    ------
+    FormError
+        If ``Q`` is not primitive positive definite.
+    DiscriminantError
+        If ``|D| > 20000``.
+
+    Examples
+    --------
+    >>> h = hecke_decomposition((1, 1, 6), 10)      # D = −23: one cusp form, η(z)η(23z)
+    >>> f, = h.eigenforms
+    >>> [f.coefficient_text(n) for n in range(1, 9)], f.component_text
+    ... # doctest: +NORMALIZE_WHITESPACE
+    (['1', '-1', '-1', '0', '0', '1', '0', '1'], '4/3')
+    >>> h.hecke_polynomials[2][0][0], h.reconstructs        # T_2 has eigenvalue −1: x + 1
+    ((Fraction(1, 1), Fraction(1, 1)), True)
+    """
+    from flint import fmpq, fmpq_mat
+
+    Q, N = _check(form, bound)
+    D = Q.discriminant
+    count = as_int(primes, "primes")
+    if not 1 <= count <= 30:
+        raise FormkitError(f"primes must lie in [1, 30], not {count}")
+    B = sturm_bound(D)
+    ps: list[int] = []
+    p = 2
+    while len(ps) < count:
+        if D % p and all(p % q for q in range(2, math.isqrt(p) + 1)):
+            ps.append(p)
+        p += 1
+    # U_p = T_p for the primes p | D up to _RAMIFIED_LIMIT: they separate twins (forms whose T_p, p ∤ D,
+    # agree: twists of each other by a genus character); kept only where they preserve the span
+    ramified = [q for q in sorted(prime_factorisation(-D)) if q <= _RAMIFIED_LIMIT]
+    M = max(N, max(ps + ramified) * B + B, B)
+    P = genera(D)
+    # one θ per class up to inversion; its genus average
+    keyed: dict[tuple[int, int, int], tuple[list[int], Any]] = {}
+    genus_of: dict[tuple[int, int, int], int] = {}
+    averages = []
+    for gi, G in enumerate(P):
+        thetas = []
+        for f in G.forms:
+            k = _class_key(f)
+            th = [int(v) for v in theta_series(f, M).coefficients]
+            thetas.append(th)
+            keyed.setdefault(k, (th, gi))
+            genus_of[k] = gi
+        # Siegel's average: all |Aut| equal for primitive forms of one D (module genus_theta)
+        averages.append([fmpq(sum(t[n] for t in thetas), len(thetas)) for n in range(M + 1)])
+    keys = sorted(keyed)
+    span_rows = [[fmpq(v) for v in keyed[k][0]] for k in keys]
+    cusp_rows = [[keyed[k][0][n] - averages[keyed[k][1]][n] for n in range(M + 1)] for k in keys]
+
+    def operators(rows: list[list[Any]]):
+        idx, piv = _independent(rows, B)
+        basis = [rows[i] for i in idx]
+        mats = {p: _hecke_matrix(basis, piv, p, kronecker(D, p), B) for p in ps}
+        for q in ramified:
+            try:
+                mats[q] = _hecke_matrix(basis, piv, q, 0, B)
+            except _NotStable:
+                continue
+        return basis, piv, mats
+
+    span_basis, _span_piv, span_mats = operators(span_rows)
+    basis, piv, mats = operators(cusp_rows)
+    r = len(basis)
+    hecke_polys = {p: _factor_list(C.charpoly()) for p, C in mats.items()} if r else {}
+    span_polys = {p: _factor_list(C.charpoly()) for p, C in span_mats.items()}
+    kQ = _class_key(reduced(Q))
+    target = cusp_rows[keys.index(kQ)]
+    show = N
+    eigenforms: list[HeckeEigenform] = []
+    unsplit: tuple = ()
+    reconstructs: bool | None = True
+    if r:
+        # coordinates of the cusp part of Q in the basis
+        A = fmpq_mat(r, r, [basis[j][pv] for j in range(r) for pv in piv])
+        x = fmpq_mat(1, r, [target[pv] for pv in piv]) * A.inv()
+        best: tuple = ()
+        used = sorted(mats)
+        for weights in ([1] * len(used), list(range(1, len(used) + 1)), [3**i for i in range(len(used))]):
+            C_total = fmpq_mat(r, r)
+            for w, p in zip(weights, used):
+                C_total += mats[p] * w
+            found, rest = _eigen_split(C_total, mats, r)
+            if not best or len(rest) < len(best[1]):
+                best = (found, rest)
+            if not rest:
+                break
+        found, rest = best
+        unsplit = tuple(rest)
+        approx = [Fraction(0)] * (show + 1)
+        exact = [Fraction(int(v.p), int(v.q)) for v in target[: show + 1]]
+        for K, v, u, eig in found:
+            from flint import fmpq_poly
+
+            series = [
+                K.reduce(sum((v[i] * basis[i][n] for i in range(r)), fmpq_poly(0))) for n in range(show + 1)
+            ]
+            full = [K.reduce(sum((v[i] * basis[i][n] for i in range(r)), fmpq_poly(0))) for n in range(M + 1)]
+            n0 = next(n for n in range(M + 1) if not full[n].is_zero())
+            scale = full[n0]
+            inv = K.inverse(scale)
+            # component along v: (x·u)/(v·u), then times a(n0) for the normalised form
+            xu = K.reduce(sum((u[i] * x[0, i] for i in range(r)), fmpq_poly(0)))
+            vu = K.reduce(sum((u[i] * v[i] for i in range(r)), fmpq_poly(0)))
+            comp = K.reduce(xu * K.inverse(vu) * scale)
+            normal = [K.reduce(s * inv) for s in series]
+            for n in range(show + 1):
+                approx[n] += K.trace(K.reduce(comp * normal[n]))
+            # write the field as Q(λ_p) for the first Hecke eigenvalue that generates it
+            K2, convert = K, (lambda beta: beta)
+            if K.degree > 1:
+                for p in [q for q in ps if q in eig] + [q for q in sorted(eig) if q not in ps]:
+                    got = K.rebased(eig[p])
+                    if got is not None:
+                        K2, convert = got
+                        break
+            eigenforms.append(
+                HeckeEigenform(
+                    K2.polynomial(),
+                    tuple(K2.element(convert(c)) for c in normal),
+                    {p: K2.element(convert(lam)) for p, lam in eig.items()},
+                    n0,
+                    K2.element(convert(comp)),
+                )
+            )
+        reconstructs = None if unsplit else approx == exact
+    return HeckeDecomposition(
+        Q,
+        D,
+        N,
+        B,
+        tuple(sorted(mats)) if r else tuple(ps),
+        len(span_basis),
+        r,
+        span_polys,
+        hecke_polys,
+        tuple(eigenforms),
+        unsplit,
+        tuple(Fraction(int(v.p), int(v.q)) for v in target[: show + 1]),
+        reconstructs,
+        (
+            f"classes by complete enumeration (unconditional); T_p on q-expansions, the matrices proved by "
+            f"Sturm's bound B = {B}"
+        ),
+    )
