@@ -24,7 +24,16 @@ from dataclasses import dataclass
 
 from ..core.arith import as_int, isqrt
 from ..errors import FormkitError
-from .rows import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
+from .rows import (
+    ChunkSpec,
+    RawRow,
+    TableRow,
+    _check_engine,
+    _check_range,
+    chunk_method,
+    compute_chunk,
+    split_range,
+)
 from .store import _check_or_record_meta, _connect, _done_intervals, _drop_damaged, _missing, _write_chunk
 
 __all__ = [
@@ -325,7 +334,7 @@ def build_table(
     conn = None
     if path is not None:
         conn = _connect(path, create=True)
-        _check_or_record_meta(conn, path, bool(fundamental), bool(invariants))
+        _check_or_record_meta(conn, path, bool(fundamental), bool(invariants), [])  # options must match
         _drop_damaged(conn)  # damaged chunks are recomputed, never trusted
         done = _done_intervals(conn)
     else:
@@ -335,6 +344,10 @@ def build_table(
         _check_table_cost(missing, bool(invariants), min(workers, os.cpu_count() or 1))
     already = sum(1 for lo, hi in done if hi >= start and lo <= stop)
     specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
+    if conn is not None and path is not None and specs:  # the store names every method used
+        _check_or_record_meta(
+            conn, path, bool(fundamental), bool(invariants), [chunk_method(s) for s in specs]
+        )
     written = [0]
 
     def sink(spec: ChunkSpec, rows: list[RawRow], seconds: float) -> None:

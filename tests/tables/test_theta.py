@@ -107,3 +107,22 @@ def test_bad_input():
     with pytest.raises(FormkitError, match="start"):
         class_numbers_by_theta(-3, -10)
     assert class_numbers_by_theta(-2, 5) == {}
+
+
+def test_store_names_the_method_of_each_chunk(tmp_path):
+    # a theta build must not be recorded as enumeration; a store built by both names both,
+    # and each chunk keeps its own method (common practice, no source: provenance rule)
+    from formkit import build_table, query_table, table_info
+
+    db = str(tmp_path / "t.db")
+    build_table(db, -2000, -1001, invariants=False, workers=1, engine="theta")
+    info = table_info(db)
+    assert info["meta"]["method"] == "theta" and "theta series" in info["meta"]["description"]
+    assert "enumeration" not in info["meta"]["method"]
+    assert info["methods"] == {"theta": [[-2000, -1001]]}
+    build_table(db, -1000, -3, invariants=False, workers=1, engine="numpy")
+    info = table_info(db)
+    assert info["meta"]["method"] == "enumeration + theta"
+    assert info["methods"] == {"theta": [[-2000, -1001]], "enumeration": [[-1000, -3]]}
+    rows = {r.discriminant: r.class_number for r in query_table(db)}
+    assert rows == class_numbers(-2000, -3)  # both methods agree with the sweep
