@@ -25,6 +25,8 @@ from dataclasses import dataclass
 from ..core.arith import as_int, isqrt
 from ..errors import FormkitError
 from .rows import (
+    CHUNK_THETA,
+    THETA_CROSSOVER,
     ChunkSpec,
     RawRow,
     TableRow,
@@ -167,8 +169,10 @@ def _plan(
     for lo, hi in missing:
         if chunk_size is not None:
             size = chunk_size
-        elif lo < 0 and engine == "theta":
-            size = hi - lo + 1  # θ³ is computed from 0 to the chunk's end: one chunk
+        elif (
+            lo < 0 and not invariants and (engine == "theta" or (engine == "auto" and -lo >= THETA_CROSSOVER))
+        ):
+            size = CHUNK_THETA  # each chunk needs the FFT series to its end: computed once per worker
         elif lo > 0:
             size = CHUNK_POSITIVE
         elif invariants:
@@ -294,8 +298,8 @@ def build_table(
         20 000 with invariants, 1 000 for ``D > 0``).
     engine : {"auto", "numpy", "python", "theta"}
         The sweep for negative discriminants, or the three-squares theta series
-        (:mod:`formkit.tables.theta`; the negative range is then one chunk unless
-        ``chunk_size`` is given).
+        (:mod:`formkit.tables.theta`; chunks of :data:`CHUNK_THETA` integers, each worker
+        computing the FFT series once, up to the end of its first and largest chunk).
     progress : bool, optional
         Show a tqdm progress bar on stderr (default: when stderr is a terminal).
     rows_out : list, optional
@@ -325,7 +329,7 @@ def build_table(
     """
     start, stop = _check_range(start, stop)
     workers = _check_workers(workers)
-    engine = _check_engine(engine)
+    _check_engine(engine)  # "auto" stays in the chunks: each resolves it by its own range
     if chunk_size is not None:
         chunk_size = as_int(chunk_size, "chunk size")
         if chunk_size < 1:

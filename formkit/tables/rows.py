@@ -62,8 +62,31 @@ __all__ = [
 ENGINES = ("numpy", "python", "theta")
 
 #: ``"auto"`` takes the theta series for a range ``[−H, −L]`` when ``H`` is at least this
-#: and ``L ≤ H/2`` (measured crossover on this 2-core machine, docs/performance.md).
-THETA_CROSSOVER = 8_000_000
+#: and the range is wide (:func:`_auto_engine`; measured crossover on this 2-core machine,
+#: benchmarks/bench_theta.py, docs/performance.md).
+THETA_CROSSOVER = 4_000_000
+
+#: Width of the theta engine's chunks in a store (and the width from which ``"auto"`` takes
+#: it for any ``H`` beyond the crossover: the FFT series, kept per process, is then shared
+#: by many chunks).
+CHUNK_THETA = 1 << 22
+
+
+def _auto_engine(L: int, H: int) -> str:
+    """``"theta"`` or ``"numpy"`` for ``h(−n)``, ``L ≤ n ≤ H``, under ``engine="auto"``
+    (numpy present): theta from :data:`THETA_CROSSOVER` on for ranges at least
+    ``min(H/64, CHUNK_THETA/2)`` wide, where the FFT series (``O(H log H)``) is small next
+    to the sweep it replaces.
+
+    Examples
+    --------
+    >>> _auto_engine(3, 10**6), _auto_engine(3, 10**7), _auto_engine(10**7 - 1000, 10**7)
+    ('numpy', 'theta', 'numpy')
+    """
+    if H >= THETA_CROSSOVER and min(H // 64, CHUNK_THETA // 2) <= H - L + 1:
+        return "theta"
+    return "numpy"
+
 
 #: A row in transit between workers and the store (plain tuple, cheap to pickle):
 #: (D, d_K, f, h, h_wide, invariants-or-None, genera, regulator-or-None).
@@ -161,9 +184,17 @@ def chunk_method(spec: ChunkSpec) -> str:
     >>> chunk_method(ChunkSpec(5, 100, engine="theta"))
     'enumeration'
     """
-    if spec.hi < 0 and _check_engine(spec.engine) == "theta":
+    if spec.hi < 0 and _negative_engine(spec) == "theta":
         return "theta"
     return "enumeration"
+
+
+def _negative_engine(spec: ChunkSpec) -> str:
+    """The engine a negative chunk runs with (``"auto"`` resolved by the chunk's range)."""
+    engine = _check_engine(spec.engine)
+    if spec.engine == "auto" and engine == "numpy":
+        return _auto_engine(max(3, -spec.hi), -spec.lo)
+    return engine
 
 
 def describe_methods(methods: Sequence[str], invariants: bool) -> str:
@@ -211,7 +242,7 @@ def class_numbers(start: int, stop: int, *, engine: str = "auto") -> dict:
     engine : {"auto", "numpy", "python", "theta"}
         ``"numpy"`` (vectorised, the default when numpy is installed), ``"python"`` or
         ``"theta"`` (three-squares theta series; ``"auto"`` picks it for ranges from near
-        0 to at least :data:`THETA_CROSSOVER`).
+        wide ranges beyond :data:`THETA_CROSSOVER`).
 
     Returns
     -------
@@ -244,8 +275,8 @@ def class_numbers(start: int, stop: int, *, engine: str = "auto") -> dict:
     L, H = max(3, -stop), -start
     if L > H:
         return {}
-    if auto and engine == "numpy" and H >= THETA_CROSSOVER and 2 * L <= H:
-        engine = "theta"
+    if auto and engine == "numpy":
+        engine = _auto_engine(L, H)
     h = _class_numbers_any(L, H, engine).tolist() if engine != "python" else _class_numbers_py(L, H)
     return {-n: h[n - L] for n in range(L, H + 1) if n % 4 in (0, 3)}
 
@@ -365,7 +396,7 @@ def _negative_rows(spec: ChunkSpec):
     L = max(L, 3)
     if L > H:
         return []
-    engine = _check_engine(spec.engine)
+    engine = _negative_engine(spec)
     if engine in ("numpy", "theta"):
         np = _numpy()
         h = _class_numbers_any(L, H, engine)

@@ -57,6 +57,7 @@ References
 from __future__ import annotations
 
 import math
+import threading
 from dataclasses import dataclass
 from fractions import Fraction
 
@@ -271,13 +272,17 @@ def determined_by_theta(D: int) -> bool:
 _SMALL_T: dict = {"cap": 0, "T": None}
 
 
+_SMALL_LOCK = threading.Lock()
+
+
 def _small_six_hurwitz(upto: int):
     """``6·H(0..cap)``, ``cap ≥ upto``, kept per process (grows by doubling)."""
-    if _SMALL_T["cap"] < upto:
-        cap = max(1 << 16, 2 * _SMALL_T["cap"], upto)
-        _SMALL_T["T"] = _six_hurwitz(cap)[0]
-        _SMALL_T["cap"] = cap
-    return _SMALL_T["T"]
+    with _SMALL_LOCK:
+        if _SMALL_T["cap"] < upto:
+            cap = max(1 << 16, 2 * _SMALL_T["cap"], upto)
+            _SMALL_T["T"] = _six_hurwitz(cap)[0]
+            _SMALL_T["cap"] = cap
+        return _SMALL_T["T"]
 
 
 def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):

@@ -34,6 +34,7 @@ References
 from __future__ import annotations
 
 import math
+import threading
 from dataclasses import dataclass
 from typing import Any
 
@@ -142,20 +143,23 @@ def three_square_series(top3: int, top12: int) -> ThreeSquareSeries:
 
 
 _CACHE: list = []
+_LOCK = threading.Lock()
 
 
 def cached_series(top3: int, top12: int) -> ThreeSquareSeries:
     """:func:`three_square_series` covering the tops, kept per process (the chunks of one
-    build, largest first, then reuse the first chunk's series)."""
-    if _CACHE and _CACHE[0].covers(top3, top12):
-        return _CACHE[0]
-    if _CACHE:  # grow by at least a quarter, so that a rising sequence of chunks recomputes rarely
-        top3 = max(top3, _CACHE[0].top3 + _CACHE[0].top3 // 4)
-        top12 = max(top12, _CACHE[0].top12 + _CACHE[0].top12 // 4)
-        _CACHE.clear()
-    s = three_square_series(top3, top12)
-    _CACHE.append(s)
-    return s
+    build, largest first, then reuse the first chunk's series; threads of one Dask worker
+    share it)."""
+    with _LOCK:
+        if _CACHE and _CACHE[0].covers(top3, top12):
+            return _CACHE[0]
+        if _CACHE:  # grow by at least a quarter: a rising sequence of chunks recomputes rarely
+            top3 = max(top3, _CACHE[0].top3 + _CACHE[0].top3 // 4)
+            top12 = max(top12, _CACHE[0].top12 + _CACHE[0].top12 // 4)
+            _CACHE.clear()
+        s = three_square_series(top3, top12)
+        _CACHE.append(s)
+        return s
 
 
 def r3_upto(N: int) -> tuple[Any, float]:
