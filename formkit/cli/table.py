@@ -59,7 +59,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
             limit=args.limit,
         )
         meta = table_info(args.db)["meta"]
-        _print_rows(rows, fmt, meta.get("invariants") == "1")
+        _print_rows(rows, fmt, meta.get("invariants") == "1", meta.get("method", "enumeration"))
         return 0
 
     if start is None or stop is None:
@@ -96,7 +96,8 @@ def _cmd_table(args: argparse.Namespace) -> int:
         _print_rows(rows_out, fmt, invariants, _method_name(args.engine))
         return 0
     payload = summary.to_dict()
-    payload.update(method="enumeration", certified=True)
+    method = table_info(args.db)["meta"].get("method", "enumeration")
+    payload.update(method=method, certified=True)
     if fmt == "json":
         from .conventions import emit
 
@@ -107,7 +108,7 @@ def _cmd_table(args: argparse.Namespace) -> int:
             f"computed ({plural(summary.rows_written, 'row')}), {summary.chunks_already_done} already done; "
             f"{summary.seconds:.2f} s on "
             + (f"cluster {summary.cluster}" if summary.cluster else f"{summary.workers} worker(s)")
-            + "\n"
+            + f"; class numbers in the file by {_method_words(method)}, unconditional\n"
         )
     return 0
 
@@ -202,15 +203,27 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
             rows = rows_with_rank(rows, p, r, at_least=at_least)
     if args.limit is not None:
         rows = rows[: args.limit]
-    _print_rows(rows, fmt, True, _method_name(args.engine) if args.db is None else "enumeration")
+    method = (
+        _method_name(args.engine)
+        if args.db is None
+        else table_info(args.db)["meta"].get("method", "enumeration")
+    )
+    _print_rows(rows, fmt, True, method)
     return 0
 
 
 def _method_name(engine: str) -> str:
-    """How the class numbers of a run were obtained (the words printed with the rows)."""
-    if engine == "theta":
-        return "the three-squares theta series (d_K ≡ 1 mod 8: enumeration)"
-    return "enumeration"
+    """The method key (``enumeration`` or ``theta``) of a run with this ``--engine``."""
+    return "theta" if engine == "theta" else "enumeration"
+
+
+def _method_words(method: str) -> str:
+    """The words printed for a method key, or for several joined by `` + `` (a store)."""
+    words = {
+        "enumeration": "enumeration (counting reduced forms)",
+        "theta": "the three-squares theta series (D with d_K ≡ 1 mod 8: counting reduced forms)",
+    }
+    return " and ".join(words.get(m.strip(), m.strip()) for m in method.split("+"))
 
 
 # ---------------------------------------------------------------------------
@@ -299,7 +312,7 @@ def _print_rows(
     for row in table:
         out.write("  ".join(cell.rjust(w) for cell, w in zip(row, widths)).rstrip() + "\n")
     out.write(
-        f"({plural(len(rows), 'row')}; class numbers by {method}, unconditional"
+        f"({plural(len(rows), 'row')}; class numbers by {_method_words(method)}, unconditional"
         + (
             "; h = class number (ideal classes of the order), h+ = narrow class number (forms up to "
             "proper equivalence); the invariants are those of the narrow group Cl+(D) when D > 0"
@@ -370,6 +383,11 @@ def _emit_info(args: argparse.Namespace, info: dict) -> None:
             f"fundamental only={'yes' if m.get('fundamental') == '1' else 'no'}",
             f"method: {m.get('method')} (certified: {'yes' if m.get('certified') == '1' else 'no'}); "
             f"formkit {m.get('formkit_version')}, created {m.get('created')}",
+            *(
+                f"  {key}: " + ", ".join(f"[{lo}, {hi}]" for lo, hi in spans)
+                for key, spans in info.get("methods", {}).items()
+            ),
+            "  " + m.get("description", ""),
             "verified: every chunk's checksum and every row's identities checked"
             if info.get("verified", True)
             else f"verified: {len(info['damaged'])} DAMAGED chunks (see the error below)",

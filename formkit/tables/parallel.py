@@ -24,7 +24,18 @@ from dataclasses import dataclass
 
 from ..core.arith import as_int, isqrt
 from ..errors import FormkitError
-from .rows import ChunkSpec, RawRow, TableRow, _check_engine, _check_range, compute_chunk, split_range
+from .rows import (
+    CHUNK_THETA,
+    THETA_CROSSOVER,
+    ChunkSpec,
+    RawRow,
+    TableRow,
+    _check_engine,
+    _check_range,
+    chunk_method,
+    compute_chunk,
+    split_range,
+)
 from .store import _check_or_record_meta, _connect, _done_intervals, _drop_damaged, _missing, _write_chunk
 
 __all__ = [
@@ -178,8 +189,10 @@ def _plan(
     for lo, hi in missing:
         if chunk_size is not None:
             size = chunk_size
-        elif lo < 0 and engine == "theta":
-            size = hi - lo + 1  # θ³ is computed from 0 to the chunk's end: one chunk
+        elif (
+            lo < 0 and not invariants and (engine == "theta" or (engine == "auto" and -lo >= THETA_CROSSOVER))
+        ):
+            size = CHUNK_THETA  # each chunk needs the FFT series to its end: computed once per worker
         elif lo > 0:
             size = CHUNK_POSITIVE
         elif invariants:
@@ -305,8 +318,8 @@ def build_table(
         20 000 with invariants, 1 000 for ``D > 0``).
     engine : {"auto", "numpy", "python", "theta"}
         The sweep for negative discriminants, or the three-squares theta series
-        (:mod:`formkit.tables.theta`; the negative range is then one chunk unless
-        ``chunk_size`` is given).
+        (:mod:`formkit.tables.theta`; chunks of :data:`CHUNK_THETA` integers, each worker
+        computing the FFT series once, up to the end of its first and largest chunk).
     progress : bool, optional
         Show a tqdm progress bar on stderr (default: when stderr is a terminal).
     rows_out : list, optional
@@ -336,7 +349,7 @@ def build_table(
     """
     start, stop = _check_range(start, stop)
     workers = _check_workers(workers)
-    engine = _check_engine(engine)
+    _check_engine(engine)  # "auto" stays in the chunks: each resolves it by its own range
     if chunk_size is not None:
         chunk_size = as_int(chunk_size, "chunk size")
         if chunk_size < 1:
@@ -345,7 +358,7 @@ def build_table(
     conn = None
     if path is not None:
         conn = _connect(path, create=True)
-        _check_or_record_meta(conn, path, bool(fundamental), bool(invariants))
+        _check_or_record_meta(conn, path, bool(fundamental), bool(invariants), [])  # options must match
         _drop_damaged(conn)  # damaged chunks are recomputed, never trusted
         done = _done_intervals(conn)
     else:
@@ -355,6 +368,10 @@ def build_table(
         _check_table_cost(missing, bool(invariants), min(workers, os.cpu_count() or 1))
     already = sum(1 for lo, hi in done if hi >= start and lo <= stop)
     specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
+    if conn is not None and path is not None and specs:  # the store names every method used
+        _check_or_record_meta(
+            conn, path, bool(fundamental), bool(invariants), [chunk_method(s) for s in specs]
+        )
     written = [0]
 
     def sink(spec: ChunkSpec, rows: list[RawRow], seconds: float) -> None:

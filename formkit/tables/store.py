@@ -8,9 +8,10 @@ computes just the parts of the range no finished chunk covers.  :func:`query_tab
 reads rows back with filters (class number, invariants, conductor, …); no SQL is taken
 from users.
 
-The file holds three tables: ``meta`` (options and provenance: the method is
-complete enumeration, so every row is unconditional), ``chunks`` (finished ranges)
-and ``rows`` (one per discriminant, primary key ``discriminant``, so a row can never
+The file holds three tables: ``meta`` (options and provenance: every method used,
+``enumeration`` — counting reduced forms — and/or ``theta`` — the three-squares theta
+series —, all unconditional), ``chunks`` (finished ranges, each with the method of its
+rows) and ``rows`` (one per discriminant, primary key ``discriminant``, so a row can never
 appear twice).  The journal is SQLite's write-ahead log, so the file can be queried
 while a build is running.
 
@@ -35,7 +36,7 @@ from typing import Any
 from ..core.arith import as_int
 from ..errors import FormkitError, StoreDamagedError
 from .display import ClassNumberTable
-from .rows import ChunkSpec, RawRow, TableRow, _check_range
+from .rows import ChunkSpec, RawRow, TableRow, _check_range, chunk_method, describe_methods
 
 __all__ = [
     "query_table",
@@ -60,7 +61,7 @@ _SCHEMA = """
 CREATE TABLE IF NOT EXISTS meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE IF NOT EXISTS chunks (
     lo INTEGER NOT NULL, hi INTEGER NOT NULL, row_count INTEGER NOT NULL,
-    seconds REAL NOT NULL, finished TEXT NOT NULL, checksum TEXT, PRIMARY KEY (lo, hi));
+    seconds REAL NOT NULL, finished TEXT NOT NULL, checksum TEXT, method TEXT, PRIMARY KEY (lo, hi));
 CREATE TABLE IF NOT EXISTS rows (
     discriminant INTEGER PRIMARY KEY,
     fundamental_discriminant INTEGER NOT NULL,
@@ -159,6 +160,8 @@ def _connect(path: str, *, create: bool) -> sqlite3.Connection:
             cols = {r[1] for r in conn.execute("PRAGMA table_info(chunks)")}
             if "checksum" not in cols:  # a store written before chunks carried checksums
                 conn.execute("ALTER TABLE chunks ADD COLUMN checksum TEXT")
+            if "method" not in cols:  # a store written before chunks carried their method
+                conn.execute("ALTER TABLE chunks ADD COLUMN method TEXT")
         else:
             names = {r[0] for r in conn.execute("SELECT name FROM sqlite_master WHERE type='table'")}
             if not {"meta", "chunks", "rows"} <= names:
@@ -174,9 +177,15 @@ def _meta(conn: sqlite3.Connection) -> dict:
     return dict(conn.execute("SELECT key, value FROM meta"))
 
 
-def _check_or_record_meta(conn: sqlite3.Connection, path: str, fundamental: bool, invariants: bool) -> None:
+def _check_or_record_meta(
+    conn: sqlite3.Connection, path: str, fundamental: bool, invariants: bool, methods: Sequence[str] = ()
+) -> None:
+    """Check the options of an existing store (or record them in a new one), and record the
+    methods of this build: ``meta.method`` lists every method used, joined by `` + ``."""
     want = {"fundamental": str(int(fundamental)), "invariants": str(int(invariants))}
     meta = _meta(conn)
+    if not meta and not methods:
+        return  # a new store: recorded once the build knows its methods
     if meta:
         if meta.get("format") != _FORMAT:
             raise FormkitError(f"{path!r} has table format {meta.get('format')!r}, expected {_FORMAT!r}")
@@ -187,24 +196,36 @@ def _check_or_record_meta(conn: sqlite3.Connection, path: str, fundamental: bool
                     f"{path!r} was built {was} {key}; rerun with the same options or use a new file "
                     f"(--{'no-invariants' if key == 'invariants' else 'fundamental'} must match)"
                 )
+        old = _split_methods(meta.get("method"))
+        if not set(methods) <= set(old):
+            new = sorted({*old, *methods})
+            conn.execute("BEGIN IMMEDIATE")
+            conn.executemany(
+                "INSERT OR REPLACE INTO meta (key, value) VALUES (?, ?)",
+                [("method", " + ".join(new)), ("description", describe_methods(new, invariants))],
+            )
+            conn.execute("COMMIT")
         return
+    methods = sorted(set(methods))
     from .._version import __version__
 
     rows = {
         "format": _FORMAT,
         **want,
-        "method": "enumeration",
+        "method": " + ".join(methods),
         "certified": "1",
         "assumption": "none",
-        "description": "class numbers by counting reduced forms (Gauss; Cohen GTM 138 Alg. 5.3.5); "
-        "invariants from h and the 2-rank where these decide them, else by formkit.class_group "
-        "(complete enumeration); genera 2^(mu-1) (Cox Prop 3.11, Thm 3.15)",
+        "description": describe_methods(methods, invariants),
         "formkit_version": __version__,
         "created": time.strftime("%Y-%m-%dT%H:%M:%S"),
     }
     conn.execute("BEGIN IMMEDIATE")
     conn.executemany("INSERT INTO meta (key, value) VALUES (?, ?)", rows.items())
     conn.execute("COMMIT")
+
+
+def _split_methods(text: str | None) -> list[str]:
+    return [m.strip() for m in (text or "").split("+") if m.strip()]
 
 
 def _done_intervals(conn: sqlite3.Connection) -> list[tuple[int, int]]:
@@ -363,7 +384,8 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
             ((D, dk, f, h, hw, _inv_text(inv), g, reg) for (D, dk, f, h, hw, inv, g, reg) in sorted(rows)),
         )
         conn.execute(
-            "INSERT INTO chunks (lo, hi, row_count, seconds, finished, checksum) VALUES (?, ?, ?, ?, ?, ?)",
+            "INSERT INTO chunks (lo, hi, row_count, seconds, finished, checksum, method) "
+            "VALUES (?, ?, ?, ?, ?, ?, ?)",
             (
                 spec.lo,
                 spec.hi,
@@ -371,6 +393,7 @@ def _write_chunk(conn: sqlite3.Connection, spec: ChunkSpec, rows: Sequence[RawRo
                 round(seconds, 6),
                 time.strftime("%Y-%m-%dT%H:%M:%S"),
                 _chunk_checksum(rows),
+                chunk_method(spec),
             ),
         )
     except sqlite3.IntegrityError:  # rows of another writer's overlapping chunk
@@ -520,8 +543,10 @@ def table_info(path: str) -> dict:
     Returns
     -------
     dict
-        ``meta`` (options, method, certified …), ``rows``, ``chunks`` and ``covered``
-        (the finished ranges merged into maximal intervals).
+        ``meta`` (options, method, certified …), ``rows``, ``chunks``, ``covered``
+        (the finished ranges merged into maximal intervals) and ``methods`` (for each
+        method, the ranges its chunks cover; ``"not recorded"`` for chunks of stores
+        written before chunks carried their method).
     """
     conn = _connect(path, create=False)
     try:
@@ -529,6 +554,13 @@ def table_info(path: str) -> dict:
         meta = _meta(conn)
         nrows = conn.execute("SELECT count(*) FROM rows").fetchone()[0]
         done = _done_intervals(conn)
+        methods: dict[str, list[list[int]]] = {}
+        for lo, hi, m in conn.execute("SELECT lo, hi, method FROM chunks ORDER BY lo"):
+            spans = methods.setdefault(m or "not recorded", [])
+            if spans and lo <= spans[-1][1] + 1 + (1 if spans[-1][1] == -1 else 0):
+                spans[-1][1] = max(spans[-1][1], hi)
+            else:
+                spans.append([lo, hi])
         covered: list[list[int]] = []
         for lo, hi in done:
             if covered and lo <= covered[-1][1] + 1 + (1 if covered[-1][1] == -1 else 0):
@@ -541,6 +573,7 @@ def table_info(path: str) -> dict:
             "rows": nrows,
             "chunks": len(done),
             "covered": covered,
+            "methods": methods,
             "verified": not damaged,
             "damaged": [[lo, hi, why] for lo, hi, why in damaged],
         }

@@ -28,7 +28,7 @@ So the theta series gives ``H`` — hence, by removing non-maximal orders, ``h``
 discriminant whose fundamental discriminant is ``≢ 1 (mod 8)``, unconditionally.  For
 the other third of the discriminants ``H(n)`` (``n ≡ 7 mod 8``) is the number of all
 reduced forms of discriminant ``−n``, counted by the sweep of
-:mod:`formkit.tables.sweep` on the class ``n ≡ 3 (mod 4)`` only, and ``H(4^k n) = 2^k H(n)``.
+:mod:`formkit.tables.sweep` on the class ``n ≡ 7 (mod 8)`` only, and ``H(4^k n) = 2^k H(n)``.
 
 *Removing non-maximal orders.*  Every form of content ``g`` is ``g`` times a primitive
 form of discriminant ``−n/g²``, so ``H(n) = Σ_{g² | n} h_w(−n/g²)`` with
@@ -36,13 +36,13 @@ form of discriminant ``−n/g²``, so ``H(n) = Σ_{g² | n} h_w(−n/g²)`` with
 off the discriminants; Möbius inversion gives ``h_w(−n) = Σ_{g² | n} μ(g)·H(n/g²)``.  All
 of this is done on the integers ``6·H(n)``.
 
-*The convolution.*  ``r₂ = θ·θ`` and ``r₃ = θ·r₂`` are computed by a blocked real FFT
-(numpy, float64): the coefficients ``0 … N`` are cut into blocks of ``B`` and the product
-of block ``i`` of one factor with block ``j`` of the other, an FFT of length ``2B``, lands
-in output blocks ``i + j`` and ``i + j + 1``; only ``O(B)`` floats are in memory at once.
-Every coefficient is an integer; each block is rounded and the largest distance to the
-nearest integer is checked to be below ``1/4`` (it is about ``10⁻⁹`` in practice), else
-:class:`ArithmeticError`.  The worst distance seen is reported with the result.
+*The convolution.*  ``r₃`` comes from three short FFT products of the triangular series
+``ψ`` and ``θ`` (:mod:`formkit.tables.three_squares`: ``ψ³`` up to ``N/8`` and
+``ψ(q²)θ²``, ``ψ(q²)²θ`` up to ``N/16``), each rounded with the largest distance to an
+integer checked below ``1/4``.  The Hurwitz numbers are then assembled window by window,
+``T(4^k·n') = 2^k·T(n') + (2^k − 1)·r₃(n')/2`` with ``T = 6H``, so a chunk ``[L, H]`` of a
+table needs the series up to ``H`` (kept per process) and the sweep only for the
+``n' ≡ 7 (mod 8)`` of its own windows ``[L/(g²4^k), H/(g²4^k)]``.
 
 References
 ----------
@@ -57,13 +57,14 @@ References
 from __future__ import annotations
 
 import math
+import threading
 from dataclasses import dataclass
 from fractions import Fraction
 
 from ..core.arith import as_int
-from ..core.progress import phase
 from ..errors import FormkitError
-from .sweep import _count_class_np, _mobius_table, _need_numpy, _numpy
+from .sweep import _count_class_seven, _mobius_table, _need_numpy, _numpy
+from .three_squares import ROUNDING_TOLERANCE, _theta_coefficients, cached_series, r3_upto
 
 __all__ = [
     "HurwitzNumbers",
@@ -73,85 +74,13 @@ __all__ = [
     "three_square_counts",
 ]
 
-#: Default FFT block (coefficients per block); 2^24 coefficients, transforms of length 2^25.
-THETA_BLOCK = 1 << 24
-
-#: Memory allowed for cached block spectra.
-SPECTRUM_CACHE_BYTES = 2 << 30
-
-#: Largest allowed distance of an FFT coefficient to the nearest integer.
-ROUNDING_TOLERANCE = 0.25
-
-
-def _theta_block(i0: int, i1: int):
-    """Coefficients of θ = Σ_{k ∈ ℤ} q^{k²} at indices ``i0 ≤ i < i1``."""
-    np = _numpy()
-    out = np.zeros(i1 - i0, dtype=np.float64)
-    k0 = math.isqrt(max(i0 - 1, 0)) if i0 > 0 else 0
-    ks = np.arange(k0, math.isqrt(max(i1 - 1, 0)) + 1, dtype=np.int64)
-    sq = ks * ks
-    sel = (sq >= i0) & (sq < i1)
-    out[sq[sel] - i0] = np.where(ks[sel] == 0, 1.0, 2.0)
-    return out
-
-
-class _BlockedProduct:
-    """Coefficients ``0 … N`` of ``a·b`` for two series given block by block."""
-
-    def __init__(self, a_block, b_block, N: int, B: int) -> None:
-        self.a_block, self.b_block, self.N, self.B = a_block, b_block, N, B
-        self.max_error = 0.0
-        self._spectra: dict = {}
-
-    def _spectrum(self, which: str, j: int):
-        key = (which, j)
-        s = self._spectra.get(key)
-        if s is None:
-            np = _numpy()
-            lo = j * self.B
-            hi = min(lo + self.B, self.N + 1)
-            blk = (self.a_block if which == "a" else self.b_block)(lo, hi)
-            s = np.fft.rfft(blk, 2 * self.B)
-            if (len(self._spectra) + 1) * 16 * self.B > SPECTRUM_CACHE_BYTES:
-                self._spectra.clear()  # keep memory bounded (recomputed on demand)
-            self._spectra[key] = s
-        return s
-
-    def block(self, m: int):
-        """Integer coefficients at indices ``mB … min((m+1)B, N+1) − 1`` (int64)."""
-        np = _numpy()
-        B = self.B
-        acc = np.zeros(B + 1, dtype=np.complex128)  # rfft length of 2B
-        out = np.zeros(B, dtype=np.float64)
-        for s in (m, m - 1):  # pairs with i + j = s land in blocks s and s+1
-            if s < 0:
-                continue
-            acc[:] = 0
-            for i in range(s + 1):
-                acc += self._spectrum("a", i) * self._spectrum("b", s - i)
-            full = np.fft.irfft(acc, 2 * B)
-            out += full[:B] if s == m else full[B:]
-        hi = min(B, self.N + 1 - m * B)
-        out = out[:hi]
-        rounded = np.rint(out)
-        err = float(np.max(np.abs(out - rounded))) if hi else 0.0
-        self.max_error = max(self.max_error, err)
-        if err >= ROUNDING_TOLERANCE:
-            raise ArithmeticError(
-                f"FFT rounding error {err:.3g} at block {m} exceeds {ROUNDING_TOLERANCE}; use a smaller block"
-            )
-        return rounded.astype(np.int64)
-
-
-#: Up to this N, θ³ is one FFT of length ≥ 3N + 1 (cubing the spectrum); beyond, blocks.
-SINGLE_FFT_LIMIT = 1 << 24
-
 
 def _r3_single(N: int) -> tuple:
-    """θ³ up to ``N`` by one real FFT of length ``M > 3N`` (no wrap-around reaches ``0…N``)."""
+    """θ³ up to ``N`` by one real FFT of length ``M > 3N`` (cubing the spectrum; no
+    wrap-around reaches ``0…N``): the direct method, kept as an independent check."""
     np = _numpy()
     M = 1 << (3 * N + 1).bit_length()
-    s = np.fft.rfft(_theta_block(0, N + 1), M)
+    s = np.fft.rfft(_theta_coefficients(N), M)
     s = s * s * s
     out = np.fft.irfft(s, M)[: N + 1]
     rounded = np.rint(out)
@@ -162,40 +91,18 @@ def _r3_single(N: int) -> tuple:
 
 
 def _r3_upto(N: int, block: int | None = None) -> tuple:
-    """``(r₃(0..N) as int32, largest rounding distance)``: one FFT for small ``N`` (or
-    ``block=0``), else two blocked FFT products ``θ·θ`` and ``θ·r₂``."""
-    np = _numpy()
-    if (block is None and N <= SINGLE_FFT_LIMIT) or block == 0:
-        r3, err = _r3_single(N)
-        if N >= 7 and r3[7::8].any():  # pragma: no cover - Legendre, see below
-            raise ArithmeticError("θ³ has a nonzero coefficient at n ≡ 7 (mod 8); FFT result rejected")
-        return r3, err
-    B = max(16, min(block or THETA_BLOCK, N + 1))
-    B = 1 << (B - 1).bit_length()  # a power of two (fast FFT lengths)
-    r2 = np.zeros(N + 1, dtype=np.int32)
-    p2 = _BlockedProduct(_theta_block, _theta_block, N, B)
-    nblocks = N // B + 1
-    for m in range(nblocks):
-        r2[m * B : m * B + B] = p2.block(m)
-    p2._spectra.clear()
-
-    def r2_block(lo: int, hi: int):
-        return r2[lo:hi].astype(np.float64)
-
-    r3 = np.zeros(N + 1, dtype=np.int32)
-    p3 = _BlockedProduct(_theta_block, r2_block, N, B)
-    for m in range(nblocks):
-        r3[m * B : m * B + B] = p3.block(m)
-    if N >= 7 and r3[7::8].any():  # Legendre: no n ≡ 7 (mod 8) is a sum of three squares
-        raise ArithmeticError("θ³ has a nonzero coefficient at n ≡ 7 (mod 8); FFT result rejected")
-    return r3, max(p2.max_error, p3.max_error)
+    """``(r₃(0..N) as int32, largest rounding distance)``: by the three short products of
+    :mod:`formkit.tables.three_squares`, or (``block=0``) by cubing θ's spectrum."""
+    if block == 0:
+        return _r3_single(N)
+    return r3_upto(N)
 
 
 def three_square_counts(bound: int, *, block: int | None = None) -> list[int]:
     """``r₃(n)``, the number of ``(x, y, z) ∈ ℤ³`` with ``x² + y² + z² = n``, for ``0 ≤ n ≤ bound``.
 
-    Computed as the coefficients of ``θ(q)³`` by blocked FFT with a checked rounding
-    error (module docstring).
+    Computed by FFT with a checked rounding error (:mod:`formkit.tables.three_squares`;
+    ``block=0`` cubes the spectrum of θ instead).
 
     Examples
     --------
@@ -209,7 +116,57 @@ def three_square_counts(bound: int, *, block: int | None = None) -> list[int]:
     return _r3_upto(bound, block)[0].tolist()
 
 
-def _six_hurwitz(N: int, *, complete: bool = True, block: int | None = None):
+def _count_seven(lo: int, hi: int):
+    """``R(m)``, the number of all reduced forms of discriminant ``−m``, for the
+    ``m ≡ 7 (mod 8)`` in ``[lo, hi]`` (int64, increasing ``m``), by the sweep."""
+    np = _numpy()
+    first = lo + (7 - lo) % 8
+    if first > hi:
+        return np.zeros(0, dtype=np.int64)
+    return _count_class_seven(first, hi).astype(np.int64)
+
+
+def _six_hurwitz_window(lo: int, hi: int, series, complete: bool = True):
+    """``T(n) = 6·H(n)`` for ``lo ≤ n ≤ hi`` (``lo ≥ 1``) as int64; ``−1`` where the theta
+    series says nothing and ``complete`` is False.
+
+    With ``n = 4^k·n'``, ``4 ∤ n'``: ``T(n) = 2^k·T(n') + (2^k − 1)·r₃(n')/2`` (the
+    recursion ``H(4m) = r₃(m)/12 + 2H(m)`` unrolled; ``r₃(4m) = r₃(m)``), with
+    ``T(n') = 0`` for ``n' ≡ 1, 2 (mod 4)``, ``T(n') = r₃(n')/4`` for ``n' ≡ 3 (mod 8)``
+    and ``T(n') = 6·R(n')`` (reduced forms, the sweep) for ``n' ≡ 7 (mod 8)``.
+    """
+    np = _numpy()
+    W = hi - lo + 1
+    k = np.zeros(W, dtype=np.int64)
+    q = 4
+    while q <= hi:
+        k[(-lo) % q :: q] += 1
+        q *= 4
+    n = np.arange(lo, hi + 1, dtype=np.int64)
+    m = n >> (2 * k)
+    del n
+    c = m % 8
+    need = (c == 3) | ((k > 0) & (c != 7) & (m % 4 != 0))
+    r3 = np.zeros(W, dtype=np.int64)
+    r3[need] = series.r3(m[need])
+    del need, m
+    T0 = np.where(c == 3, r3 >> 2, 0)
+    q, kk = 1, 0
+    while 7 * q <= hi:  # n = 4^kk·n', n' ≡ 7 (mod 8): positions 7q, 15q, … (mod 8q)
+        a, b = -(-lo // q), hi // q
+        first = a + (7 - a) % 8
+        if first <= b:
+            pos = slice(first * q - lo, b * q - lo + 1, 8 * q)
+            T0[pos] = 6 * _count_seven(first, b) if complete else -1
+        q *= 4
+        kk += 1
+    T = (T0 << k) + ((1 << k) - 1) * (r3 >> 1)
+    if not complete:
+        T[T0 < 0] = -1
+    return T
+
+
+def _six_hurwitz(N: int, *, complete: bool = True):
     """``(6·H(0..N) as int64, known mask, rounding error)``; ``6·H(0) = −½`` is stored as 0.
 
     With ``complete`` the values the theta series leaves open (``n = 4^k·m``,
@@ -217,44 +174,12 @@ def _six_hurwitz(N: int, *, complete: bool = True, block: int | None = None):
     ``known`` is False there.
     """
     np = _numpy()
-    big = N >= 5_000_000
-    if big:
-        phase(f"theta series: r3(n) for n <= {N} by FFT")
-    r3, err = _r3_upto(N, block)
-    if big and complete:
-        phase("theta series: H(n) for n = 7 (mod 8) by counting reduced forms")
-    T = np.zeros(N + 1, dtype=np.int64)  # T(n) = 6·H(n)
-    # n ≡ 3 (mod 8): H(n) = r₃(n)/24, so 6H = r₃/4
-    T[3::8] = r3[3::8] // 4
-    if complete and N >= 7:
-        # H(m) for m ≡ 7 (mod 8): number of all reduced forms of discriminant −m
-        kL, kH = 1, (N - 3) // 4  # m = 4k + 3, k odd
-        rr = _count_class_np(kL, kH, 3).astype(np.int64)
-        T[7::8] = 6 * rr[::2]
-    else:
-        T[7::8] = -1
-    # H(4n) = r₃(n)/12 + 2H(n) ⇒ T(4n) = r₃(n)/2 + 2T(n), in increasing n
-    lim = N // 4
-    if lim >= 1:
-        m = np.arange(1, lim + 1, dtype=np.int64)
-        # process level by level: T(4n) needs T(n), and n < 4n
-        pos = 1
-        while pos <= lim:
-            top = min(lim, 4 * pos - 1)  # n in [pos, top] only need T(n) with n < 4·pos
-            idx = m[pos - 1 : top]
-            T[4 * idx] = r3[idx] // 2 + 2 * T[idx]
-            pos = top + 1
-    known = np.ones(N + 1, dtype=bool)
-    if not complete:  # n = 4^k·m, m ≡ 7 (mod 8)  ⇔  n ≡ 7·4^k (mod 8·4^k)
-        q = 1
-        while 7 * q <= N:
-            known[7 * q :: 8 * q] = False
-            q *= 4
-        T[~known] = -1
-    T[0] = 0
-    T[1::4] = 0
-    T[2::4] = 0
-    return T, known, err
+    series = cached_series(N, N // 4)
+    T = np.zeros(N + 1, dtype=np.int64)
+    if N >= 1:
+        T[1:] = _six_hurwitz_window(1, N, series, complete)
+    known = T >= 0
+    return T, known, series.rounding_error
 
 
 @dataclass(frozen=True)
@@ -306,15 +231,13 @@ class HurwitzNumbers:
         return f"${vals}{more}$ ({self.provenance})"
 
 
-def hurwitz_class_numbers(bound: int, *, block: int | None = None) -> HurwitzNumbers:
+def hurwitz_class_numbers(bound: int) -> HurwitzNumbers:
     """Hurwitz class numbers ``H(0), …, H(bound)`` from the theta series of three squares.
 
     Parameters
     ----------
     bound : int
         The largest ``n`` (``≥ 0``).
-    block : int, optional
-        FFT block length (default :data:`THETA_BLOCK`).
 
     Returns
     -------
@@ -339,7 +262,7 @@ def hurwitz_class_numbers(bound: int, *, block: int | None = None) -> HurwitzNum
     if bound < 0:
         raise FormkitError(f"bound must be ≥ 0, not {bound}")
     _need_numpy()
-    T, _, err = _six_hurwitz(bound, complete=True, block=block)
+    T, _, err = _six_hurwitz(bound, complete=True)
     vals = [Fraction(int(t), 6) for t in T.tolist()]
     vals[0] = Fraction(-1, 12)
     nseven = sum(1 for n in range(1, bound + 1) if _odd_part_4(n) % 8 == 7)
@@ -367,15 +290,38 @@ def determined_by_theta(D: int) -> bool:
     return _odd_part_4(-D) % 8 != 7
 
 
-def _class_numbers_from_hurwitz(T, L: int, H: int):
-    """``h(−n)`` for ``n ∈ [L, H]`` from ``T = 6·H(0..H)`` by Möbius inversion (int64; 0 off
-    discriminants, −1 where an input is unknown)."""
+_SMALL_T: dict = {"cap": 0, "T": None}
+
+
+_SMALL_LOCK = threading.Lock()
+
+
+def _small_six_hurwitz(upto: int):
+    """``6·H(0..cap)``, ``cap ≥ upto``, kept per process (grows by doubling)."""
+    with _SMALL_LOCK:
+        if _SMALL_T["cap"] < upto:
+            cap = max(1 << 16, 2 * _SMALL_T["cap"], upto)
+            _SMALL_T["T"] = _six_hurwitz(cap)[0]
+            _SMALL_T["cap"] = cap
+        return _SMALL_T["T"]
+
+
+def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):
+    """``h(−n)`` for ``n ∈ [L, H]`` by Möbius inversion of ``H(n) = Σ_{g² | n} h_w(−n/g²)``
+    (int64; 0 off discriminants, −1 where an input is unknown).
+
+    Only ``6·H`` on the windows ``[L/g², H/g²]`` is computed: the window ``g = 1`` and the
+    few large ones directly, the small ones from a per-process table.
+    """
     np = _numpy()
     W = H - L + 1
     acc = np.zeros(W, dtype=np.int64)
     bad = np.zeros(W, dtype=bool)
     gmax = math.isqrt(H)
     mu = _mobius_table(max(gmax, 1))
+    series = cached_series(H, H // 4)
+    small_cap = max(1 << 16, H >> 6)
+    small = None
     for g in range(1, gmax + 1):
         if mu[g] == 0:
             continue
@@ -383,11 +329,20 @@ def _class_numbers_from_hurwitz(T, L: int, H: int):
         mlo, mhi = max(-(-L // g2), 1), H // g2
         if mlo > mhi:
             continue
-        vals = T[mlo : mhi + 1]
+        if g > 1 and mhi <= small_cap and complete:
+            if small is None:
+                small = _small_six_hurwitz(small_cap)
+            vals = small[mlo : mhi + 1]
+        else:
+            vals = _six_hurwitz_window(mlo, mhi, series, complete)
         first = g2 * mlo - L
         sl = slice(first, first + g2 * (mhi - mlo) + 1, g2)
-        acc[sl] += mu[g] * vals
-        bad[sl] |= vals < 0
+        if mu[g] == 1:
+            acc[sl] += vals
+        else:
+            acc[sl] -= vals
+        if not complete:
+            bad[sl] |= vals < 0
     # 6·h_w(−n); h_w(−3) = 1/3, h_w(−4) = 1/2
     h = acc // 6
     for n0, hv in ((3, 1), (4, 1)):
@@ -397,7 +352,7 @@ def _class_numbers_from_hurwitz(T, L: int, H: int):
     return h
 
 
-def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, block: int | None = None) -> dict:
+def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> dict:
     """Class numbers ``h(D)`` of the negative discriminants ``start ≤ D ≤ stop`` by theta series.
 
     ``H(n)`` for all ``n ≤ −start`` from ``r₃`` (module docstring), then the non-maximal
@@ -411,8 +366,6 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, bloc
         The range, inclusive (only ``D ≤ −3`` are counted).
     complete : bool
         Also give the discriminants with fundamental part ``≡ 1 (mod 8)``.
-    block : int, optional
-        FFT block length.
 
     Returns
     -------
@@ -443,7 +396,7 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, bloc
     L, H = max(3, -stop), -start
     if L > H:
         return {}
-    h = class_number_array(L, H, complete=complete, block=block)
+    h = class_number_array(L, H, complete=complete)
     out = {}
     for n, v in zip(range(L, H + 1), h.tolist()):
         if n % 4 in (0, 3) and v >= 0:
@@ -451,7 +404,6 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, bloc
     return out
 
 
-def class_number_array(L: int, H: int, *, complete: bool = True, block: int | None = None):
+def class_number_array(L: int, H: int, *, complete: bool = True):
     """``h(−n)`` for ``n ∈ [L, H]`` as an int64 array (0 off discriminants, −1 if unknown)."""
-    T, _, _ = _six_hurwitz(H, complete=complete, block=block)
-    return _class_numbers_from_hurwitz(T, L, H)
+    return _class_numbers_from_hurwitz(max(L, 1), H, complete)

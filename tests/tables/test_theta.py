@@ -50,13 +50,14 @@ def test_r3_against_brute_force():
     assert three_square_counts(N) == brute
 
 
-def test_legendre_and_blocked_fft():
+def test_legendre_and_the_two_transforms():
     # Legendre/Gauss: n is a sum of three squares unless n = 4^a(8b + 7); and r₃(4n) = r₃(n)
-    # (from memory); the blocked FFT must agree with the single transform.
+    # (from memory); the three short products (ψ³, ψ(q²)θ², ψ(q²)²θ) must agree with cubing
+    # the spectrum of θ, an independent transform.
     N = 20000
     one, err1 = _r3_upto(N, 0)
-    blocked, err2 = _r3_upto(N, 1 << 9)
-    assert (one == blocked).all() and max(err1, err2) < 0.25
+    series, err2 = _r3_upto(N)
+    assert (one == series).all() and max(err1, err2) < 0.25
     for n in range(1, N + 1):
         m = n
         while m % 4 == 0:
@@ -70,8 +71,9 @@ def test_against_sweep_sample():
     # every D in [−2·10^5, −3]: the theta series against counting reduced forms
     N = 200_000
     assert class_numbers_by_theta(-N, -3) == class_numbers(-N, -3, engine="numpy")
-    low = class_numbers_by_theta(-N, -150_000, block=1 << 12)
+    low = class_numbers_by_theta(-N, -150_000)  # a window far from 0
     assert low == class_numbers(-N, -150_000, engine="numpy")
+    assert class_numbers_by_theta(-N, -150_000, complete=False).items() <= low.items()
 
 
 @pytest.mark.slow
@@ -107,3 +109,61 @@ def test_bad_input():
     with pytest.raises(FormkitError, match="start"):
         class_numbers_by_theta(-3, -10)
     assert class_numbers_by_theta(-2, 5) == {}
+
+
+def test_store_names_the_method_of_each_chunk(tmp_path):
+    # a theta build must not be recorded as enumeration; a store built by both names both,
+    # and each chunk keeps its own method (common practice, no source: provenance rule)
+    from formkit import build_table, query_table, table_info
+
+    db = str(tmp_path / "t.db")
+    build_table(db, -2000, -1001, invariants=False, workers=1, engine="theta")
+    info = table_info(db)
+    assert info["meta"]["method"] == "theta" and "theta series" in info["meta"]["description"]
+    assert "enumeration" not in info["meta"]["method"]
+    assert info["methods"] == {"theta": [[-2000, -1001]]}
+    build_table(db, -1000, -3, invariants=False, workers=1, engine="numpy")
+    info = table_info(db)
+    assert info["meta"]["method"] == "enumeration + theta"
+    assert info["methods"] == {"theta": [[-2000, -1001]], "enumeration": [[-1000, -3]]}
+    rows = {r.discriminant: r.class_number for r in query_table(db)}
+    assert rows == class_numbers(-2000, -3)  # both methods agree with the sweep
+
+
+def test_sweep_of_the_class_7_mod_8_against_brute_force():
+    # r(m) = all reduced forms (a, b, c) of discriminant −m (|b| ≤ a ≤ c, b ≥ 0 if |b| = a
+    # or a = c; Cox Thm 2.8), counted directly, for m ≡ 7 (mod 8) in a window and from 7
+    from formkit.tables.sweep import _count_class_seven
+
+    def brute(m):
+        count, a = 0, 1
+        while 3 * a * a <= m:
+            for b in range(-a + 1, a + 1):
+                if (b * b + m) % (4 * a) == 0:
+                    c = (b * b + m) // (4 * a)
+                    if c > a or (c == a and b >= 0):
+                        count += 1
+            a += 1
+        return count
+
+    for first, hi in ((7, 3000), (8 * 2500 + 7, 8 * 2900)):
+        assert _count_class_seven(first, hi).tolist() == [brute(m) for m in range(first, hi + 1, 8)]
+
+
+def test_theta_chunks_on_a_dask_cluster(tmp_path):
+    # the theta engine runs chunk by chunk on a (local) Dask cluster into the resumable
+    # store, and agrees row for row with a sweep-built store (common practice, no source)
+    distributed = pytest.importorskip("distributed")
+    from formkit import build_table, query_table, table_info
+
+    db, ref = str(tmp_path / "theta.db"), str(tmp_path / "sweep.db")
+    build_table(ref, -60_000, -3, invariants=False, workers=1, chunk_size=10_000)
+    with distributed.LocalCluster(
+        n_workers=2, threads_per_worker=1, processes=False, dashboard_address="127.0.0.1:0"
+    ) as cluster:
+        address = cluster.scheduler_address
+        build_table(db, -30_000, -3, invariants=False, chunk_size=10_000, engine="theta", cluster=address)
+        s = build_table(db, -60_000, -3, invariants=False, chunk_size=10_000, engine="theta", cluster=address)
+    assert (s.chunks_already_done, s.chunks_computed) == (3, 3)
+    assert table_info(db)["methods"] == {"theta": [[-60_000, -3]]}
+    assert [r.to_dict() for r in query_table(db)] == [r.to_dict() for r in query_table(ref)]
