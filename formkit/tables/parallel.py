@@ -206,11 +206,19 @@ def _plan(
     return specs
 
 
-def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[float, float]:
+def table_cost(
+    intervals: Iterable[tuple[int, int]], invariants: bool, engine: str = "auto"
+) -> tuple[float, float]:
     """Estimated (CPU seconds, bytes) of computing the table rows of the given ranges of D.
 
     Negative ranges without invariants are swept at once (:mod:`formkit.tables.sweep`):
     loops to ``√|D|`` plus about a microsecond per ``D`` (measured here, rounded up).
+    Where the theta series is used (``engine="theta"``, or ``"auto"`` beyond
+    :data:`~formkit.tables.rows.THETA_CROSSOVER`): the FFT series to ``|D|`` once per
+    worker (``1.5·10⁻⁷·|D|`` s, about 16 bytes per integer up to ``|D|``), the windows
+    (``4·10⁻⁷`` s per ``D``) and the sweep of the ``d_K ≡ 1 (mod 8)`` part
+    (``1.2·10⁻¹⁰·√|D|`` s per ``D``); fitted to ``benchmarks/bench_theta.py`` at
+    ``10⁷`` and ``10⁸`` (docs/performance.md, "Tables at scale") and rounded up.
     Positive ranges, and invariants, cost one class-group computation per
     discriminant, priced at the largest ``|D|`` by
     :func:`formkit.core.enumeration.enumeration_cost` (about half the integers are
@@ -223,6 +231,9 @@ def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[
     >>> t < 60 and m < 2**30
     True
     >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
+    True
+    >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta: 122 CPU-s, 1.5 GB measured
+    >>> 120 < t < 250 and 1.5 * 2**30 < m < 3 * 2**30
     True
     """
     from ..classgroups.baby_step_giant_step import bsgs_cost
@@ -238,7 +249,14 @@ def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[
             count = to_float(b - a + 1)
             M = max(abs(a), abs(b))
             root = to_float(isqrt(M))
-            if b < 0 and not invariants:
+            if (
+                b < 0
+                and not invariants
+                and (engine == "theta" or (engine == "auto" and M >= THETA_CROSSOVER))
+            ):
+                seconds += 1.5e-7 * M + count * (4e-7 + 1.2e-10 * root)
+                memory = max(memory, 16 * M + 200 * min(count, CHUNK_THETA))
+            elif b < 0 and not invariants:
                 seconds += 3e-6 * root + 1e-6 * count * (1 + math.log(root + 2))
                 memory = max(memory, 40 * root + 200 * min(count, CHUNK_NEGATIVE_PYTHON))
             else:
@@ -251,12 +269,14 @@ def table_cost(intervals: Iterable[tuple[int, int]], invariants: bool) -> tuple[
     return seconds, memory
 
 
-def _check_table_cost(intervals: list[tuple[int, int]], invariants: bool, workers: int) -> None:
+def _check_table_cost(
+    intervals: list[tuple[int, int]], invariants: bool, workers: int, engine: str = "auto"
+) -> None:
     from ..core.budget import check_cost, describe_integer
 
     if not intervals:
         return
-    seconds, memory = table_cost(intervals, invariants)
+    seconds, memory = table_cost(intervals, invariants, engine)
     lo, hi = intervals[0][0], intervals[-1][1]
     check_cost(
         f"the table of {describe_integer(lo)} ≤ D ≤ {describe_integer(hi)}"
@@ -365,7 +385,7 @@ def build_table(
         done = []
     missing = _missing(start, stop, done)
     if cluster is None:
-        _check_table_cost(missing, bool(invariants), min(workers, os.cpu_count() or 1))
+        _check_table_cost(missing, bool(invariants), min(workers, os.cpu_count() or 1), engine)
     already = sum(1 for lo, hi in done if hi >= start and lo <= stop)
     specs = _plan(start, stop, missing, bool(fundamental), bool(invariants), engine, chunk_size)
     if conn is not None and path is not None and specs:  # the store names every method used

@@ -16,9 +16,14 @@ in :mod:`formkit.tables.sweep`).  Sieves give the fundamental part, the conducto
 and the number of genera ``2^(μ−1)`` (Cox, Proposition 3.11 and Theorem 3.15).  Two
 engines: ``"numpy"`` (vectorised) and ``"python"`` (an independent pure-Python sweep).
 
+A third engine, ``"theta"`` (:mod:`formkit.tables.theta`), gets the class numbers of
+wide negative ranges from the three-squares theta series, and the ``d_K ≡ 1 (mod 8)``
+part by counting reduced forms; ``"auto"`` takes it beyond :data:`THETA_CROSSOVER`.
+
 Positive discriminants are done one ``D`` at a time (:func:`formkit.class_group`,
-:func:`formkit.fundamental_unit`).  All results come from complete enumeration and are
-unconditional.
+:func:`formkit.fundamental_unit`).  Every result is unconditional: counts of reduced
+forms, the theta series with a checked rounding error, and invariants forced by ``h``
+or built from explicit relations (:data:`METHOD_DESCRIPTIONS`).
 
 References
 ----------
