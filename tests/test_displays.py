@@ -187,3 +187,57 @@ def test_graph_str_counts_undirected_edges():
     C = cayley_graph(-84)
     assert nx.hypercube_graph(2).number_of_edges() == 4
     assert str(C).endswith("4 nodes, 4 edges undirected, 8 directed; enumeration, unconditional")
+
+
+# --- the small result types (formkit.core.displays): one sentence and its provenance -------------
+
+
+def _small_results():
+    F = formkit.Form
+    from formkit.core.lattice import hermite_normal_form
+    from formkit.representation.cm_method import cm_curve
+
+    return {
+        "lattice count": formkit.lattice_point_count(F(1, 0, 1), 100),
+        "class lattice total": formkit.class_lattice_total(-84, 100),
+        "L estimate": formkit.class_number_estimate(-(10**20) - 3).l_value,
+        "h estimate": formkit.class_number_estimate(-(10**20) - 3),
+        "genus character": formkit.genera(-84).characters[0],
+        "genus": formkit.genera(-84).genera[1],
+        "genera": formkit.genera(-84),
+        "provenance": formkit.class_group(-84).provenance,
+        "equivalence": formkit.equivalence(F(3, 2, 5), F(3, -2, 5)),
+        "automorphisms": formkit.automorphism_group(F(1, 0, 1)),
+        "hermite": hermite_normal_form([[2, 4], [0, 6]]),
+        "reduction": formkit.reduce_form(F(10, 37, 35)),
+        "cycle": formkit.reduced_cycle(F(3, 14, -10)),
+        "cm curve": cm_curve(-7, 11, 4, -3375 % 11),  # j(-7) = -3375 (from memory); 4*11 = 4^2 + 7*2^2
+        "density": formkit.density_count(F(3, 2, 5), 1000),
+        "unit": formkit.fundamental_unit(316),
+    }
+
+
+def test_small_result_types_display_a_sentence_and_provenance():
+    results = _small_results()
+    for name, r in results.items():
+        h, t = r._repr_html_(), r._repr_latex_()
+        assert h.startswith("<p>") and "<small>" in h, name
+        assert t.startswith("$") and t.endswith("$") and _balanced(t), name
+    # the GRH mark on the conditional estimates only (the interval of L(1, chi) is proved under GRH)
+    assert "conditional on GRH" in results["h estimate"]._repr_html_()
+    assert "conditional on GRH" in results["L estimate"]._repr_html_()
+    assert "GRH" not in results["genera"]._repr_html_()
+    # the numbers shown are the true ones: 45 of the 168 primes <= 1000 for (3, 2, 5) (brute force in
+    # tests/representation); the lattice points of x^2 + y^2 <= 100, origin included, counted here (317, Gauss's
+    # circle problem at r = 10, from memory)
+    assert "45 of the 168 primes" in results["density"]._repr_html_()
+    assert (
+        results["lattice count"].count
+        == 317
+        == sum(1 for x in range(-10, 11) for y in range(-10, 11) if x * x + y * y <= 100)
+    )
+    assert "= 317 (origin included)" in results["lattice count"]._repr_html_()
+    assert (
+        "properly equivalent" not in results["equivalence"]._repr_html_()
+    )  # (3, 2, 5) ~ (3, -2, 5) improperly
+    assert "(1, 1, 8)" in results["reduction"]._repr_html_()  # (10, 37, 35) has D = -31, h = 3 (from memory)

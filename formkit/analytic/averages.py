@@ -29,6 +29,7 @@ from typing import Any
 
 from ..core.arith import as_int, isqrt, kronecker
 from ..core.discriminants import unit_count, validate_discriminant
+from ..core.displays import SentenceDisplay
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.reduction import reduced
 from ..errors import FormError, FormkitError
@@ -59,7 +60,7 @@ def _mp_checked(fn, digits: int):
 
 
 @dataclass(frozen=True)
-class LatticeCount:
+class LatticeCount(SentenceDisplay):
     """``N_Q(X)`` beside the area ``2πX/√|D|`` of the ellipse ``Q ≤ X``.
 
     ``count`` is exact; ``main_term`` and ``error = count − main_term`` are mpmath
@@ -72,6 +73,12 @@ class LatticeCount:
     main_term: Any
     error: Any
     digits: int
+
+    def _display_sentence(self) -> str:
+        return f"#{{(x, y) : {self.form} ≤ {self.bound}}} = {self.count} (origin included); area term {float(self.main_term):.10g}, difference {float(self.error):.4g}"
+
+    def _display_provenance(self) -> str:
+        return "lattice points counted exactly; the area term to " + str(self.digits) + " digits"
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary (floats as decimal strings)."""
@@ -155,7 +162,7 @@ def lattice_point_count(form: FormLike, X: object, *, digits: int = 30) -> Latti
 
 
 @dataclass(frozen=True)
-class ClassLatticeTotal:
+class ClassLatticeTotal(SentenceDisplay):
     """``Σ_Q N_Q(X)`` over one form per class, beside ``h·2πX/√|D| = w·L(1, χ_D)·X``.
 
     ``class_number_estimate = count·√|D|/(2πX)`` is what counting alone says about ``h``.
@@ -170,6 +177,12 @@ class ClassLatticeTotal:
     error: Any
     class_number_estimate: Any
     digits: int
+
+    def _display_sentence(self) -> str:
+        return f"D = {self.discriminant}: {self.count} lattice points with Q(x, y) ≤ {self.bound} (the origin included) summed over one form Q of each of the {self.class_number} classes; area term {float(self.main_term):.10g}, so h ≈ {float(self.class_number_estimate):.6g}"
+
+    def _display_provenance(self) -> str:
+        return "lattice points counted exactly; the area term to " + str(self.digits) + " digits"
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary (floats as decimal strings)."""

@@ -78,6 +78,7 @@ from functools import lru_cache
 
 from ..core.arith import as_int, isqrt, kronecker
 from ..core.discriminants import discriminant_parts, validate_discriminant
+from ..core.displays import SentenceDisplay
 from ..core.factorisation import prime_factorisation
 from ..errors import FormkitError
 
@@ -109,7 +110,7 @@ _ULP = 2.0**-52
 
 
 @dataclass(frozen=True)
-class LValueEstimate:
+class LValueEstimate(SentenceDisplay):
     """``L(1, χ_D)`` with an interval that holds under GRH, and a proven upper bound.
 
     ``value`` is ``exp(S(x))`` times the exact conductor correction (module docstring);
@@ -131,13 +132,19 @@ class LValueEstimate:
     typical_radius: float
     assumption: str = "GRH"
 
+    def _display_sentence(self) -> str:
+        return f"L(1, χ_{self.discriminant}) ≈ {self.value:.10g}, in [{self.lower:.10g}, {self.upper:.10g}] (Euler product over p ≤ {self.prime_bound}); unconditionally ≤ {self.proven_upper:.6g}"
+
+    def _display_provenance(self) -> str:
+        return f"the interval conditional on {self.assumption}; the upper bound {self.proven_upper:.6g} unconditional"
+
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
         return dict(self.__dict__)
 
 
 @dataclass(frozen=True)
-class ClassNumberEstimate:
+class ClassNumberEstimate(SentenceDisplay):
     """The analytic estimate of the class number (``D < 0``) or of ``h·R`` (``D > 0``).
 
     ``estimate`` is the analytic value; ``[lower, upper]`` holds the true value under
@@ -151,6 +158,16 @@ class ClassNumberEstimate:
     upper: float
     proven_upper: float
     l_value: LValueEstimate
+
+    def _display_sentence(self) -> str:
+        return (
+            f"h({self.discriminant}) ≈ {self.estimate:.10g}, in [{self.lower}, {self.upper}]"
+            if self.discriminant < 0
+            else f"h·R for D = {self.discriminant} ≈ {self.estimate:.10g}, in [{self.lower:.10g}, {self.upper:.10g}]"
+        ) + f"; unconditionally ≤ {self.proven_upper:.6g}"
+
+    def _display_provenance(self) -> str:
+        return f"the interval conditional on {self.assumption} (Euler product over p ≤ {self.l_value.prime_bound}); the upper bound unconditional"
 
     @property
     def assumption(self) -> str:

@@ -51,6 +51,7 @@ from dataclasses import dataclass
 
 from ..core.arith import gcd, kronecker
 from ..core.discriminants import validate_discriminant
+from ..core.displays import SentenceDisplay
 from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form
 from ..core.modular_roots import crt
@@ -77,7 +78,7 @@ _TWO_ADIC_FORMULAS = {
 
 
 @dataclass(frozen=True)
-class GenusCharacter:
+class GenusCharacter(SentenceDisplay):
     """One assigned character of a discriminant.
 
     ``kind`` is ``"odd prime"`` (the Legendre symbol ``(n/p)``, ``prime = p``) or one
@@ -94,6 +95,16 @@ class GenusCharacter:
 
     kind: str
     prime: int
+
+    def _display_sentence(self) -> str:
+        return (
+            f"the genus character {self.name} = {self.formula}"
+            if self.name != self.formula
+            else f"the genus character {self.name}"
+        )
+
+    def _display_provenance(self) -> str:
+        return "genus theory (Gauss; Cox §3), exact"
 
     @property
     def name(self) -> str:
@@ -305,11 +316,22 @@ def same_genus(F: FormLike, G: FormLike) -> bool:
 
 
 @dataclass(frozen=True)
-class Genus:
+class Genus(SentenceDisplay):
     """One genus: its symbol and the reduced forms of its classes."""
 
     symbol: tuple[int, ...]
     forms: tuple[Form, ...]
+
+    def _display_sentence(self) -> str:
+        return (
+            "genus with symbol ("
+            + ", ".join(f"{e:+d}" for e in self.symbol)
+            + "): "
+            + ", ".join(f"({f.a}, {f.b}, {f.c})" for f in self.forms)
+        )
+
+    def _display_provenance(self) -> str:
+        return "genus theory (Gauss; Cox §3), exact"
 
     @property
     def is_principal(self) -> bool:
@@ -325,7 +347,7 @@ class Genus:
 
 
 @dataclass(frozen=True)
-class GenusPartition:
+class GenusPartition(SentenceDisplay):
     """The classes of discriminant ``D`` sorted into genera.
 
     ``genera`` lists the genera that occur (principal genus first, then by symbol);
@@ -335,6 +357,15 @@ class GenusPartition:
     discriminant: int
     characters: tuple[GenusCharacter, ...]
     genera: tuple[Genus, ...]
+
+    def _display_sentence(self) -> str:
+        return (
+            f"D = {self.discriminant}: {len(self.genera)} genera of {sum(len(g.forms) for g in self.genera)} classes; assigned characters "
+            + ", ".join(c.name for c in self.characters)
+        )
+
+    def _display_provenance(self) -> str:
+        return "genus theory (Gauss; Cox §3), complete: every class placed by its characters"
 
     @property
     def count(self) -> int:

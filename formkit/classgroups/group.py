@@ -30,6 +30,7 @@ from dataclasses import dataclass
 from ..core.arith import as_int, lcm, mpz
 from ..core.composition import _compose_raw, _nucomp_bound, _nucomp_raw, _nudupl_raw
 from ..core.discriminants import discriminant_parts, fundamental_unit
+from ..core.displays import SentenceDisplay
 from ..core.forms import Form, FormLike, as_form
 from ..errors import DiscriminantMismatchError, FormError, FormkitError, NotPrimitiveError
 
@@ -43,7 +44,7 @@ Triple = tuple[int, int, int]
 
 
 @dataclass(frozen=True)
-class Provenance:
+class Provenance(SentenceDisplay):
     """How a class-group result was obtained.
 
     ``method`` is ``"enumeration"`` or ``"bsgs"``; ``certified`` is true when the result
@@ -57,6 +58,16 @@ class Provenance:
     assumption: str | None = None
     bound: int | None = None
     detail: str = ""
+
+    def _display_sentence(self) -> str:
+        return str(self)
+
+    def _display_provenance(self) -> str:
+        return (
+            "conditional on GRH"
+            if self.assumption == "GRH"
+            else ("unconditional" if self.certified else "not certified")
+        ) + ("" if self.bound is None else f", bound {self.bound}")
 
     def __str__(self) -> str:
         if self.certified:

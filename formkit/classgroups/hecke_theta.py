@@ -63,6 +63,7 @@ from typing import Any
 from ..analytic.theta_series import theta_series
 from ..core.arith import as_int, kronecker
 from ..core.discriminants import validate_discriminant
+from ..core.displays import SentenceDisplay
 from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, as_form
 from ..core.reduction import reduced
@@ -289,7 +290,7 @@ def _elt_text(elt: tuple[Fraction, ...], var: str = "a") -> str:
 
 
 @dataclass(frozen=True, eq=False)
-class HeckeEigenform:
+class HeckeEigenform(SentenceDisplay):
     """A simultaneous eigenform of the ``T_p`` (``p ∤ D``) in the cusp span, over ``K = Q(a)``.
 
     ``field_polynomial`` is the minimal polynomial ``g`` of ``a`` (constant coefficient
@@ -305,6 +306,12 @@ class HeckeEigenform:
     eigenvalues: dict[int, tuple[Fraction, ...]]
     normalised_at: int
     component: tuple[Fraction, ...]
+
+    def _display_sentence(self) -> str:
+        return repr(self)
+
+    def _display_provenance(self) -> str:
+        return "Hecke eigenvalues exact and checked; Sturm's bound proves the operators"
 
     @property
     def degree(self) -> int:

@@ -293,6 +293,12 @@ class QuadraticUnit:
     def _repr_latex_(self) -> str:
         return rf"$\varepsilon = \frac{{{self.t} + {self.u}\sqrt{{{self.discriminant}}}}}{{2}}$"
 
+    def _repr_html_(self) -> str:
+        return (
+            f"<p>ε = ({self.t} + {self.u}√{self.discriminant})/2, norm {self.norm:+d}<br>"
+            "<small>the fundamental unit: first solution of the Pell equation t² − Du² = ±4, exact</small></p>"
+        )
+
 
 def _log_unit(D: int, t: int, u: int, digits: int):
     import mpmath

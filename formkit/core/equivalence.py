@@ -28,6 +28,7 @@ from dataclasses import dataclass
 from ..errors import DiscriminantMismatchError, FormError
 from .arith import isqrt
 from .discriminants import fundamental_unit
+from .displays import SentenceDisplay
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_inverse, mat_mul
 from .raw_reduction import _rho_indefinite_raw, _to_work
 from .reduction import _reduce_definite, _reduce_indefinite
@@ -48,7 +49,7 @@ _FLIP: Matrix = ((1, 0), (0, -1))
 
 
 @dataclass(frozen=True)
-class EquivalenceResult:
+class EquivalenceResult(SentenceDisplay):
     """Whether ``F`` and ``G`` are equivalent, and how.
 
     ``matrix`` satisfies ``F·matrix == G``; it has determinant +1 when ``properly``
@@ -59,6 +60,18 @@ class EquivalenceResult:
     equivalent: bool
     properly: bool
     matrix: Matrix | None
+
+    def _display_sentence(self) -> str:
+        return (
+            "properly equivalent"
+            if self.properly
+            else "improperly (not properly) equivalent"
+            if self.equivalent
+            else "not equivalent"
+        ) + ("" if self.matrix is None else f", by the matrix {self.matrix}")
+
+    def _display_provenance(self) -> str:
+        return "exact: reduction and the cycle (D > 0), checked by substitution"
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
@@ -218,7 +231,7 @@ def are_equivalent(F: FormLike, G: FormLike) -> bool:
 
 
 @dataclass(frozen=True)
-class AutomorphismGroup:
+class AutomorphismGroup(SentenceDisplay):
     """The proper automorphism group ``{M ∈ SL2(Z) : F·M = F}`` of a form.
 
     For definite forms ``order`` is 2, 4 or 6 and ``generator`` generates the
@@ -229,6 +242,12 @@ class AutomorphismGroup:
     form: Form
     generator: Matrix
     order: int | None
+
+    def _display_sentence(self) -> str:
+        return repr(self)
+
+    def _display_provenance(self) -> str:
+        return "exact"
 
     @property
     def is_finite(self) -> bool:

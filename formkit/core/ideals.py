@@ -44,9 +44,10 @@ from collections.abc import Iterable
 from ..errors import FormError, FormkitError, NotInvertibleIdealError, NotPrimeError
 from .arith import as_int, gcd, is_probable_prime, kronecker, xgcd
 from .discriminants import discriminant_parts, validate_discriminant
+from .displays import latex_text as _latex_text
 from .factorisation import prime_factorisation
 from .forms import Form, FormLike, as_form
-from .quadratic_numbers import QuadraticNumber, _latex_text
+from .quadratic_numbers import QuadraticNumber
 from .quadratic_orders import Order
 
 __all__ = [

@@ -57,6 +57,7 @@ import flint
 
 from ..errors import FormkitError
 from .arith import as_int, xgcd
+from .displays import SentenceDisplay
 
 __all__ = [
     "HermiteForm",
@@ -157,7 +158,7 @@ def _identity(n: int) -> list[list[int]]:
 
 
 @dataclass(frozen=True)
-class HermiteForm:
+class HermiteForm(SentenceDisplay):
     """The row Hermite normal form ``H = T·A`` of an integer matrix ``A``.
 
     ``H`` is upper echelon: the first ``rank`` rows are non-zero, the pivot (first
@@ -170,6 +171,12 @@ class HermiteForm:
     rank: int
     pivots: tuple[int, ...]
     transform: Rows | None = field(default=None, repr=False)
+
+    def _display_sentence(self) -> str:
+        return f"Hermite normal form of rank {self.rank}, pivots in columns {list(self.pivots)}"
+
+    def _display_provenance(self) -> str:
+        return "exact integer linear algebra (FLINT)"
 
     def __repr__(self) -> str:
         m = len(self.matrix)

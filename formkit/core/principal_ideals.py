@@ -48,8 +48,9 @@ import math
 from ..errors import FormkitError
 from .arith import isqrt
 from .discriminants import fundamental_unit, validate_discriminant
+from .displays import latex_text as _latex_text
 from .ideals import QuadraticIdeal, principal_ideal
-from .quadratic_numbers import QuadraticNumber, _latex_text
+from .quadratic_numbers import QuadraticNumber
 
 __all__ = ["CompactProduct", "PrincipalityResult", "principal_generator", "EXPLICIT_LIMIT", "MAX_CYCLE_WALK"]
 

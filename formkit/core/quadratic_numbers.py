@@ -213,23 +213,6 @@ class QuadraticNumber:
         return f"{html.escape(self.text())} in Q(√{m}) (order of discriminant {self._D})"
 
 
-def _latex_text(text: str) -> str:
-    r"""Plain text as LaTeX ``$\text{…}$``, the characters LaTeX reserves escaped.
-
-    >>> _latex_text("h_K = 1 & 50%")
-    '$\\text{h\\_K = 1 \\& 50\\%}$'
-    """
-    out = []
-    for ch in text:
-        if ch in "_%&#${}":
-            out.append("\\" + ch)
-        elif ch == "\\":
-            out.append(r"\textbackslash{}")
-        else:
-            out.append(ch)
-    return r"$\text{" + "".join(out) + "}$"
-
-
 def _linear_text(P: int, Q: int, m: int, *, latex: bool = False) -> str:
     root = rf"\sqrt{{{m}}}" if latex else f"√{m}"
     if Q == 0:

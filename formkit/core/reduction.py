@@ -31,6 +31,7 @@ from dataclasses import dataclass, field
 
 from ..errors import FormError
 from .arith import isqrt
+from .displays import SentenceDisplay
 from .forms import IDENTITY, Form, FormLike, Matrix, _require_nonsquare, as_form, mat_mul
 from .raw_reduction import (
     REPRESENTATIVE_CYCLE_LIMIT,
@@ -72,13 +73,19 @@ class ReductionStep:
 
 
 @dataclass(frozen=True)
-class ReductionResult:
+class ReductionResult(SentenceDisplay):
     """The outcome of :func:`reduce_form`: ``reduced == form · matrix``, ``matrix ∈ SL2(Z)``."""
 
     form: Form
     reduced: Form
     matrix: Matrix
     steps: tuple[ReductionStep, ...] = field(default=(), repr=False)
+
+    def _display_sentence(self) -> str:
+        return f"({self.form.a}, {self.form.b}, {self.form.c}) reduces to ({self.reduced.a}, {self.reduced.b}, {self.reduced.c}) by the matrix {self.matrix}"
+
+    def _display_provenance(self) -> str:
+        return "exact (Gauss reduction), checked by substitution"
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
@@ -91,7 +98,7 @@ class ReductionResult:
 
 
 @dataclass(frozen=True)
-class FormCycle:
+class FormCycle(SentenceDisplay):
     """The cycle of reduced indefinite forms ``forms[0] → forms[1] → …`` under ρ.
 
     ``matrices[i]`` takes ``forms[i]`` to ``forms[i+1]`` (indices modulo the length);
@@ -100,6 +107,16 @@ class FormCycle:
 
     forms: tuple[Form, ...]
     matrices: tuple[Matrix, ...] = field(repr=False)
+
+    def _display_sentence(self) -> str:
+        return (
+            f"a cycle of {len(self.forms)} reduced forms: "
+            + ", ".join(f"({f.a}, {f.b}, {f.c})" for f in self.forms[:12])
+            + (" …" if len(self.forms) > 12 else "")
+        )
+
+    def _display_provenance(self) -> str:
+        return "exact (Gauss reduction of indefinite forms)"
 
     def __len__(self) -> int:
         return len(self.forms)

@@ -37,6 +37,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 
 from ..core.arith import as_int, is_probable_prime
+from ..core.displays import SentenceDisplay
 from ..errors import DiscriminantError, FormkitError
 from .class_polynomials import _check_negative
 
@@ -231,7 +232,7 @@ def _kills(N: int, a4: int, a6: int, p: int, rng: random.Random, tries: int) -> 
 
 
 @dataclass(frozen=True)
-class CMCurve:
+class CMCurve(SentenceDisplay):
     """An elliptic curve ``y² = x³ + a4·x + a6`` over ``F_p`` with ``order`` points, from a
     root ``j`` of ``H_D`` modulo ``p`` (``4p = t² − D·v²``); ``points_checked`` random
     points ``P`` had ``[order]P = O``."""
@@ -244,6 +245,12 @@ class CMCurve:
     a6: int
     order: int
     points_checked: int
+
+    def _display_sentence(self) -> str:
+        return f"y² = x³ + {self.a4}x + {self.a6} over F_p, p = {self.p}: j = {self.j}, {self.order} = p + 1 − {self.t} points"
+
+    def _display_provenance(self) -> str:
+        return f"[order]P = O checked at {self.points_checked} random points"
 
     def to_dict(self) -> dict:
         return {

@@ -32,6 +32,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..core.arith import as_int, is_probable_prime, is_square, isqrt, kronecker, mpz
+from ..core.displays import SentenceDisplay
 from ..core.equivalence import proper_equivalence
 from ..core.forms import Form, FormLike, _require_nonsquare, as_form, mat_inverse, mat_mul
 from ..core.modular_roots import _sqrt_mod_prime
@@ -164,7 +165,7 @@ def _cornacchia_4p(D: int, p: int) -> Vector | None:
 
 
 @dataclass(frozen=True)
-class RepresentationDecision:
+class RepresentationDecision(SentenceDisplay):
     """Whether ``form`` represents ``n``, with one solution and how it was found.
 
     ``method`` is ``"cornacchia"``, ``"reduction"`` (the prime test by reduction of
@@ -179,6 +180,12 @@ class RepresentationDecision:
     solution: Vector | None
     method: str
     prime: bool
+
+    def _display_sentence(self) -> str:
+        return repr(self)
+
+    def _display_provenance(self) -> str:
+        return "exact"
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""

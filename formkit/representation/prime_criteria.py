@@ -47,6 +47,7 @@ from typing import Any
 
 from ..classgroups.dispatch import class_group
 from ..core.budget import check_cost
+from ..core.displays import SentenceDisplay
 from ..core.forms import Form, FormLike
 from ..core.progress import progress_bar
 from ..errors import FormkitError
@@ -96,7 +97,7 @@ def prime_density(form: FormLike) -> Fraction:
 
 
 @dataclass(frozen=True)
-class DensityCount:
+class DensityCount(SentenceDisplay):
     """Primes up to ``upto`` represented by a form, beside the Chebotarev prediction.
 
     ``represented`` of the ``prime_count`` primes ``p ≤ upto`` are represented;
@@ -108,6 +109,12 @@ class DensityCount:
     represented: int
     prime_count: int
     density: Fraction
+
+    def _display_sentence(self) -> str:
+        return f"{self.represented} of the {self.prime_count} primes ≤ {self.upto} are represented by ({self.form.a}, {self.form.b}, {self.form.c}); predicted density {self.density}"
+
+    def _display_provenance(self) -> str:
+        return "counted exactly; the density is Chebotarev's theorem (unconditional)"
 
     @property
     def expected(self) -> float:
