@@ -73,7 +73,7 @@ def test_lecture_handout_genera(tmp_path):
     assert "| principal | (+1, +1, +1) | [1, 0, 65], [9, 8, 9] |" in out
     assert "# The class group of discriminant -260" in out
     assert "MISMATCH" not in out
-    assert "# Composition of [3, 2, 22] and [3, 2, 22]" in out
+    assert "# Composition of (3, 2, 22) and (3, 2, 22)" in out
     text = tex.read_text()
     assert text.startswith("\\documentclass") and text.rstrip().endswith("\\end{document}")
 

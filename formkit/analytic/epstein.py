@@ -293,11 +293,11 @@ def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedVal
     Q = _definite(form)
     s = as_complex_argument(s)
     digits = check_digits(digits)
-    quantity = f"Z_Q(s), Q = {Q.to_list()}"
+    quantity = f"Z_Q(s), Q = ({Q.a}, {Q.b}, {Q.c})"
     if s.is_integer and s.real == 1:
         D = Q.discriminant
         raise FormkitError(
-            f"s = 1 is the pole of Z_Q(s) for Q = {Q.to_list()} (residue 2π/√{-D}); "
+            f"s = 1 is the pole of Z_Q(s) for Q = ({Q.a}, {Q.b}, {Q.c}) (residue 2π/√{-D}); "
             "the constant term there is given by kronecker_limit (formkit epstein Q --limit-formula)"
         )
     if s.is_integer and s.real <= 0:
@@ -368,14 +368,14 @@ class KroneckerLimit:
     def __repr__(self) -> str:
         c = self.constant_term.text()
         return (
-            f"KroneckerLimit(Q={self.form.to_list()}: Z_Q(s) = {self.residue.text()}/(s−1) "
+            f"KroneckerLimit(Q=({self.form.a}, {self.form.b}, {self.form.c}): Z_Q(s) = {self.residue.text()}/(s−1) "
             f"{'−' if c.startswith('-') else '+'} {c.lstrip('-')} + O(s−1); "
             f"η-value and series {'agree' if self.agrees else 'DISAGREE'})"
         )
 
     def _repr_html_(self) -> str:
         return (
-            f"<p>Kronecker's limit formula for Q = {self.form.to_list()}:<br>"
+            f"<p>Kronecker's limit formula for Q = ({self.form.a}, {self.form.b}, {self.form.c}):<br>"
             f"residue 2π/√|D| = <code>{self.residue.text()}</code>, constant term "
             f"<code>{self.constant_term.text()}</code> (through η(τ_Q)); series check: "
             f"{'agrees' if self.agrees else 'DISAGREES'}</p>"

@@ -160,7 +160,7 @@ def dedekind_eta(tau: object, *, digits: int = 30) -> CertifiedValue:
         if isinstance(tau, (Form, tuple, list)):
             Q = as_form(tau)
             z = form_root(Q)
-            label = f"η(τ_Q), Q = {Q.to_list()}"
+            label = f"η(τ_Q), Q = ({Q.a}, {Q.b}, {Q.c})"
             s_arg = as_complex_argument(0)
         else:
             s_arg = as_complex_argument(tau, "tau")

@@ -72,11 +72,11 @@ class ThetaSeries:
         return " + ".join(terms)
 
     def __repr__(self) -> str:
-        return f"ThetaSeries(Q={self.form.to_list()}: {self._head()} + … up to q^{self.bound})"
+        return f"ThetaSeries(Q=({self.form.a}, {self.form.b}, {self.form.c}): {self._head()} + … up to q^{self.bound})"
 
     def _repr_html_(self) -> str:
         return (
-            f"<p>θ<sub>Q</sub> for Q = {self.form.to_list()}: <code>{self._head()} + …</code> "
+            f"<p>θ<sub>Q</sub> for Q = ({self.form.a}, {self.form.b}, {self.form.c}): <code>{self._head()} + …</code> "
             f"(exact lattice-point count up to q<sup>{self.bound}</sup>)</p>"
         )
 

@@ -206,14 +206,14 @@ class ThetaDecomposition:
     def __repr__(self) -> str:
         cusp = ", ".join(str(c) for c in self.cusp_coefficients(8))
         return (
-            f"ThetaDecomposition(Q={self.form.to_list()}, genus of {len(self.genus_forms)} classes, "
+            f"ThetaDecomposition(Q=({self.form.a}, {self.form.b}, {self.form.c}), genus of {len(self.genus_forms)} classes, "
             f"cusp part [{cusp}, …], Siegel average = Eisenstein: {self.siegel_agrees}; {self.provenance})"
         )
 
     def _repr_html_(self) -> str:
         cusp = ", ".join(str(c) for c in self.cusp_coefficients(12))
         return (
-            f"<p>θ<sub>Q</sub> − θ<sub>genus</sub> for Q = {self.form.to_list()}: <code>[{cusp}, …]</code><br>"
+            f"<p>θ<sub>Q</sub> − θ<sub>genus</sub> for Q = ({self.form.a}, {self.form.b}, {self.form.c}): <code>[{cusp}, …]</code><br>"
             f"<small>genus {[f.to_list() for f in self.genus_forms]}; Siegel average = Eisenstein series: "
             f"{self.siegel_agrees}; {self.provenance}</small></p>"
         )

@@ -416,7 +416,7 @@ class HeckeDecomposition:
 
     def __repr__(self) -> str:
         return (
-            f"HeckeDecomposition(Q={self.form.to_list()}, D={self.discriminant}: cusp span of dimension "
+            f"HeckeDecomposition(Q=({self.form.a}, {self.form.b}, {self.form.c}), D={self.discriminant}: cusp span of dimension "
             f"{self.cusp_dimension}, {len(self.eigenforms)} eigenform(s) over fields of degrees "
             f"{[f.degree for f in self.eigenforms]}, reconstructs: {self.reconstructs}; {self.provenance})"
         )
@@ -429,7 +429,7 @@ class HeckeDecomposition:
             for f in self.eigenforms
         )
         return (
-            f"<p>θ<sub>Q</sub> − θ<sub>genus</sub> for Q = {self.form.to_list()} in Hecke eigenforms "
+            f"<p>θ<sub>Q</sub> − θ<sub>genus</sub> for Q = ({self.form.a}, {self.form.b}, {self.form.c}) in Hecke eigenforms "
             f"(T_p, p ∈ {list(self.primes)}; proved by Sturm's bound B = {self.sturm_bound}):</p><ul>{rows}</ul>"
             f"<p><small>{self.provenance}</small></p>"
         )

@@ -180,13 +180,13 @@ class PartialZetaValues:
     def __repr__(self) -> str:
         return (
             f"PartialZetaValues(D={self.discriminant}, s={self.s}, ideals of norm ≤ {self.bound}: "
-            + ", ".join(f"{f.to_list()}: {v.text()}" for f, v in zip(self.classes, self.values))
+            + ", ".join(f"({f.a}, {f.b}, {f.c}): {v.text()}" for f, v in zip(self.classes, self.values))
             + f"; tail ≤ {self.tail_bound:.1e})"
         )
 
     def _repr_html_(self) -> str:
         rows = "".join(
-            f"<tr><td>{f.to_list()}</td><td><code>{v.text()}</code></td><td>{n}</td></tr>"
+            f"<tr><td>({f.a}, {f.b}, {f.c})</td><td><code>{v.text()}</code></td><td>{n}</td></tr>"
             for f, v, n in zip(self.classes, self.values, self.ideal_counts)
         )
         return (
@@ -304,7 +304,7 @@ def partial_zeta_values(
                 certified(
                     ball,
                     got,
-                    quantity=f"ζ(s, C), C = class of {f.to_list()} (D = {D})",
+                    quantity=f"ζ(s, C), C = class of ({f.a}, {f.b}, {f.c}) (D = {D})",
                     s=s,
                     method=(
                         f"direct sum over the invertible ideals of norm ≤ {X} times ζ(2s), tail ≤ {tail:.1e} "

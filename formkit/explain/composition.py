@@ -196,7 +196,7 @@ def worked_composition(F: FormLike, G: FormLike) -> WorkedExample:
     D = t.discriminant
     a1, b1, _c1 = t.first.coefficients
     a2, b2, c2 = t.second.coefficients
-    title = f"Composition of {t.F.to_list()} and {t.G.to_list()}"
+    title = f"Composition of ({t.F.a}, {t.F.b}, {t.F.c}) and ({t.G.a}, {t.G.b}, {t.G.c})"
     blocks: list[Block] = [
         Heading(1, title),
         Paragraph(
