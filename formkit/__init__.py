@@ -50,6 +50,7 @@ from .tables import __all__ as _tables_all
 _graphs_all = [
     "usable_primes",
     "generating_primes",
+    "cayley_graph_cost",
     "cayley_graph",
     "cycle_graph",
     "fibre_graph",
