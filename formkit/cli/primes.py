@@ -120,9 +120,18 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
 
         if args.discriminant_factors:
             raise CommandError("--discriminant-factors is for H_D; leave out --invariant weber")
-        if D % 8 != 1:
+        from ..representation.class_invariants import weber_invariant_applies
+
+        if not weber_invariant_applies(D):
+            if D % 8 == 5:
+                raise CommandError(
+                    f"--invariant weber: no Weber invariant for D = {D} ≡ 5 (mod 8); there Weber's functions "
+                    f"generate the ring class field of 4D = {4 * D} (formkit hilbert {4 * D} --invariant weber); "
+                    "use the default j"
+                )
             raise CommandError(
-                f"--invariant weber needs D ≡ 1 (mod 8), not D = {D} (≡ {D % 8} mod 8); use the default j"
+                f"--invariant weber: for D = {D} = -4·{-D // 4} (m ≡ 0 mod 8 and 3 | m) the Weber invariant "
+                "f1(sqrt(-m))^24 is no smaller than j; use the default j"
             )
         P = weber_polynomial(D, verify=not args.no_verify)
         payload = P.to_dict()
@@ -166,9 +175,9 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
         if weber:
             lines = [
                 f"discriminant:  {P.discriminant}   (Weber class polynomial, degree h = {P.degree}; roots: "
-                f"{P.invariant} and its conjugates, m = {-D})",
+                f"{P.invariant} and its conjugates, m = {payload['m']})",
                 f"W(x) = {P}",
-                f"j-invariants: for every root x, {P.j_relation.replace(', u', ' with u')} is a root of H_D",
+                f"j-invariants: for every root x, {P.j_relation.replace(', ', ' with ', 1)} is a root of H_D",
             ]
             v = P.verification
             lines.append(
@@ -275,8 +284,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "reduced forms in ball arithmetic, the rounding to integers certified (every coefficient ball "
             "holds exactly one integer) and checked (coefficient bound, roots modulo small primes). For "
             "fundamental D this is the Hilbert class polynomial, otherwise the ring class polynomial of "
-            "the order. With --invariant weber (D ≡ 1 mod 8) the Weber class polynomial instead: the same "
-            "class field, coefficients about 72 times shorter. --roots-mod P gives the roots modulo a prime "
+            "the order. With --invariant weber the Weber class polynomial instead: the same class field, "
+            "coefficients 3 to 72 times shorter (D ≡ 1 mod 8: f(sqrt(-m))/sqrt(2), m = -D, 72 times; "
+            "D = -4m: a power of f(sqrt(-m)) or f1(sqrt(-m)) by m mod 8, 3 to 24 times; not for D ≡ 5 mod 8). --roots-mod P gives the roots modulo a prime "
             "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
             "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.cm_prime, "
@@ -285,7 +295,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog=(
             "examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors\n"
             "  formkit hilbert -71 --invariant weber --roots-mod 10007\n"
-            "  formkit hilbert -191 --invariant weber --cm-curve 256"
+            "  formkit hilbert -191 --invariant weber --cm-curve 256\n"
+            "  formkit hilbert -56 --invariant weber --roots-mod 10007"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
@@ -302,7 +313,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         choices=("j", "weber"),
         default="j",
         help="j: the class polynomial H_D (default); weber: the Weber class polynomial of "
-        "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8; cubed when 3 | D)",
+        "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8, m = -D; cubed when 3 | D) or of F(sqrt(-m))^k/sqrt(2)^e "
+        "with F = f or f1 and k, e by m mod 8 (D = -4m)",
     )
     q.add_argument(
         "--roots-mod",

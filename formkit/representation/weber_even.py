@@ -148,7 +148,7 @@ def even_weber_relation(shape: tuple[str, int, int]) -> str:
     sign = "-" if F == "f" else "+"
     scale = 12 * e // k
     F24 = f"x^{24 // k}" + (f"*2^{scale}" if scale else "")
-    return f"j = (F {sign} 16)^3/F, F = {F}^24 = {F24}"
+    return f"j = (F {sign} 16)^3/F, F = {F}(sqrt(-m))^24 = {F24}"
 
 
 def even_weber_root_to_j(x: int, p: int, shape: tuple[str, int, int]) -> int:
