@@ -122,16 +122,11 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
             raise CommandError("--discriminant-factors is for H_D; leave out --invariant weber")
         from ..representation.class_invariants import weber_invariant_applies
 
-        if not weber_invariant_applies(D):
-            if D % 8 == 5:
-                raise CommandError(
-                    f"--invariant weber: no Weber invariant for D = {D} ≡ 5 (mod 8); there Weber's functions "
-                    f"generate the ring class field of 4D = {4 * D} (formkit hilbert {4 * D} --invariant weber); "
-                    "use the default j"
-                )
+        if not weber_invariant_applies(D):  # D ≡ 5 (mod 8)
             raise CommandError(
-                f"--invariant weber: for D = {D} = -4·{-D // 4} (m ≡ 0 mod 8 and 3 | m) the Weber invariant "
-                "f1(sqrt(-m))^24 is no smaller than j; use the default j"
+                f"--invariant weber: no Weber invariant for D = {D} ≡ 5 (mod 8); there Weber's functions "
+                f"generate the ring class field of 4D = {4 * D} (formkit hilbert {4 * D} --invariant weber); "
+                "use the default j"
             )
         P = weber_polynomial(D, verify=not args.no_verify)
         payload = P.to_dict()
@@ -285,8 +280,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "holds exactly one integer) and checked (coefficient bound, roots modulo small primes). For "
             "fundamental D this is the Hilbert class polynomial, otherwise the ring class polynomial of "
             "the order. With --invariant weber the Weber class polynomial instead: the same class field, "
-            "coefficients 3 to 72 times shorter (D ≡ 1 mod 8: f(sqrt(-m))/sqrt(2), m = -D, 72 times; "
-            "D = -4m: a power of f(sqrt(-m)) or f1(sqrt(-m)) by m mod 8, 3 to 24 times; not for D ≡ 5 mod 8). --roots-mod P gives the roots modulo a prime "
+            "coefficients 3 to 72 times shorter (D ≡ 1 mod 8: f(sqrt(-m))/sqrt(2), m = -D, 72 times, its cube "
+            "when 3 | D; D = -4m: F(sqrt(-m))^k/sqrt(2)^e with F = f or f1 and k, e by m mod 8, 72/k times; "
+            "not for D ≡ 5 mod 8). --roots-mod P gives the roots modulo a prime "
             "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
             "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.cm_prime, "

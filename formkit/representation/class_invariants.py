@@ -92,18 +92,17 @@ __all__ = [
 
 def weber_invariant_applies(D: object) -> bool:
     """True when a Weber invariant is available: ``D < 0`` with ``D ≡ 1 (mod 8)``, or
-    ``D = −4m`` unless ``m ≡ 0 (mod 8)`` and ``3 | m``
-    (:mod:`formkit.representation.weber_even`).
+    ``D = −4m`` (:mod:`formkit.representation.weber_even`); not for ``D ≡ 5 (mod 8)``.
 
     Examples
     --------
     >>> weber_invariant_applies(-23), weber_invariant_applies(-15), weber_invariant_applies(-20)
     (True, True, True)
-    >>> weber_invariant_applies(-11), weber_invariant_applies(-96)   # D ≡ 5 (mod 8); m = 24
-    (False, False)
+    >>> weber_invariant_applies(-11), weber_invariant_applies(-96)   # −11 ≡ 5 (mod 8)
+    (False, True)
     """
     D = _check_negative(D)
-    return D % 8 == 1 or (D % 4 == 0 and not (D % 32 == 0 and D % 3 == 0))
+    return D % 8 == 1 or D % 4 == 0
 
 
 def _weber_power(D: int) -> int:
@@ -405,8 +404,7 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
     Parameters
     ----------
     D : int
-        A negative discriminant with ``D ≡ 1 (mod 8)``, or ``D ≡ 0 (mod 4)`` except
-        ``D = −4m`` with ``m ≡ 0 (mod 8)`` and ``3 | m``.
+        A negative discriminant with ``D ≡ 1 (mod 8)`` or ``D ≡ 0 (mod 4)``.
     verify : bool
         Check the root counts modulo small split primes (default ``True``); the rounding
         is certified in any case.
@@ -418,9 +416,8 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
     Raises
     ------
     NotAnIntegerError, DiscriminantError
-        If ``D`` is not a negative discriminant, or is one of those without a Weber
-        invariant here (``D ≡ 5 mod 8``: Weber's functions give the ring class field of
-        ``4D``; ``D = −4m`` with ``m ≡ 0 mod 8`` and ``3 | m``: ``f₁²⁴``, no smaller than ``j``).
+        If ``D`` is not a negative discriminant, or ``D ≡ 5 (mod 8)`` (there Weber's
+        functions give the ring class field of ``4D``).
     RuntimeError
         If a check fails (a bug; please report it).
 
@@ -449,6 +446,4 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
             f"there Weber's functions generate the ring class field of 4D = {4 * D}, of degree 3h(D); "
             "use the class polynomial H_D"
         )
-    if D % 4 == 0:
-        even_weber_shape(D)  # raises for m ≡ 0 (mod 8), 3 | m
     return _weber_polynomial(D, bool(verify))
