@@ -320,8 +320,9 @@ def _double_eta_polynomial(D: int, p1: int, p2: int, verify: bool) -> DoubleEtaP
         raise RuntimeError(f"double eta-quotient polynomial of D = {D}: no integer polynomial at {prec} bits")
     if h > 1 and not _is_squarefree(coeffs):
         raise _NotAGenerator(
-            f"for D = {D} the values of w_{{{p1},{p2}}}^{s} at an N-system repeat (their polynomial has "
-            "repeated roots, so they do not generate the ring class field); choose another pair"
+            f"for D = {D} the values of w_{{{p1},{p2}}}{'' if s == 1 else f'^{s}'} at an N-system repeat "
+            "(their polynomial has repeated roots, so they do not generate the ring class field); "
+            "choose another pair"
         )
     primes: list[int] = []
     principal: list[int] = []

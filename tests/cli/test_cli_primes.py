@@ -105,6 +105,12 @@ def test_hilbert_text(capsys):
         (["hilbert", "x"], "discriminant: cannot read 'x' as an integer"),
         (["hilbert"], "required"),
         (["hilbert", "-11", "--invariant", "weber"], "-11 ≡ 5 (mod 8)"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59"], "modular polynomial"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--cm-curve", "64"], "modular polynomial"),
+        (["hilbert", "-23", "--eta-primes", "3,13"], "--invariant double-eta"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--eta-primes", "3"], "two primes"),
+        (["hilbert", "-71", "--invariant", "double-eta", "--eta-primes", "5,7"], "not qualify"),
+        (["hilbert", "-88", "--invariant", "double-eta"], "suits D = -88"),
         (["hilbert", "-23", "--invariant", "gamma"], "invalid choice"),
         (["hilbert", "-23", "--roots-mod", "91"], "p must be an odd prime, not 91"),
         (["hilbert", "-23", "--cm-curve", "8"], "--cm-curve must be at least 16"),
@@ -166,6 +172,20 @@ def test_hilbert_weber_even_discriminant(capsys):
     )
     code, out, _err = run(capsys, "hilbert", "-56", "--invariant", "weber")
     assert code == 0 and "f1(sqrt(-m))^2 and its conjugates, m = 14" in out and "(F + 16)^3/F" in out
+
+
+def test_hilbert_double_eta(capsys):
+    import sympy
+
+    from formkit.core.enumeration import class_number
+
+    d = run_json(capsys, "hilbert", "-191", "--invariant", "double-eta")
+    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and d["power"] == 1
+    # degree h(−191) = 13 (enumeration) and irreducible (sympy's factorisation)
+    assert d["degree"] == class_number(-191) == 13
+    assert sympy.Poly(d["coefficients"], sympy.Symbol("x")).is_irreducible
+    code, out, _err = run(capsys, "hilbert", "-191", "--invariant", "double-eta")
+    assert code == 0 and "j-invariants: not computed" in out and "modular polynomial" in out
 
 
 def test_hilbert_cm_curve(capsys):
