@@ -309,7 +309,9 @@ def _double_eta_polynomial(D: int, p1: int, p2: int, verify: bool) -> DoubleEtaP
     forms = _reduced_forms(D)
     h = len(forms)
     s = _exponent(p1, p2)
-    prec = math.ceil(1.5 * _leading_term_bits(D, forms) / double_eta_gain(p1, p2)) + 2 * h + 128
+    # Σ π√|D|/(a ln 2) / gain bits, the asymptotic size, with room (measured: at h = 1000 the
+    # largest coefficient ball had radius 2^−659 at this precision); raised if the certificate fails
+    prec = math.ceil(1.05 * _leading_term_bits(D, forms) / double_eta_gain(p1, p2)) + h // 4 + 64
     for _attempt in range(8):
         found = _certified_from_complex(_ball_product(D, forms, prec, p1, p2, s))
         if found is not None:
