@@ -344,7 +344,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "only). --roots-mod P gives the roots modulo a prime "
             "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
-            "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.cm_prime, "
+            "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.double_eta_polynomial(D), "
+            "formkit.cm_prime, "
             "formkit.cm_curve (and formkit.class_polynomial_discriminant(D))."
         ),
         epilog=(

@@ -269,6 +269,12 @@ class DoubleEtaPolynomial:
     def __str__(self) -> str:
         return self._text()
 
+    def __repr__(self) -> str:
+        text = self._text()
+        if len(text) > 80:
+            text = text[:60] + " …"
+        return f"DoubleEtaPolynomial(D={self.discriminant}, w_{{{self.p1},{self.p2}}}^{self.exponent}, degree={self.degree}: {text})"
+
     def _how(self) -> str:
         return (
             f"roots {self.invariant} at an N-system and conjugates; certified by ball arithmetic at "
