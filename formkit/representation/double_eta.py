@@ -113,7 +113,7 @@ def double_eta_pair(D: object) -> tuple[int, int]:
             return p1, p2
     raise DiscriminantError(
         f"no double eta-quotient of the list {list(_PAIRS)} suits D = {D} (both primes must be split or "
-        "ramified, not both ramified, and prime to the conductor); use --invariant j or weber"
+        "ramified, not both ramified, and prime to the conductor); use H_D or a Weber polynomial"
     )
 
 
