@@ -114,15 +114,23 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     from .conventions import CommandError, emit
 
     D = discriminant_of(args)
+    if args.eta_primes is not None and args.invariant != "double-eta":
+        raise CommandError("--eta-primes is for --invariant double-eta")
+    if args.invariant == "double-eta":
+        return _hilbert_double_eta(args, D)
     weber = args.invariant == "weber"
     if weber:
         from ..representation.class_invariants import weber_polynomial
 
         if args.discriminant_factors:
             raise CommandError("--discriminant-factors is for H_D; leave out --invariant weber")
-        if D % 8 != 1:
+        from ..representation.class_invariants import weber_invariant_applies
+
+        if not weber_invariant_applies(D):  # D ≡ 5 (mod 8)
             raise CommandError(
-                f"--invariant weber needs D ≡ 1 (mod 8), not D = {D} (≡ {D % 8} mod 8); use the default j"
+                f"--invariant weber: no Weber invariant for D = {D} ≡ 5 (mod 8); there Weber's functions "
+                f"generate the ring class field of 4D = {4 * D} (formkit hilbert {4 * D} --invariant weber); "
+                "use the default j"
             )
         P = weber_polynomial(D, verify=not args.no_verify)
         payload = P.to_dict()
@@ -166,9 +174,9 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
         if weber:
             lines = [
                 f"discriminant:  {P.discriminant}   (Weber class polynomial, degree h = {P.degree}; roots: "
-                f"{P.invariant} and its conjugates, m = {-D})",
+                f"{P.invariant} and its conjugates, m = {payload['m']})",
                 f"W(x) = {P}",
-                f"j-invariants: for every root x, {P.j_relation.replace(', u', ' with u')} is a root of H_D",
+                f"j-invariants: for every root x, {P.j_relation.replace(', ', ' with ', 1)} is a root of H_D",
             ]
             v = P.verification
             lines.append(
@@ -231,6 +239,60 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     return 0
 
 
+def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
+    """``hilbert --invariant double-eta``: the polynomial only (no step to j)."""
+    from ..errors import FormkitError
+    from ..representation.double_eta import double_eta_polynomial
+    from .conventions import CommandError, emit
+
+    why = "the step from a root of w to j needs the modular polynomial relating w and j, which formkit does not compute"
+    for flag, given in (
+        ("--roots-mod", args.roots_mod is not None),
+        ("--cm-curve", args.cm_curve is not None),
+        ("--discriminant-factors", args.discriminant_factors),
+    ):
+        if given:
+            raise CommandError(
+                f"{flag} is not available with --invariant double-eta: "
+                + (
+                    why
+                    if flag != "--discriminant-factors"
+                    else "it is for H_D; leave out --invariant double-eta"
+                )
+                + "; use --invariant weber or j"
+            )
+    primes = None
+    if args.eta_primes is not None:
+        parts = args.eta_primes.replace(" ", "").split(",")
+        if len(parts) != 2 or not all(x.isdigit() for x in parts):
+            raise CommandError(f"--eta-primes must be two primes P1,P2 such as 3,13, not {args.eta_primes!r}")
+        primes = (int(parts[0]), int(parts[1]))
+    try:
+        P = double_eta_polynomial(D, primes, verify=not args.no_verify)
+    except FormkitError as exc:
+        raise CommandError(f"--invariant double-eta: {exc}") from None
+    payload = P.to_dict()
+
+    def human() -> str:
+        lines = [
+            f"discriminant:  {D}   (double eta-quotient class polynomial, degree h = {P.degree}; roots: "
+            f"{P.invariant} at an N-system of forms and its conjugates)",
+            f"W(x) = {P}",
+            f"j-invariants: not computed ({why})",
+            f"certified: ball arithmetic at {P.working_bits} bits, imaginary parts contain 0 and every real part "
+            "holds exactly one integer; squarefree (exact gcd with W')"
+            + (
+                ""
+                if not P.primes_checked
+                else f"; root counts mod {list(P.primes_checked)} match the prime-form classes"
+            ),
+        ]
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
 def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -> None:
     """Add the ``primes`` and ``hilbert`` commands."""
     p = sub.add_parser(
@@ -275,17 +337,23 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "reduced forms in ball arithmetic, the rounding to integers certified (every coefficient ball "
             "holds exactly one integer) and checked (coefficient bound, roots modulo small primes). For "
             "fundamental D this is the Hilbert class polynomial, otherwise the ring class polynomial of "
-            "the order. With --invariant weber (D ≡ 1 mod 8) the Weber class polynomial instead: the same "
-            "class field, coefficients about 72 times shorter. --roots-mod P gives the roots modulo a prime "
+            "the order. With --invariant weber the Weber class polynomial instead: the same class field, "
+            "coefficients 3 to 72 times shorter (D ≡ 1 mod 8: f(sqrt(-m))/sqrt(2), m = -D, 72 times, its cube "
+            "when 3 | D; D = -4m: F(sqrt(-m))^k/sqrt(2)^e with F = f or f1 and k, e by m mod 8, 72/k times; "
+            "not for D ≡ 5 mod 8); with --invariant double-eta that of a double eta-quotient (the polynomial "
+            "only). --roots-mod P gives the roots modulo a prime "
             "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
-            "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.cm_prime, "
+            "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.double_eta_polynomial(D), "
+            "formkit.cm_prime, "
             "formkit.cm_curve (and formkit.class_polynomial_discriminant(D))."
         ),
         epilog=(
             "examples:\n  formkit hilbert -23\n  formkit hilbert -108 --json\n  formkit hilbert -56 --discriminant-factors\n"
             "  formkit hilbert -71 --invariant weber --roots-mod 10007\n"
-            "  formkit hilbert -191 --invariant weber --cm-curve 256"
+            "  formkit hilbert -191 --invariant weber --cm-curve 256\n"
+            "  formkit hilbert -56 --invariant weber --roots-mod 10007\n"
+            "  formkit hilbert -191 --invariant double-eta"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
@@ -299,10 +367,19 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     )
     q.add_argument(
         "--invariant",
-        choices=("j", "weber"),
+        choices=("j", "weber", "double-eta"),
         default="j",
         help="j: the class polynomial H_D (default); weber: the Weber class polynomial of "
-        "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8; cubed when 3 | D)",
+        "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8, m = -D; cubed when 3 | D) or of F(sqrt(-m))^k/sqrt(2)^e "
+        "with F = f or f1 and k, e by m mod 8 (D = -4m); double-eta: the class polynomial of the "
+        "double eta-quotient w_{p1,p2}^s (Enge-Schertz; polynomial only, no step to j)",
+    )
+    q.add_argument(
+        "--eta-primes",
+        default=None,
+        metavar="P1,P2",
+        help="with --invariant double-eta: the two odd primes (neither inert, not both ramified; "
+        "default the pair of largest gain among 3,13 5,7 5,13 7,13 3,7 3,5 ... that suits D)",
     )
     q.add_argument(
         "--roots-mod",

@@ -10,7 +10,10 @@
 * :mod:`~formkit.representation.class_polynomials` — Hilbert and ring class polynomials
   from j-invariants, verified;
 * :mod:`~formkit.representation.class_invariants` — Weber class polynomials (the same
-  ring class field, much smaller coefficients);
+  ring class field, much smaller coefficients), with
+  :mod:`~formkit.representation.weber_even` for the discriminants ``D = −4m``;
+* :mod:`~formkit.representation.double_eta` — class polynomials of double η-quotients
+  (the polynomial only);
 * :mod:`~formkit.representation.cm_method` — roots of class polynomials modulo a prime and
   the elliptic curves with complex multiplication they give;
 * :mod:`~formkit.representation.prime_decision` — does Q represent the prime p (the class
@@ -38,6 +41,8 @@ from .cm_method import *  # noqa: F403
 from .cm_method import __all__ as _cm_method_all
 from .cornacchia import *  # noqa: F403
 from .cornacchia import __all__ as _cornacchia_all
+from .double_eta import *  # noqa: F403
+from .double_eta import __all__ as _double_eta_all
 from .genus_congruences import *  # noqa: F403
 from .genus_congruences import __all__ as _genus_congruences_all
 from .orbits import *  # noqa: F403
@@ -55,6 +60,7 @@ __all__ = [
     *_cornacchia_all,
     *_class_polynomials_all,
     *_class_invariants_all,
+    *_double_eta_all,
     *_cm_method_all,
     *_prime_decision_all,
     *_genus_congruences_all,

@@ -1,5 +1,9 @@
 """Weber class polynomials: the same ring class field as ``H_D``, with coefficients ~72× shorter.
 
+(This module treats ``D ≡ 1 (mod 8)``; the discriminants ``D = −4m``, with the invariants
+``f(√−m)^k/√2^e`` and ``f₁(√−m)^k/√2^e``, are in :mod:`formkit.representation.weber_even`,
+and :func:`weber_polynomial` serves both.)
+
 For a negative discriminant ``D ≡ 1 (mod 8)`` the classical Weber value
 ``f(√−m)/√2`` (``m = −D``) is a class invariant: it generates over ``Q(√D)`` the ring class
 field of the order of discriminant ``D`` (the order ``Z[√−m]`` of discriminant ``4D`` has
@@ -70,6 +74,13 @@ from ..core.polynomials_mod_p import root_count_mod_prime
 from ..core.progress import announces_slowness, progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .class_polynomials import _check_negative, _reduced_forms, _split_check
+from .weber_even import (
+    _even_ball_product,
+    even_weber_description,
+    even_weber_relation,
+    even_weber_root_to_j,
+    even_weber_shape,
+)
 
 __all__ = [
     "WeberPolynomial",
@@ -80,15 +91,18 @@ __all__ = [
 
 
 def weber_invariant_applies(D: object) -> bool:
-    """True when the Weber invariant of this module is available: ``D < 0``, ``D ≡ 1 (mod 8)``.
+    """True when a Weber invariant is available: ``D < 0`` with ``D ≡ 1 (mod 8)``, or
+    ``D = −4m`` (:mod:`formkit.representation.weber_even`); not for ``D ≡ 5 (mod 8)``.
 
     Examples
     --------
     >>> weber_invariant_applies(-23), weber_invariant_applies(-15), weber_invariant_applies(-20)
-    (True, True, False)
+    (True, True, True)
+    >>> weber_invariant_applies(-11), weber_invariant_applies(-96)   # −11 ≡ 5 (mod 8)
+    (False, True)
     """
     D = _check_negative(D)
-    return D % 8 == 1
+    return D % 8 == 1 or D % 4 == 0
 
 
 def _weber_power(D: int) -> int:
@@ -180,7 +194,11 @@ def weber_root_to_j(x: int, p: int, D: int) -> int:
     --------
     >>> weber_root_to_j(1, 10**9 + 7, -7) == -3375 % (10**9 + 7)   # D = −7: W = x − 1
     True
+    >>> weber_root_to_j(1, 10**9 + 7, -28) == 16581375   # D = −28: f(√−7)/√2 = 1, j(√−7) = 255³
+    True
     """
+    if D % 4 == 0:
+        return even_weber_root_to_j(x, p, even_weber_shape(D))
     x %= p
     if x == 0:
         raise FormkitError(f"a root of the Weber polynomial modulo {p} must be nonzero, not {x}")
@@ -209,19 +227,24 @@ class WeberCheck:
 
 @dataclass(frozen=True)
 class WeberPolynomial:
-    """The Weber class polynomial ``W_D(x)`` of ``D ≡ 1 (mod 8)``, with provenance.
+    """The Weber class polynomial ``W_D(x)`` (``D ≡ 1 mod 8``, or ``D = −4m``), with provenance.
 
     Attributes
     ----------
     discriminant : int
     power : int
-        1, or 3 when ``3 | D`` (the roots are the cubes of the Weber values).
+        The exponent of the Weber function in the invariant: for ``D ≡ 1 (mod 8)`` 1, or 3
+        when ``3 | D`` (the roots are the cubes of the Weber values); for ``D = −4m`` the
+        exponent ``k`` of ``F(√−m)^k/√2^e`` (see ``shape``).
     coefficients : tuple of int
         Leading coefficient (1) first.
     forms : tuple of Form
         The reduced forms, one per class (the roots are indexed by them).
     working_bits : int
     verification : WeberCheck or None
+    shape : tuple or None
+        For ``D = −4m`` the triple ``(F, k, e)`` of :func:`~formkit.representation.weber_even.even_weber_shape`
+        (the roots are the conjugates of ``F(√−m)^k/√2^e``); ``None`` for ``D ≡ 1 (mod 8)``.
     """
 
     discriminant: int
@@ -230,6 +253,7 @@ class WeberPolynomial:
     forms: tuple[Form, ...]
     working_bits: int
     verification: WeberCheck | None
+    shape: tuple[str, int, int] | None = None
 
     @property
     def degree(self) -> int:
@@ -239,12 +263,16 @@ class WeberPolynomial:
     @property
     def invariant(self) -> str:
         """The class invariant whose conjugates are the roots, in words."""
+        if self.shape is not None:
+            return even_weber_description(self.shape)
         base = "f(sqrt(-m))/sqrt(2)"
         return f"({base})^3" if self.power == 3 else base
 
     @property
     def j_relation(self) -> str:
         """How a root ``x`` gives a root ``j`` of ``H_D``."""
+        if self.shape is not None:
+            return even_weber_relation(self.shape)
         return f"j = (1 - 16u)^3/u^2, u = x^{8 if self.power == 3 else 24}"
 
     def root_count_mod(self, p: int) -> int:
@@ -257,6 +285,9 @@ class WeberPolynomial:
             "invariant": "weber",
             "invariant_value": self.invariant,
             "power": self.power,
+            "weber_function": "f" if self.shape is None else self.shape[0],
+            "sqrt2_exponent": self.power if self.shape is None else self.shape[2],
+            "m": -self.discriminant if self.shape is None else -self.discriminant // 4,
             "j_relation": self.j_relation,
             "degree": self.degree,
             "coefficient_order": "descending",
@@ -332,11 +363,17 @@ def _weber_ball_product(D: int, forms: Sequence[tuple[int, int, int]], prec: int
 def _weber_polynomial(D: int, verify: bool) -> WeberPolynomial:
     forms = _reduced_forms(D)
     h = len(forms)
-    power = _weber_power(D)
+    shape = even_weber_shape(D) if D % 4 == 0 else None
+    power = _weber_power(D) if shape is None else shape[1]
     s = power * math.pi * math.sqrt(-D) / (24 * math.log(2))
     prec = math.ceil(sum(s / a for a, _, _ in forms)) + h + 8 * math.ceil(math.log2(h + 2)) + 64
+    if shape is not None:
+        prec += 32  # room for the SL2(Z) transformation of τ_Q
     for _attempt in range(8):
-        poly = _weber_ball_product(D, forms, prec, power)
+        if shape is None:
+            poly = _weber_ball_product(D, forms, prec, power)
+        else:
+            poly = _even_ball_product(D, forms, prec, shape)
         coeffs = certified_integer_coefficients(poly)
         if coeffs is not None:
             break
@@ -349,22 +386,25 @@ def _weber_polynomial(D: int, verify: bool) -> WeberPolynomial:
     if verify:
         primes, principal = _split_check(D, coeffs, forms)
         check = WeberCheck(prec, largest_radius_log2(poly), tuple(primes), tuple(principal))
-    return WeberPolynomial(D, power, tuple(coeffs), tuple(Form(*f) for f in forms), prec, check)
+    return WeberPolynomial(D, power, tuple(coeffs), tuple(Form(*f) for f in forms), prec, check, shape)
 
 
 @announces_slowness(lambda D, **k: f"the Weber class polynomial of discriminant {D}")
 def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
-    """The Weber class polynomial of a discriminant ``D ≡ 1 (mod 8)``, ``D < 0``.
+    """The Weber class polynomial of a discriminant ``D ≡ 1 (mod 8)`` or ``D = −4m``, ``D < 0``.
 
-    Its roots are the conjugates of ``f(√−m)/√2`` (``m = −D``; cubed when ``3 | D``) and
-    generate the ring class field of the order of discriminant ``D``, the field of the
-    roots of ``H_D`` (see the module docstring for the conjugates, the relation
-    ``j = (1 − 16u)³/u²`` and the certificate).  Results are cached.
+    For ``D ≡ 1 (mod 8)`` its roots are the conjugates of ``f(√−m)/√2`` (``m = −D``; cubed
+    when ``3 | D``; see the module docstring for the conjugates, the relation
+    ``j = (1 − 16u)³/u²`` and the certificate); for ``D = −4m`` those of
+    ``F(√−m)^k/√2^e`` with ``F ∈ {f, f₁}`` and ``(k, e)`` by ``m mod 8`` (table and
+    conjugates in :mod:`formkit.representation.weber_even`).  Either way they generate the
+    ring class field of the order of discriminant ``D``, the field of the roots of ``H_D``.
+    Results are cached.
 
     Parameters
     ----------
     D : int
-        A negative discriminant with ``D ≡ 1 (mod 8)``.
+        A negative discriminant with ``D ≡ 1 (mod 8)`` or ``D ≡ 0 (mod 4)``.
     verify : bool
         Check the root counts modulo small split primes (default ``True``); the rounding
         is certified in any case.
@@ -376,7 +416,8 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
     Raises
     ------
     NotAnIntegerError, DiscriminantError
-        If ``D`` is not a negative discriminant, or ``D ≢ 1 (mod 8)``.
+        If ``D`` is not a negative discriminant, or ``D ≡ 5 (mod 8)`` (there Weber's
+        functions give the ring class field of ``4D``).
     RuntimeError
         If a check fails (a bug; please report it).
 
@@ -389,6 +430,9 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
     (1, -2, -1, 1, 1, 1, -1, -1)
     >>> weber_polynomial(-15).power, weber_polynomial(-15).degree   # 3 | D: the cube
     (3, 2)
+    >>> W = weber_polynomial(-44)       # f(√−11): Weber's x³ − 2x² + 2x − 2
+    >>> W.coefficients, W.invariant
+    ((1, -2, 2, -2), 'f(sqrt(-m))')
 
     References
     ----------
@@ -396,9 +440,10 @@ def weber_polynomial(D: object, *, verify: bool = True) -> WeberPolynomial:
     Schertz, JTNB 14 (2002) (N-systems).
     """
     D = _check_negative(D)
-    if D % 8 != 1:
+    if D % 8 == 5:
         raise DiscriminantError(
-            f"the Weber class invariant needs D ≡ 1 (mod 8), not D = {D} (≡ {D % 8} mod 8); "
+            f"the Weber class invariants need D ≡ 1 (mod 8) or D ≡ 0 (mod 4), not D = {D} (≡ 5 mod 8): "
+            f"there Weber's functions generate the ring class field of 4D = {4 * D}, of degree 3h(D); "
             "use the class polynomial H_D"
         )
     return _weber_polynomial(D, bool(verify))

@@ -140,9 +140,11 @@ def cm_prime(D: object, bits: object, *, seed: int = 0) -> tuple[int, int, int]:
 def cm_j_invariants(D: object, p: object, *, invariant: str = "weber") -> list[int]:
     """The roots of ``H_D`` modulo ``p``, sorted.
 
-    With ``invariant="weber"`` (``D ≡ 1 mod 8`` only) the Weber polynomial is computed,
-    its roots modulo ``p`` are found and sent to ``j = (1 − 16u)³/u²``
-    (:func:`formkit.representation.class_invariants.weber_root_to_j`); with
+    With ``invariant="weber"`` (``D ≡ 1 mod 8`` or ``D = −4m``, see
+    :func:`~formkit.representation.class_invariants.weber_invariant_applies`) the Weber
+    polynomial is computed, its roots modulo ``p`` are found and sent to roots of ``H_D``
+    (``j = (1 − 16u)³/u²`` for odd ``D``, ``j = (F ∓ 16)³/F`` for ``D = −4m``;
+    :func:`formkit.representation.class_invariants.weber_root_to_j`); with
     ``invariant="j"`` the roots of ``H_D`` itself are found.
 
     Raises

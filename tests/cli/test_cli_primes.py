@@ -104,7 +104,13 @@ def test_hilbert_text(capsys):
         (["hilbert", "-22"], "-22"),
         (["hilbert", "x"], "discriminant: cannot read 'x' as an integer"),
         (["hilbert"], "required"),
-        (["hilbert", "-20", "--invariant", "weber"], "D ≡ 1 (mod 8)"),
+        (["hilbert", "-11", "--invariant", "weber"], "-11 ≡ 5 (mod 8)"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59"], "modular polynomial"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--cm-curve", "64"], "modular polynomial"),
+        (["hilbert", "-23", "--eta-primes", "3,13"], "--invariant double-eta"),
+        (["hilbert", "-23", "--invariant", "double-eta", "--eta-primes", "3"], "two primes"),
+        (["hilbert", "-71", "--invariant", "double-eta", "--eta-primes", "5,7"], "not qualify"),
+        (["hilbert", "-88", "--invariant", "double-eta"], "suits D = -88"),
         (["hilbert", "-23", "--invariant", "gamma"], "invalid choice"),
         (["hilbert", "-23", "--roots-mod", "91"], "p must be an odd prime, not 91"),
         (["hilbert", "-23", "--cm-curve", "8"], "--cm-curve must be at least 16"),
@@ -151,6 +157,35 @@ def test_hilbert_weber_json_and_roots(capsys):
     assert H["invariant"] == "j"
     brute = [x for x in range(59) if sum(c * x ** (3 - i) for i, c in enumerate(H["coefficients"])) % 59 == 0]
     assert d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"] == brute
+
+
+def test_hilbert_weber_even_discriminant(capsys):
+    # D = −44: Weber's f(√−11), a root of x³ − 2x² + 2x − 2 (Weber's table; from memory)
+    d = run_json(capsys, "hilbert", "-44", "--invariant", "weber", "--roots-mod", "47")
+    assert d["coefficients"] == [1, -2, 2, -2] and d["weber_function"] == "f" and d["m"] == 11
+    assert (d["power"], d["sqrt2_exponent"]) == (1, 0)
+    # 47 = 6² + 11·1²: splits completely; the roots by brute force over F_47
+    assert d["roots_mod_p"]["roots"] == [x for x in range(47) if (x**3 - 2 * x * x + 2 * x - 2) % 47 == 0]
+    H = run_json(capsys, "hilbert", "-44", "--roots-mod", "47")
+    assert (
+        d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"] and len(H["roots_mod_p"]["roots"]) == 3
+    )
+    code, out, _err = run(capsys, "hilbert", "-56", "--invariant", "weber")
+    assert code == 0 and "f1(sqrt(-m))^2 and its conjugates, m = 14" in out and "(F + 16)^3/F" in out
+
+
+def test_hilbert_double_eta(capsys):
+    import sympy
+
+    from formkit.core.enumeration import class_number
+
+    d = run_json(capsys, "hilbert", "-191", "--invariant", "double-eta")
+    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and d["power"] == 1
+    # degree h(−191) = 13 (enumeration) and irreducible (sympy's factorisation)
+    assert d["degree"] == class_number(-191) == 13
+    assert sympy.Poly(d["coefficients"], sympy.Symbol("x")).is_irreducible
+    code, out, _err = run(capsys, "hilbert", "-191", "--invariant", "double-eta")
+    assert code == 0 and "j-invariants: not computed" in out and "modular polynomial" in out
 
 
 def test_hilbert_cm_curve(capsys):

@@ -128,8 +128,9 @@ def test_value_independent_of_representative(D):
 
 
 def test_conditions_on_D():
-    assert weber_invariant_applies(-23) and not weber_invariant_applies(-20)
-    for bad in (-20, -3, -4, -11, -19, -84):  # D ≢ 1 (mod 8)
+    assert weber_invariant_applies(-23) and weber_invariant_applies(-20)
+    assert not weber_invariant_applies(-11) and weber_invariant_applies(-96)
+    for bad in (-3, -11, -19, -35):  # D ≡ 5 (mod 8): Weber gives the ring class field of 4D
         with pytest.raises(errors.DiscriminantError, match="mod 8"):
             weber_polynomial(bad)
     with pytest.raises(errors.DiscriminantError):
