@@ -143,20 +143,62 @@ class OrderLocalFactor:
             return "(1 + X)^2"
         return f"1 - 2cos(2pi*{t})X + X^2"
 
-    def text(self) -> str:
-        """``e_p`` as text, ``X = p^(−s)``."""
+    def _euler_coefficients(self) -> list[Fraction] | None:
+        """The coefficients of ``E_p^(−1)`` in ``X`` (constant first), ``None`` if not rational."""
+        if self.conductor_exponent:
+            return [Fraction(1)]
+        if self.chi == -1:
+            return [Fraction(1), Fraction(0), Fraction(-1)]
+        t = self.prime_phase or Fraction(0)
+        if self.chi == 0:
+            return [Fraction(1), Fraction(-1 if t == 0 else 1)]
+        twice_cos = {
+            Fraction(0): 2,
+            Fraction(1, 2): -2,
+            Fraction(1, 3): -1,
+            Fraction(2, 3): -1,
+            Fraction(1, 4): 0,
+            Fraction(3, 4): 0,
+            Fraction(1, 6): 1,
+            Fraction(5, 6): 1,
+        }.get(t)
+        return None if twice_cos is None else [Fraction(1), Fraction(-twice_cos), Fraction(1)]
+
+    def coefficients(self) -> tuple[Fraction, ...] | None:
+        """``e_p`` as a polynomial in ``X`` (constant first), ``None`` when ``ψ(𝔭)`` is not rational."""
         p, k, c = self.prime, self.exponent, self.conductor_exponent
-
-        def geometric(top: int) -> str:
-            terms = ["1"] + [f"{p**i}X^{2 * i}" for i in range(1, top + 1)]
-            return " + ".join(terms)
-
         if c:
-            return geometric(k - c)
-        tail = p ** (k - 1) * (p - self.chi)
-        if k == 1:
-            return f"{self.euler_polynomial()} + {tail}X^2"
-        return f"({self.euler_polynomial()})({geometric(k - 1)}) + {tail}X^{2 * k}"
+            out = [Fraction(0)] * (2 * (k - c) + 1)
+            for i in range(k - c + 1):
+                out[2 * i] = Fraction(p**i)
+            return tuple(out)
+        P = self._euler_coefficients()
+        if P is None:
+            return None
+        out = [Fraction(0)] * (2 * k + 1)
+        for i in range(k):
+            for j, a in enumerate(P):
+                if 2 * i + j <= 2 * k:
+                    out[2 * i + j] += a * p**i
+        out[2 * k] += p ** (k - 1) * (p - self.chi)
+        return tuple(out)
+
+    def text(self) -> str:
+        """``e_p`` as text, ``X = p^(−s)`` (expanded when its coefficients are rational)."""
+        p, k = self.prime, self.exponent
+        coeffs = self.coefficients()
+        if coeffs is not None:
+            terms = []
+            for i, a in enumerate(coeffs):
+                if a == 0:
+                    continue
+                mono = "" if i == 0 else ("X" if i == 1 else f"X^{i}")
+                body = str(abs(a)) if (abs(a) != 1 or not mono) else ""
+                terms.append(("-" if a < 0 else "+", body + mono))
+            out = ("-" if terms[0][0] == "-" else "") + terms[0][1]
+            return out + "".join(f" {sg} {b}" for sg, b in terms[1:])
+        head = " + ".join(["1"] + [f"{p**i}X^{2 * i}" for i in range(1, k)])
+        return f"({self.euler_polynomial()})({head}) + {p ** (k - 1) * (p - self.chi)}X^{2 * k}"
 
     def ball(self, s: ComplexArgument):
         """``e_p(s, ψ)`` as a ball at the current precision."""
@@ -283,7 +325,7 @@ def order_local_factors(D: object, character: Sequence[int] | None = None) -> tu
     Examples
     --------
     >>> [e.text() for e in order_local_factors(-12)]            # Σ'(x²+3y²)^(−s) = 2(1 + 2^(1−2s))ζ(s)L(s, χ₋₃)
-    ['1 - X^2 + 3X^2']
+    ['1 + 2X^2']
     >>> e, = order_local_factors(-44, [1])                       # ψ of order 3: conductor 2, e_2 = 1
     >>> e.conductor_exponent, e.text()
     (1, '1')
@@ -325,16 +367,21 @@ def _check_order(D: object, what: str) -> int:
     return D
 
 
-def _class_values(D: int, s: ComplexArgument, digits: int, bound: object):
+def _class_values(D: int, s: ComplexArgument, digits: int, bound: object, values: object = None):
     """The per-class values: Epstein zeta values (``D < 0``) or partial zeta values (``D > 0``)."""
     from ..analytic.epstein import epstein_zeta
 
     G = _classes(D)
     if D < 0:
         return G, {x: epstein_zeta(x.form, s, digits=digits + 5) for x in G.elements()}, str(G.provenance)
-    from .partial_zeta import DEFAULT_IDEAL_NORM_BOUND, partial_zeta_values
+    from .partial_zeta import DEFAULT_IDEAL_NORM_BOUND, PartialZetaValues, partial_zeta_values
 
-    z = partial_zeta_values(D, s, bound=DEFAULT_IDEAL_NORM_BOUND if bound is None else bound, digits=digits)
+    if isinstance(values, PartialZetaValues) and values.discriminant == D and values.s == s:
+        z = values
+    else:
+        z = partial_zeta_values(
+            D, s, bound=DEFAULT_IDEAL_NORM_BOUND if bound is None else bound, digits=digits
+        )
     return G, {G(f): v for f, v in zip(z.classes, z.values)}, z.provenance
 
 
@@ -352,12 +399,16 @@ def _identity(statement, D, s, left_ball, right_ball, digits, left_method, right
     return SeriesIdentity(statement, D, s, left, right, agrees, h, prov)
 
 
-def order_zeta_sum(D: object, s: object, *, digits: int = 30, bound: object = None) -> SeriesIdentity:
+def order_zeta_sum(
+    D: object, s: object, *, digits: int = 30, bound: object = None, values: object = None
+) -> SeriesIdentity:
     """The sum over the classes of an order beside ``w·ζ(s)·L(s, χ_{d_K})·∏_{p|f} e_p(s)``.
 
     For ``D < 0`` the left side is ``Σ_C Z_C(s)`` (Epstein zeta functions, any ``s ≠ 1``);
     for ``D > 0`` it is ``Σ_C ζ(s, C)`` over the narrow classes (partial zeta functions,
-    real ``s > 1``, ideals of norm ``≤ bound`` summed directly) and ``w`` is absent.
+    real ``s > 1``, ideals of norm ``≤ bound`` summed directly; ``values`` may pass the
+    :class:`~formkit.classgroups.partial_zeta.PartialZetaValues` already computed) and ``w``
+    is absent.
     The factors ``e_p`` are those of :func:`order_local_factors` for ``ψ = 1``.
 
     Raises
@@ -382,11 +433,11 @@ def order_zeta_sum(D: object, s: object, *, digits: int = 30, bound: object = No
         raise FormkitError(f"s = 1 is the pole of the sum over the classes of {D}; any other s is fine")
     d_K, _f = discriminant_parts(D)
     factors = order_local_factors(D)
-    _G, values, prov = _class_values(D, s, digits, bound)
+    _G, per_class, prov = _class_values(D, s, digits, bound, values)
     zk = quadratic_field_zeta(d_K, s, digits=digits + 5)
     w = unit_count(D) if D < 0 else 1
     with ctx.workprec(bits_for(digits) + 40):
-        left = sum((as_ball(v) for v in values.values()), 0 * as_ball(zk))
+        left = sum((as_ball(v) for v in per_class.values()), 0 * as_ball(zk))
         right = w * as_ball(zk) * _product_ball(factors, s)
         left, right = _real_if(left, s), _real_if(right, s)
         ps = "·".join(f"e_{e.prime}(s)" for e in factors)
@@ -402,9 +453,9 @@ def order_zeta_sum(D: object, s: object, *, digits: int = 30, bound: object = No
             digits,
             "sum over the classes" + (" of Epstein zeta values" if D < 0 else " of partial zeta values"),
             "ζ_K(s) times the factors at p | f: " + "; ".join(f"e_{e.prime} = {e.text()}" for e in factors),
-            len(values),
+            len(per_class),
             prov,
-            sum(v.terms for v in values.values()),
+            sum(v.terms for v in per_class.values()),
         )
 
 
@@ -578,6 +629,12 @@ class RingClassLSeries:
     primitive: CertifiedValue
     factors: tuple[OrderLocalFactor, ...]
     provenance: str
+
+    @property
+    def character_discriminant(self) -> int:
+        """``d_K·conductor²``: ``ψ`` factors through the class group of this discriminant."""
+        d_K, _f = discriminant_parts(self.discriminant)
+        return d_K * self.conductor**2
 
     def to_dict(self) -> dict:
         """JSON-ready dictionary."""
