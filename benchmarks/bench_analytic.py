@@ -10,8 +10,8 @@ Measures, in one run (CPU seconds by ``time.process_time``, medians of ``--repea
   complex ``s``, and Kronecker's limit formula;
 * ``θ_Q`` up to ``q^(10^6)`` and ``q^(10^7)`` for ``x² + y²`` and a form of larger discriminant;
 * the previous path of ``L(s, χ_D)`` (Taylor blocks of ``n/16`` terms, every moment an exact
-  integer) against the present one (blocks of ``n/64``, the high moments in doubles with a
-  proved error bound) for ``|D| ≈ 10^9`` and ``10^12``, side by side, with the ratio
+  integer) against the present one (blocks of ``n/16``, ``n/32`` or ``n/64`` by size, the high moments in doubles with a
+  proved error bound) for ``|D| ≈ 10^6, 10^8, 10^9`` and ``10^12``, side by side, with the ratio
   (``--compare-only`` runs just this part).
 
 The machine is shared: quote CPU times and ratios measured in the same run.
@@ -103,8 +103,10 @@ def main() -> None:
 def compare_paths(r: int, skip_large: bool) -> None:
     """The previous L-series path against the present one, in the same run."""
     mod = importlib.import_module("formkit.analytic.l_series")
-    print("## L(s, χ_D), 30 digits: previous path (blocks n/16, integer moments) vs present (n/64, doubles)")
-    sizes = [-(10**9)] + ([] if skip_large else [-(10**12)])
+    print(
+        "## L(s, χ_D), 30 digits: previous path (blocks n/16, integer moments) vs present (n/32 or n/64, doubles)"
+    )
+    sizes = [-(10**6), -(10**8), -(10**9)] + ([] if skip_large else [-(10**12)])
     for size in sizes:
         D = fundamental_near(size)
         reps = 1 if abs(D) >= 10**12 else r

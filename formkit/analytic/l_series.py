@@ -94,10 +94,13 @@ MAX_SERIES_TERMS = 4 * 10**7
 #: Below this index the terms are summed one by one; above it in Taylor blocks.
 _DIRECT_TERMS = 400
 
-#: A block starting at ``n`` has ``n // _BLOCK_DIVISOR`` terms (at least 8): the Taylor
-#: series then gains about ``log2(_BLOCK_DIVISOR)`` bits per term.  Chosen with
-#: ``benchmarks/bench_analytic.py`` (16 was the previous path).
-_BLOCK_DIVISOR = 64
+#: A block starting at ``n`` has ``n // divisor`` terms (at least 8): the Taylor series then
+#: gains about ``log2(divisor)`` bits per term, at the price of more blocks.  The divisor is
+#: 16 for series of fewer than 3·10^4 terms, 32 below 3·10^5 and 64 beyond (measured with
+#: ``benchmarks/bench_analytic.py`` at |D| = 10^6 … 10^12, see docs/performance.md);
+#: ``_BLOCK_DIVISOR`` set to an integer overrides it (16 everywhere was the previous path).
+_BLOCK_DIVISOR: int | None = None
+_DIVISOR_STEPS = ((3 * 10**4, 16), (3 * 10**5, 32))
 
 #: Moments of high order in doubles with a proved error bound (``_block_sum``); ``False``
 #: gives the previous all-integer path (kept for the benchmark's side-by-side run).
@@ -398,8 +401,9 @@ def _lambda(d: int, s: ComplexArgument, prec: int, log_tol: float):
         if lo <= N:
             # split the tolerance evenly over the blocks (each at most 1/16 of its start)
             blocks = []
+            divisor = _BLOCK_DIVISOR or next((d for bound, d in _DIVISOR_STEPS if bound > N), 64)
             while lo <= N:
-                hi = min(N, lo + max(8, lo // _BLOCK_DIVISOR))
+                hi = min(N, lo + max(8, lo // divisor))
                 blocks.append((lo, hi))
                 lo = hi + 1
             block_tol = log_tol - math.log(2 * len(blocks))
