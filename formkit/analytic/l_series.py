@@ -24,13 +24,16 @@ enough, and the bound itself is then evaluated in ball arithmetic and added to t
 of the ball, so no rounding error of its own is left out.
 
 **Blocks.**  For large ``q`` the terms are grouped into blocks ``n ∈ [n₀ − B, n₀ + B]``
-with ``B ≈ n₀/32`` and each ``E`` expanded in a Taylor series around ``x₀ = x_{n₀}``:
+with ``B ≈ n₀/32``, ``n₀/64`` or ``n₀/128`` (longer series, narrower blocks) and each
+``E`` expanded in a Taylor series around ``x₀ = x_{n₀}``:
 ``d/dx E_{1−σ}(x) = −E_{−σ}(x)`` and ``E_{−σ}(x) = (e^(−x) + σ·E_{1−σ}(x))/x``, so all
 the coefficients come from one value of ``E``; the block sum needs only the exact
 integer moments ``Σ χ(n)·n^a·(n² − n₀²)^k``.  The remainder after ``K`` terms is at most
 ``h^(K+1)/(K+1)!·Γ(Re σ+K+1)/(x₀−h)^(Re σ+K+1)`` per term (``h`` the largest
 ``|x_n − x₀|``), also evaluated in ball arithmetic and added to the radius.  This turns
-the ``√q`` special-function values into ``O(log q)`` of them plus integer arithmetic.
+the ``√q`` special-function values into ``O(log q)`` of them plus integer arithmetic; the
+high moments, whose Taylor coefficients are small, are summed in doubles with a proved
+rounding bound added to the radius (:func:`_block_sum`).
 
 All arithmetic is ball arithmetic (python-flint's ``arb``), so rounding errors are
 bounded as well; the result is returned only when its radius meets the requested
