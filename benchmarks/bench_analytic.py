@@ -8,11 +8,15 @@ Measures, in one run (CPU seconds by ``time.process_time``, medians of ``--repea
   same-run ratio that shows what the blocks buy;
 * ``Z_Q(s)`` at 30 digits for reduced forms of small and large discriminant, real and
   complex ``s``, and Kronecker's limit formula;
-* ``θ_Q`` up to ``q^(10^6)`` and ``q^(10^7)`` for ``x² + y²`` and a form of larger discriminant.
+* ``θ_Q`` up to ``q^(10^6)`` and ``q^(10^7)`` for ``x² + y²`` and a form of larger discriminant;
+* the previous path of ``L(s, χ_D)`` (Taylor blocks of ``n/16`` terms, every moment an exact
+  integer) against the present one (blocks of ``n/16``, ``n/32`` or ``n/64`` by size, the high moments in doubles with a
+  proved error bound) for ``|D| ≈ 10^6, 10^8, 10^9`` and ``10^12``, side by side, with the ratio
+  (``--compare-only`` runs just this part).
 
 The machine is shared: quote CPU times and ratios measured in the same run.
 
-Run:  python benchmarks/bench_analytic.py [--repeat 3] [--skip-large]
+Run:  python benchmarks/bench_analytic.py [--repeat 3] [--skip-large] [--compare-only]
 """
 
 from __future__ import annotations
@@ -51,8 +55,14 @@ def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--repeat", type=int, default=3)
     ap.add_argument("--skip-large", action="store_true", help="leave out |D| = 10^12 and θ to 10^7")
+    ap.add_argument(
+        "--compare-only", action="store_true", help="only the previous path against the present one"
+    )
     args = ap.parse_args()
     r = args.repeat
+    if args.compare_only:
+        compare_paths(r, args.skip_large)
+        return
 
     print("## L(s, χ_D), 30 digits")
     sizes = [-(10**6), 10**6, -(10**9)] + ([] if args.skip_large else [-(10**12)])
@@ -88,6 +98,31 @@ def main() -> None:
         for N in bounds:
             _, th = measure(f"θ_Q to q^{N}, Q = {list(Q)}", lambda: theta_series(Q, N), r)
             print(f"    r_Q({N}) = {th[N]}, lattice points counted = {int(th.coefficients.sum())}")
+
+
+def compare_paths(r: int, skip_large: bool) -> None:
+    """The previous L-series path against the present one, in the same run."""
+    mod = importlib.import_module("formkit.analytic.l_series")
+    print(
+        "## L(s, χ_D), 30 digits: previous path (blocks n/16, integer moments) vs present (n/32 or n/64, doubles)"
+    )
+    sizes = [-(10**6), -(10**8), -(10**9)] + ([] if skip_large else [-(10**12)])
+    for size in sizes:
+        D = fundamental_near(size)
+        reps = 1 if abs(D) >= 10**12 else r
+        for s in ("1", "1/2+10i"):
+            saved = (mod._BLOCK_DIVISOR, mod._FLOAT_MOMENTS)
+            mod._BLOCK_DIVISOR, mod._FLOAT_MOMENTS = 16, False
+            try:
+                old, L0 = measure(f"previous: L({s}, χ_D), D = {D}", lambda: l_series(D, s, digits=30), reps)
+            finally:
+                mod._BLOCK_DIVISOR, mod._FLOAT_MOMENTS = saved
+            new, L1 = measure(f"present:  L({s}, χ_D), D = {D}", lambda: l_series(D, s, digits=30), reps)
+            same = abs(L0.value - L1.value) <= L0.error_bound + L1.error_bound
+            print(
+                f"    previous / present = {old / new:.2f}; values agree within their bounds: {same}; "
+                f"error bounds {L0.error_bound:.1e} and {L1.error_bound:.1e}; {L1.terms} terms"
+            )
 
 
 if __name__ == "__main__":

@@ -24,13 +24,16 @@ enough, and the bound itself is then evaluated in ball arithmetic and added to t
 of the ball, so no rounding error of its own is left out.
 
 **Blocks.**  For large ``q`` the terms are grouped into blocks ``n ∈ [n₀ − B, n₀ + B]``
-with ``B ≈ n₀/32`` and each ``E`` expanded in a Taylor series around ``x₀ = x_{n₀}``:
+with ``B ≈ n₀/32``, ``n₀/64`` or ``n₀/128`` (longer series, narrower blocks) and each
+``E`` expanded in a Taylor series around ``x₀ = x_{n₀}``:
 ``d/dx E_{1−σ}(x) = −E_{−σ}(x)`` and ``E_{−σ}(x) = (e^(−x) + σ·E_{1−σ}(x))/x``, so all
 the coefficients come from one value of ``E``; the block sum needs only the exact
 integer moments ``Σ χ(n)·n^a·(n² − n₀²)^k``.  The remainder after ``K`` terms is at most
 ``h^(K+1)/(K+1)!·Γ(Re σ+K+1)/(x₀−h)^(Re σ+K+1)`` per term (``h`` the largest
 ``|x_n − x₀|``), also evaluated in ball arithmetic and added to the radius.  This turns
-the ``√q`` special-function values into ``O(log q)`` of them plus integer arithmetic.
+the ``√q`` special-function values into ``O(log q)`` of them plus integer arithmetic; the
+high moments, whose Taylor coefficients are small, are summed in doubles with a proved
+rounding bound added to the radius (:func:`_block_sum`).
 
 All arithmetic is ball arithmetic (python-flint's ``arb``), so rounding errors are
 bounded as well; the result is returned only when its radius meets the requested
@@ -93,6 +96,18 @@ MAX_SERIES_TERMS = 4 * 10**7
 
 #: Below this index the terms are summed one by one; above it in Taylor blocks.
 _DIRECT_TERMS = 400
+
+#: A block starting at ``n`` has ``n // divisor`` terms (at least 8): the Taylor series then
+#: gains about ``log2(divisor)`` bits per term, at the price of more blocks.  The divisor is
+#: 16 for series of fewer than 3·10^4 terms, 32 below 3·10^5 and 64 beyond (measured with
+#: ``benchmarks/bench_analytic.py`` at |D| = 10^6 … 10^12, see docs/performance.md);
+#: ``_BLOCK_DIVISOR`` set to an integer overrides it (16 everywhere was the previous path).
+_BLOCK_DIVISOR: int | None = None
+_DIVISOR_STEPS = ((3 * 10**4, 16), (3 * 10**5, 32))
+
+#: Moments of high order in doubles with a proved error bound (``_block_sum``); ``False``
+#: gives the previous all-integer path (kept for the benchmark's side-by-side run).
+_FLOAT_MOMENTS = True
 
 
 # ---------------------------------------------------------------------------------------
@@ -235,7 +250,19 @@ def _block_sum(
     log_tol: float,
     sr_exact: tuple[Fraction, Fraction],
 ):
-    """``Σ_{lo ≤ n ≤ hi} χ(n)·n^a·Σ_σ E_{1−σ}(x_n)`` by Taylor expansion at the block centre."""
+    """``Σ_{lo ≤ n ≤ hi} χ(n)·n^a·Σ_σ E_{1−σ}(x_n)`` by Taylor expansion at the block centre.
+
+    The moments ``P_k = Σ w·v^k`` (``w = χ(n)·n^a``, ``v = n² − n₀²``) are exact integers for
+    the first ``k``; once the Taylor coefficient ``c_k`` times ``V^k`` (``V = 2^e ≥ max|v|``) is
+    small enough, ``P_k = V^k·Q_k`` with ``Q_k = Σ w·(v/V)^k`` in IEEE doubles: ``v/V`` is
+    exact (``V`` a power of 2, ``|v| < 2^53``), each of the ``k`` products rounds once
+    (relative error ``≤ (1 + 2^-53)^k − 1``; Higham, *Accuracy and Stability of Numerical
+    Algorithms*, 2nd ed., Lemma 3.1) and the pairwise sum (:func:`_pairwise_sum`: each term
+    passes through ``d = ⌈log2 m⌉`` additions) adds at most ``γ_d·Σ|terms|`` (ibid. §4.2),
+    so ``|Q̃_k − Q_k| ≤ 1.02·(d + k + 1)·2^-53·Σ|w|``
+    (plus ``2^-1000·(k + 1)·Σ|w|`` for underflow); that bound times ``|c_k|·V^k`` is added
+    to the radius in ball arithmetic.  :data:`_FLOAT_MOMENTS` switches this off (the previous path).
+    """
     import numpy as np
     from flint import acb, arb
 
@@ -243,39 +270,100 @@ def _block_sum(
     idx = np.flatnonzero(chi[lo : hi + 1]) + lo
     if len(idx) == 0:
         return 0, 0
-    weights = [int(chi[n]) * (n if a else 1) for n in idx.tolist()]
-    mass = sum(abs(w) for w in weights)
-    v = [n * n - n0 * n0 for n in idx.tolist()]
     h = math.pi * max(abs(lo * lo - n0 * n0), abs(hi * hi - n0 * n0)) / q
     x0f = math.pi * n0 * n0 / q
+    w64 = chi[idx].astype(np.int64) * (idx if a else 1)
+    mass = int(np.abs(w64).sum())
     K = 0
     while max(_remainder_log(h, x0f, s, K) for s in sr) + math.log(mass) > log_tol:
         K += 1
         if K > 400:  # pragma: no cover - the blocks are small enough for this never to happen
             raise ArithmeticError(f"Taylor block [{lo}, {hi}] does not converge")
     remainder = 2 * mass * sum((_remainder_ball(lo, hi, n0, q, s, K) for s in sr_exact), arb(0))
-    # exact moments P_k = Σ w·v^k, k = 0..K, in integer arithmetic (numpy object arrays)
-    w = np.array(weights, dtype=object)
-    va = np.array(v, dtype=object)
-    moments = []
-    for _k in range(K + 1):
-        moments.append(int(w.sum()))
-        w = w * va
     x0 = arb.pi() * n0 * n0 / q
     e = (-x0).exp()
     step = -arb.pi() / q
-    total: Any = None
+    # Taylor coefficients T[σ][k] = E_{1−σ−k}(x0)·(−π/q)^k/k!  (the k-th derivative of E_{1−σ}(πm/q) at m = n0²/k!)
+    table = []
     for sigma in sigmas:
         g = _expint(x0, sigma)  # g_k = E_{1−σ−k}(x0)
         coeff = arb(1)  # (−π/q)^k / k!
-        part = g * moments[0]
+        row = [g]
         for k in range(1, K + 1):
             g = (e + (sigma + (k - 1)) * g) / x0
             coeff = coeff * step / k
-            part += g * coeff * moments[k]
+            row.append(g * coeff)
+        table.append(row)
+    vmax = max(abs(lo * lo - n0 * n0), abs(hi * hi - n0 * n0))
+    V_exp = max(1, vmax.bit_length())
+    float_ok = _FLOAT_MOMENTS and vmax < 2**53 and mass < 2**53 and int(np.abs(w64).max()) < 2**53
+    m = len(idx)
+    depth = max(1, (m - 1).bit_length())  # additions each term goes through in _pairwise_sum
+    # the k from which a double moment is accurate enough: |c_k|·V^k·(float error) ≤ tol/(2(K+1))
+    float_from = K + 1
+    if float_ok:
+        budget = log_tol - math.log(4 * (K + 1))
+        log_err = math.log(1.02 * 2.0**-53 * mass)
+        for k in range(K + 1):
+            size = max(_log_upper(row[k]) for row in table) + k * V_exp * math.log(2)
+            if size + log_err + math.log(depth + k + 1) <= budget:
+                float_from = k
+                break
+    # exact moments P_k, k < float_from (numpy object arrays of Python integers)
+    moments: list[Any] = []
+    if float_from > 0:
+        w = np.array([int(x) for x in w64.tolist()], dtype=object)
+        va = np.array([n * n - n0 * n0 for n in idx.tolist()], dtype=object)
+        for k in range(float_from):
+            moments.append(int(w64.sum()) if k == 0 else int(w.sum()))
+            if k + 1 < float_from:
+                w = w * va
+    error = arb(0)
+    if float_from <= K:
+        from flint import fmpq
+
+        u = (idx * idx - n0 * n0).astype(np.float64) / 2.0**V_exp  # exact: |v| < 2^53, V a power of 2
+        power = w64.astype(np.float64)
+        for _j in range(float_from):
+            power = power * u
+        scale = arb(2) ** V_exp
+        for k in range(float_from, K + 1):
+            if k > float_from:
+                power = power * u
+            Qk = _pairwise_sum(power)
+            moments.append(arb(fmpq(*Qk.as_integer_ratio())) * scale**k)
+            bound = 1.02 * 2.0**-53 * mass * (depth + k + 1) + 2.0**-1000 * mass * (k + 1)
+            magnitude = sum((abs(row[k]) for row in table), arb(0)) * scale**k
+            error += magnitude * arb(fmpq(*bound.as_integer_ratio()))
+    total: Any = None
+    for row in table:
+        part = row[0] * moments[0]
+        for k in range(1, K + 1):
+            part += row[k] * moments[k]
         total = part if total is None else total + part
-    total += _error_ball(remainder, isinstance(total, acb))
-    return total, len(idx)
+    total += _error_ball(remainder + error, isinstance(total, acb))
+    return total, m
+
+
+def _pairwise_sum(x) -> float:
+    """The sum of a float64 array by halving (zero-padded to a power of 2): every term passes
+    through exactly ``⌈log2 len(x)⌉`` additions, whatever numpy's own summation does."""
+    import numpy as np
+
+    n = len(x)
+    size = 1 << max(0, (n - 1).bit_length())
+    a = np.zeros(size)
+    a[:n] = x
+    while size > 1:
+        size //= 2
+        a = a[:size] + a[size:]
+    return float(a[0])
+
+
+def _log_upper(x) -> float:
+    """log of an upper bound for |x| (a float; -inf for 0) — it only chooses where doubles suffice."""
+    b = float(abs(x).upper())
+    return math.log(b) if b > 0 else -math.inf
 
 
 def _lambda(d: int, s: ComplexArgument, prec: int, log_tol: float):
@@ -314,10 +402,11 @@ def _lambda(d: int, s: ComplexArgument, prec: int, log_tol: float):
                 count += 1
         lo = direct + 1
         if lo <= N:
-            # split the tolerance evenly over the blocks (each at most 1/32 of its start)
+            # split the tolerance evenly over the blocks (each at most 1/16 of its start)
             blocks = []
+            divisor = _BLOCK_DIVISOR or next((d for bound, d in _DIVISOR_STEPS if bound > N), 64)
             while lo <= N:
-                hi = min(N, lo + max(8, lo // 16))
+                hi = min(N, lo + max(8, lo // divisor))
                 blocks.append((lo, hi))
                 lo = hi + 1
             block_tol = log_tol - math.log(2 * len(blocks))

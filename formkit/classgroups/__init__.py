@@ -15,6 +15,8 @@
 * :mod:`~formkit.classgroups.principal_genus_theorem` — Gauss's theorem checked on Cl(D);
 * :mod:`~formkit.classgroups.class_series` — Dirichlet series over the classes: Σ Z_C = w·ζ_K,
   L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
+* :mod:`~formkit.classgroups.order_series` — the same series for orders (conductor f > 1):
+  Σ Z_C = w·ζ_K·∏_{p|f} e_p, ring class and genus characters of orders, the factors at p | f;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
   Eisenstein series from the genus characters, the cusp part;
 * :mod:`~formkit.classgroups.partial_zeta` — partial zeta functions ζ(s, C) of the narrow classes
@@ -42,6 +44,8 @@ from .hecke_theta import *  # noqa: F403
 from .hecke_theta import __all__ as _hecke_theta_all
 from .infrastructure import *  # noqa: F403
 from .infrastructure import __all__ as _infrastructure_all
+from .order_series import *  # noqa: F403
+from .order_series import __all__ as _order_series_all
 from .orders import *  # noqa: F403
 from .orders import __all__ as _orders_all
 from .partial_zeta import *  # noqa: F403
@@ -58,6 +62,7 @@ __all__ = [
     *_bsgs_all,
     *_infrastructure_all,
     *_class_series_all,
+    *_order_series_all,
     *_genus_theta_all,
     *_hecke_theta_all,
     *_partial_zeta_all,

@@ -130,7 +130,10 @@ def _negative(D: object, what: str, fundamental: bool = False) -> int:
     if D > 0:
         raise DiscriminantError(f"{what} is built from positive definite forms: D must be negative, not {D}")
     if fundamental and not is_fundamental_discriminant(D):
-        raise DiscriminantError(f"{what} is stated for fundamental discriminants; {D} is not fundamental")
+        raise DiscriminantError(
+            f"{what} is stated for fundamental discriminants; {D} is not fundamental (for an order use "
+            "order_zeta_sum or order_genus_character_l_series, which add the factors at p | f)"
+        )
     return D
 
 

@@ -112,7 +112,10 @@ def _positive(D: object, what: str, fundamental: bool = False) -> int:
             "use the Epstein zeta functions of the positive definite forms (formkit epstein D S --classes)"
         )
     if fundamental and not is_fundamental_discriminant(D):
-        raise DiscriminantError(f"{what} is stated for fundamental discriminants; {D} is not fundamental")
+        raise DiscriminantError(
+            f"{what} is stated for fundamental discriminants; {D} is not fundamental (for an order use "
+            "order_zeta_sum or order_genus_character_l_series, which add the factors at p | f)"
+        )
     return D
 
 

@@ -46,6 +46,8 @@ def _ideal_bound(args: argparse.Namespace) -> int | None:
 def _cmd_l_value(args: argparse.Namespace) -> int:
     from ..analytic.l_series import l_series, quadratic_field_zeta
     from ..classgroups.class_series import class_character_l_series, genus_character_l_series
+    from ..classgroups.order_series import order_genus_character_l_series
+    from ..core.discriminants import is_fundamental_discriminant
     from .conventions import CommandError, emit
 
     D = parse_discriminant(args.discriminant, "discriminant")
@@ -61,13 +63,27 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
         if D > 0:
             from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_genus_character_l_series
 
-            r = real_genus_character_l_series(
-                D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+            r = _order_or_field(
+                D,
+                lambda: real_genus_character_l_series(
+                    D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+                ),
+                lambda: order_genus_character_l_series(
+                    D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
+                ),
             )
         else:
-            r = genus_character_l_series(D, d1, args.s, digits=digits)
+            r = _order_or_field(
+                D,
+                lambda: genus_character_l_series(D, d1, args.s, digits=digits),
+                lambda: order_genus_character_l_series(D, d1, args.s, digits=digits),
+            )
         payload = {"kind": "genus_character", **r.to_dict()}
-        emit(args, payload, lambda: "\n".join(_identity_lines(r)))
+        lines = _identity_lines(r)
+        if not is_fundamental_discriminant(D):
+            payload["local_factors"] = _factor_dicts(D, genus=d1)
+            lines += _factor_lines(payload["local_factors"])
+        emit(args, payload, lambda: "\n".join(lines))
         return 0
     if args.class_character is not None:
         try:
@@ -76,6 +92,8 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
             raise CommandError(
                 f"--class-character takes exponents such as 1 or 1,0, not {args.class_character!r}"
             ) from exc
+        if not is_fundamental_discriminant(D):
+            return _ring_class(args, D, k, bound, digits)
         if D > 0:
             from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_class_character_l_series
 
@@ -98,9 +116,77 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     return 0
 
 
+def _order_or_field(D: int, field, order):
+    """The maximal-order function for fundamental ``D``, the order one (conductor f > 1) otherwise."""
+    from ..core.discriminants import is_fundamental_discriminant
+
+    return field() if is_fundamental_discriminant(D) else order()
+
+
+def _factor_dicts(D: int, character=None, genus: int | None = None) -> list[dict]:
+    from ..classgroups.order_series import _local_factors, order_local_factors
+
+    if genus is None:
+        return [e.to_dict() for e in order_local_factors(D, character)]
+    from fractions import Fraction
+
+    from ..classgroups.genus import value_prime_to
+    from ..core.arith import kronecker
+
+    def phase(x) -> Fraction:
+        m, _, _ = value_prime_to(x.form, D)
+        return Fraction(0) if kronecker(genus, m) == 1 else Fraction(1, 2)
+
+    return [e.to_dict() for e in _local_factors(D, phase)]
+
+
+def _factor_lines(factors: list[dict]) -> list[str]:
+    lines = ["  factors at the primes p | f (X = p^-s; c = exponent of p in the conductor of the character):"]
+    for e in factors:
+        lines.append(
+            f"    p = {e['prime']} (p^{e['exponent']} || f, c = {e['conductor_exponent']}): e_{e['prime']} = {e['factor']}"
+        )
+    return lines
+
+
+def _ring_class(args: argparse.Namespace, D: int, k: list[int], bound: int | None, digits: int) -> int:
+    from ..classgroups.order_series import ring_class_l_series
+    from .conventions import emit
+
+    r = ring_class_l_series(D, k, args.s, digits=digits, bound=bound)
+    payload = {
+        "kind": "class_character",
+        "discriminant": D,
+        "character": k,
+        **r.invertible.to_dict(),
+        "character_conductor": r.conductor,
+        "primitive": r.primitive.to_dict(),
+        "local_factors": [e.to_dict() for e in r.factors],
+        "provenance": r.provenance,
+    }
+
+    def human() -> str:
+        label = ", ".join(str(x) for x in k)
+        lines = _value_lines(
+            r.invertible, f"L_O({r.s}, psi) over the invertible ideals of the order, psi = ({label})"
+        )
+        lines.append(
+            f"  psi is a ring class character of conductor {r.conductor}: it factors through "
+            f"Cl{'+' if D > 0 else ''}({r.character_discriminant})"
+        )
+        lines += _factor_lines(payload["local_factors"])
+        lines += _value_lines(r.primitive, f"L({r.s}, psi) (primitive) = L_O/prod e_p")
+        lines.append(f"  classes: {r.provenance}")
+        return "\n".join(lines)
+
+    emit(args, payload, human)
+    return 0
+
+
 def _cmd_epstein(args: argparse.Namespace) -> int:
     from ..analytic.epstein import epstein_zeta, kronecker_limit
     from ..classgroups.class_series import chowla_selberg, class_zeta_sum
+    from ..classgroups.order_series import order_zeta_sum
     from ..core.forms import as_form
     from .conventions import CommandError, emit
 
@@ -119,8 +205,17 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
         else:
             if args.s is None:
                 raise CommandError("--classes needs S (the point s)")
-            r = class_zeta_sum(D, args.s, digits=digits)
-        emit(args, {"kind": "identity", **r.to_dict()}, lambda: "\n".join(_identity_lines(r)))
+            r = _order_or_field(
+                D,
+                lambda: class_zeta_sum(D, args.s, digits=digits),
+                lambda: order_zeta_sum(D, args.s, digits=digits),
+            )
+        payload = {"kind": "identity", **r.to_dict()}
+        lines = _identity_lines(r)
+        if r.statement.startswith("Σ_C Z_C(s)") and "e_" in r.statement:
+            payload["local_factors"] = _factor_dicts(D)
+            lines += _factor_lines(payload["local_factors"])
+        emit(args, payload, lambda: "\n".join(lines))
         return 0
     Q = as_form(args.target)
     if args.limit_formula:
@@ -159,7 +254,12 @@ def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: i
     if args.s is None:
         raise CommandError("--classes needs S (the point s)")
     z = partial_zeta_values(D, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits)
-    r = real_class_zeta_sum(D, args.s, digits=digits, values=z) if is_fundamental_discriminant(D) else None
+    if is_fundamental_discriminant(D):
+        r = real_class_zeta_sum(D, args.s, digits=digits, values=z)
+    else:
+        from ..classgroups.order_series import order_zeta_sum
+
+        r = order_zeta_sum(D, args.s, digits=digits, values=z)
     info = z.to_dict()
     payload = {
         "kind": "partial_zeta",
@@ -170,8 +270,9 @@ def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: i
         "partial_zeta": info["classes"],
         "provenance": z.provenance,
     }
-    if r is not None:
-        payload.update({k: v for k, v in r.to_dict().items() if k not in payload})
+    payload.update({k: v for k, v in r.to_dict().items() if k not in payload})
+    if not is_fundamental_discriminant(D):
+        payload["local_factors"] = _factor_dicts(D)
 
     def human() -> str:
         lines = [
@@ -184,10 +285,9 @@ def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: i
             lines.append(
                 f"  C = [{form_text(f)}]: {v.text():<22} (|error| <= {v.error_bound:.1e}; {n} primitive ideals)"
             )
-        if r is not None:
-            lines.extend(_identity_lines(r))
-        else:
-            lines.append(f"  ({D} is not fundamental: no comparison with zeta(s) L(s, chi_D))")
+        lines.extend(_identity_lines(r))
+        if "local_factors" in payload:
+            lines.extend(_factor_lines(payload["local_factors"]))
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -406,8 +506,11 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "psi(C) Z_C(s) (Epstein zeta functions, any s); for D > 0 as the sum of psi(C) zeta(s, C) over the "
             "narrow classes (partial zeta functions summed directly over the ideals of norm <= --bound, real "
             "s > 1 only, with an explicit tail bound: few digits at s = 2, more at larger s); "
-            "--genus D1 the genus character for D = D1*D2 (fundamental D), computed by the classes and as "
-            "L(s, chi_D1) L(s, chi_D2). s is written 2, -3, 0.5, 1/2 or 1/2+14.1347i. "
+            "--genus D1 the genus character for D = D1*D2, computed by the classes and as "
+            "L(s, chi_D1) L(s, chi_D2). For an order (D = f^2 d_K, f > 1) the series by the classes runs over the "
+            "invertible ideals of the order and differs from the L-series by a factor e_p(s), a polynomial in p^-s, at "
+            "each prime p | f (printed); --class-character then also gives the conductor of the ring class character "
+            "and its primitive L-series. s is written 2, -3, 0.5, 1/2 or 1/2+14.1347i. "
             "Python: formkit.l_series(D, s, digits=...), formkit.quadratic_field_zeta, "
             "formkit.class_character_l_series(D, [K1, ...], s), formkit.genus_character_l_series(D, D1, s), "
             "formkit.real_class_character_l_series, formkit.real_genus_character_l_series (D > 0)."
@@ -416,7 +519,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "examples:\n  formkit l-value -23 1\n  formkit l-value -4 1/2+6i --digits 20\n"
             "  formkit l-value 5 -1\n  formkit l-value 5 2 --field-zeta\n"
             "  formkit l-value -23 1 --class-character 1\n  formkit l-value -84 2 --genus -3\n"
-            "  formkit l-value 229 3 --class-character 1 --bound 5000\n  formkit l-value 60 3 --genus 5 --bound 5000"
+            "  formkit l-value 229 3 --class-character 1 --bound 5000\n  formkit l-value 60 3 --genus 5 --bound 5000\n"
+            "  formkit l-value -36 2 --genus -3\n  formkit l-value -176 3 --class-character 2"
         ),
         formatter_class=raw,
     )
@@ -429,7 +533,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     p.add_argument(
         "--class-character", metavar="K1,K2,...", help="a character of Cl(D) (narrow for D > 0), by exponents"
     )
-    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (fundamental D)")
+    p.add_argument("--genus", metavar="D1", help="the genus character of D = D1*D2 (D1 fundamental or 1)")
     p.add_argument(
         "--bound",
         metavar="X",
@@ -446,11 +550,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "the Chowla-Selberg expansion (zeta terms and a K-Bessel series with an explicit tail bound) in ball "
             "arithmetic. --limit-formula: the residue 2 pi/sqrt|D| and the constant term at s = 1 by Kronecker's "
             "first limit formula through Dedekind's eta at the root of Q, checked against the expansion. "
-            "--classes: the target is a fundamental D < 0 and the sum of Z_C(s) over its classes is set beside "
-            "w zeta(s) L(s, chi_D); for D > 0 (where the forms are indefinite and Z_Q is no sum) the partial zeta "
+            "--classes: the target is a D < 0 and the sum of Z_C(s) over its classes is set beside "
+            "w zeta(s) L(s, chi_D), times a factor e_p(s) (a polynomial in p^-s, printed) at each prime p | f for an order "
+            "of conductor f > 1; for D > 0 (where the forms are indefinite and Z_Q is no sum) the partial zeta "
             "functions zeta(s, C) of the narrow ideal classes are given instead, summed directly over the ideals "
-            "of norm <= --bound (real s > 1, explicit tail bound), and for fundamental D their sum is set beside "
-            "zeta(s) L(s, chi_D). --chowla-selberg: both sides of the Chowla-Selberg formula for D < 0 (the product "
+            "of norm <= --bound (real s > 1, explicit tail bound), and their sum is set beside "
+            "zeta(s) L(s, chi_dK) (times the e_p(s) for an order). --chowla-selberg: both sides of the Chowla-Selberg formula for D < 0 (the product "
             "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product; a statement about CM points, "
             "so D > 0 is refused). "
             "Python: formkit.epstein_zeta(Q, s), formkit.kronecker_limit(Q), formkit.class_zeta_sum(D, s), "
@@ -459,7 +564,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog=(
             "examples:\n  formkit epstein 1,0,1 2\n  formkit epstein 2,1,3 1/2+3i --digits 20\n"
             "  formkit epstein 1,1,1 --limit-formula\n  formkit epstein -23 2 --classes\n"
-            "  formkit epstein -163 --chowla-selberg\n  formkit epstein 229 3 --classes --bound 5000"
+            "  formkit epstein -163 --chowla-selberg\n  formkit epstein 229 3 --classes --bound 5000\n"
+            "  formkit epstein -63 3 --classes\n  formkit epstein 48 3 --classes --bound 2000"
         ),
         formatter_class=raw,
     )

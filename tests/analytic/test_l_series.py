@@ -161,6 +161,36 @@ def test_blocks_agree_with_term_by_term(monkeypatch):
     assert abs(blocked.value - plain.value) <= blocked.error_bound + plain.error_bound
 
 
+@pytest.mark.parametrize(
+    "D,s,digits",
+    [(-(10**7) - 3, "1", 30), (10**7 + 1, "1/2+10i", 30), (-(10**6) - 3, "2", 60), (-20011, "1/3", 40)],
+)
+def test_double_moments_agree_with_integer_moments(monkeypatch, D, s, digits):
+    # the Taylor blocks with high moments in doubles (proved error bound) against the all-integer
+    # moments with the narrower blocks of the previous path (common practice: two evaluations of one series)
+    calls = []
+    pairwise = l_series_module._pairwise_sum
+    monkeypatch.setattr(l_series_module, "_pairwise_sum", lambda x: calls.append(1) or pairwise(x))
+    fast = l_series(D, s, digits=digits)
+    assert calls  # the doubles were used
+    monkeypatch.setattr(l_series_module, "_FLOAT_MOMENTS", False)
+    monkeypatch.setattr(l_series_module, "_BLOCK_DIVISOR", 16)
+    exact = l_series(D, s, digits=digits)
+    assert abs(fast.value - exact.value) <= fast.error_bound + exact.error_bound
+    assert fast.error_bound < 10.0**-digits * abs(fast.value)
+
+
+def test_pairwise_sum():
+    # against math.fsum (correctly rounded) on sums whose terms are exact in binary (common practice)
+    import math
+
+    import numpy as np
+
+    for n in (1, 2, 3, 7, 8, 1000, 4097):
+        x = np.arange(1, n + 1, dtype=np.float64) / 8
+        assert l_series_module._pairwise_sum(x) == math.fsum(x.tolist())
+
+
 @settings(max_examples=3, deadline=None)
 @given(
     D=st.sampled_from([-3, -4, -8, 5, 8, -7, 12, -15, 13, -20, 21, -24]),

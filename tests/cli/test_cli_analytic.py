@@ -139,3 +139,26 @@ def test_bad_input(capsys, argv, words, tmp_path, monkeypatch):
     code, out, err = run(capsys, *argv)
     assert code == 2 and out == ""
     assert err.startswith("formkit: error: ") and err.count("\n") == 1 and words in err
+
+
+def test_orders(capsys):
+    # non-fundamental D: the identities with the factors e_p at p | f (formkit.classgroups.order_series);
+    # D = −12: Σ'(x² + 3y²)^(−s) = 2(1 + 2^(1−2s))ζ(s)L(s, χ₋₃) (classical, from memory; mpmath's ζ and L)
+    c = run_json(capsys, "epstein", "-12", "2", "--classes", "--digits", "20")
+    assert c["agrees"] is True and [e["factor"] for e in c["local_factors"]] == ["1 + 2X^2"]
+    with mpmath.workdps(25):
+        ref = 2 * (1 + mpmath.mpf(2) ** -3) * mpmath.zeta(2) * mpmath.dirichlet(2, [0, 1, -1])
+        assert abs(mpmath.mpf(c["by_classes"]["value"]["real"]) - ref) < 1e-18
+    g = run_json(capsys, "l-value", "-36", "2", "--genus", "-3", "--digits", "15")
+    assert g["kind"] == "genus_character" and g["agrees"] is True and g["local_factors"][0]["prime"] == 3
+    # the character of order 3 of Cl(−176) comes from Cl(−44): the same primitive L(s, ψ)
+    k = run_json(capsys, "l-value", "-176", "3", "--class-character", "2", "--digits", "15")
+    k0 = run_json(capsys, "l-value", "-44", "3", "--class-character", "1", "--digits", "15")
+    assert k["character_conductor"] == k0["character_conductor"] == 2
+    assert k["primitive"]["value"]["real"][:14] == k0["primitive"]["value"]["real"][:14]
+    r = run_json(capsys, "epstein", "48", "3", "--classes", "--bound", "2000", "--digits", "10")
+    assert r["agrees"] is True and r["local_factors"][0]["factor"] == "1 - X + 2X^2"
+    code, text, _err = run(capsys, "l-value", "-176", "3", "--class-character", "2", "--digits", "10")
+    assert code == 0 and "factors through Cl(-44)" in text and "e_2 = 1 + 2X^2" in text
+    code, _out, err = run(capsys, "l-value", "-63", "2", "--genus", "5")
+    assert code == 2 and "does not split" in err
