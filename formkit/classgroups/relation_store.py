@@ -87,7 +87,10 @@ class RelationStore:
 
     def add(self, relations: Iterable[Relation], task: int | None = None) -> None:
         """Write ``relations`` (and mark ``task`` finished) in one transaction."""
-        rows = [(json.dumps([list(t) for t in r.exponents]), r.large, r.large_sign) for r in relations]
+        rows = [
+            (json.dumps([[int(i), int(k)] for i, k in r.exponents]), int(r.large), int(r.large_sign))
+            for r in relations
+        ]
         with self._db:
             self._db.executemany("INSERT INTO relations VALUES (?, ?, ?)", rows)
             if task is not None:

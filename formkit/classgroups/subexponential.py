@@ -106,6 +106,8 @@ class RelationStatistics:
     sieved: int = 0
     expressed: int = 0
     tasks: int = 0
+    resumed: int = 0
+    tasks_resumed: int = 0
     checks: list[str] = field(default_factory=list)
 
 
@@ -374,9 +376,11 @@ def class_group_subexponential(
     db = RelationStore(store, D, B) if store is not None else None
     done: set[int] = set()
     if db is not None:
-        for r in db.relations():
+        stored = db.relations()
+        for r in stored:
             col.add(r)
         done = db.done_tasks()
+        stats.resumed, stats.tasks_resumed = len(stored), len(done)
     stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers)
     Q = None
     want = n + 10
@@ -427,7 +431,8 @@ def class_group_subexponential(
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",
         f"{len(col.rows)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
-        f"large-prime pairs, {stats.expressed} by random walks)",
+        f"large-prime pairs, {stats.expressed} by random walks"
+        + (f"; {stats.resumed} read back from the store)" if db is not None else ")"),
         f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{lower},"
         " so the relation lattice is the full lattice",
     ]

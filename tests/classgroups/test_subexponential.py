@@ -130,3 +130,58 @@ def test_sieve_relations_are_true():
         assert x == one, r
         n += 1
     assert n > 20
+
+
+def test_kill_and_resume(tmp_path):
+    # a real process is killed (SIGKILL) after it has stored some sieve tasks; the same
+    # call with the same store continues from them and gives baby-step giant-step's group
+    import sqlite3
+    import subprocess
+    import sys
+    import time
+    from pathlib import Path
+
+    from formkit.classgroups import subexponential as sub
+
+    D = _fundamental_below(-(10**25) - 7)
+    path = tmp_path / "rel.sqlite"
+    root = str(Path(sub.__file__).resolve().parents[2])
+    code = (
+        "import sys; sys.path.insert(0, sys.argv[1]);"
+        "from formkit.classgroups.subexponential import class_group_subexponential as f;"
+        "f(int(sys.argv[2]), store=sys.argv[3], max_relations=10**9)"
+    )
+    proc = subprocess.Popen([sys.executable, "-c", code, root, str(D), str(path)], stderr=subprocess.DEVNULL)
+    done = 0
+    try:
+        deadline = time.monotonic() + 120
+        while time.monotonic() < deadline and proc.poll() is None:
+            time.sleep(0.2)
+            if path.exists():
+                try:
+                    with sqlite3.connect(path) as db:
+                        done = db.execute("SELECT count(*) FROM tasks").fetchone()[0]
+                except sqlite3.OperationalError:  # tables not yet created
+                    continue
+                if done >= 1:
+                    break
+    finally:
+        proc.kill()
+        proc.wait()
+    assert done >= 1, "the killed run stored no finished task"
+    with sqlite3.connect(path) as db:
+        stored = db.execute("SELECT count(*) FROM relations").fetchone()[0]
+    assert stored > 0
+    G = class_group_subexponential(D, store=path)
+    assert G.invariants == class_group_bsgs(D).invariants
+    # the resumed run read the stored relations and did not redo the stored tasks
+    stats = sub._LAST["stats"]
+    assert stats.resumed == stored and stats.tasks_resumed == done
+
+
+@pytest.mark.slow
+def test_two_workers_agree():
+    # two local worker processes give the same group as baby-step giant-step
+    D = _fundamental_below(-(10**19) - 1)
+    G = class_group_subexponential(D, workers=2)
+    assert G.invariants == class_group_bsgs(D).invariants
