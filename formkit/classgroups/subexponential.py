@@ -1,31 +1,36 @@
 """Class groups of negative discriminants by relations among prime forms (index calculus).
 
 The method of Hafner and McCurley [1] and Buchmann, as described in Cohen [2], §5.5
-(Algorithm 5.5.2, "sub-exponential class group"), restricted here to fundamental
-``D < 0``:
+(Algorithm 5.5.2, "sub-exponential class group"), with Jacobson's sieve [4] for the
+relations, restricted here to fundamental ``D < 0``:
 
 1. **Factor base.**  The reduced prime forms ``P_p = (p, b_p, c)`` of the primes
    ``p ≤ B`` with ``χ_D(p) ≠ −1``, where ``B`` is at least Bach's bound ``6·log²|D|``
    (Bach [3]): under GRH these forms generate ``Cl(D)``.
-2. **Relations.**  For a random exponent vector ``e`` on a few factor-base forms, the
-   product ``∏ P_p^{e_p}`` is reduced to ``(a, b, c)``; when ``a`` factors over the
-   factor base, ``a = ∏ p^{k_p}``, the form ``(a, b, c)`` is ``∏ P_p^{±k_p}`` (the sign
-   is read off ``b`` modulo ``2p``, modulo 4 for ``p = 2``), which gives the relation
-   ``e − (±k) = 0``.  Smoothness is tested with one modular power of the product of the
-   factor base; values with one large prime cofactor ``q ≤ B²`` are kept and two
-   values with the same ``q`` are combined (large-prime variation).
+2. **Relations by sieving.**  The values of ``a x² + b x + c`` for forms ``(a, b, c)``
+   with ``a`` a product of factor-base primes are sieved over an interval
+   (:mod:`formkit.classgroups.relation_sieve`, self-initialising, one large prime);
+   each smooth value is a relation.  Every ``a`` contains a *cover prime*, taken in
+   turn from the largest down, and the prime forms that no sieved relation reaches are
+   then expressed one by one: a random walk ``P_p·∏P_s^{±1}`` over small prime forms
+   until the reduced form has a smooth first coefficient (Cohen [2], Algorithm 5.5.2,
+   step 3, the relation search of Hafner–McCurley).
 3. **Linear algebra.**  The quotient ``Zⁿ/L`` of the relation lattice is computed by
    :func:`formkit.core.lattice.lattice_quotient` (sparse elimination of unit pivots, then
-   the Smith normal form of the dense rest on python-flint).  Its order ``h*`` is a
-   multiple of ``h`` (the relations found are true relations and the factor base
-   generates); relations are added until ``h*`` lies in the GRH interval
-   ``[h⁻, h⁺]`` of :func:`formkit.analytic.lseries.class_number_estimate` with
-   ``h* < 2·h⁻``, which forces ``h* = h``.
+   the Smith normal form of the dense rest).  Its order ``h*`` is a multiple of ``h``
+   (the relations are true relations and the factor base generates); relations are
+   added until ``h*`` lies in the GRH interval ``[h⁻, h⁺]`` of
+   :func:`formkit.analytic.lseries.class_number_estimate` with ``h* < 2·h⁻``, which
+   forces ``h* = h``.
+
+Relations can be kept in an SQLite file (:class:`formkit.classgroups.relation_store.RelationStore`)
+as they are found, so that a killed run resumes; the sieve runs on several local
+processes (``workers``).  The sieve parameters come from :data:`SIEVE_TABLE`.
 
 The result is conditional on GRH (Bach's bound and the interval of the Euler
-product).  Not yet here: Jacobson's sieve over a self-initialising family of
-polynomials, parallel relation collection, a relation store, ``D > 0`` and
-non-fundamental ``D`` (see issue 18).
+product).  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, CLI options
+for the store and the workers, automatic choice of this method (it is slower than
+baby-step giant-step at 30 digits; docs/performance.md), two large primes (issue 18).
 
 References
 ----------
@@ -35,27 +40,60 @@ References
        Springer 1993, §5.5 (Algorithm 5.5.2).
 .. [3] E. Bach, "Explicit bounds for primality testing and related problems",
        Math. Comp. 55 (1990), 355–380.
+.. [4] M. J. Jacobson, Jr., "Applying sieving to the computation of quadratic class
+       groups", Math. Comp. 68 (1999), 859–867.
 """
 
 from __future__ import annotations
 
-import math
+import multiprocessing
 import random
+from collections import deque
+from collections.abc import Generator, Iterator
 from dataclasses import dataclass, field
+from itertools import count
+from pathlib import Path
+
+import numpy as np
 
 from ..analytic.lseries import class_number_estimate
-from ..core.arith import mpz
 from ..core.discriminants import discriminant_parts, validate_discriminant
-from ..core.enumeration import _prime_forms
 from ..core.lattice import lattice_quotient
 from ..core.progress import progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .baby_step_giant_step import BSGSStatistics, _Ops, bach_bound
 from .group import ClassGroup, Provenance
+from .relation_sieve import FactorBase, Relation, SieveParameters, sieve_relations
+from .relation_store import RelationStore
 
-__all__ = ["class_group_subexponential", "RelationStatistics", "factor_base_bound"]
+__all__ = [
+    "class_group_subexponential",
+    "RelationStatistics",
+    "factor_base_bound",
+    "sieve_parameters",
+    "SIEVE_TABLE",
+]
 
 Triple = tuple[int, int, int]
+
+#: Sieve parameters by size: ``(largest number of digits of |D|, M, polynomials per a,
+#: large-prime factor)``; the factor-base bound is Bach's bound (see
+#: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py
+#: (docs/performance.md, "Subexponential class groups").
+SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
+    (15, 1000, 2, 30),
+    (20, 3000, 2, 40),
+    (25, 6000, 4, 50),
+    (30, 15000, 4, 60),
+    (35, 25000, 4, 60),
+    (40, 40000, 8, 80),
+    (50, 80000, 8, 100),
+    (10**9, 150000, 8, 100),
+)
+
+#: Cover primes (values of ``a``) per sieve task: one task is the unit of work of a
+#: worker process and of the relation store (common practice, no source).
+A_PER_TASK = 4
 
 
 @dataclass
@@ -67,6 +105,11 @@ class RelationStatistics:
     trials: int = 0
     full: int = 0
     combined: int = 0
+    sieved: int = 0
+    expressed: int = 0
+    tasks: int = 0
+    resumed: int = 0
+    tasks_resumed: int = 0
     checks: list[str] = field(default_factory=list)
 
 
@@ -87,111 +130,173 @@ def factor_base_bound(D: int) -> int:
     return max(50, bach_bound(D))
 
 
-class _Base:
-    """The factor base: primes, their prime forms, and the smoothness test."""
+def sieve_parameters(D: int) -> SieveParameters:
+    """The sieve parameters for ``D`` from :data:`SIEVE_TABLE`.
 
-    def __init__(self, D: int, B: int) -> None:
-        self.D = D
-        self.primes: list[int] = []
-        self.forms: list[Triple] = []
-        for p, g in _prime_forms(D, 1, B):
-            self.primes.append(p)
-            self.forms.append((int(g[0]), int(g[1]), int(g[2])))
-        self.index = {p: i for i, p in enumerate(self.primes)}
-        self.B = B
-        prod = mpz(1)
-        for p in self.primes:
-            prod *= p
-        self.product = prod
-        self.ramified = {p for p in self.primes if D % p == 0}
-
-    def split(self, a: int) -> tuple[dict[int, int], int] | None:
-        """``a = s·q`` with ``s`` smooth; ``(exponents of s, q)`` when ``q`` is 1 or a prime ≤ B², else None."""
-        a = mpz(a)
-        k = max(1, int(a).bit_length().bit_length())
-        g = math.gcd(int(pow(self.product, 1 << k, a)), int(a))
-        q = int(a) // g
-        if q != 1 and (q > self.B * self.B or not _is_probable_prime(q)):
-            return None
-        out: dict[int, int] = {}
-        s = g
-        for p in self.primes:
-            if p > s:
-                break
-            if s % p == 0:
-                e = 0
-                while s % p == 0:
-                    s //= p
-                    e += 1
-                out[p] = e
-        return out, q
-
-    def signed(self, b: int, exps: dict[int, int]) -> dict[int, int]:
-        """Column → exponent of the form ``(a, b, ·)`` with ``a = ∏ p^{exps[p]}`` in the base."""
-        out: dict[int, int] = {}
-        for p, e in exps.items():
-            i = self.index[p]
-            if p in self.ramified:
-                e %= 2
-                if e:
-                    out[i] = e
-                continue
-            m = 4 if p == 2 else 2 * p
-            out[i] = e if (b - self.forms[i][1]) % m == 0 else -e
-        return out
+    Examples
+    --------
+    >>> p = sieve_parameters(-10**30 - 3)
+    >>> p.bound, p.half_width
+    (28630, 25000)
+    """
+    digits = len(str(abs(D)))
+    for top, M, per_a, lp in SIEVE_TABLE:
+        if digits <= top:
+            return SieveParameters(factor_base_bound(D), M, lp, per_a)
+    raise AssertionError("unreachable: the last row of SIEVE_TABLE has no limit")  # pragma: no cover
 
 
-def _is_probable_prime(n: int) -> bool:
-    import gmpy2
+# --- sieve tasks (run in worker processes) ----------------------------------------------
 
-    return bool(gmpy2.is_prime(n))
+_WORKER: dict[int, tuple[FactorBase, SieveParameters]] = {}
 
 
-def _relation_rows(D: int, base: _Base, ops: _Ops, need: int, rng: random.Random, stats: RelationStatistics):
-    """Yield relation rows (dicts column → exponent) until the caller stops."""
-    n = len(base.primes)
-    partials: dict[int, tuple[dict[int, int], int]] = {}
-    small = max(1, min(n, 20))
-    col = 0
-    while True:
-        stats.trials += 1
-        # every column gets its turn as the forced member (so every prime form is related)
-        e: dict[int, int] = {col: 1}
-        col = (col + 1) % n
-        for _ in range(min(small, 6)):
-            j = rng.randrange(small)
-            e[j] = e.get(j, 0) + rng.randrange(1, max(2, need))
-        x = ops.reduce(1, 1, (1 - D) // 4) if D % 4 == 1 else ops.reduce(1, 0, -D // 4)
-        for j, k in e.items():
-            x = ops.mul(x, ops.pow(base.forms[j], k))
-        a, b = int(x[0]), int(x[1])
-        got = base.split(a)
-        if got is None:
+def _task_covers(base: FactorBase, task: int) -> list[int]:
+    """The cover primes of sieve task ``task``: the candidates for ``a`` from the largest down, in turn."""
+    cands = base.a_candidates
+    return [cands[-1 - (task * A_PER_TASK + j) % len(cands)] for j in range(A_PER_TASK)]
+
+
+def _run_task(D: int, params: SieveParameters, task: int, seed: int) -> tuple[int, list[Relation]]:
+    """One sieve task (a module-level function, so that worker processes can run it)."""
+    got = _WORKER.get(D)
+    if got is None or got[1] != params:
+        _WORKER.clear()
+        got = (FactorBase(D, params.bound), params)
+        _WORKER[D] = got
+    base = got[0]
+    rels = list(sieve_relations(base, params, _task_covers(base, task), seed * 1_000_003 + task))
+    return task, rels
+
+
+def _tasks(
+    D: int, params: SieveParameters, todo: Iterator[int], seed: int, workers: int
+) -> Generator[tuple[int, list[Relation]], None, None]:
+    """Yield ``(task, relations)`` as tasks finish, on ``workers`` local processes.
+
+    At most ``2·workers`` tasks are in flight; closing the generator stops the workers
+    (their unfinished tasks are lost, never half-stored)."""
+    if workers <= 1:
+        for t in todo:
+            yield _run_task(D, params, t, seed)
+        return
+    ctx = multiprocessing.get_context("spawn")
+    pool = ctx.Pool(workers)
+    try:
+        flight: deque = deque()
+        for t in todo:
+            flight.append(pool.apply_async(_run_task, (D, params, t, seed)))
+            if len(flight) >= 2 * workers:
+                yield flight.popleft().get()
+        while flight:
+            yield flight.popleft().get()
+    finally:
+        pool.terminate()
+        pool.join()
+
+
+# --- collecting relations ------------------------------------------------------------
+
+
+class _Collector:
+    """Full relations as sparse rows; partial relations paired by their large prime."""
+
+    def __init__(self) -> None:
+        self.rows: list[dict[int, int]] = []
+        self.seen: set[tuple[tuple[int, int], ...]] = set()
+        self.partials: dict[int, Relation] = {}
+        self.covered: set[int] = set()
+        self.full = 0
+        self.combined = 0
+
+    def _row(self, items: tuple[tuple[int, int], ...]) -> None:
+        if not items or items in self.seen:
+            return
+        self.seen.add(items)
+        self.rows.append(dict(items))
+        self.covered.update(i for i, _k in items)
+
+    def add(self, r: Relation) -> None:
+        if r.large == 1:
+            self.full += 1
+            self._row(r.exponents)
+            return
+        first = self.partials.get(r.large)
+        if first is None:
+            self.partials[r.large] = r
+            return
+        # r = s·[ℓ], first = s'·[ℓ]  ⇒  r − s·s'·first = 0
+        comb = dict(r.exponents)
+        f = r.large_sign * first.large_sign
+        for i, k in first.exponents:
+            comb[i] = comb.get(i, 0) - f * k
+        items = tuple(sorted((i, k) for i, k in comb.items() if k))
+        if items:
+            self.combined += 1
+            self._row(items)
+
+
+def _residues(n: int, primes: np.ndarray) -> np.ndarray:
+    """``n mod p`` for every p of ``primes`` (all < 2^31), by 31-bit limbs in int64."""
+    limbs = []
+    while n:
+        limbs.append(n & 0x7FFFFFFF)
+        n >>= 31
+    r = np.zeros(len(primes), dtype=np.int64)
+    for limb in reversed(limbs):
+        r = ((r << 31) + limb) % primes
+    return r
+
+
+def _smooth(a: int, primes: np.ndarray) -> dict[int, int] | None:
+    """The exponents of ``a`` over ``primes`` when ``a`` factors over them, else None."""
+    exps: dict[int, int] = {}
+    for p in primes[_residues(a, primes) == 0].tolist():
+        k = 0
+        while a % p == 0:
+            a //= p
+            k += 1
+        exps[p] = k
+    return exps if a == 1 else None
+
+
+def _express(base: FactorBase, ops: _Ops, col: int, rng: random.Random, trials: int) -> Relation | None:
+    """A relation containing ``P_col`` once: a random walk ``P_col·∏P_s^{±1}`` until the
+    reduced form ``(a, b, c)`` has ``a`` smooth (Cohen, Algorithm 5.5.2)."""
+    primes = np.array(base.primes, dtype=np.int64)
+    small = min(len(base), 24)
+    x = base.forms[col]
+    walk = {col: 1}
+    for _ in range(trials):
+        s = rng.randrange(small)
+        e = rng.choice((1, -1))
+        g = base.forms[s] if e > 0 else ops.inv(base.forms[s])
+        x = ops.mul(x, g)
+        walk[s] = walk.get(s, 0) + e
+        b = int(x[1])
+        exps = _smooth(int(x[0]), primes)
+        if exps is None:
             continue
-        exps, q = got
-        row = dict(e)
+        row = dict(walk)
         for i, k in base.signed(b, exps).items():
             row[i] = row.get(i, 0) - k
-        if q == 1:
-            stats.full += 1
-            yield {i: v for i, v in row.items() if v}
-            continue
-        # large prime q: the q-part of (a, b, c) is (q, ±b mod 2q): record that sign
-        sign = 1 if (b % (2 * q)) <= q else -1
-        if q in partials:
-            other, osign = partials.pop(q)
-            comb = dict(row)
-            for i, v in other.items():
-                comb[i] = comb.get(i, 0) - sign * osign * v
-            stats.combined += 1
-            comb = {i: v for i, v in comb.items() if v}
-            if comb:
-                yield comb
-        else:
-            partials[q] = (row, sign)
+        if row.get(col):  # not trivial (the walk not yet reduced) and P_col still in it
+            return Relation(tuple(sorted((i, k) for i, k in row.items() if k)))
+    return None
 
 
-def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int | None = None) -> ClassGroup:
+# --- the class group -----------------------------------------------------------------
+
+
+def class_group_subexponential(
+    D: object,
+    *,
+    seed: int = 0,
+    max_relations: int | None = None,
+    store: str | Path | None = None,
+    workers: int = 1,
+    params: SieveParameters | None = None,
+) -> ClassGroup:
     """The class group ``Cl(D)`` of a fundamental ``D < 0`` from relations among prime forms.
 
     Parameters
@@ -199,10 +304,18 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
     D : int
         A fundamental negative discriminant.
     seed : int
-        Seed of the random exponent vectors (the result does not depend on it).
+        Seed of the sieve and of the random walks (the result does not depend on it).
     max_relations : int, optional
-        Stop with an error after this many relations (default ``10·n + 200`` for a factor
+        Stop with an error after this many relations (default ``20·n + 500`` for a factor
         base of n forms).
+    store : str or Path, optional
+        An SQLite file for the relations (:class:`~formkit.classgroups.relation_store.RelationStore`):
+        relations are written as found, and the same call with the same file continues a
+        killed run without losing the finished sieve tasks.
+    workers : int
+        Local processes for the sieve (1: in this process).
+    params : SieveParameters, optional
+        Instead of :func:`sieve_parameters` (its ``bound`` must be at least Bach's bound).
 
     Returns
     -------
@@ -215,7 +328,8 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
     DiscriminantError
         If ``D`` is not a fundamental negative discriminant.
     FormkitError
-        If the relations do not pin ``h`` down within ``max_relations``.
+        If the relations do not pin ``h`` down within ``max_relations``, or the store
+        belongs to another ``D`` or bound.
 
     Examples
     --------
@@ -225,7 +339,7 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
 
     References
     ----------
-    Cohen, GTM 138, Algorithm 5.5.2; Hafner–McCurley (1989).
+    Cohen, GTM 138, Algorithm 5.5.2; Hafner–McCurley (1989); Jacobson (1999).
     """
     D = validate_discriminant(D)
     if D > 0:
@@ -236,46 +350,94 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
             f"the subexponential method is implemented for fundamental D only; {D} has conductor {f} "
             "(use method 'bsgs', which handles orders)"
         )
+    params = params if params is not None else sieve_parameters(D)
+    if params.bound < bach_bound(D):
+        raise FormkitError(
+            f"factor-base bound {params.bound} is below Bach's bound {bach_bound(D)} for D = {D}"
+        )
     stats = RelationStatistics()
     _LAST["stats"] = stats
-    B = factor_base_bound(D)
-    base = _Base(D, B)
-    n = len(base.primes)
+    B = params.bound
+    base = FactorBase(D, B)
+    n = len(base)
+    if not base.a_candidates:
+        raise FormkitError(
+            f"D = {D} is too small for the sieve (no split prime in [30, {B}]); use 'enumeration'"
+        )
     stats.factor_base, stats.bound = n, B
     est = class_number_estimate(D)
     lower, upper = int(est.lower), int(est.upper)
     ops = _Ops(D, BSGSStatistics())
     rng = random.Random(seed)
-    limit = max_relations if max_relations is not None else 10 * n + 200
-    rows: list[dict[int, int]] = []
-    gen = _relation_rows(D, base, ops, max(2, n), rng, stats)
-    target = n + 10
+    limit = max_relations if max_relations is not None else 20 * n + 500
+    primes = np.array(base.primes, dtype=np.int64)
+    col = _Collector()
+    # a ramified P_p is its own inverse: 2·[P_p] = 0 (the sieve sees only the parity of its exponent)
+    for p in sorted(base.ramified):
+        col.add(Relation(((base.index[p], 2),)))
+    db = RelationStore(store, D, B) if store is not None else None
+    done: set[int] = set()
+    if db is not None:
+        stored = db.relations()
+        for r in stored:
+            col.add(r)
+        done = db.done_tasks()
+        stats.resumed, stats.tasks_resumed = len(stored), len(done)
+    stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers)
     Q = None
-    with progress_bar(total=limit, desc="relations", unit="rel") as bar:
-        while len(rows) < limit:
-            rows.append(next(gen))
-            bar.update(1)
-            if len(rows) < target:
-                continue
-            Q = lattice_quotient(rows, ncols=n)
-            h = Q.order if Q.is_finite else 0
-            if h and lower <= h <= upper and h < 2 * max(1, lower):
-                break
-            target = len(rows) + max(5, n // 10)
-        else:
-            raise FormkitError(
-                f"the subexponential method did not pin down h(D) for D = {D} within {limit} relations "
-                f"(factor base of {n} prime forms up to {B}); use method 'bsgs'"
-            )
-    assert Q is not None
+    want = n + 10
+    shown = 0
+    try:
+        with progress_bar(total=want, desc="relations", unit="rel") as bar:
+            while True:
+                fetched = False
+                while len(col.rows) < want or not fetched:
+                    fetched = True
+                    task, rels = next(stream)
+                    stats.tasks += 1
+                    stats.sieved += len(rels)
+                    if db is not None:
+                        db.add(rels, task)
+                    for r in rels:
+                        col.add(r)
+                    shown = _show(bar, shown, len(col.rows), want)
+                fresh = []
+                for i in range(n):
+                    if i in col.covered:
+                        continue
+                    w = _express(base, ops, i, rng, 100_000)
+                    if w is None:
+                        raise FormkitError(f"no relation found for the prime form of norm {base.primes[i]}")
+                    stats.expressed += 1
+                    fresh.append(w)
+                    col.add(w)
+                if db is not None and fresh:
+                    db.add(fresh)
+                shown = _show(bar, shown, len(col.rows), want)
+                Q = lattice_quotient(col.rows, ncols=n)
+                h = Q.order if Q.is_finite else 0
+                if h and lower <= h <= upper and h < 2 * max(1, lower):
+                    break
+                if len(col.rows) >= limit:
+                    raise FormkitError(
+                        f"the subexponential method did not pin down h(D) for D = {D} within {limit} "
+                        f"relations (factor base of {n} prime forms up to {B}); use method 'bsgs'"
+                    )
+                want = len(col.rows) + max(10, n // 10)
+    finally:
+        stream.close()
+        if db is not None:
+            db.close()
+    stats.full, stats.combined = col.full, col.combined
     h = Q.order
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",
-        f"{len(rows)} relations ({stats.full} full, {stats.combined} from large-prime pairs, {stats.trials} trials)",
+        f"{len(col.rows)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
+        f"large-prime pairs, {stats.expressed} by random walks"
+        + (f"; {stats.resumed} read back from the store)" if db is not None else ")"),
         f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{lower},"
         " so the relation lattice is the full lattice",
     ]
-    gens_vec = Q.generators
     invariants = tuple(d for d in Q.invariants if d != 1)
 
     def power_product(vec) -> Triple:
@@ -285,28 +447,27 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
                 x = ops.mul(x, ops.pow(base.forms[j], int(k)))
         return (int(x[0]), int(x[1]), int(x[2]))
 
-    generators = [power_product(v) for v in gens_vec]
+    generators = [power_product(v) for v in Q.generators]
 
     def canonical(x: Triple) -> Triple:
         a, b, c = ops.reduce(int(x[0]), int(x[1]), int(x[2]))
         return (int(a), int(b), int(c))
 
     drng = random.Random(seed + 1)
+    small = min(n, 20)
 
     def dlog(x: Triple) -> tuple[int, ...]:
         """Coordinates of ``x``: randomise ``x·∏P^r`` until its reduced form is smooth."""
-        small = min(n, 20)
         for _ in range(100000):
             r = {drng.randrange(small): drng.randrange(1, max(2, h)) for _ in range(3)}
             y = canonical(x)
             for j, k in r.items():
                 y = ops.mul(y, ops.pow(base.forms[j], k))
-            a, b, _c = int(y[0]), int(y[1]), int(y[2])
-            got = base.split(a)
-            if got is None or got[1] != 1:
+            exps = _smooth(int(y[0]), primes)
+            if exps is None:
                 continue
             vec = [0] * n
-            for i, k in base.signed(b, got[0]).items():
+            for i, k in base.signed(int(y[1]), exps).items():
                 vec[i] += k
             for j, k in r.items():
                 vec[j] -= k
@@ -323,6 +484,14 @@ def class_group_subexponential(D: object, *, seed: int = 0, max_relations: int |
         provenance=Provenance("subexponential", False, "GRH", B, detail),
         forms=None,
     )
+
+
+def _show(bar, shown: int, found: int, needed: int) -> int:
+    """Advance the progress bar to ``found`` relations and show ``found/needed``."""
+    if found > shown:
+        bar.update(found - shown)
+    bar.set_postfix_str(f"{found}/{needed} relations")
+    return max(shown, found)
 
 
 def _identity(D: int) -> Triple:
