@@ -131,9 +131,9 @@ def _bessel_terms_needed(alpha: float, mu: float, log_tol: float) -> tuple[int, 
     while True:
         rho = (1 + 1 / (N + 1)) ** E * math.exp(-alpha)
         if rho < 0.9:
-            tail = math.exp(log_b(N + 1)) / (1 - rho)
-            if tail == 0 or math.log(tail) < log_tol:
-                return N, tail * (1 + 1e-9)
+            log_tail = log_b(N + 1) - math.log(1 - rho)  # in logs: e^(−745) underflows
+            if log_tail < log_tol:
+                return N, math.exp(log_tail) * (1 + 1e-9)
         N += 1
         if N > 100_000:  # pragma: no cover - alpha ≥ π√3 makes this impossible
             raise ArithmeticError("Bessel series does not converge")
@@ -163,13 +163,17 @@ def _bessel_k(x, nu):
         mu_b = abs(arb(nu.mid())) + nu_rad_b
 
     def k_at(bits: int):
+        # K_ν(x) = √π·(2x)^ν·e^(−x)·U(ν + ½, 2ν + 1, 2x) (DLMF 10.39.6): flint's own K_ν
+        # runs for minutes at some (precision, x) (e.g. 1400 bits at x ≈ 300), its U does not
         with ctx.workprec(bits):
-            return acb(xm).bessel_k(num) if isinstance(num, acb) else xm.bessel_k(num)
+            n = acb(num)
+            two_x = acb(2 * xm)
+            k = arb.pi().sqrt() * two_x**n * (-xm).exp() * two_x.hypgeom_u(n + arb(1) / 2, 2 * n + 1)
+            return k if isinstance(num, acb) else k.real
 
     value = k_at(ctx.prec)
     if value.rel_accuracy_bits() < ctx.prec - 12:
-        # flint's series for moderate x cancels about 2x/log 2 bits: ask for that many more
-        value = k_at(ctx.prec + int(2.9 * float(xm)) + 20)
+        value = k_at(2 * ctx.prec - value.rel_accuracy_bits() + 20)
     # the bounds decrease in x: evaluate them (in ball arithmetic) at the left end x_lo of the ball
     x_lo = xm - x_rad_b
     if not x_lo > 0:  # pragma: no cover - x ≥ π√3
