@@ -71,7 +71,7 @@ from .balls import (
 )
 from .l_series import _error_ball, _series_value
 
-__all__ = ["epstein_zeta", "KroneckerLimit", "kronecker_limit"]
+__all__ = ["epstein_cost", "epstein_zeta", "KroneckerLimit", "kronecker_limit"]
 
 
 def _definite(form: FormLike) -> Form:
@@ -258,6 +258,41 @@ def _epstein_ball(a: int, b: int, c: int, s: ComplexArgument, digits: int, extra
         return first_two + third, N
 
 
+def epstein_cost(form: FormLike, s: object, digits: int) -> tuple[float, float, int]:
+    """``(seconds, bytes, N)`` estimated for :func:`epstein_zeta`, ``N`` its K-Bessel terms.
+
+    The two ζ-values are priced by :func:`formkit.analytic.l_series.series_cost`; each
+    K-Bessel term costs about ``10⁻⁴ + 4·10⁻⁹·b²`` s at ``b`` bits (one confluent
+    hypergeometric ``U`` and the divisor sum: 0.05 s at 3400 bits), and ``N`` is the
+    count :func:`epstein_zeta` chooses (about ``b·log 2/(π√|D|/a)``, fewer for larger
+    ``|D|``).  Checked against an instrumented run in
+    ``tests/analytic/test_analytic_cost.py``.
+
+    Examples
+    --------
+    >>> t, m, N = epstein_cost((1, 1, 6), 2, 1000)
+    >>> 100 < N < 200, t < 1800
+    (True, True)
+    """
+    from .l_series import series_cost
+
+    R = reduced(_definite(form))
+    s = as_complex_argument(s)
+    digits = check_digits(digits)
+    absD = -R.discriminant
+    bits = bits_for(digits) + int(math.pi * abs(float(s.imag)) / (2 * math.log(2))) + 30
+    mu = abs(float(s.real) - 0.5)
+    alpha = math.pi * math.sqrt(absD) / R.a
+    N, _tail = _bessel_terms_needed(alpha, mu, -bits * math.log(2))
+    seconds = N * (1e-4 + 4e-9 * bits * bits)
+    memory = 10.0**6
+    for u in (s * 2, s * 2 - 1 if s.real >= Fraction(1, 2) else 2 - s * 2):
+        if not (u.is_integer and u.real <= 1):
+            t, m = series_cost(1, u, digits + bits // 30)
+            seconds, memory = seconds + t, max(memory, m)
+    return seconds, memory, N
+
+
 def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedValue:
     """The Epstein zeta function ``Z_Q(s) = Σ_{(x,y) ≠ (0,0)} Q(x, y)^(−s)``, continued to ``s ≠ 1``.
 
@@ -318,6 +353,15 @@ def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedVal
             0,
             exact,
         )
+    from ..core.budget import check_cost
+
+    seconds, memory, terms = epstein_cost(Q, s, digits)
+    check_cost(
+        f"Z_Q(s) for Q = {Q.to_list()} at s = {s} to {digits} digits ({terms} K-Bessel terms and two ζ-values)",
+        seconds=seconds,
+        memory=memory,
+        further="fewer --digits reach further",
+    )
     R = reduced(Q)
     a, b, c = R.a, R.b, R.c
     extra = 0
