@@ -71,7 +71,7 @@ from .balls import (
 )
 from .l_series import _error_ball, _series_value
 
-__all__ = ["epstein_zeta", "KroneckerLimit", "kronecker_limit"]
+__all__ = ["epstein_cost", "epstein_zeta", "KroneckerLimit", "kronecker_limit"]
 
 
 def _definite(form: FormLike) -> Form:
@@ -131,9 +131,9 @@ def _bessel_terms_needed(alpha: float, mu: float, log_tol: float) -> tuple[int, 
     while True:
         rho = (1 + 1 / (N + 1)) ** E * math.exp(-alpha)
         if rho < 0.9:
-            tail = math.exp(log_b(N + 1)) / (1 - rho)
-            if tail == 0 or math.log(tail) < log_tol:
-                return N, tail * (1 + 1e-9)
+            log_tail = log_b(N + 1) - math.log(1 - rho)  # in logs: e^(−745) underflows
+            if log_tail < log_tol:
+                return N, math.exp(log_tail) * (1 + 1e-9)
         N += 1
         if N > 100_000:  # pragma: no cover - alpha ≥ π√3 makes this impossible
             raise ArithmeticError("Bessel series does not converge")
@@ -163,13 +163,17 @@ def _bessel_k(x, nu):
         mu_b = abs(arb(nu.mid())) + nu_rad_b
 
     def k_at(bits: int):
+        # K_ν(x) = √π·(2x)^ν·e^(−x)·U(ν + ½, 2ν + 1, 2x) (DLMF 10.39.6): flint's own K_ν
+        # runs for minutes at some (precision, x) (e.g. 1400 bits at x ≈ 300), its U does not
         with ctx.workprec(bits):
-            return acb(xm).bessel_k(num) if isinstance(num, acb) else xm.bessel_k(num)
+            n = acb(num)
+            two_x = acb(2 * xm)
+            k = arb.pi().sqrt() * two_x**n * (-xm).exp() * two_x.hypgeom_u(n + arb(1) / 2, 2 * n + 1)
+            return k if isinstance(num, acb) else k.real
 
     value = k_at(ctx.prec)
     if value.rel_accuracy_bits() < ctx.prec - 12:
-        # flint's series for moderate x cancels about 2x/log 2 bits: ask for that many more
-        value = k_at(ctx.prec + int(2.9 * float(xm)) + 20)
+        value = k_at(2 * ctx.prec - value.rel_accuracy_bits() + 20)
     # the bounds decrease in x: evaluate them (in ball arithmetic) at the left end x_lo of the ball
     x_lo = xm - x_rad_b
     if not x_lo > 0:  # pragma: no cover - x ≥ π√3
@@ -254,6 +258,41 @@ def _epstein_ball(a: int, b: int, c: int, s: ComplexArgument, digits: int, extra
         return first_two + third, N
 
 
+def epstein_cost(form: FormLike, s: object, digits: int) -> tuple[float, float, int]:
+    """``(seconds, bytes, N)`` estimated for :func:`epstein_zeta`, ``N`` its K-Bessel terms.
+
+    The two ζ-values are priced by :func:`formkit.analytic.l_series.series_cost`; each
+    K-Bessel term costs about ``10⁻⁴ + 4·10⁻⁹·b²`` s at ``b`` bits (one confluent
+    hypergeometric ``U`` and the divisor sum: 0.05 s at 3400 bits), and ``N`` is the
+    count :func:`epstein_zeta` chooses (about ``b·log 2/(π√|D|/a)``, fewer for larger
+    ``|D|``).  Checked against an instrumented run in
+    ``tests/analytic/test_analytic_cost.py``.
+
+    Examples
+    --------
+    >>> t, m, N = epstein_cost((1, 1, 6), 2, 1000)
+    >>> 100 < N < 200, t < 1800
+    (True, True)
+    """
+    from .l_series import series_cost
+
+    R = reduced(_definite(form))
+    s = as_complex_argument(s)
+    digits = check_digits(digits)
+    absD = -R.discriminant
+    bits = bits_for(digits) + int(math.pi * abs(float(s.imag)) / (2 * math.log(2))) + 30
+    mu = abs(float(s.real) - 0.5)
+    alpha = math.pi * math.sqrt(absD) / R.a
+    N, _tail = _bessel_terms_needed(alpha, mu, -bits * math.log(2))
+    seconds = N * (1e-4 + 4e-9 * bits * bits)
+    memory = 10.0**6
+    for u in (s * 2, s * 2 - 1 if s.real >= Fraction(1, 2) else 2 - s * 2):
+        if not (u.is_integer and u.real <= 1):
+            t, m = series_cost(1, u, digits + bits // 30)
+            seconds, memory = seconds + t, max(memory, m)
+    return seconds, memory, N
+
+
 def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedValue:
     """The Epstein zeta function ``Z_Q(s) = Σ_{(x,y) ≠ (0,0)} Q(x, y)^(−s)``, continued to ``s ≠ 1``.
 
@@ -314,6 +353,15 @@ def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedVal
             0,
             exact,
         )
+    from ..core.budget import check_cost
+
+    seconds, memory, terms = epstein_cost(Q, s, digits)
+    check_cost(
+        f"Z_Q(s) for Q = {Q.to_list()} at s = {s} to {digits} digits ({terms} K-Bessel terms and two ζ-values)",
+        seconds=seconds,
+        memory=memory,
+        further="fewer --digits reach further",
+    )
     R = reduced(Q)
     a, b, c = R.a, R.b, R.c
     extra = 0

@@ -286,6 +286,8 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
     (-1, 0, 13)
     >>> parse_form_text("(2, -1, 3)")
     (2, -1, 3)
+    >>> parse_form_text("1, 0, 10^30")
+    (1, 0, 1000000000000000000000000000000)
     >>> parse_form_text("__import__('os')")
     Traceback (most recent call last):
     ...
@@ -308,7 +310,20 @@ def parse_form_text(text: object) -> tuple[int, int, int]:
             raise ParseError(f"cannot read {s!r} as a form: unbalanced brackets")
         return tuple(_digits_to_int(g) for g in m.groups())  # type: ignore[return-value]
     if "," in s:
-        parts = s.strip("[]()").split(",")
+        inner = s
+        if len(s) >= 2 and {"[": "]", "(": ")"}.get(s[0]) == s[-1]:
+            inner = s[1:-1]
+        parts = inner.split(",")
+        if len(parts) == 3:
+            # coefficients written in the integer syntax of parse_integer ("1,0,10^30"),
+            # with its size bound checked before anything is computed
+            coefficients = []
+            for name, part in zip("abc", parts):
+                try:
+                    coefficients.append(parse_integer(part, f"coefficient {name}"))
+                except ParseError as exc:
+                    raise ParseError(f"cannot read {s!r} as a form: {exc}") from None
+            return coefficients[0], coefficients[1], coefficients[2]
         raise ParseError(
             f"cannot read {s!r} as a form: expected exactly three integers a,b,c "
             f"(optionally in [ ] or ( )), found {len(parts)} comma-separated parts"

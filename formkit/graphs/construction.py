@@ -255,15 +255,21 @@ def generating_primes(D: object, group: ClassGroup | None = None) -> list[int]:
             H = _close(G, H, G.prime_form(q))
         return len(H) == G.order
 
+    from ..core.budget import current_budget
+
+    # each try closes up to `rank` subgroups of up to h classes (about 3·10⁻⁴ s a class,
+    # cayley_graph_cost's constant): at most 3000 tries, and no more than the time budget allows
+    _check_cayley_cost(G, rank, None)
+    most = min(3000.0, max(1.0, current_budget().seconds / (2 * 3e-4 * G.order * rank)))
     tried = 0
     for m in range(rank, len(usable) + 1):
         for head in itertools.combinations(usable[: m - 1], rank - 1):
             tried += 1
-            if tried > 3000:  # give up the minimal search: greedy below
+            if tried > most:  # give up the minimal search: greedy below
                 break
             if generates((*head, usable[m - 1])):
                 return [*head, usable[m - 1]]
-        if tried > 3000:
+        if tried > most:
             break
     H = identity
     out: list[int] = []

@@ -358,3 +358,13 @@ def test_number_errors_name_the_value_and_the_rule():
         parse_integer("2^-1", "D")
     with pytest.raises(ParseError, match=r"unexpected '\(' at position 1"):
         parse_integer("2(3)")
+
+
+def test_form_coefficients_in_the_integer_syntax():
+    # the coefficients of a,b,c follow parse_integer's syntax and its size bound (common practice, no source)
+    from formkit.core.parse import parse_form_text as _pft
+
+    assert _pft("1, 0, 10^30") == (1, 0, 10**30)
+    assert _pft("[-(2^3), 1, 3*5]") == (-8, 1, 15)
+    with pytest.raises(ParseError, match="coefficient c"):
+        _pft("1,0,10^10^10")

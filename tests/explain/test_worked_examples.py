@@ -461,3 +461,16 @@ def test_explain_represent_lists_the_orbit_representatives_of_represent(form, n)
     a, b, c = form
     assert sorted(map(tuple, ex.data["solutions"])) == sorted(res.orbits)
     assert all(a * x * x + b * x * y + c * y * y == n for x, y in res.orbits)
+
+
+def test_worked_group_refuses_a_huge_class_number_in_one_line():
+    # h(-4·10^20 - 3)-sized groups cannot be listed class by class; the refusal names the count
+    # (common practice, no source)
+    import pytest
+
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+    from formkit.explain.class_group import worked_class_group
+
+    with budget("1s"), pytest.raises(BudgetError, match="visit all"):
+        worked_class_group(-(10**12) - 3)
