@@ -132,16 +132,22 @@ def _fraction(text: str, whole: str) -> Fraction:
 def _parse(text: str) -> ComplexArgument:
     t = text.strip().replace(" ", "")
     if not t or len(t) > 2000:
-        raise FormkitError(f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not")
+        raise FormkitError(
+            f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not"
+        )
     re_part, im_part = Fraction(0), Fraction(0)
     pos, seen_re, seen_im = 0, False, False
     while pos < len(t):
         m = _TERM.match(t, pos)
         if not m or m.end() == pos or (pos > 0 and not m.group(1)):
-            raise FormkitError(f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not")
+            raise FormkitError(
+                f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not"
+            )
         sign, number, unit = m.groups()
         if number is None and unit is None:
-            raise FormkitError(f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not")
+            raise FormkitError(
+                f"s must be a number such as 2, -3, 0.5, 1/2 or 1/2+14.13i; {text.strip()!r} is not"
+            )
         value = _fraction(number, text) if number else Fraction(1)
         if sign == "-":
             value = -value
