@@ -73,7 +73,7 @@ from ..core.forms import Form
 from ..core.polynomials_mod_p import root_count_mod_prime
 from ..core.progress import announces_slowness, progress_bar
 from ..errors import DiscriminantError, FormkitError
-from .class_polynomials import _check_negative, _reduced_forms, _split_check
+from .class_polynomials import _check_negative, _polynomial_text, _reduced_forms, _split_check
 from .weber_even import (
     _even_ball_product,
     even_weber_description,
@@ -298,15 +298,7 @@ class WeberPolynomial:
         }
 
     def _text(self, latex: bool = False) -> str:
-        n, out = self.degree, ""
-        for i, c in enumerate(self.coefficients):
-            e = n - i
-            if c == 0:
-                continue
-            mono = "" if e == 0 else "x" if e == 1 else (f"x^{{{e}}}" if latex else f"x^{e}")
-            body = (str(abs(c)) if (abs(c) != 1 or e == 0) else "") + mono
-            out = (("-" if c < 0 else "") + body) if not out else out + f" {'-' if c < 0 else '+'} {body}"
-        return out or "0"
+        return _polynomial_text(self.coefficients, latex)
 
     def __str__(self) -> str:
         return self._text()

@@ -225,19 +225,7 @@ class ClassPolynomial:
         }
 
     def _text(self, latex: bool = False) -> str:
-        n = self.degree
-        out = ""
-        for i, c in enumerate(self.coefficients):
-            e = n - i
-            if c == 0:
-                continue
-            mono = "" if e == 0 else "x" if e == 1 else (f"x^{{{e}}}" if latex else f"x^{e}")
-            body = (str(abs(c)) if (abs(c) != 1 or e == 0) else "") + mono
-            if not out:
-                out = ("-" if c < 0 else "") + body
-            else:
-                out += f" {'-' if c < 0 else '+'} {body}"
-        return out or "0"
+        return _polynomial_text(self.coefficients, latex)
 
     def __str__(self) -> str:
         return self._text()
@@ -351,6 +339,19 @@ def _check_class_polynomial_cost(D: int, verify: bool, further: str | None) -> N
         memory=memory,
         further=further or _DEFAULT_FURTHER,
     )
+
+
+def _polynomial_text(coefficients, latex: bool = False) -> str:
+    """An integer polynomial, leading coefficient first, as text (``x^{e}`` with ``latex``)."""
+    n, out = len(coefficients) - 1, ""
+    for i, c in enumerate(coefficients):
+        e = n - i
+        if c == 0:
+            continue
+        mono = "" if e == 0 else "x" if e == 1 else (f"x^{{{e}}}" if latex else f"x^{e}")
+        body = (str(abs(c)) if (abs(c) != 1 or e == 0) else "") + mono
+        out = (("-" if c < 0 else "") + body) if not out else out + f" {'-' if c < 0 else '+'} {body}"
+    return out or "0"
 
 
 @lru_cache(maxsize=64)

@@ -63,7 +63,13 @@ from ..core.discriminants import discriminant_parts
 from ..core.forms import Form
 from ..core.progress import announces_slowness, progress_bar
 from ..errors import DiscriminantError, FormkitError
-from .class_polynomials import _check_negative, _leading_term_bits, _reduced_forms, _split_check
+from .class_polynomials import (
+    _check_negative,
+    _leading_term_bits,
+    _polynomial_text,
+    _reduced_forms,
+    _split_check,
+)
 
 __all__ = ["DoubleEtaPolynomial", "double_eta_pair", "double_eta_polynomial", "double_eta_gain"]
 
@@ -256,15 +262,7 @@ class DoubleEtaPolynomial:
         }
 
     def _text(self) -> str:
-        n, out = self.degree, ""
-        for i, c in enumerate(self.coefficients):
-            e = n - i
-            if c == 0:
-                continue
-            mono = "" if e == 0 else "x" if e == 1 else f"x^{e}"
-            body = (str(abs(c)) if (abs(c) != 1 or e == 0) else "") + mono
-            out = (("-" if c < 0 else "") + body) if not out else out + f" {'-' if c < 0 else '+'} {body}"
-        return out or "0"
+        return _polynomial_text(self.coefficients)
 
     def __str__(self) -> str:
         return self._text()
