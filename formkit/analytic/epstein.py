@@ -357,7 +357,7 @@ def epstein_zeta(form: FormLike, s: object, *, digits: int = 30) -> CertifiedVal
 
     seconds, memory, terms = epstein_cost(Q, s, digits)
     check_cost(
-        f"Z_Q(s) for Q = {Q.to_list()} at s = {s} to {digits} digits ({terms} K-Bessel terms and two ζ-values)",
+        f"Z_Q(s) for Q = ({Q.a}, {Q.b}, {Q.c}) at s = {s} to {digits} digits ({terms} K-Bessel terms and two ζ-values)",
         seconds=seconds,
         memory=memory,
         further="fewer --digits reach further",

@@ -12,6 +12,9 @@ References
 ----------
 .. [1] L. C. Washington, *Introduction to Cyclotomic Fields*, 2nd ed., GTM 83, §4.1.
 .. [2] H. Cohen, *Number Theory, Volume II*, GTM 240, §9.4 and §10.3 (from memory).
+.. [3] R. P. Brent, D. Harvey, "Fast computation of Bernoulli, tangent and secant
+       numbers", in *Computational and Analytical Mathematics*, Springer 2013, 127–142
+       (the tangent-number algorithm; from memory).
 """
 
 from __future__ import annotations
@@ -36,13 +39,35 @@ __all__ = [
 # ---------------------------------------------------------------------------------------
 
 
+def _tangent_numbers(n: int) -> list[int]:
+    """The tangent numbers ``T_1, …, T_n`` (``tan x = Σ T_k x^(2k−1)/(2k−1)!``: 1, 2, 16, 272, …).
+
+    Brent and Harvey's in-place algorithm [3] (Algorithm TangentNumbers): ``O(n²)``
+    additions and multiplications of integers by small integers, no division.
+    """
+    T = [0] * (n + 1)
+    if n >= 1:
+        T[1] = 1
+    for k in range(2, n + 1):
+        T[k] = (k - 1) * T[k - 1]
+    for k in range(2, n + 1):
+        for j in range(k, n + 1):
+            T[j] = (j - k) * T[j - 1] + (j - k + 2) * T[j]
+    return T
+
+
 @lru_cache(maxsize=8)
 def _bernoulli_list(n: int) -> tuple[Fraction, ...]:
-    """``B_0, …, B_n`` (``B_1 = −1/2``) from ``Σ_{j<m+1} C(m+1, j)·B_j = 0``."""
-    B = [Fraction(1)]
-    for m in range(1, n + 1):
-        s = sum((math.comb(m + 1, j) * B[j] for j in range(m)), Fraction(0))
-        B.append(-s / (m + 1))
+    """``B_0, …, B_n`` (``B_1 = −1/2``): ``B_{2k} = (−1)^(k−1)·2k·T_k/(4^k(4^k − 1))`` from the
+    tangent numbers (Brent–Harvey [3], §2), ``B_j = 0`` for odd ``j ≥ 3``."""
+    T = _tangent_numbers(n // 2)
+    B = [Fraction(0)] * (n + 1)
+    B[0] = Fraction(1)
+    if n >= 1:
+        B[1] = Fraction(-1, 2)
+    for k in range(1, n // 2 + 1):
+        four = 4**k
+        B[2 * k] = Fraction((-1) ** (k - 1) * 2 * k * T[k], four * (four - 1))
     return tuple(B)
 
 
@@ -67,7 +92,7 @@ def generalised_bernoulli_cost(D: int, k: int) -> tuple[float, float]:
 
     With ``F = |D|``: ``1.5·10⁻⁶·F`` s for the character values, ``F·(k+1)·(2·10⁻⁷ +
     5·10⁻¹¹·k·log₂F)`` s for the power sums ``Σ χ(a)·a^m`` (integers of ``k·log₂F``
-    bits), ``1.8·10⁻⁸·k³`` s for ``B_0 … B_k`` by the recurrence (unless cached), and
+    bits), ``1.2·10⁻¹⁰·k³`` s for ``B_0 … B_k`` from the tangent numbers (unless cached), and
     the ``k+1`` power sums and Bernoulli numbers in memory.  Measured on the development
     machine at (F, k) = (10⁵, 1), (10⁵, 10), (10⁴, 100), (10³, 1000): within a factor 2
     (checked by ``tests/analytic/test_analytic_cost.py``).
@@ -82,7 +107,7 @@ def generalised_bernoulli_cost(D: int, k: int) -> tuple[float, float]:
     F = abs(int(D))
     k = int(k)
     log_f = max(1.0, F.bit_length())
-    seconds = 1.5e-6 * F + F * (k + 1) * (2e-7 + 5e-11 * k * log_f) + 1.8e-8 * k**3
+    seconds = 1.5e-6 * F + F * (k + 1) * (2e-7 + 5e-11 * k * log_f) + 1.2e-10 * k**3
     memory = 2 * (k + 1) * (k * log_f / 8 + 64) + 10**6
     return seconds, memory
 

@@ -75,8 +75,9 @@ def test_bernoulli_cost_grows_like_d_times_k_and_refuses():
 def test_refusals_name_the_cost_before_any_work():
     with budget("30m"), pytest.raises(BudgetError, match="27123609 series terms"):
         l_series(-(10**12) - 3, 2, digits=1000)
-    with budget("1s"), pytest.raises(BudgetError, match="K-Bessel"):
+    with budget("1s"), pytest.raises(BudgetError, match="K-Bessel") as refused:
         epstein_zeta((1, 1, 6), 2, digits=1000)
+    assert "Q = (1, 1, 6)" in str(refused.value)  # forms are written (a, b, c) in sentences
 
 
 def test_high_precision_values_agree_with_mpmath():

@@ -126,6 +126,21 @@ def test_bernoulli_numbers_against_sympy():
     for k in (0, 2, 3, 4, 10, 12, 30):
         assert bernoulli_number(k) == Fraction(str(sympy.bernoulli(k))), k
     assert bernoulli_number(1) == Fraction(-1, 2)
+    # every B_k to 400 (the tangent-number algorithm) against sympy's, an outside reference
+    for k in range(2, 401):
+        assert bernoulli_number(k) == Fraction(str(sympy.bernoulli(k))), k
+
+
+def test_tangent_numbers_against_the_taylor_series_of_tan():
+    # T_k = (2k − 1)!·[x^(2k−1)] tan x; 1, 2, 16, 272, 7936, 353792 (from memory), and sympy's series
+    from formkit.analytic.special_values import _tangent_numbers
+
+    T = _tangent_numbers(12)
+    assert T[1:7] == [1, 2, 16, 272, 7936, 353792]
+    x = sympy.Symbol("x")
+    series = sympy.series(sympy.tan(x), x, 0, 24).removeO()
+    for k in range(1, 13):
+        assert T[k] == series.coeff(x, 2 * k - 1) * sympy.factorial(2 * k - 1), k
 
 
 def test_generalised_bernoulli_two_ways_and_mpmath():
