@@ -149,3 +149,41 @@ def test_local_densities_against_brute_force():
                 assert local_density(Q, p, n) == count(Q, p, n, k) == count(Q, p, n, k + 1), (Q, p, n)
                 checked += 1
     assert checked > 300
+
+
+def test_dirichlet_convolution_against_brute_force_and_its_counted_work():
+    # a(n) = Σ_{d|n} χ_{d1}(d)χ_{d2}(n/d) by the hyperbola method, against the divisor sum
+    # itself (brute force, sympy's divisors and kronecker_symbol as outside references)
+    import math
+
+    import sympy
+
+    from formkit.classgroups.genus_theta import _dirichlet_convolution
+
+    for d1, d2, N in ((1, -20, 500), (-4, 5, 500), (-3, -7, 401), (5, -3, 2)):
+        a = _dirichlet_convolution(d1, d2, N)
+        for n in range(1, N + 1):
+            want = sum(
+                sympy.kronecker_symbol(d1, d) * sympy.kronecker_symbol(d2, n // d) for d in sympy.divisors(n)
+            )
+            assert a[n] == want, (d1, d2, n)
+    # the multiply-adds the cost model prices as N·(ln N + 1): the two hyperbola halves
+    for N in (10, 1000, 10**6):
+        r = math.isqrt(N)
+        work = sum(N // d for d in range(1, r + 1)) + sum(max(0, N // e - r) for e in range(1, r + 1))
+        assert work <= N * (math.log(N) + 1) <= 2 * work
+
+
+def test_genus_decomposition_is_priced_and_refused_past_the_budget():
+    from formkit.classgroups.genus_theta import genus_theta_cost
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+
+    small, _ = genus_theta_cost((1, 0, 5), 10**4)
+    large, memory = genus_theta_cost((1, 0, 5), 10**8)
+    assert large > 5000 * small and memory > 8 * 10**8  # about N·log N, 5 arrays of N int64
+    with (
+        budget("1s"),
+        pytest.raises(BudgetError, match=r"genus decomposition .* \(1, 0, 5\) up to q\^100000000"),
+    ):
+        theta_decomposition((1, 0, 5), 10**8)
