@@ -12,10 +12,10 @@ from .conventions import add_limit_options, form_text, limit_of
 def _digits(args: argparse.Namespace) -> int:
     from .conventions import CommandError
 
-    try:
-        return parse_integer(args.digits, "--digits")
-    except Exception as exc:
-        raise CommandError(f"--digits must be a positive integer, not {args.digits!r}") from exc
+    digits = parse_integer(args.digits, "--digits")  # a ParseError names the syntax or the size bound
+    if digits < 1:
+        raise CommandError(f"--digits must be a positive integer, not {args.digits!r}")
+    return digits
 
 
 def _value_lines(v, name: str) -> list[str]:

@@ -30,6 +30,8 @@ __all__ = [
     "plural",
     "form_text",
     "NUMBER_SYNTAX",
+    "NUMBER_SYNTAX_SHORT",
+    "add_number_syntax_epilog",
 ]
 
 #: One paragraph on how numbers and discriminants are written, shown by ``formkit --help``.
@@ -43,6 +45,28 @@ NUMBER_SYNTAX = (
     "'Q(sqrt(m)), f=F' or the option --conductor F gives the order of conductor F in that field "
     "(beside a fundamental discriminant too: -3 --conductor 6 is D = -108)."
 )
+
+
+#: The line that ends every command's ``--help``: where the number syntax applies and its bound.
+NUMBER_SYNTAX_SHORT = (
+    "numbers: every integer argument (D, N, the a,b,c of a form, --bound, --digits, ...) is "
+    "written with + - * ^ (or **) and parentheses, e.g. -4*3*10^2, 2^64+1, -(10^40+27); "
+    f"at most {MAX_INTEGER_BITS} bits, checked before anything is computed (formkit --help "
+    "gives the rules)"
+)
+
+
+def add_number_syntax_epilog(parser: argparse.ArgumentParser) -> None:
+    """Append :data:`NUMBER_SYNTAX_SHORT` to the epilog of ``parser`` and of its sub-commands."""
+    import textwrap
+
+    line = textwrap.fill(NUMBER_SYNTAX_SHORT, width=78)
+    for action in parser._actions:
+        if isinstance(action, argparse._SubParsersAction):
+            for child in action.choices.values():
+                add_number_syntax_epilog(child)
+    if parser.prog.split()[-1] != "formkit":
+        parser.epilog = f"{parser.epilog}\n\n{line}" if parser.epilog else line
 
 
 class CommandError(FormkitError):

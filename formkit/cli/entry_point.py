@@ -21,7 +21,7 @@ from .._version import __version__
 from ..core.budget import BUDGET_SYNTAX, set_budget
 from ..core.progress import set_progress
 from ..errors import FormkitError
-from .conventions import NUMBER_SYNTAX, _Parser
+from .conventions import NUMBER_SYNTAX, _Parser, add_number_syntax_epilog
 
 __all__ = ["main", "build_parser"]
 
@@ -60,6 +60,7 @@ def build_parser() -> argparse.ArgumentParser:
 
     for module in (forms, groups, ideals, explain, primes, table, graph, represent, analytic):
         module.register(sub, parent)
+    add_number_syntax_epilog(parser)
     return parser
 
 

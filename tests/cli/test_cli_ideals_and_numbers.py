@@ -53,6 +53,9 @@ def test_every_discriminant_argument_reads_the_same_syntax(capsys, argv, text, D
         (["hilbert", "-5"], "the field Q(√-5) has discriminant -20"),
         (["group", "Q(sqrt(12))"], "Q(√12) is the field Q(√3)"),
         (["group", "10^10^10"], "at most 1000000 bits"),
+        (["l-value", "5", "2", "--digits", "10^10^10"], "at most 1000000 bits"),
+        (["l-value", "5", "2", "--digits", "0"], "positive integer"),
+        (["theta", "1,0,1", "--bound", "2^(3^40)"], "at most 1000000 bits"),
         (["group", "-12", "--conductor", "2"], "already has conductor 2"),
         (["ideal", "factor", "-12", "(2, 1+√-3)"], "not invertible"),
         (["ideal", "factor", "-12", "--element", "(1+√-3)/2"], "is not in the order Z[√-3]"),
@@ -115,3 +118,23 @@ def test_group_and_class_number_show_the_order(capsys):
 def test_help_describes_the_number_syntax(capsys):
     code, out, _ = run(capsys, "--help")
     assert code == 0 and "** is the same as ^" in " ".join(out.split()) and "Q(sqrt(m))" in out
+
+
+def test_every_command_help_points_to_the_number_syntax(capsys):
+    # each command's --help ends with the rule for integers and the size bound
+    import argparse
+
+    from formkit.cli.entry_point import build_parser
+
+    def commands(parser, path):
+        for action in parser._actions:
+            if isinstance(action, argparse._SubParsersAction):
+                for name, child in action.choices.items():
+                    yield [*path, name]
+                    yield from commands(child, [*path, name])
+
+    for path in commands(build_parser(), []):
+        code, out, _ = run(capsys, *path, "--help")
+        text = " ".join(out.split())
+        assert code == 0 and "numbers: every integer argument" in text, path
+        assert "at most 1000000 bits, checked before anything is computed" in text, path
