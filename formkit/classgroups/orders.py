@@ -312,9 +312,9 @@ def order_class_number(D: object, method: str = "auto", *, summaries: dict | Non
     if D < 0 or f == 1:
         index = unit_index(D) if D < 0 else 1
         norm = sK.get("fundamental_unit_norm")
-    elif sK["regulator"] < 2000 and D < 10**40:  # the units can be written out: exact index
-        index = unit_index(D)
-        norm = fundamental_unit(D).norm
+    elif sK["regulator"] < 2000 and D < 10**40:  # ε_K can be written out: the exact index
+        index = unit_index(D)  # the order of ε_K modulo f, without writing ε_K^index out
+        norm = fundamental_unit(d_K).norm ** index  # ε_O = ε_K^index
     else:
         sD = summary(D)
         ratio = sD["regulator"] / sK["regulator"]

@@ -430,12 +430,42 @@ def unit_index(D: object) -> int:
     d_K, f = discriminant_parts(D)
     if D < 0:
         return unit_count(d_K) // unit_count(D)
+    if f == 1:
+        return 1
     eK = fundamental_unit(d_K)
-    t, u = eK.t, eK.u
-    T, U = t, u
-    k = 1
-    # ε_K^k = (T + U√d_K)/2 lies in O iff f | U and T ≡ (U/f)·D (mod 2)
-    while not (U % f == 0 and (T - (U // f) * D) % 2 == 0):
-        T, U = (T * t + U * u * d_K) // 2, (T * u + U * t) // 2
-        k += 1
+    # ε_K = x + y·ω with ω = (d_K + √d_K)/2 (ω² = d_K·ω − n, n = (d_K² − d_K)/4), and
+    # O = Z + f·O_K = Z + fZ·ω: ε_K^k ∈ O iff f divides the ω-coordinate of ε_K^k.  So the
+    # index is the order of ε_K in (O_K/f)^*/(Z/f)^*, a group of order
+    # N = f·∏_{p|f}(1 − χ(p)/p) (Cox, Primes of the Form x² + ny², Lemma 7.27 — number from
+    # memory), found from N by removing prime factors while the power stays in O; the
+    # powers are taken modulo f (square and multiply), never written out.
+    n = (d_K * d_K - d_K) // 4
+
+    def mul(P: tuple[int, int], Q: tuple[int, int]) -> tuple[int, int]:
+        (x1, y1), (x2, y2) = P, Q
+        yy = y1 * y2
+        return (x1 * x2 - yy * n) % f, (x1 * y2 + x2 * y1 + yy * d_K) % f
+
+    def power_in_order(k: int) -> bool:
+        result, base = (1 % f, 0), ((eK.t - eK.u * d_K) // 2 % f, eK.u % f)
+        while k:
+            if k & 1:
+                result = mul(result, base)
+            base = mul(base, base)
+            k >>= 1
+        return result[1] == 0
+
+    N = 1
+    primes_of_N: set[int] = set()
+    for p, e in prime_factorisation(f).items():
+        N *= p ** (e - 1) * (p - kronecker(d_K, p))
+        if e > 1:
+            primes_of_N.add(p)
+        primes_of_N.update(prime_factorisation(p - kronecker(d_K, p)))
+    if not power_in_order(N):  # pragma: no cover - Lagrange's theorem in (O_K/f)^*/(Z/f)^*
+        raise ArithmeticError(f"ε_K^{N} is not in the order of discriminant {D}")
+    k = N
+    for q in sorted(primes_of_N):
+        while k % q == 0 and power_in_order(k // q):
+            k //= q
     return k

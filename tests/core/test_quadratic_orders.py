@@ -257,3 +257,35 @@ def test_norm_is_multiplicative(D, x1, y1, x2, y2):
     if a.norm:
         assert a * a.inverse() == 1 and (b / a) * a == b
     assert a.trace == Fraction(x1)
+
+
+def test_unit_index_of_real_orders_against_powers_of_the_unit():
+    # brute force: the least k with ε_K^k = (T + U√d_K)/2 in O (f | U and T ≡ (U/f)·D mod 2),
+    # multiplying the unit out, for every real non-fundamental D < 6000
+    from formkit.core.discriminants import discriminant_parts, fundamental_unit, unit_index
+
+    for D in range(5, 6000):
+        if D % 4 not in (0, 1) or math.isqrt(D) ** 2 == D:
+            continue
+        d_K, f = discriminant_parts(D)
+        if f == 1:
+            continue
+        e = fundamental_unit(d_K)
+        T, U, k = e.t, e.u, 1
+        while not (U % f == 0 and (T - (U // f) * D) % 2 == 0):
+            T, U, k = (T * e.t + U * e.u * d_K) // 2, (T * e.u + U * e.t) // 2, k + 1
+        assert unit_index(D) == k, D
+
+
+def test_unit_index_of_z_phi_orders_is_the_fibonacci_rank_of_apparition():
+    # φ^k = F_(k−1) + F_k·φ lies in Z + pZ[φ] iff p | F_k: the index of the order of conductor p
+    # in Q(√5) is the least k with p | F_k (sympy's Fibonacci numbers as the outside reference)
+    import sympy
+
+    from formkit.core.discriminants import unit_index
+
+    for p in (2, 3, 7, 11, 29, 89, 101, 1009):
+        rank = next(k for k in range(1, 2 * p + 3) if sympy.fibonacci(k) % p == 0)
+        assert unit_index(5 * p * p) == rank, p
+    # a conductor far beyond any walk of the unit (index 1000004 = p + 1, found modulo p)
+    assert unit_index(5 * 1000003**2) == 1000004
