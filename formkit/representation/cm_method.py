@@ -46,6 +46,8 @@ __all__ = [
     "cm_curve",
     "cm_j_invariants",
     "cm_prime",
+    "double_eta_cm_pair",
+    "double_eta_roots_to_j",
     "polynomial_roots_mod_prime",
 ]
 
@@ -137,7 +139,90 @@ def cm_prime(D: object, bits: object, *, seed: int = 0) -> tuple[int, int, int]:
     raise FormkitError(f"no prime 4p = t² − ({D})v² of {bits} bits found")  # pragma: no cover
 
 
-def cm_j_invariants(D: object, p: object, *, invariant: str = "weber") -> list[int]:
+def double_eta_cm_pair(D: object) -> tuple[int, int]:
+    """The pair for the CM step with a double η-quotient: the first of ``double_eta_pair``'s list
+    with ``deg_J Ψ = 2`` (``(3, 13)``, ``(5, 7)``, ``(3, 7)``, ``(3, 5)``) that suits ``D`` and
+    gives a generator (a squarefree polynomial).
+
+    Raises
+    ------
+    DiscriminantError
+        If none of these four pairs suits ``D``.
+
+    Examples
+    --------
+    >>> double_eta_cm_pair(-23), double_eta_cm_pair(-71)
+    ((3, 13), (3, 5))
+    """
+    from .double_eta import _PAIRS, _double_eta_polynomial, _NotAGenerator, _pair_applies
+    from .double_eta_modular import pole_order
+
+    D = _check_negative(D)
+    pairs = [pair for pair in _PAIRS if pole_order(*pair) == 1]
+    for pair in pairs:
+        if _pair_applies(D, *pair):
+            try:
+                _double_eta_polynomial(D, pair[0], pair[1], True)
+            except _NotAGenerator:
+                continue
+            return pair
+    raise DiscriminantError(
+        f"no double eta-quotient with a modular polynomial of degree 2 in j ({pairs}) suits D = {D} "
+        "(both primes split or ramified, not both ramified, prime to the conductor, values distinct); "
+        "use --invariant weber or j"
+    )
+
+
+def double_eta_roots_to_j(x: object, p: object, primes: tuple[int, int]) -> list[int]:
+    """The roots of ``Ψ(x, J)`` modulo ``p``: for a root ``x`` of the double η-quotient class
+    polynomial of ``D``, roots of ``H_D`` modulo ``p`` (``deg_J Ψ = 2`` pairs only).
+
+    *Why every root is a root of* ``H_D``.  Let ``x`` be ``w^s(τ_Q)`` reduced modulo a prime
+    ``𝔓`` above ``p`` of the ring class field ``L``, ``τ_Q = (−B + √D)/(2A)`` at a form
+    ``[A, B, C]`` of the N-system (``gcd(A, N) = 1``, ``N | C``).  For ``deg_J Ψ = 2`` the
+    fibre of ``f = g^s`` (:mod:`~formkit.representation.double_eta_modular`) over ``w^s(τ) =
+    f(τ/N)`` is ``{τ/N, −1/τ}`` (``f`` has degree 2 and is invariant under ``z ↦ −1/(Nz)``),
+    so ``Ψ(w^s(τ), J) = w^s(τ)^{p₁+p₂}·(J − j(τ))(J − j(τ/N))`` (the leading coefficient of
+    ``Ψ`` in ``J`` is ``X^{p₁+p₂}``, tested).  Both are CM values of discriminant ``D``:
+    ``τ/N`` is the root of ``[AN, B, C/N]``, of discriminant ``B² − 4AC = D`` and primitive
+    (a prime dividing ``AN``, ``B`` and ``C/N`` would divide ``[A, B, C]`` or have its square
+    divide ``D`` though it is at most ramified and prime to the conductor).  All are algebraic
+    integers; reducing modulo ``𝔓`` for ``x ≢ 0`` gives: the roots of ``Ψ(x, J) mod p`` are the
+    reductions of ``j(τ)`` and ``j(τ/N)``, roots of ``H_D``.  (Enge–Schertz [4] make the same
+    observation, as recalled.)  Tests compare with formkit's ``H_D`` for many ``D``.
+
+    Raises
+    ------
+    FormkitError
+        If ``x ≡ 0 (mod p)`` (the leading coefficient vanishes: take another root), or the
+        pair has ``deg_J Ψ ≠ 2``, or is not supported.
+
+    Examples
+    --------
+    >>> from formkit.representation.double_eta import double_eta_polynomial
+    >>> W = double_eta_polynomial(-23)          # x³ − x² + 1 for w_{3,13}; 4·59 = 12² + 23·2²
+    >>> xs = polynomial_roots_mod_prime(W.coefficients, 59)
+    >>> sorted({j for x in xs for j in double_eta_roots_to_j(x, 59, (3, 13))}) == cm_j_invariants(-23, 59, invariant="j")
+    True
+    """
+    from .double_eta_modular import double_eta_modular_polynomial
+
+    p = _check_prime(p)
+    x = as_int(x, "x") % p
+    Psi = double_eta_modular_polynomial(*primes)
+    if Psi.degree_j != 2:
+        raise FormkitError(
+            f"the CM step with w_{{{Psi.p1},{Psi.p2}}} (degree {Psi.degree_j} in j) is not done here: "
+            "only for the pairs (3, 5), (3, 7), (3, 13), (5, 7), whose modular polynomial has degree 2 in j"
+        )
+    if x == 0:
+        raise FormkitError(f"x = 0 (mod {p}) annuls the leading coefficient X^{Psi.p1 + Psi.p2} of Ψ(X, J)")
+    return polynomial_roots_mod_prime(Psi.specialise(x, p), p)
+
+
+def cm_j_invariants(
+    D: object, p: object, *, invariant: str = "weber", primes: tuple[int, int] | None = None
+) -> list[int]:
     """The roots of ``H_D`` modulo ``p``, sorted.
 
     With ``invariant="weber"`` (``D ≡ 1 mod 8`` or ``D = −4m``, see
@@ -145,17 +230,23 @@ def cm_j_invariants(D: object, p: object, *, invariant: str = "weber") -> list[i
     polynomial is computed, its roots modulo ``p`` are found and sent to roots of ``H_D``
     (``j = (1 − 16u)³/u²`` for odd ``D``, ``j = (F ∓ 16)³/F`` for ``D = −4m``;
     :func:`formkit.representation.class_invariants.weber_root_to_j`); with
-    ``invariant="j"`` the roots of ``H_D`` itself are found.
+    ``invariant="double-eta"`` the class polynomial of ``w_{p₁,p₂}^s`` (``primes``, default
+    :func:`double_eta_cm_pair`), its roots ``x`` modulo ``p`` and the roots of ``Ψ(x, J)``
+    (:func:`double_eta_roots_to_j`; roots ``x ≡ 0`` are skipped); with ``invariant="j"``
+    the roots of ``H_D`` itself are found.
 
     Raises
     ------
     FormkitError
-        If ``p`` is not an odd prime or ``invariant`` is neither ``"weber"`` nor ``"j"``;
-        DiscriminantError if the Weber invariant does not apply to ``D``.
+        If ``p`` is not an odd prime or ``invariant`` is not ``"weber"``, ``"double-eta"`` or
+        ``"j"``, or ``primes`` is given for another invariant; DiscriminantError if the
+        invariant does not apply to ``D``.
 
     Examples
     --------
     >>> cm_j_invariants(-23, 59) == cm_j_invariants(-23, 59, invariant="j")   # 4·59 = 12² + 23·2²
+    True
+    >>> cm_j_invariants(-71, 1367, invariant="double-eta") == cm_j_invariants(-71, 1367, invariant="j")  # 4·1367 = 72² + 71·2²
     True
     """
     from .class_invariants import weber_polynomial, weber_root_to_j
@@ -163,12 +254,22 @@ def cm_j_invariants(D: object, p: object, *, invariant: str = "weber") -> list[i
 
     D = _check_negative(D)
     p = _check_prime(p)
+    if primes is not None and invariant != "double-eta":
+        raise FormkitError(f"primes are for invariant='double-eta', not {invariant!r}")
     if invariant == "weber":
         W = weber_polynomial(D)
         return sorted({weber_root_to_j(x, p, D) for x in polynomial_roots_mod_prime(W.coefficients, p) if x})
+    if invariant == "double-eta":
+        from .double_eta import double_eta_polynomial
+
+        pair = double_eta_cm_pair(D) if primes is None else primes
+        P = double_eta_polynomial(D, pair)
+        pair = (P.p1, P.p2)
+        xs = polynomial_roots_mod_prime(P.coefficients, p)
+        return sorted({j for x in xs if x for j in double_eta_roots_to_j(x, p, pair)})
     if invariant == "j":
         return polynomial_roots_mod_prime(class_polynomial(D).coefficients, p)
-    raise FormkitError(f"invariant must be 'weber' or 'j', not {invariant!r}")
+    raise FormkitError(f"invariant must be 'weber', 'double-eta' or 'j', not {invariant!r}")
 
 
 # ---------------------------------------------------------------------------
