@@ -12,12 +12,21 @@ Atkin and Morain [2].
 * :func:`polynomial_roots_mod_prime` — the roots in ``F_p`` of an integer polynomial
   (FLINT's ``fmpz_mod_poly`` root finding: arithmetic of polynomials over ``F_p``);
 * :func:`cm_prime` — a prime of a given size with ``4p = t² − D·v²``;
-* :func:`cm_j_invariants` — the roots of ``H_D`` modulo ``p``, either directly or from
+* :func:`cm_j_invariants` — the roots of ``H_D`` modulo ``p``, either directly, or from
   the roots of the Weber polynomial through ``j = (1 − 16u)³/u²``
-  (:mod:`formkit.representation.class_invariants`);
+  (:mod:`formkit.representation.class_invariants`), or from the roots ``x`` of a double
+  η-quotient class polynomial through the roots of ``Ψ(x, J)``
+  (:func:`double_eta_roots_to_j`, :mod:`formkit.representation.double_eta_modular`; the
+  pairs of :func:`double_eta_cm_pair`, for which both roots are proved roots of ``H_D``);
 * :func:`cm_curve` — a curve ``y² = x³ + a₄x + a₆`` over ``F_p`` with ``p + 1 − t``
   points, checked by ``[p + 1 − t]P = O`` for random points ``P`` (our own arithmetic in
   Jacobian coordinates).
+
+*What is not.*  The double η-quotients whose modular polynomial has degree ``> 2`` in ``J``
+(``(5, 13)``, ``(7, 13)``, …): the extra roots of ``Ψ(x, J)`` need not be CM values of
+discriminant ``D`` and formkit does not choose among them, so these pairs are refused here.
+The point checks of :func:`cm_curve` are random (``[p + 1 − t]P = O`` at ``tries`` points),
+not a proof of the group order.
 
 References
 ----------
@@ -27,6 +36,8 @@ References
        Math. Comp. 61 (1993), 29–68 (the CM method, §3 and §5).
 .. [3] L. C. Washington, *Elliptic Curves: Number Theory and Cryptography*, 2nd ed.,
        CRC 2008, §2.2 (the group law), §2.7 (the j-invariant of y² = x³ + ax + b).
+.. [4] A. Enge, R. Schertz, "Constructing elliptic curves over finite fields using double
+       eta-quotients", J. Théor. Nombres Bordeaux 16 (2004), 555–568.
 """
 
 from __future__ import annotations
@@ -155,10 +166,10 @@ def double_eta_cm_pair(D: object) -> tuple[int, int]:
     ((3, 13), (3, 5))
     """
     from .double_eta import _PAIRS, _double_eta_polynomial, _NotAGenerator, _pair_applies
-    from .double_eta_modular import pole_order
+    from .double_eta_modular import double_eta_pole_order
 
     D = _check_negative(D)
-    pairs = [pair for pair in _PAIRS if pole_order(*pair) == 1]
+    pairs = [pair for pair in _PAIRS if double_eta_pole_order(*pair) == 1]
     for pair in pairs:
         if _pair_applies(D, *pair):
             try:

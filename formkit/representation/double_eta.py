@@ -33,11 +33,18 @@ precision is raised).  *Checks* (on by default): the root counts modulo split pr
 against the prime-form classes, as for ``H_D`` — they test that the roots generate the
 ring class field.
 
-*What is not.*  The step from a root of this polynomial to a root of ``H_D`` modulo ``p``
-needs the modular polynomial ``Ψ(w, j)`` relating ``w_{p₁,p₂}^s`` and ``j`` (of degree
-``(p₁ + 1)(p₂ + 1)`` in ``w``), which formkit does not compute; so this invariant gives the
-polynomial only, not the CM step (the command line refuses ``--roots-mod`` and
-``--cm-curve`` with it).
+*The step to* ``j``.  The modular polynomial ``Ψ(X, J)`` with ``Ψ(w^s, j) = 0``, of degree
+``(p₁ + 1)(p₂ + 1)`` in ``X`` and ``2e = s(p₁ − 1)(p₂ − 1)/12`` in ``J``, is computed exactly
+by :mod:`~formkit.representation.double_eta_modular` for the ten pairs of the list.  For the
+four pairs with ``2e = 2`` (``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)``) both roots of
+``Ψ(x, J)`` modulo ``p`` are roots of ``H_D`` for every root ``x ≢ 0`` of this polynomial,
+and :func:`formkit.representation.cm_method.cm_j_invariants` (``invariant="double-eta"``)
+and the command line (``--roots-mod``, ``--cm-curve``) take that step.
+
+*What is not.*  For the pairs with ``2e > 2`` the other ``2e − 2`` roots of ``Ψ(x, J)`` need
+not be CM values of discriminant ``D``, and formkit does not choose among them: the CM step
+refuses those pairs.  Nor the primes ``p₁ = 2`` (Enge–Schertz's conditions for them are not
+implemented).
 
 References
 ----------
@@ -204,7 +211,7 @@ def _certified_from_complex(poly: Any) -> tuple[list[int], int] | None:
 
 @dataclass(frozen=True)
 class DoubleEtaPolynomial:
-    """The class polynomial of ``w_{p₁,p₂}^s`` for ``D``, with provenance (no step to ``j``).
+    """The class polynomial of ``w_{p₁,p₂}^s`` for ``D``, with provenance.
 
     Attributes
     ----------
@@ -235,7 +242,20 @@ class DoubleEtaPolynomial:
         s = f"^{self.exponent}" if self.exponent != 1 else ""
         return f"w_{{{self.p1},{self.p2}}}{s} = (eta(z/{self.p1}) eta(z/{self.p2}) / (eta(z) eta(z/{self.p1 * self.p2}))){s}"
 
-    j_relation = "not computed: the step to j needs the modular polynomial relating w and j, which formkit does not compute"
+    @property
+    def j_relation(self) -> str:
+        """How a root ``x`` gives roots of ``H_D`` (the modular polynomial ``Ψ``), in words."""
+        s = f"^{self.exponent}" if self.exponent != 1 else ""
+        if (self.p1, self.p2) in ((3, 5), (3, 7), (3, 13), (5, 7)):
+            return (
+                f"for every root x (x ≠ 0) the two roots J of Psi(x, J), the modular polynomial of "
+                f"w_{{{self.p1},{self.p2}}}{s} and j (degree 2 in J), are roots of H_D"
+            )
+        return (
+            f"the roots of H_D are among the roots J of Psi(x, J), the modular polynomial of "
+            f"w_{{{self.p1},{self.p2}}}{s} and j, of degree > 2 in J; formkit does not "
+            "choose among them (use a pair 3,5 3,7 3,13 5,7 for the step to j)"
+        )
 
     def to_dict(self) -> dict:
         return {
@@ -276,7 +296,7 @@ class DoubleEtaPolynomial:
     def _how(self) -> str:
         return (
             f"roots {self.invariant} at an N-system and conjugates; certified by ball arithmetic at "
-            f"{self.working_bits} bits; no step to j (modular polynomial not computed)"
+            f"{self.working_bits} bits"
         )
 
     def _repr_html_(self) -> str:

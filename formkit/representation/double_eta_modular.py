@@ -46,7 +46,7 @@ function on ``X₀(N)`` with a zero of order ``> B`` at ``∞``, more zeros than
 the other cusps allow (at most ``eψ(N) + 2eN`` at ``0``, ``2ep₂`` at ``1/p₁``, ``2ep₁`` at
 ``1/p₂``).  A test checks ``Ψ(w^s(τ), j(τ)) ∋ 0`` in ball arithmetic at random ``τ``.
 
-*Supported pairs.*  Those of :data:`MODULAR_PAIRS` — the ten pairs
+*Supported pairs.*  Those of :data:`DOUBLE_ETA_MODULAR_PAIRS` — the ten pairs
 :func:`~formkit.representation.double_eta.double_eta_pair` chooses from — each computed once
 and cached (measured: under 0.1 s for ``e = 1``, 1.2 s for ``(5, 13)``, 5 to 18 s for the
 pairs with ``e ≥ 3``, ``(7, 11)`` the longest; the cost is priced against the budget of
@@ -79,25 +79,25 @@ from ..errors import FormkitError
 from .double_eta import _PAIRS, _exponent
 
 __all__ = [
-    "MODULAR_PAIRS",
+    "DOUBLE_ETA_MODULAR_PAIRS",
     "DoubleEtaModularPolynomial",
     "double_eta_modular_polynomial",
-    "pole_order",
+    "double_eta_pole_order",
 ]
 
 #: The pairs whose modular polynomial is computed (those of ``double_eta_pair``'s list), sorted.
-MODULAR_PAIRS: tuple[tuple[int, int], ...] = tuple(sorted(_PAIRS))
+DOUBLE_ETA_MODULAR_PAIRS: tuple[tuple[int, int], ...] = tuple(sorted(_PAIRS))
 
 #: The 62-bit primes the linear systems are solved modulo, from the largest below ``2^62``.
 _PRIME_START = 1 << 62
 
 
-def pole_order(p1: int, p2: int) -> int:
+def double_eta_pole_order(p1: int, p2: int) -> int:
     """``e = s(p₁ − 1)(p₂ − 1)/24``: the order of the pole of ``w^s`` at ``∞``; ``deg_J Ψ = 2e``.
 
     Examples
     --------
-    >>> [pole_order(*pair) for pair in [(3, 5), (3, 13), (5, 13), (7, 13), (3, 11)]]
+    >>> [double_eta_pole_order(*pair) for pair in [(3, 5), (3, 13), (5, 13), (7, 13), (3, 11)]]
     [1, 1, 2, 3, 5]
     """
     return _exponent(p1, p2) * (p1 - 1) * (p2 - 1) // 24
@@ -176,7 +176,7 @@ def _solve_modulo(p1: int, p2: int, ell: int) -> list[int] | None:
     the order of :func:`_unknowns`; ``None`` if the system has not full rank modulo ``ell``."""
     from flint import nmod_mat, nmod_poly
 
-    s, e = _exponent(p1, p2), pole_order(p1, p2)
+    s, e = _exponent(p1, p2), double_eta_pole_order(p1, p2)
     lo, hi = _laurent_bounds(p1, p2, e)
     cols = _unknowns(p1, p2)
     top = max(e * hi[k] + 2 * e - k for k in range(2 * e + 1))  # the largest pole order at ∞
@@ -220,7 +220,7 @@ def _solve_modulo(p1: int, p2: int, ell: int) -> list[int] | None:
 
 
 def _unknowns(p1: int, p2: int) -> list[tuple[int, int]]:
-    e = pole_order(p1, p2)
+    e = double_eta_pole_order(p1, p2)
     lo, hi = _laurent_bounds(p1, p2, e)
     return [(k, i) for k in range(1, 2 * e + 1) for i in range(-lo[k], hi[k] + 1)]
 
@@ -251,7 +251,7 @@ def _series_check(p1: int, p2: int, rows: tuple[tuple[int, ...], ...]) -> int:
     raises ``RuntimeError`` if a coefficient does not vanish."""
     from flint import fmpz_poly
 
-    s, e = _exponent(p1, p2), pole_order(p1, p2)
+    s, e = _exponent(p1, p2), double_eta_pole_order(p1, p2)
     N, psi = p1 * p2, (p1 + 1) * (p2 + 1)
     B = e * psi + 2 * e * (N + p1 + p2)
     top = e * psi + 2 * e
@@ -282,10 +282,10 @@ def _series_check(p1: int, p2: int, rows: tuple[tuple[int, ...], ...]) -> int:
 
 def _check_pair(p1: object, p2: object) -> tuple[int, int]:
     a, b = sorted((as_int(p1, "p1"), as_int(p2, "p2")))
-    if (a, b) not in MODULAR_PAIRS:
+    if (a, b) not in DOUBLE_ETA_MODULAR_PAIRS:
         raise FormkitError(
             f"the modular polynomial of w_{{{a},{b}}} is not computed here; the supported pairs are "
-            f"{', '.join(f'({x}, {y})' for x, y in MODULAR_PAIRS)}"
+            f"{', '.join(f'({x}, {y})' for x, y in DOUBLE_ETA_MODULAR_PAIRS)}"
         )
     return a, b
 
@@ -383,7 +383,7 @@ class DoubleEtaModularPolynomial(SentenceDisplay):
 def _modular_polynomial(p1: int, p2: int) -> DoubleEtaModularPolynomial:
     from ..core.budget import check_cost
 
-    s, e = _exponent(p1, p2), pole_order(p1, p2)
+    s, e = _exponent(p1, p2), double_eta_pole_order(p1, p2)
     # measured 0.1 s (e = 1), 1.2 s (e = 2), at most 18 s (e = 5, (7, 11)); rounded up
     check_cost(
         f"the modular polynomial of w_{{{p1},{p2}}}",
@@ -443,7 +443,7 @@ def double_eta_modular_polynomial(p1: object, p2: object) -> DoubleEtaModularPol
     Parameters
     ----------
     p1, p2 : int
-        A pair of :data:`MODULAR_PAIRS` (in either order).
+        A pair of :data:`DOUBLE_ETA_MODULAR_PAIRS` (in either order).
 
     Returns
     -------
@@ -453,7 +453,7 @@ def double_eta_modular_polynomial(p1: object, p2: object) -> DoubleEtaModularPol
     Raises
     ------
     FormkitError
-        If the pair is not one of :data:`MODULAR_PAIRS`.
+        If the pair is not one of :data:`DOUBLE_ETA_MODULAR_PAIRS`.
 
     Examples
     --------

@@ -124,7 +124,9 @@ def test_repeated_values_are_refused():
     assert sympy.Poly(P.coefficients, sympy.Symbol("x")).is_irreducible
 
 
-def test_dict_says_no_step_to_j():
+def test_dict_says_how_j_follows():
     d = double_eta_polynomial(-23).to_dict()
-    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and "not computed" in d["j_relation"]
+    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and "are roots of H_D" in d["j_relation"]
+    # (5, 13): Ψ has degree 4 in J, and the step to j is not taken (said so)
+    assert "does not choose" in double_eta_polynomial(-120, (5, 13)).to_dict()["j_relation"]
     assert d["coefficients"] == [1, -1, 0, 1] and d["verification"]["radius_log2"] < -1

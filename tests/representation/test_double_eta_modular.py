@@ -25,18 +25,18 @@ from formkit.representation.cm_method import (
 )
 from formkit.representation.double_eta import _pair_applies, double_eta_polynomial
 from formkit.representation.double_eta_modular import (
-    MODULAR_PAIRS,
+    DOUBLE_ETA_MODULAR_PAIRS,
     double_eta_modular_polynomial,
-    pole_order,
+    double_eta_pole_order,
 )
 
-FAST = [pair for pair in MODULAR_PAIRS if pole_order(*pair) <= 2]
-SLOW = [pair for pair in MODULAR_PAIRS if pole_order(*pair) > 2]
+FAST = [pair for pair in DOUBLE_ETA_MODULAR_PAIRS if double_eta_pole_order(*pair) <= 2]
+SLOW = [pair for pair in DOUBLE_ETA_MODULAR_PAIRS if double_eta_pole_order(*pair) > 2]
 DEGREE_TWO = [(3, 5), (3, 7), (3, 13), (5, 7)]
 
 
 def _pairs(fast):
-    return [pytest.param(pair, marks=[] if pair in fast else pytest.mark.slow) for pair in MODULAR_PAIRS]
+    return [pytest.param(pair, marks=[] if pair in fast else pytest.mark.slow) for pair in DOUBLE_ETA_MODULAR_PAIRS]
 
 
 @pytest.mark.parametrize("pair", _pairs(FAST))
@@ -46,7 +46,7 @@ def test_degrees_and_leading_coefficient(pair):
     p1, p2 = pair
     Psi = double_eta_modular_polynomial(p1, p2)
     assert Psi.degree_x == (p1 + 1) * (p2 + 1)
-    assert Psi.degree_j == 2 * pole_order(p1, p2) == 2 * Psi.exponent * (p1 - 1) * (p2 - 1) // 24
+    assert Psi.degree_j == 2 * double_eta_pole_order(p1, p2) == 2 * Psi.exponent * (p1 - 1) * (p2 - 1) // 24
     top = list(Psi.rows[-1])
     assert top[p1 + p2] == 1 and not any(top[: p1 + p2]) and not any(top[p1 + p2 + 1 :])
     assert math.gcd(*(c for r in Psi.rows for c in r)) == 1  # primitive
