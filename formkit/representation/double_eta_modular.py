@@ -16,9 +16,10 @@ integer), ``f`` has poles of order ``e`` at ``∞`` and at ``0`` and zeros of or
 ``1/p₁`` and ``1/p₂``, so ``f`` has degree ``2e`` on ``X₀(N)``; ``j`` has poles at the
 four cusps of orders their widths ``1, N, p₂, p₁``.  Hence
 
-* ``deg_J Ψ = 2e`` (over a value ``x`` of ``f`` lie ``2e`` points of ``X₀(N)``) — that
-  ``f`` and ``j`` generate the function field of ``X₀(N)`` is not assumed: the linear
-  system below has full rank, which proves that no relation of lower ``J``-degree exists;
+* ``deg_J Ψ = 2e`` (over a value ``x`` of ``f`` lie ``2e`` points of ``X₀(N)``, and ``Ψ``
+  is ``x^{p₁+p₂}·∏(J − j(z))`` over them).  That ``f`` and ``j`` generate the function
+  field of ``X₀(N)`` is not assumed; the tests show ``Ψ`` irreducible (two specialisations
+  factored by FLINT), so ``j`` has degree exactly ``2e`` over ``C(f)``;
 * the coefficients ``σ_k`` of ``Ψ/lc`` (the elementary symmetric functions of the ``2e``
   values of ``j`` over ``x``) are Laurent polynomials in ``x`` (poles only at cusps, i.e. at
   ``x = ∞`` and ``x = 0``), and the growth of the ``j``-values near the cusps bounds their
@@ -37,7 +38,8 @@ integer coefficients.  The unknown coefficients of the ``σ_k`` solve a linear s
 (FLINT's ``nmod_mat`` row reduction as arithmetic), the solutions joined by the Chinese
 remainder theorem and rational reconstruction until they stabilise (Wang's rational
 reconstruction, e.g. von zur Gathen–Gerhard [4], §5.10).  Full rank modulo one prime
-proves the solution unique over ``Q``.
+proves the solution unique over ``Q`` among Laurent polynomials within these bounds, so it
+is the elementary symmetric functions themselves.
 
 *Verification (exact, always).*  The integer polynomial found is accepted only when the
 ``q``-expansion of ``Ψ(f, j)``, computed exactly, vanishes up to ``q^B`` with ``B = eψ(N) +
