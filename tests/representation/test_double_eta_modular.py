@@ -12,6 +12,8 @@ import math
 import random
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from formkit import errors
 from formkit.representation.class_polynomials import class_polynomial
@@ -36,7 +38,10 @@ DEGREE_TWO = [(3, 5), (3, 7), (3, 13), (5, 7)]
 
 
 def _pairs(fast):
-    return [pytest.param(pair, marks=[] if pair in fast else pytest.mark.slow) for pair in DOUBLE_ETA_MODULAR_PAIRS]
+    return [
+        pytest.param(pair, marks=[] if pair in fast else pytest.mark.slow)
+        for pair in DOUBLE_ETA_MODULAR_PAIRS
+    ]
 
 
 @pytest.mark.parametrize("pair", _pairs(FAST))
@@ -185,3 +190,29 @@ def test_display_and_dict():
     assert "q^" in Psi._repr_html_() and "$" in Psi._repr_latex_()
     d = Psi.to_dict()
     assert d["primes"] == [3, 13] and d["degree_x"] == 56 and d["degree_j"] == 2
+
+
+@settings(max_examples=15, deadline=None)
+@given(
+    x=st.integers(-500, 500),
+    y=st.integers(600, 2000),
+    pair=st.sampled_from(DEGREE_TWO),
+)
+def test_both_forms_of_the_relation_hypothesis(x, y, pair):
+    # hypothesis over τ: Ψ(w^s(τ), j(τ)) = 0 and, by the Fricke invariance of g = w(N·), also
+    # Ψ(g^s(τ), j(τ)) = 0 (acb values: the outside check)
+    from flint import acb, arb, ctx
+
+    p1, p2 = pair
+    Psi = double_eta_modular_polynomial(p1, p2)
+    N, s = p1 * p2, Psi.exponent
+    with ctx.workprec(600):
+        z = acb(arb(x) / 1000, arb(y) / 1000)
+        eta = [(z * d).modular_eta() for d in (1, p1, p2, N)]
+        g = eta[1] * eta[2] / (eta[0] * eta[3])
+        w = (z / p1).modular_eta() * (z / p2).modular_eta() / (z.modular_eta() * (z / N).modular_eta())
+        j = z.modular_j()
+        for value in (w**s, g**s):
+            terms = [c * value**i * j**k for k, row in enumerate(Psi.rows) for i, c in enumerate(row) if c]
+            total = sum(terms[1:], terms[0])
+            assert total.contains(0) and abs(total).rad() < max(abs(t).mid() for t in terms) * arb(2) ** -200
