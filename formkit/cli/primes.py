@@ -272,7 +272,7 @@ def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
             if Psi.degree_j != 2:
                 raise CommandError(
                     f"--roots-mod and --cm-curve with --invariant double-eta need a pair whose modular "
-                    f"polynomial has degree 2 in j (3,5 3,7 3,13 5,7); that of {P.p1},{P.p2} has degree "
+                    f"polynomial has degree 2 in j (3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13); that of {P.p1},{P.p2} has degree "
                     f"{Psi.degree_j}, and formkit does not choose among its roots"
                 )
     except FormkitError as exc:
@@ -397,7 +397,7 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "when 3 | D; D = -4m: F(sqrt(-m))^k/sqrt(2)^e with F = f or f1 and k, e by m mod 8, 72/k times; "
             "not for D ≡ 5 mod 8); with --invariant double-eta that of a double eta-quotient w_{p1,p2}^s. --roots-mod P gives "
             "the roots modulo a prime (for Weber and double-eta also the roots j of H_D; double-eta through "
-            "the modular polynomial Psi(w^s, j), for the pairs 3,5 3,7 3,13 5,7 of degree 2 in j), --cm-curve BITS an elliptic curve over a prime field of "
+            "the modular polynomial Psi(w^s, j), for the pairs 3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13 of degree 2 in j), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
             "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.double_eta_polynomial(D), "
             "formkit.cm_prime, "
@@ -429,13 +429,13 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8, m = -D; cubed when 3 | D) or of F(sqrt(-m))^k/sqrt(2)^e "
         "with F = f or f1 and k, e by m mod 8 (D = -4m); double-eta: the class polynomial of the "
         "double eta-quotient w_{p1,p2}^s (Enge-Schertz; the step to j with --roots-mod and --cm-curve "
-        "for the pairs 3,5 3,7 3,13 5,7)",
+        "for the pairs 3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13)",
     )
     q.add_argument(
         "--eta-primes",
         default=None,
         metavar="P1,P2",
-        help="with --invariant double-eta: the two odd primes (neither inert, not both ramified; "
+        help="with --invariant double-eta: the two primes, odd or 2,3 2,5 2,7 2,13 (neither inert, not both ramified; "
         "default the pair of largest gain among 3,13 5,7 5,13 7,13 3,7 3,5 ... that suits D; with "
         "--roots-mod or --cm-curve the first of 3,13 5,7 3,7 3,5 that suits D)",
     )

@@ -1,10 +1,13 @@
 """The modular polynomial ``Ψ(X, J)`` relating a double η-quotient ``w_{p₁,p₂}^s`` and ``j``, exact.
 
-For distinct odd primes ``p₁ < p₂``, ``N = p₁p₂`` and ``s = 24/gcd(24, (p₁ − 1)(p₂ − 1))``,
-let ``w = w_{p₁,p₂}`` be the double η-quotient of :mod:`formkit.representation.double_eta`,
-``w(z) = η(z/p₁)η(z/p₂)/(η(z)η(z/N))``.  Put ``g(z) = w(Nz) = η(p₁z)η(p₂z)/(η(z)η(Nz))``.
-Then ``f = g^s`` is a modular function for ``Γ₀(N)`` (Enge–Schertz [1], Theorem 1 as
-recalled; the exponent ``s`` makes the multiplier trivial), invariant under the Fricke
+For distinct primes ``p₁ < p₂`` (``p₁ = 2`` allowed), ``N = p₁p₂`` and ``s = 24/gcd(24,
+(p₁ − 1)(p₂ − 1))``, let ``w = w_{p₁,p₂}`` be the double η-quotient of
+:mod:`formkit.representation.double_eta`, ``w(z) = η(z/p₁)η(z/p₂)/(η(z)η(z/N))``.  Put
+``g(z) = w(Nz) = η(p₁z)η(p₂z)/(η(z)η(Nz))``.  Then ``f = g^s`` is a modular function for
+``Γ₀(N)``: the η-quotient ``∏η(δz)^{r_δ}`` with ``r = s·(−1, 1, 1, −1)`` at ``δ = 1, p₁,
+p₂, N`` has weight 0, ``Σδr_δ = Σ(N/δ)r_δ = −s(p₁ − 1)(p₂ − 1) ≡ 0 (mod 24)`` and
+``∏δ^{r_δ} = 1`` (the criterion of Gordon–Hughes and Newman, Ono [3], Theorem 1.64, as
+recalled); and it is invariant under the Fricke
 involution ``z ↦ −1/(Nz)`` (each η transforms by ``√(z/i)``, the four square roots cancel).
 This module computes the primitive integer polynomial ``Ψ(X, J)`` with ``Ψ(f, j) = 0``;
 since ``w^s(z) = f(z/N)`` and ``j(z) = j(N·z/N)``, the Fricke invariance gives also
@@ -27,7 +30,8 @@ four cusps of orders their widths ``1, N, p₂, p₁``.  Hence
   N + ⌊(k − e)/e⌋`` for ``k > e``;
 * so ``Ψ = X^{p₁+p₂}·(J^{2e} − σ₁J^{2e−1} + …)`` has ``deg_X Ψ = p₁ + p₂ + N + 1 =
   (p₁ + 1)(p₂ + 1) = ψ(N)``, the index of ``Γ₀(N)``, and leading coefficient ``X^{p₁+p₂}``
-  in ``J``.  For ``e = 1`` (the pairs ``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)``)
+  in ``J``.  For ``e = 1`` (the pairs ``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)`` and those
+with ``p₁ = 2``)
   ``Ψ`` has degree 2 in ``J`` and the two values of ``j`` over ``f(z)`` are ``j(z)`` and
   ``j(Nz)``.
 
@@ -49,7 +53,8 @@ the other cusps allow (at most ``eψ(N) + 2eN`` at ``0``, ``2ep₂`` at ``1/p₁
 ``1/p₂``).  A test checks ``Ψ(w^s(τ), j(τ)) ∋ 0`` in ball arithmetic at random ``τ``.
 
 *Supported pairs.*  Those of :data:`DOUBLE_ETA_MODULAR_PAIRS` — the ten pairs
-:func:`~formkit.representation.double_eta.double_eta_pair` chooses from — each computed once
+:func:`~formkit.representation.double_eta.double_eta_pair` chooses from and the four
+``(2, 3)``, ``(2, 5)``, ``(2, 7)``, ``(2, 13)`` (all with ``e = 1``) — each computed once
 and cached (measured: under 0.1 s for ``e = 1``, 1.2 s for ``(5, 13)``, 5 to 18 s for the
 pairs with ``e ≥ 3``, ``(7, 11)`` the longest; the cost is priced against the budget of
 :mod:`formkit.core.budget` first).  Other pairs are refused.
@@ -78,7 +83,7 @@ from typing import Any
 from ..core.arith import as_int
 from ..core.displays import SentenceDisplay
 from ..errors import FormkitError
-from .double_eta import _PAIRS, _exponent
+from .double_eta import _PAIRS, _PAIRS_WITH_2, _exponent
 
 __all__ = [
     "DOUBLE_ETA_MODULAR_PAIRS",
@@ -87,8 +92,8 @@ __all__ = [
     "double_eta_pole_order",
 ]
 
-#: The pairs whose modular polynomial is computed (those of ``double_eta_pair``'s list), sorted.
-DOUBLE_ETA_MODULAR_PAIRS: tuple[tuple[int, int], ...] = tuple(sorted(_PAIRS))
+#: The pairs whose modular polynomial is computed (``double_eta_pair``'s list and four with 2), sorted.
+DOUBLE_ETA_MODULAR_PAIRS: tuple[tuple[int, int], ...] = tuple(sorted(_PAIRS + _PAIRS_WITH_2))
 
 #: The 62-bit primes the linear systems are solved modulo, from the largest below ``2^62``.
 _PRIME_START = 1 << 62

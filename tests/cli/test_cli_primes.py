@@ -205,6 +205,16 @@ def test_hilbert_double_eta_roots_mod(capsys):
         m = d["modular_polynomial"]
         p1, p2 = m["primes"]
         assert m["degree_j"] == 2 and m["degree_x"] == (p1 + 1) * (p2 + 1) and "q^" in m["method"]
+    # a pair with the prime 2 (given explicitly): the same j's; 4·57791 = 480² + 191·2² splits completely
+    assert 4 * 57791 == 480**2 + 191 * 2**2
+    d = run_json(
+        capsys, "hilbert", "-191", "--invariant", "double-eta", "--eta-primes", "2,13", "--roots-mod", "57791"
+    )
+    H = run_json(capsys, "hilbert", "-191", "--roots-mod", "57791")
+    assert d["primes"] == [2, 13] and d["power"] == 2
+    assert (
+        d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"] and len(H["roots_mod_p"]["roots"]) == 13
+    )
     # W = x³ − x² + 1 for D = −23: its roots mod 59 by brute force
     d = run_json(capsys, "hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59")
     assert d["roots_mod_p"]["roots"] == [x for x in range(59) if (x**3 - x * x + 1) % 59 == 0]

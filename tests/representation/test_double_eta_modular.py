@@ -34,7 +34,7 @@ from formkit.representation.double_eta_modular import (
 
 FAST = [pair for pair in DOUBLE_ETA_MODULAR_PAIRS if double_eta_pole_order(*pair) <= 2]
 SLOW = [pair for pair in DOUBLE_ETA_MODULAR_PAIRS if double_eta_pole_order(*pair) > 2]
-DEGREE_TWO = [(3, 5), (3, 7), (3, 13), (5, 7)]
+DEGREE_TWO = [(2, 3), (2, 5), (2, 7), (2, 13), (3, 5), (3, 7), (3, 13), (5, 7)]
 
 
 def _pairs(fast):
@@ -133,7 +133,7 @@ def test_cm_step_gives_the_roots_of_H_D(D):
             for x in polynomial_roots_mod_prime(W.coefficients, p)[:3]:
                 js = double_eta_roots_to_j(x, p, pair)  # each root x of W gives roots of H_D
                 assert js and set(js) <= set(expected[p])
-    assert tried >= 1
+    assert tried >= (1 if D == -188 else 2)  # −188: conductor 2, so no pair with 2
 
 
 def test_cm_step_at_a_prime_that_does_not_split():
