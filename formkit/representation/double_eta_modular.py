@@ -30,10 +30,9 @@ four cusps of orders their widths ``1, N, p₂, p₁``.  Hence
   N + ⌊(k − e)/e⌋`` for ``k > e``;
 * so ``Ψ = X^{p₁+p₂}·(J^{2e} − σ₁J^{2e−1} + …)`` has ``deg_X Ψ = p₁ + p₂ + N + 1 =
   (p₁ + 1)(p₂ + 1) = ψ(N)``, the index of ``Γ₀(N)``, and leading coefficient ``X^{p₁+p₂}``
-  in ``J``.  For ``e = 1`` (the pairs ``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)`` and those
-with ``p₁ = 2``)
-  ``Ψ`` has degree 2 in ``J`` and the two values of ``j`` over ``f(z)`` are ``j(z)`` and
-  ``j(Nz)``.
+  in ``J``.  For ``e = 1`` (the pairs ``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)`` and
+  those with ``p₁ = 2``) ``Ψ`` has degree 2 in ``J`` and the two values of ``j`` over
+  ``f(z)`` are ``j(z)`` and ``j(Nz)``.
 
 *Method.*  Exact power series in ``q``: ``∏(1 − qⁿ)`` by Euler's pentagonal theorem, its
 inverse by the partition recurrence, ``E₄ = 1 + 240Σσ₃(n)qⁿ`` and ``j = E₄³/Δ``, all with

@@ -216,3 +216,15 @@ def test_both_forms_of_the_relation_hypothesis(x, y, pair):
             terms = [c * value**i * j**k for k, row in enumerate(Psi.rows) for i, c in enumerate(row) if c]
             total = sum(terms[1:], terms[0])
             assert total.contains(0) and abs(total).rad() < max(abs(t).mid() for t in terms) * arb(2) ** -200
+
+
+def test_series_check_rejects_a_changed_coefficient():
+    # the exact q-expansion check (the proof of Ψ(f, j) = 0) fails when one coefficient is off by 1
+    from formkit.representation.double_eta_modular import _series_check
+
+    Psi = double_eta_modular_polynomial(3, 13)
+    assert _series_check(3, 13, Psi.rows) == Psi.series_check_terms == 56 + 2 * (39 + 16)
+    rows = [list(r) for r in Psi.rows]
+    rows[1][20] += 1
+    with pytest.raises(RuntimeError, match="non-zero term"):
+        _series_check(3, 13, tuple(tuple(r) for r in rows))
