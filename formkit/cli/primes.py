@@ -240,27 +240,18 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
 
 
 def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
-    """``hilbert --invariant double-eta``: the polynomial only (no step to j)."""
+    """``hilbert --invariant double-eta``: the polynomial, and with ``--roots-mod`` / ``--cm-curve``
+    the step to ``j`` through the modular polynomial ``Ψ(w^s, j)`` (pairs of degree 2 in ``j``)."""
     from ..errors import FormkitError
     from ..representation.double_eta import double_eta_polynomial
     from .conventions import CommandError, emit
 
-    why = "the step from a root of w to j needs the modular polynomial relating w and j, which formkit does not compute"
-    for flag, given in (
-        ("--roots-mod", args.roots_mod is not None),
-        ("--cm-curve", args.cm_curve is not None),
-        ("--discriminant-factors", args.discriminant_factors),
-    ):
-        if given:
-            raise CommandError(
-                f"{flag} is not available with --invariant double-eta: "
-                + (
-                    why
-                    if flag != "--discriminant-factors"
-                    else "it is for H_D; leave out --invariant double-eta"
-                )
-                + "; use --invariant weber or j"
-            )
+    if args.discriminant_factors:
+        raise CommandError(
+            "--discriminant-factors is not available with --invariant double-eta: it is for H_D; "
+            "leave out --invariant double-eta"
+        )
+    wants_j = args.roots_mod is not None or args.cm_curve is not None
     primes = None
     if args.eta_primes is not None:
         parts = args.eta_primes.replace(" ", "").split(",")
@@ -268,17 +259,59 @@ def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
             raise CommandError(f"--eta-primes must be two primes P1,P2 such as 3,13, not {args.eta_primes!r}")
         primes = (int(parts[0]), int(parts[1]))
     try:
+        if wants_j and primes is None:
+            from ..representation.cm_method import double_eta_cm_pair
+
+            primes = double_eta_cm_pair(D)
         P = double_eta_polynomial(D, primes, verify=not args.no_verify)
+        Psi = None
+        if wants_j:
+            from ..representation.double_eta_modular import double_eta_modular_polynomial
+
+            Psi = double_eta_modular_polynomial(P.p1, P.p2)
+            if Psi.degree_j != 2:
+                raise CommandError(
+                    f"--roots-mod and --cm-curve with --invariant double-eta need a pair whose modular "
+                    f"polynomial has degree 2 in j (3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13); that of {P.p1},{P.p2} has degree "
+                    f"{Psi.degree_j}, and formkit does not choose among its roots"
+                )
     except FormkitError as exc:
         raise CommandError(f"--invariant double-eta: {exc}") from None
+    pair = (P.p1, P.p2)
     payload = P.to_dict()
+    if Psi is not None:
+        payload["modular_polynomial"] = Psi.to_dict()
+    roots = None
+    if args.roots_mod is not None:
+        from ..representation.cm_method import double_eta_roots_to_j, polynomial_roots_mod_prime
+
+        p = args.roots_mod
+        try:
+            xs = polynomial_roots_mod_prime(P.coefficients, p)
+        except FormkitError as exc:
+            raise CommandError(f"--roots-mod: {exc}") from None
+        js = sorted({j for x in xs if x for j in double_eta_roots_to_j(x, p, pair)})
+        roots = {"p": p, "roots": xs, "j_invariants": js}
+        payload["roots_mod_p"] = roots
+    curve = None
+    if args.cm_curve is not None:
+        from ..representation.cm_method import cm_curve, cm_j_invariants, cm_prime
+
+        if D >= -4:
+            raise CommandError(f"--cm-curve needs D < -4 (j ≠ 0, 1728), not {D}")
+        if not 16 <= args.cm_curve <= 1024:
+            raise CommandError(f"--cm-curve BITS must be in [16, 1024], not {args.cm_curve}")
+        p, t, v = cm_prime(D, args.cm_curve)
+        js = cm_j_invariants(D, p, invariant="double-eta", primes=pair)
+        curve = {**cm_curve(D, p, t, js[0]).to_dict(), "v": v, "roots_found": len(js)}
+        payload["cm_curve"] = curve
 
     def human() -> str:
         lines = [
             f"discriminant:  {D}   (double eta-quotient class polynomial, degree h = {P.degree}; roots: "
             f"{P.invariant} at an N-system of forms and its conjugates)",
             f"W(x) = {P}",
-            f"j-invariants: not computed ({why})",
+            f"j-invariants: {P.j_relation}",
             f"certified: ball arithmetic at {P.working_bits} bits, imaginary parts contain 0 and every real part "
             "holds exactly one integer; squarefree (exact gcd with W')"
             + (
@@ -287,6 +320,28 @@ def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
                 else f"; root counts mod {list(P.primes_checked)} match the prime-form classes"
             ),
         ]
+        if Psi is not None:
+            lines.append(
+                f"modular polynomial: Psi(X, J) of degree {Psi.degree_x} in X, {Psi.degree_j} in J "
+                f"({Psi.coefficient_bits}-bit coefficients; {Psi._display_provenance()})"
+            )
+        if roots is not None:
+            lines.append(
+                f"roots of W mod {roots['p']}: {plural(len(roots['roots']), 'root')} {_short_list(roots['roots'])}"
+            )
+            lines.append(
+                f"  the roots j of Psi(x, J), roots of H_D mod {roots['p']}: {_short_list(roots['j_invariants'])}"
+            )
+        if curve is not None:
+            lines.append(
+                f"CM curve: p = {curve['p']} ({args.cm_curve} bits), 4p = t^2 + {-D}*v^2 with t = {curve['trace']}, "
+                f"v = {curve['v']}; j = {curve['j']} (one of {curve['roots_found']} roots of H_D mod p, "
+                f"from the roots of W and Psi)"
+            )
+            lines.append(
+                f"  y^2 = x^3 + {curve['a4']}x + {curve['a6']} has p + 1 - t = {curve['order']} points "
+                f"([p + 1 - t]P = O checked for {curve['points_checked']} random points P)"
+            )
         return "\n".join(lines)
 
     emit(args, payload, human)
@@ -340,9 +395,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "the order. With --invariant weber the Weber class polynomial instead: the same class field, "
             "coefficients 3 to 72 times shorter (D ≡ 1 mod 8: f(sqrt(-m))/sqrt(2), m = -D, 72 times, its cube "
             "when 3 | D; D = -4m: F(sqrt(-m))^k/sqrt(2)^e with F = f or f1 and k, e by m mod 8, 72/k times; "
-            "not for D ≡ 5 mod 8); with --invariant double-eta that of a double eta-quotient (the polynomial "
-            "only). --roots-mod P gives the roots modulo a prime "
-            "(for Weber also the roots j of H_D), --cm-curve BITS an elliptic curve over a prime field of "
+            "not for D ≡ 5 mod 8); with --invariant double-eta that of a double eta-quotient w_{p1,p2}^s. --roots-mod P gives "
+            "the roots modulo a prime (for Weber and double-eta also the roots j of H_D; double-eta through "
+            "the modular polynomial Psi(w^s, j), for the pairs 3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13 of degree 2 in j), --cm-curve BITS an elliptic curve over a prime field of "
             "that size with complex multiplication by the order of discriminant D. "
             "Python: formkit.class_polynomial(D), formkit.weber_polynomial(D), formkit.double_eta_polynomial(D), "
             "formkit.cm_prime, "
@@ -353,7 +408,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "  formkit hilbert -71 --invariant weber --roots-mod 10007\n"
             "  formkit hilbert -191 --invariant weber --cm-curve 256\n"
             "  formkit hilbert -56 --invariant weber --roots-mod 10007\n"
-            "  formkit hilbert -191 --invariant double-eta"
+            "  formkit hilbert -191 --invariant double-eta\n"
+            "  formkit hilbert -191 --invariant double-eta --cm-curve 256"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
@@ -372,14 +428,16 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         help="j: the class polynomial H_D (default); weber: the Weber class polynomial of "
         "f(sqrt(-m))/sqrt(2) (D ≡ 1 mod 8, m = -D; cubed when 3 | D) or of F(sqrt(-m))^k/sqrt(2)^e "
         "with F = f or f1 and k, e by m mod 8 (D = -4m); double-eta: the class polynomial of the "
-        "double eta-quotient w_{p1,p2}^s (Enge-Schertz; polynomial only, no step to j)",
+        "double eta-quotient w_{p1,p2}^s (Enge-Schertz; the step to j with --roots-mod and --cm-curve "
+        "for the pairs 3,5 3,7 3,13 5,7 2,3 2,5 2,7 2,13)",
     )
     q.add_argument(
         "--eta-primes",
         default=None,
         metavar="P1,P2",
-        help="with --invariant double-eta: the two odd primes (neither inert, not both ramified; "
-        "default the pair of largest gain among 3,13 5,7 5,13 7,13 3,7 3,5 ... that suits D)",
+        help="with --invariant double-eta: the two primes, odd or 2,3 2,5 2,7 2,13 (neither inert, not both ramified; "
+        "default the pair of largest gain among 3,13 5,7 5,13 7,13 3,7 3,5 ... that suits D; with "
+        "--roots-mod or --cm-curve the first of 3,13 5,7 3,7 3,5 that suits D)",
     )
     q.add_argument(
         "--roots-mod",

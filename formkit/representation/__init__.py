@@ -12,8 +12,9 @@
 * :mod:`~formkit.representation.class_invariants` — Weber class polynomials (the same
   ring class field, much smaller coefficients), with
   :mod:`~formkit.representation.weber_even` for the discriminants ``D = −4m``;
-* :mod:`~formkit.representation.double_eta` — class polynomials of double η-quotients
-  (the polynomial only);
+* :mod:`~formkit.representation.double_eta` — class polynomials of double η-quotients,
+  with :mod:`~formkit.representation.double_eta_modular` for their modular polynomials
+  ``Ψ(w^s, j) = 0`` (the step to ``j``);
 * :mod:`~formkit.representation.cm_method` — roots of class polynomials modulo a prime and
   the elliptic curves with complex multiplication they give;
 * :mod:`~formkit.representation.prime_decision` — does Q represent the prime p (the class
@@ -43,6 +44,8 @@ from .cornacchia import *  # noqa: F403
 from .cornacchia import __all__ as _cornacchia_all
 from .double_eta import *  # noqa: F403
 from .double_eta import __all__ as _double_eta_all
+from .double_eta_modular import *  # noqa: F403
+from .double_eta_modular import __all__ as _double_eta_modular_all
 from .genus_congruences import *  # noqa: F403
 from .genus_congruences import __all__ as _genus_congruences_all
 from .orbits import *  # noqa: F403
@@ -61,6 +64,7 @@ __all__ = [
     *_class_polynomials_all,
     *_class_invariants_all,
     *_double_eta_all,
+    *_double_eta_modular_all,
     *_cm_method_all,
     *_prime_decision_all,
     *_genus_congruences_all,

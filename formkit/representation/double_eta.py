@@ -1,6 +1,7 @@
 """Class polynomials of double η-quotients ``w_{p₁,p₂}`` (Enge–Schertz), certified.
 
-For distinct odd primes ``p₁, p₂`` and ``N = p₁p₂`` the double η-quotient
+For distinct primes ``p₁, p₂`` (odd, or ``p₁ = 2``, see *The prime 2* below) and ``N = p₁p₂``
+the double η-quotient
 
     w_{p₁,p₂}(z) = η(z/p₁)·η(z/p₂) / (η(z)·η(z/N))
 
@@ -33,11 +34,30 @@ precision is raised).  *Checks* (on by default): the root counts modulo split pr
 against the prime-form classes, as for ``H_D`` — they test that the roots generate the
 ring class field.
 
-*What is not.*  The step from a root of this polynomial to a root of ``H_D`` modulo ``p``
-needs the modular polynomial ``Ψ(w, j)`` relating ``w_{p₁,p₂}^s`` and ``j`` (of degree
-``(p₁ + 1)(p₂ + 1)`` in ``w``), which formkit does not compute; so this invariant gives the
-polynomial only, not the CM step (the command line refuses ``--roots-mod`` and
-``--cm-curve`` with it).
+*The prime 2.*  With ``p₁ = 2`` and ``p₂ ∈ {3, 5, 7, 13}`` (``s = 12, 6, 4, 2``; gains 6, 9,
+12, 21) the same construction is offered when the pair is asked for (not in the default
+list): the conditions are the same — 2 not inert (``D ≡ 1 mod 8``, or ``D`` even) and prime
+to the conductor, ``p₂`` not inert and prime to the conductor, not both ramified.  We
+recall Enge–Schertz's theorem as stated for all primes, 2 included, but have not re-read
+that case, so it rests on our recollection and on experiment: for every discriminant
+``−1500 < D < 0`` that suits one of the four pairs (167 to 185 per pair) the coefficient
+balls held integers at ``300 + 3h`` bits and the polynomial was squarefree and irreducible
+of degree ``h(D)`` (sympy), and for ``−800 < D < 0`` the step to ``j`` below gave exactly the
+roots of ``H_D`` modulo two split primes each (a one-off run; the test suite repeats a dozen
+of these cases).
+
+*The step to* ``j``.  The modular polynomial ``Ψ(X, J)`` with ``Ψ(w^s, j) = 0``, of degree
+``(p₁ + 1)(p₂ + 1)`` in ``X`` and ``2e = s(p₁ − 1)(p₂ − 1)/12`` in ``J``, is computed exactly
+by :mod:`~formkit.representation.double_eta_modular` for the ten pairs of the list and the
+four with ``p₁ = 2``.  For the eight pairs with ``2e = 2`` (``(2, 3)``, ``(2, 5)``, ``(2, 7)``,
+``(2, 13)``, ``(3, 5)``, ``(3, 7)``, ``(3, 13)``, ``(5, 7)``) both roots of
+``Ψ(x, J)`` modulo ``p`` are roots of ``H_D`` for every root ``x ≢ 0`` of this polynomial,
+and :func:`formkit.representation.cm_method.cm_j_invariants` (``invariant="double-eta"``)
+and the command line (``--roots-mod``, ``--cm-curve``) take that step.
+
+*What is not.*  For the pairs with ``2e > 2`` the other ``2e − 2`` roots of ``Ψ(x, J)`` need
+not be CM values of discriminant ``D``, and formkit does not choose among them: the CM step
+refuses those pairs.  Nor ``p₁ = 2`` with other ``p₂``, nor ``p₁ = p₂``.
 
 References
 ----------
@@ -75,6 +95,9 @@ __all__ = ["DoubleEtaPolynomial", "double_eta_pair", "double_eta_polynomial", "d
 
 #: Pairs tried by :func:`double_eta_pair`, by decreasing gain (see :func:`double_eta_gain`).
 _PAIRS = ((3, 13), (5, 7), (5, 13), (7, 13), (3, 7), (3, 5), (7, 11), (3, 17), (5, 11), (3, 11))
+
+#: The pairs with ``p₁ = 2`` offered when asked for (module docstring, *The prime 2*).
+_PAIRS_WITH_2 = ((2, 3), (2, 5), (2, 7), (2, 13))
 
 
 def _exponent(p1: int, p2: int) -> int:
@@ -204,7 +227,7 @@ def _certified_from_complex(poly: Any) -> tuple[list[int], int] | None:
 
 @dataclass(frozen=True)
 class DoubleEtaPolynomial:
-    """The class polynomial of ``w_{p₁,p₂}^s`` for ``D``, with provenance (no step to ``j``).
+    """The class polynomial of ``w_{p₁,p₂}^s`` for ``D``, with provenance.
 
     Attributes
     ----------
@@ -235,7 +258,20 @@ class DoubleEtaPolynomial:
         s = f"^{self.exponent}" if self.exponent != 1 else ""
         return f"w_{{{self.p1},{self.p2}}}{s} = (eta(z/{self.p1}) eta(z/{self.p2}) / (eta(z) eta(z/{self.p1 * self.p2}))){s}"
 
-    j_relation = "not computed: the step to j needs the modular polynomial relating w and j, which formkit does not compute"
+    @property
+    def j_relation(self) -> str:
+        """How a root ``x`` gives roots of ``H_D`` (the modular polynomial ``Ψ``), in words."""
+        s = f"^{self.exponent}" if self.exponent != 1 else ""
+        if self.exponent * (self.p1 - 1) * (self.p2 - 1) == 24:  # deg_J Ψ = 2
+            return (
+                f"for every root x (x ≠ 0) the two roots J of Psi(x, J), the modular polynomial of "
+                f"w_{{{self.p1},{self.p2}}}{s} and j (degree 2 in J), are roots of H_D"
+            )
+        return (
+            f"the roots of H_D are among the roots J of Psi(x, J), the modular polynomial of "
+            f"w_{{{self.p1},{self.p2}}}{s} and j, of degree > 2 in J; formkit does not "
+            "choose among them (use a pair 3,5 3,7 3,13 5,7 or 2,3 2,5 2,7 2,13 for the step to j)"
+        )
 
     def to_dict(self) -> dict:
         return {
@@ -276,7 +312,7 @@ class DoubleEtaPolynomial:
     def _how(self) -> str:
         return (
             f"roots {self.invariant} at an N-system and conjugates; certified by ball arithmetic at "
-            f"{self.working_bits} bits; no step to j (modular polynomial not computed)"
+            f"{self.working_bits} bits"
         )
 
     def _repr_html_(self) -> str:
@@ -363,7 +399,8 @@ def double_eta_polynomial(
     D : int
         A negative discriminant.
     primes : (int, int), optional
-        Distinct odd primes ``p₁ < p₂``, neither inert in ``Q(√D)`` nor dividing the conductor,
+        Distinct primes ``p₁ < p₂`` (odd, or ``(2, p₂)`` with ``p₂ ∈ {3, 5, 7, 13}``), neither
+        inert in ``Q(√D)`` nor dividing the conductor,
         not both ramified; default: the first pair of :func:`double_eta_pair`'s list that suits
         ``D`` and gives a squarefree polynomial.
     verify : bool
@@ -378,7 +415,7 @@ def double_eta_polynomial(
     DiscriminantError
         If the pair does not suit ``D``, or its values repeat (the polynomial, exact, has a
         repeated root: it happens, e.g. ``D = −160`` with ``(7, 13)``); FormkitError if it is
-        not two distinct odd primes.
+        not two distinct primes, or 2 with another ``p₂``.
 
     Examples
     --------
@@ -404,8 +441,13 @@ def double_eta_polynomial(
         raise DiscriminantError(f"no pair of the list {list(_PAIRS)} gives a generator for D = {D}")
     else:
         p1, p2 = sorted(int(p) for p in primes)
-        if p1 == p2 or p1 == 2 or not (is_probable_prime(p1) and is_probable_prime(p2)):
-            raise FormkitError(f"primes must be two distinct odd primes, not {primes}")
+        if p1 == p2 or not (is_probable_prime(p1) and is_probable_prime(p2)):
+            raise FormkitError(f"primes must be two distinct primes, not {primes}")
+        if p1 == 2 and (p1, p2) not in _PAIRS_WITH_2:
+            raise FormkitError(
+                f"with the prime 2 only the pairs {', '.join(f'({a}, {b})' for a, b in _PAIRS_WITH_2)} "
+                f"are offered (tested), not {(p1, p2)}"
+            )
         if not _pair_applies(D, p1, p2):
             raise DiscriminantError(
                 f"w_{{{p1},{p2}}} needs both primes split or ramified (not both ramified) in Q(sqrt({D})) "

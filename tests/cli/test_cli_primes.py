@@ -105,8 +105,16 @@ def test_hilbert_text(capsys):
         (["hilbert", "x"], "discriminant: cannot read 'x' as an integer"),
         (["hilbert"], "required"),
         (["hilbert", "-11", "--invariant", "weber"], "-11 ≡ 5 (mod 8)"),
-        (["hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59"], "modular polynomial"),
-        (["hilbert", "-23", "--invariant", "double-eta", "--cm-curve", "64"], "modular polynomial"),
+        (
+            ["hilbert", "-120", "--invariant", "double-eta", "--eta-primes", "5,13", "--roots-mod", "59"],
+            "has degree 4",
+        ),
+        (["hilbert", "-88", "--invariant", "double-eta", "--cm-curve", "64"], "degree 2 in j"),
+        (
+            ["hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "91"],
+            "p must be an odd prime, not 91",
+        ),
+        (["hilbert", "-23", "--invariant", "double-eta", "--discriminant-factors"], "it is for H_D"),
         (["hilbert", "-23", "--eta-primes", "3,13"], "--invariant double-eta"),
         (["hilbert", "-23", "--invariant", "double-eta", "--eta-primes", "3"], "two primes"),
         (["hilbert", "-71", "--invariant", "double-eta", "--eta-primes", "5,7"], "not qualify"),
@@ -185,7 +193,53 @@ def test_hilbert_double_eta(capsys):
     assert d["degree"] == class_number(-191) == 13
     assert sympy.Poly(d["coefficients"], sympy.Symbol("x")).is_irreducible
     code, out, _err = run(capsys, "hilbert", "-191", "--invariant", "double-eta")
-    assert code == 0 and "j-invariants: not computed" in out and "modular polynomial" in out
+    assert code == 0 and "the two roots J of Psi(x, J)" in out and "are roots of H_D" in out
+
+
+def test_hilbert_double_eta_roots_mod(capsys):
+    # the roots j through Ψ equal the roots of formkit's H_D mod p (computed by the j route)
+    for D, p in [(-23, 59), (-191, 10007), (-71, 1367), (-455, 10007)]:
+        d = run_json(capsys, "hilbert", str(D), "--invariant", "double-eta", "--roots-mod", str(p))
+        H = run_json(capsys, "hilbert", str(D), "--roots-mod", str(p))
+        assert d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"]
+        m = d["modular_polynomial"]
+        p1, p2 = m["primes"]
+        assert m["degree_j"] == 2 and m["degree_x"] == (p1 + 1) * (p2 + 1) and "q^" in m["method"]
+    # a pair with the prime 2 (given explicitly): the same j's; 4·57791 = 480² + 191·2² splits completely
+    assert 4 * 57791 == 480**2 + 191 * 2**2
+    d = run_json(
+        capsys, "hilbert", "-191", "--invariant", "double-eta", "--eta-primes", "2,13", "--roots-mod", "57791"
+    )
+    H = run_json(capsys, "hilbert", "-191", "--roots-mod", "57791")
+    assert d["primes"] == [2, 13] and d["power"] == 2
+    assert (
+        d["roots_mod_p"]["j_invariants"] == H["roots_mod_p"]["roots"] and len(H["roots_mod_p"]["roots"]) == 13
+    )
+    # W = x³ − x² + 1 for D = −23: its roots mod 59 by brute force
+    d = run_json(capsys, "hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59")
+    assert d["roots_mod_p"]["roots"] == [x for x in range(59) if (x**3 - x * x + 1) % 59 == 0]
+    code, out, _err = run(capsys, "hilbert", "-23", "--invariant", "double-eta", "--roots-mod", "59")
+    assert code == 0 and "the roots j of Psi(x, J), roots of H_D mod 59: [20, 42, 44]" in out
+
+
+def test_hilbert_double_eta_cm_curve(capsys):
+    d = run_json(capsys, "hilbert", "-191", "--invariant", "double-eta", "--cm-curve", "16")
+    c = d["cm_curve"]
+    p, t = c["p"], c["trace"]
+    assert p.bit_length() == 16 and sympy.isprime(p) and 4 * p == t * t + 191 * c["v"] ** 2
+    # brute-force point count of y² = x³ + a4 x + a6 over F_p (Euler's criterion)
+    n = 1 + sum(
+        1 if r == 0 else 2 if pow(r, (p - 1) // 2, p) == 1 else 0
+        for r in ((x**3 + c["a4"] * x + c["a6"]) % p for x in range(p))
+    )
+    assert n == c["order"] == p + 1 - t and c["roots_found"] == 13
+    d = run_json(capsys, "hilbert", "-191", "--invariant", "double-eta", "--cm-curve", "256")
+    c = d["cm_curve"]
+    assert c["p"].bit_length() == 256 and c["order"] == c["p"] + 1 - c["trace"]
+    H = run_json(capsys, "hilbert", "-191", "--roots-mod", str(c["p"]))
+    assert c["j"] in H["roots_mod_p"]["roots"]  # a root of formkit's H_D mod p
+    code, out, _err = run(capsys, "hilbert", "-191", "--invariant", "double-eta", "--cm-curve", "64")
+    assert code == 0 and "from the roots of W and Psi" in out and "has p + 1 - t =" in out
 
 
 def test_hilbert_cm_curve(capsys):

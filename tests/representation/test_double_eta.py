@@ -103,8 +103,10 @@ def test_pairs_and_gain():
         double_eta_polynomial(-455, (5, 7))  # both ramified
     with pytest.raises(errors.FormkitError):
         double_eta_polynomial(-71, (3, 3))
-    with pytest.raises(errors.FormkitError):
-        double_eta_polynomial(-71, (2, 5))
+    with pytest.raises(errors.FormkitError, match="only the pairs"):
+        double_eta_polynomial(-71, (2, 11))  # 2 only with 3, 5, 7, 13
+    with pytest.raises(errors.FormkitError, match="two distinct primes"):
+        double_eta_polynomial(-71, (2, 2))
     with pytest.raises(errors.DiscriminantError):
         double_eta_pair(-88)  # every pair of the list has an inert prime or two ramified ones
     for D in (-43, -88, -163):  # brute force over the list, by the Kronecker symbol (sympy)
@@ -124,7 +126,23 @@ def test_repeated_values_are_refused():
     assert sympy.Poly(P.coefficients, sympy.Symbol("x")).is_irreducible
 
 
-def test_dict_says_no_step_to_j():
+def test_dict_says_how_j_follows():
     d = double_eta_polynomial(-23).to_dict()
-    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and "not computed" in d["j_relation"]
+    assert d["invariant"] == "double-eta" and d["primes"] == [3, 13] and "are roots of H_D" in d["j_relation"]
+    # (5, 13): Ψ has degree 4 in J, and the step to j is not taken (said so)
+    assert "does not choose" in double_eta_polynomial(-120, (5, 13)).to_dict()["j_relation"]
     assert d["coefficients"] == [1, -1, 0, 1] and d["verification"]["radius_log2"] < -1
+
+
+# p₁ = 2 (module docstring, "The prime 2"): 2 split (D ≡ 1 mod 8) or ramified (D even, conductor odd)
+CASES_WITH_2 = [(-104, (2, 3)), (-47, (2, 3)), (-20, (2, 3)), (-84, (2, 5)), (-71, (2, 5)), (-36, (2, 5))]
+CASES_WITH_2 += [(-40, (2, 7)), (-63, (2, 7)), (-31, (2, 7)), (-56, (2, 13)), (-191, (2, 13)), (-79, (2, 13))]
+
+
+@pytest.mark.parametrize("D, pair", CASES_WITH_2)
+def test_pairs_with_two(D, pair):
+    assert _pair_applies(D, *pair)
+    P = double_eta_polynomial(D, pair)
+    assert P.exponent == 24 // math.gcd(24, pair[1] - 1) and P.degree == class_number(D)  # enumeration
+    assert sympy.Poly(P.coefficients, sympy.Symbol("x"), domain="ZZ").is_irreducible  # sympy (outside)
+    assert len(P.primes_checked) >= 6  # root counts modulo split primes matched the prime-form classes
