@@ -100,3 +100,21 @@ def test_bernoulli_value_against_mpmath():
         z.exact == -mpmath.mpf(mpmath.bernoulli(100)) / 100
         or abs(float(z.exact) + float(mpmath.bernoulli(100)) / 100) <= abs(float(z.exact)) * 1e-12
     )
+
+
+def test_theta_points_against_the_lattice_points_counted():
+    # counted: Σ_{n ≤ N} r_Q(n) is the number of (x, y) with Q(x, y) ≤ N (origin included), the
+    # work of the count; theta_points (area of the ellipse plus its boundary rows) bounds it
+    # from above and within a factor 2 once the ellipse holds a few hundred points
+    from formkit.analytic.theta_series import theta_points, theta_series
+
+    for (a, b, c), N in (
+        ((1, 0, 1), 10**5),
+        ((1, 1, 6), 10**5),
+        ((2, 1, 3), 3000),
+        ((5, 4, 7), 10**4),
+        ((1, 0, 97), 10**5),
+    ):
+        counted = int(theta_series((a, b, c), N).coefficients.sum())
+        estimate = theta_points(a, b, c, N)
+        assert counted <= estimate <= 2 * counted, ((a, b, c), N, counted, estimate)

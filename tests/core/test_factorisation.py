@@ -109,3 +109,42 @@ def test_old_name_is_the_same_path():
     from formkit.core.arith import factorint
 
     assert factorint(-360) == prime_factorisation(360)
+
+
+def test_the_cost_is_priced_on_the_cofactor_that_is_left(monkeypatch):
+    # counted: the digits of the composite cofactor after the primes below 2^32 are removed
+    # (2^20·3^7·1000003 here) are the digits that factorisation_cost is asked about
+    import sympy
+
+    import formkit.core.factorisation as F
+
+    p, q = sympy.nextprime(10**23 + 12345), sympy.nextprime(10**24 + 54321)
+    n = 2**20 * 3**7 * 1000003 * p * q
+    priced: list[int] = []
+    original = F.factorisation_cost
+    monkeypatch.setattr(F, "factorisation_cost", lambda d: priced.append(d) or original(d))
+    assert prime_factorisation(n) == {2: 20, 3: 7, 1000003: 1, p: 1, q: 1}
+    assert priced == [len(str(p * q))]
+
+
+@pytest.mark.slow
+def test_factorisation_cost_bounds_measured_semiprimes():
+    # the estimate is a worst case for two primes of equal size: measured CPU time of the child
+    # (resource.getrusage of children) stays below it and above a thirtieth of it (common
+    # practice; slow because it factors 40- and 50-digit semiprimes)
+    import resource
+
+    import sympy
+
+    from formkit.core.factorisation import _factor_in_child, factorisation_cost
+
+    for digits in (40, 50):
+        p = sympy.nextprime(10 ** (digits // 2 - 1) * 3)
+        q = sympy.nextprime(p * 3)
+        before = resource.getrusage(resource.RUSAGE_CHILDREN)
+        pairs = _factor_in_child(p * q)
+        after = resource.getrusage(resource.RUSAGE_CHILDREN)
+        used = after.ru_utime + after.ru_stime - before.ru_utime - before.ru_stime
+        estimate = factorisation_cost(len(str(p * q)))[0]
+        assert sorted(pairs) == [(p, 1), (q, 1)]
+        assert used <= estimate and estimate <= 30 * max(used, 0.1), (digits, used, estimate)
