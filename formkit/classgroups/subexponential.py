@@ -28,9 +28,10 @@ as they are found, so that a killed run resumes; the sieve runs on several local
 processes (``workers``).  The sieve parameters come from :data:`SIEVE_TABLE`.
 
 The result is conditional on GRH (Bach's bound and the interval of the Euler
-product).  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, CLI options
-for the store and the workers, automatic choice of this method (it is slower than
-baby-step giant-step at 30 digits; docs/performance.md), two large primes (issue 18).
+product).  On the command line: ``formkit group D --method subexponential --workers N
+--db FILE``.  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, automatic
+choice of this method (it is slower than baby-step giant-step at 30 digits;
+docs/performance.md), two large primes (issue 18).
 
 References
 ----------

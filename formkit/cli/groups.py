@@ -9,6 +9,7 @@ from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
 from .conventions import (
+    CommandError,
     add_discriminant_argument,
     add_limit_options,
     discriminant_of,
@@ -131,12 +132,26 @@ def _digits(args: argparse.Namespace) -> int | None:
     return d
 
 
+def _group_of(D: int, args: argparse.Namespace):
+    """``class_group(D, method)``, or for the subexponential method with its workers and store
+    ``class_group_subexponential(D, workers=…, store=…)``."""
+    if args.method != "subexponential":
+        return class_group(D, method=args.method)
+    from ..classgroups.subexponential import class_group_subexponential
+
+    return class_group_subexponential(D, workers=args.workers or 1, store=args.db)
+
+
 def _cmd_group(args: argparse.Namespace) -> int:
     from ..classgroups.orders import ideal_class_group
     from .conventions import emit
 
     D = discriminant_of(args)
-    G = class_group(D, method=args.method)
+    if (args.workers is not None or args.db is not None) and args.method != "subexponential":
+        raise CommandError(
+            "--workers and --db are for --method subexponential (its relation sieve and store)"
+        )
+    G = _group_of(D, args)
     payload = G.to_dict()
     # every listed class with its order and discrete logarithm (as in the text table)
     payload["classes"] = (
@@ -293,7 +308,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         epilog=(
             "examples:\n  formkit group -4004\n  formkit group 316 --json\n"
             "  formkit group 'Q(sqrt(94))' --digits 40\n  formkit group 'Q(sqrt(-3))' --conductor 6\n"
-            "  formkit group -4*3*10^2\n  formkit group -3*10^30 --method bsgs"
+            "  formkit group -4*3*10^2\n  formkit group -3*10^30 --method bsgs\n"
+            "  formkit group '-(10^30+7)' --method subexponential --workers 2 --db relations.db"
         ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
@@ -312,6 +328,20 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         default=None,
         metavar="N",
         help="D > 0: the regulator to N significant digits (mpmath, verified at higher precision)",
+    )
+    p.add_argument(
+        "--workers",
+        type=integer_type("--workers", 1),
+        default=None,
+        metavar="N",
+        help="--method subexponential: sieve for relations on N local processes (default 1)",
+    )
+    p.add_argument(
+        "--db",
+        default=None,
+        metavar="FILE",
+        help="--method subexponential: keep the relations in this SQLite file as they are found; "
+        "the same command with the same file continues a stopped run",
     )
     add_limit_options(p, "classes in the text table", 200)
     p.set_defaults(handler=_cmd_group)

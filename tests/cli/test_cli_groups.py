@@ -360,3 +360,23 @@ def test_group_json_holds_orders_and_discrete_logs(capsys):
         assert (x ** c["order"]).is_identity and G.element(c["discrete_log"]) == x
     assert run_json(["group", "-3"], capsys)["structure"] == "C1"
     assert run_json(["group", "-3", "--method", "enumeration"], capsys)["method"] == "enumeration"
+
+
+def test_group_subexponential_with_workers_and_a_store(tmp_path, capsys):
+    # the relation store: a second run with the same file reads the relations back, and both
+    # runs give the group of baby-step giant-step (an independent method)
+    D = "-(10^10+3)"  # fundamental: 10^10 + 3 = 7·1428571429 ≡ 3 (mod 4), squarefree (sympy)
+    store = tmp_path / "relations.db"
+    first = main(
+        ["group", D, "--method", "subexponential", "--workers", "2", "--db", str(store), "--json", "--quiet"]
+    )
+    one = json.loads(capsys.readouterr().out)
+    second = main(["group", D, "--method", "subexponential", "--db", str(store), "--json", "--quiet"])
+    two = json.loads(capsys.readouterr().out)
+    main(["group", D, "--method", "bsgs", "--json", "--quiet"])
+    reference = json.loads(capsys.readouterr().out)
+    assert first == second == 0 and one["invariants"] == two["invariants"] == reference["invariants"]
+    assert one["method"] == two["method"] == "subexponential"
+    assert re.search(r"[1-9]\d* read back from the store", two["detail"])
+    code = main(["group", "-23", "--workers", "2"])
+    assert code == 2 and "--method subexponential" in capsys.readouterr().err
