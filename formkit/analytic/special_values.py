@@ -45,14 +45,18 @@ def _tangent_numbers(n: int) -> list[int]:
     Brent and Harvey's in-place algorithm [3] (Algorithm TangentNumbers): ``O(n²)``
     additions and multiplications of integers by small integers, no division.
     """
+    from ..core.progress import progress_bar
+
     T = [0] * (n + 1)
     if n >= 1:
         T[1] = 1
     for k in range(2, n + 1):
         T[k] = (k - 1) * T[k - 1]
-    for k in range(2, n + 1):
-        for j in range(k, n + 1):
-            T[j] = (j - k) * T[j - 1] + (j - k + 2) * T[j]
+    with progress_bar(total=n * (n - 1) // 2, desc=f"tangent numbers T_1..T_{n}", unit="step") as bar:
+        for k in range(2, n + 1):
+            for j in range(k, n + 1):
+                T[j] = (j - k) * T[j - 1] + (j - k + 2) * T[j]
+            bar.update(n - k + 1)
     return T
 
 
