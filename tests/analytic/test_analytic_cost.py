@@ -118,3 +118,13 @@ def test_theta_points_against_the_lattice_points_counted():
         counted = int(theta_series((a, b, c), N).coefficients.sum())
         estimate = theta_points(a, b, c, N)
         assert counted <= estimate <= 2 * counted, ((a, b, c), N, counted, estimate)
+
+
+def test_critical_line_walk_is_priced_as_a_whole():
+    # every point is a series at s = 1/2 + it; their sum (growing with t: the bits that cancel in
+    # Γ at large t) is checked before the first point, so a long walk is refused at once
+    from formkit.analytic.l_series import critical_line_samples, series_cost
+
+    assert series_cost(-23, "1/2+10000i", 10)[0] > 100 * series_cost(-23, "1/2+10i", 10)[0]
+    with budget("20s"), pytest.raises(BudgetError, match=r"at 50 points up to t = 10000"):
+        critical_line_samples(-23, 10**4, points=50)
