@@ -126,8 +126,11 @@ def _guards():
 def _check(argv: list[str], capsys, tmp_path, monkeypatch) -> None:
     monkeypatch.chdir(tmp_path)
     full = [*argv, "--quiet", "--budget", "20s,1G"]
-    with _guards():
-        code = main(full)
+    try:
+        with _guards():
+            code = main(full)
+    except _Runaway as exc:  # name the command line (hypothesis does not report BaseExceptions)
+        raise _Runaway(f"{exc}: formkit {' '.join(full)}") from None
     _out, err = capsys.readouterr()
     assert "Traceback" not in err and "internal error" not in err, (full, err)
     if code == 0:
