@@ -39,7 +39,7 @@ half is solved.  Here ``0 ≤ G < 2^30`` and ``ψ ∈ {0, 1}``, every coefficien
 below ``2^45``, and each rounded coefficient's distance to its integer is checked to be
 below ``1/4``.  A leaf of ``W`` coefficients, whose contributions from the left are then
 all in, is solved modulo the prime ``p = 2^30 − 35``: ``G ≡ (1/ψ mod p, q^W)·(C − acc)``,
-the inverse computed once from ``ψ`` by its recurrence, the product by FFT on two
+the inverse computed once by Newton's iteration modulo ``p``, the products by FFT on two
 balanced 15-bit limbs (rounding checked the same way).  The residue determines ``G``
 because ``0 ≤ H(n) < p`` for ``n < 6·10^9``: ``H(n)`` is at most the number of reduced
 forms ``(a, b, c)``, ``|b| ≤ a ≤ c``, of discriminant ``−n``; then ``3a² ≤ n`` and ``b``, of
@@ -174,18 +174,44 @@ def _balanced(x):
 _LEAF: dict = {}
 
 
+def _mul_low(a, b, n: int) -> tuple[Any, float]:
+    """``a·b mod (p, q^n)`` in ``[0, p)`` (int64) for int64 arrays of length ``≥ n``, by FFT
+    on the balanced limbs (rounding checked)."""
+    np = _numpy()
+    a0, a1 = (np.fft.rfft(x, 2 * n) for x in _balanced(a[:n]))
+    b0, b1 = (np.fft.rfft(x, 2 * n) for x in _balanced(b[:n]))
+    return _combine(a0, a1, b0, b1, n)
+
+
+def _combine(a0, a1, b0, b1, n: int) -> tuple[Any, float]:
+    """The limb products of two spectra (of length ``2n``) put together modulo ``p``."""
+    np = _numpy()
+    p00, e1 = _round_checked(np.fft.irfft(a0 * b0, 2 * n)[:n], "a product modulo p")
+    p01, e2 = _round_checked(np.fft.irfft(a0 * b1 + a1 * b0, 2 * n)[:n], "a product modulo p")
+    p11, e3 = _round_checked(np.fft.irfft(a1 * b1, 2 * n)[:n], "a product modulo p")
+    shift2 = pow(2, 2 * _LIMB, PRIME)
+    g = (p00 % PRIME + ((p01 % PRIME) << _LIMB) % PRIME + (p11 % PRIME) * shift2 % PRIME) % PRIME
+    return g, max(e1, e2, e3)
+
+
 def _leaf_inverse(W: int):
-    """Spectra (length ``2W``) of the limbs of ``1/ψ mod (p, q^W)``, by the recurrence
-    ``u(k) = −Σ_{j ≥ 1, T_j ≤ k} u(k − T_j)``, ``u(0) = 1``, in int64 modulo ``p``."""
+    """Spectra (length ``2W``) of the limbs of ``u = 1/ψ mod (p, q^W)``, by Newton's iteration
+    ``u ← u·(2 − ψu)`` modulo ``q^{2m}`` from ``u = 1`` (each step doubles the correct terms)."""
     np = _numpy()
     if W not in _LEAF:
-        t = _triangular_indices(W)[1:]
-        u = np.zeros(W, dtype=np.int64)
-        u[0] = 1
-        for k in range(1, W):
-            tt = t[: np.searchsorted(t, k, side="right")]
-            u[k] = -int(u[k - tt].sum()) % PRIME
-        u0, u1 = _balanced(u)
+        psi = np.zeros(W, dtype=np.int64)
+        psi[_triangular_indices(W)] = 1
+        u = np.ones(1, dtype=np.int64)
+        m = 1
+        while m < W:
+            m *= 2
+            uu = np.zeros(m, dtype=np.int64)
+            uu[: len(u)] = u
+            e, _ = _mul_low(psi, uu, m)
+            e = (-e) % PRIME
+            e[0] = (e[0] + 2) % PRIME
+            u, _ = _mul_low(uu, e, m)
+        u0, u1 = _balanced(u[:W])
         _LEAF[W] = (np.fft.rfft(u0, 2 * W), np.fft.rfft(u1, 2 * W))
     return _LEAF[W]
 
@@ -194,17 +220,11 @@ def _leaf_solve(rhs, W: int) -> tuple[Any, float]:
     """``(1/ψ)·rhs mod (p, q^W)`` in ``[0, p)`` (int64)."""
     np = _numpy()
     I0, I1 = _leaf_inverse(W)
-    r0, r1 = _balanced(rhs)
-    R0, R1 = np.fft.rfft(r0, 2 * W), np.fft.rfft(r1, 2 * W)
-    p00, e1 = _round_checked(np.fft.irfft(R0 * I0, 2 * W)[:W], "a leaf product")
-    p01, e2 = _round_checked(np.fft.irfft(R0 * I1 + R1 * I0, 2 * W)[:W], "a leaf product")
-    p11, e3 = _round_checked(np.fft.irfft(R1 * I1, 2 * W)[:W], "a leaf product")
-    shift2 = pow(2, 2 * _LIMB, PRIME)
-    g = (p00 % PRIME + ((p01 % PRIME) << _LIMB) % PRIME + (p11 % PRIME) * shift2 % PRIME) % PRIME
-    return g, max(e1, e2, e3)
+    r0, r1 = (np.fft.rfft(x, 2 * W) for x in _balanced(rhs))
+    return _combine(r0, r1, I0, I1, W)
 
 
-def _seven_series(K: int, leaf: int = 1 << 15, segment: int = 1 << 22) -> tuple[Any, float]:
+def _seven_series(K: int, leaf: int = 1 << 16, segment: int = 1 << 22) -> tuple[Any, float]:
     """``(G(0..K) as int32, largest rounding distance)``, ``G(k) = H(8k − 1)``, by the division
     ``G = C/ψ`` of the module docstring (leaves of ``leaf`` coefficients, ``6c`` sieved in
     segments of ``segment``)."""
@@ -258,10 +278,20 @@ def _seven_series(K: int, leaf: int = 1 << 15, segment: int = 1 << 22) -> tuple[
                 spectra[w] = spec
         f = np.fft.rfft(G[lo:mid].astype(np.float64), w)
         f *= spec
-        out, err = _round_checked(np.fft.irfft(f, w)[w // 2 :], "a middle product")
+        spec = None  # (memory: the large spectra are not kept)
+        out = np.fft.irfft(f, w)[w // 2 :]
         del f
+        r = np.rint(out)
+        out -= r
+        np.abs(out, out=out)
+        err = float(out.max())
+        del out
+        if err >= ROUNDING_TOLERANCE:  # pragma: no cover - far from happening at these sizes
+            raise ArithmeticError(
+                f"FFT rounding error {err:.3g} in a middle product exceeds {ROUNDING_TOLERANCE}"
+            )
         worst[0] = max(worst[0], err)
-        acc[mid:hi] += out
+        acc[mid:hi] += r.astype(np.int64)
         solve(mid, hi)
 
     solve(0, top)
