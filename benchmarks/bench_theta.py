@@ -14,7 +14,7 @@ and class-group invariants from the known h against the enumeration path, in one
   when h and the genus count force it, else ``class_group(D, method="enumerate")``).
 
 Run:  nice -n 10 python benchmarks/bench_theta.py [--bounds 1e6,1e7,1e8] [--window 4000]
-      [--skip-sweep-above 2e8] [--skip-old-above 2e8]
+      [--skip-sweep-above 2e8] [--skip-old-above 2e8] [--skip-alone-above 2e8]
       (``--bounds ""`` runs only the invariants part, ``--no-invariants`` only the first)
 """
 
@@ -48,7 +48,7 @@ def timed(fn):
     return out, cpu() - c, time.perf_counter() - t
 
 
-def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float) -> None:
+def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float, skip_alone_above: float) -> None:
     """All D in [−N, −3] chunk by chunk (the chunks of build_table's theta engine, largest
     first): theta with the d_K ≡ 1 (mod 8) third from the Kronecker–Hurwitz relation (the
     engine's default), theta with that third swept (the previous path), theta alone and the
@@ -69,8 +69,9 @@ def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float) -> 
         L, H = max(3, -hi), -lo
         h, c, _ = timed(lambda L=L, H=H: class_number_array(L, H))
         ct += c
-        _, c, _ = timed(lambda L=L, H=H: class_number_array(L, H, complete=False))
-        ca += c
+        if skip_alone_above >= N:
+            _, c, _ = timed(lambda L=L, H=H: class_number_array(L, H, complete=False))
+            ca += c
         if skip_old_above >= N:
             o, c, _ = timed(lambda L=L, H=H: class_number_array(L, H, seven="sweep"))
             cold += c
@@ -90,7 +91,7 @@ def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float) -> 
     print(
         f"N = {N:.0e} ({len(chunks)} chunks): FFT series {cs:.1f} s; relation series {cr:.1f} s "
         f"(rounding {rel_err:.1e}, peak RSS so far {rss_relation:.0f} MB); theta + relation {new:.1f} s; "
-        f"theta + swept seventh {secs(old if cold else 0)}; theta alone {alone:.1f} s; "
+        f"theta + swept seventh {secs(old if cold else 0)}; theta alone {secs(alone if ca else 0)}; "
         f"sweep {secs(csw)}; compared and agree: {agree}; "
         f"(theta + swept seventh)/(theta + relation) {ratio(old if cold else 0)}, "
         f"sweep/(theta + relation) {ratio(csw)}; peak RSS {peak_mb():.0f} MB",
@@ -104,11 +105,12 @@ def main() -> None:
     ap.add_argument("--window", type=int, default=4000)
     ap.add_argument("--skip-sweep-above", type=float, default=2e8)
     ap.add_argument("--skip-old-above", type=float, default=2e8, help="theta with the seventh swept")
+    ap.add_argument("--skip-alone-above", type=float, default=2e8, help="theta alone (complete=False)")
     ap.add_argument("--no-invariants", action="store_true")
     a = ap.parse_args()
     print(f"load average {os.getloadavg()[0]:.1f}; CPU seconds of this process")
     for N in (int(float(x)) for x in a.bounds.split(",") if x):
-        class_number_run(N, a.skip_sweep_above, a.skip_old_above)
+        class_number_run(N, a.skip_sweep_above, a.skip_old_above, a.skip_alone_above)
     if a.no_invariants:
         return
     for centre in (10**6, 10**7):
