@@ -30,8 +30,9 @@ The right side is elementary; no class number appears on it.  (``k = 1, 2, 3, 4`
 ``C`` divided by ``ψ``.  ``4σ(n) − 3λ(n)`` and ``4σ(m) − 6λ(m)`` come from one sieve over
 the divisor pairs ``d < e``, ``de = n`` (``d ≤ √n``), segment by segment.
 
-*The division, exactly.*  ``1/ψ`` has integer coefficients that grow like ``exp(c√k)``, so
-it is never formed.  The quotient is built from left to right by divide and conquer
+*The division, exactly.*  ``1/ψ`` has integer coefficients that grow like ``exp(c√k)``
+(``ψ = (q²; q²)²_∞/(q; q)_∞`` by Gauss's product, so ``1/ψ`` grows like a partition
+function), so it is never formed over ℤ.  The quotient is built from left to right by divide and conquer
 (the "relaxed"/online order): for a block ``[lo, hi)`` the left half is solved, its
 contribution ``Σ G(i)·ψ(k − i)`` to the right half is added by one real FFT of length
 ``hi − lo`` (a middle product: the wrap-around only hits the left half), then the right
@@ -51,15 +52,15 @@ and every ``6c(k)`` against divisibility by 6.
 References
 ----------
 .. [1] A. Hurwitz, "Über Relationen zwischen Classenanzahlen binärer quadratischer
-       Formen von negativer Determinante", Math. Ann. 25 (1885), 157–196.
+       Formen von negativer Determinante", Math. Ann. 25 (1885), 157–196 (pages from memory).
 .. [2] D. Zagier, "Nombres de classes et formes modulaires de poids 3/2", C. R. Acad.
-       Sci. Paris 281 (1975), 883–886.
+       Sci. Paris 281 (1975), 883–886 (pages from memory).
 .. [3] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138,
        Springer 1993, §5.3 (Hurwitz class numbers).
 .. [4] C. G. J. Jacobi, *Fundamenta nova theoriae functionum ellipticarum*, 1829 (four
        squares).
 .. [5] J. van der Hoeven, "Relax, but don't be too lazy", J. Symbolic Comput. 34 (2002),
-       479–542 (online multiplication and division).
+       479–542 (online multiplication and division; pages from memory).
 """
 
 from __future__ import annotations
