@@ -153,7 +153,7 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
         source = "computed now"
     rows = [r for r in rows if r.discriminant < 0 and (not args.fundamental or r.conductor == 1)]
     provenance = (
-        f"{source}; unconditional: h by {'theta series' if args.engine == 'theta' else 'counting'}, "
+        f"{source}; unconditional: h by {'theta series and the Kronecker–Hurwitz relation' if args.engine == 'theta' else 'counting'}, "
         "structure forced by h or from explicit relations"
     )
     if args.statistics:
@@ -213,8 +213,8 @@ def _cmd_group_counts(args: argparse.Namespace, start, stop, fmt: str) -> int:
 
 
 def _method_name(engine: str) -> str:
-    """The method key (``enumeration`` or ``theta``) of a run with this ``--engine``."""
-    return "theta" if engine == "theta" else "enumeration"
+    """The method key (``enumeration`` or ``theta-relation``) of a run with this ``--engine``."""
+    return "theta-relation" if engine == "theta" else "enumeration"
 
 
 def _method_words(method: str) -> str:
@@ -222,6 +222,8 @@ def _method_words(method: str) -> str:
     words = {
         "enumeration": "enumeration (counting reduced forms)",
         "theta": "the three-squares theta series (D with d_K ≡ 1 mod 8: counting reduced forms)",
+        "theta-relation": "the three-squares theta series (D with d_K ≡ 1 mod 8: the Kronecker–Hurwitz "
+        "class number relation)",
     }
     return " and ".join(words.get(m.strip(), m.strip()) for m in method.split("+"))
 

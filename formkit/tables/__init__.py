@@ -9,6 +9,8 @@
 * :mod:`~formkit.tables.parallel` — building a store on all cores or a Dask cluster;
 * :mod:`~formkit.tables.theta` — Hurwitz class numbers and ``h(D)`` from the theta
   series of three squares (``r₃(n) = 12(H(4n) − 2H(n))``);
+* :mod:`~formkit.tables.hurwitz_relation` — ``H(n)`` for ``n ≡ 7 (mod 8)`` from the
+  Kronecker–Hurwitz class number relation (the third the theta series leaves open);
 * :mod:`~formkit.tables.structure` — class-group invariants from the known ``h``;
 * :mod:`~formkit.tables.statistics` — p-ranks and the other counts users tabulate,
   beside the Cohen–Lenstra and Gerth predictions.
@@ -22,6 +24,8 @@ the theta series, structures forced by ``h`` or built from explicit relations.  
 
 from .display import *  # noqa: F403
 from .display import __all__ as _display_all
+from .hurwitz_relation import *  # noqa: F403
+from .hurwitz_relation import __all__ as _relation_all
 from .parallel import *  # noqa: F403
 from .parallel import __all__ as _parallel_all
 from .rows import *  # noqa: F403
@@ -41,6 +45,7 @@ __all__ = [
     *_parallel_all,
     *_store_all,
     *_theta_all,
+    *_relation_all,
     *_structure_all,
     *_statistics_all,
 ]

@@ -215,10 +215,10 @@ def table_cost(
     loops to ``√|D|`` plus about a microsecond per ``D`` (measured here, rounded up).
     Where the theta series is used (``engine="theta"``, or ``"auto"`` beyond
     :data:`~formkit.tables.rows.THETA_CROSSOVER`): the FFT series to ``|D|`` once per
-    worker (``1.5·10⁻⁷·|D|`` s, about 16 bytes per integer up to ``|D|``), the windows
-    (``4·10⁻⁷`` s per ``D``) and the sweep of the ``d_K ≡ 1 (mod 8)`` part
-    (``1.2·10⁻¹⁰·√|D|`` s per ``D``); fitted to ``benchmarks/bench_theta.py`` at
-    ``10⁷`` and ``10⁸`` (docs/performance.md, "Tables at scale") and rounded up.
+    worker (``1.5·10⁻⁷·|D|`` s, about 16 bytes per integer up to ``|D|``), the quotient of
+    the Kronecker–Hurwitz relation to ``|D|/8`` once per worker (``2·10⁻⁷·|D|`` s) and the
+    windows (``4·10⁻⁷`` s per ``D``); fitted to ``benchmarks/bench_theta.py`` at ``10⁷`` and
+    ``10⁸`` (docs/performance.md, "Tables at scale") and rounded up.
     Positive ranges, and invariants, cost one class-group computation per
     discriminant, priced at the largest ``|D|`` by
     :func:`formkit.core.enumeration.enumeration_cost` (about half the integers are
@@ -232,8 +232,8 @@ def table_cost(
     True
     >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
     True
-    >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta: 122 CPU-s, 1.5 GB measured
-    >>> 120 < t < 250 and 1.5 * 2**30 < m < 3 * 2**30
+    >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta + relation: 50 CPU-s, 1.5 GB measured
+    >>> 50 < t < 150 and 1.5 * 2**30 < m < 3 * 2**30
     True
     """
     from ..classgroups.baby_step_giant_step import bsgs_cost
@@ -254,7 +254,7 @@ def table_cost(
                 and not invariants
                 and (engine == "theta" or (engine == "auto" and M >= THETA_CROSSOVER))
             ):
-                seconds += 1.5e-7 * M + count * (4e-7 + 1.2e-10 * root)
+                seconds += 3.5e-7 * M + count * 4e-7
                 memory = max(memory, 16 * M + 200 * min(count, CHUNK_THETA))
             elif b < 0 and not invariants:
                 seconds += 3e-6 * root + 1e-6 * count * (1 + math.log(root + 2))

@@ -195,6 +195,11 @@ METHOD_DESCRIPTIONS = {
     "theta": "class numbers by the three-squares theta series r3(n) = 12(H(4n) - 2H(n)) (Gauss, Disq. "
     "art. 291-292) with theta^3 by FFT and a checked rounding error, non-maximal orders removed by "
     "Moebius inversion, unconditional; the D whose fundamental part is 1 (mod 8) by counting reduced forms",
+    "theta-relation": "class numbers by the three-squares theta series r3(n) = 12(H(4n) - 2H(n)) (Gauss, "
+    "Disq. art. 291-292) with theta^3 by FFT and a checked rounding error, non-maximal orders removed by "
+    "Moebius inversion, unconditional; the D whose fundamental part is 1 (mod 8) by the Kronecker-Hurwitz "
+    "class number relation sum_t H(4n - t^2) = 2 sigma(n) - lambda(n) (Hurwitz 1885), solved exactly "
+    "for H(8k - 1) by division by the triangular series (formkit.tables.hurwitz_relation)",
 }
 
 #: How the invariants of a chunk's rows were obtained (stores built with invariants).
@@ -212,12 +217,12 @@ def chunk_method(spec: ChunkSpec) -> str:
     Examples
     --------
     >>> chunk_method(ChunkSpec(-100, -3, engine="theta")), chunk_method(ChunkSpec(-100, -3))
-    ('theta', 'enumeration')
+    ('theta-relation', 'enumeration')
     >>> chunk_method(ChunkSpec(5, 100, engine="theta"))
     'enumeration'
     """
     if spec.hi < 0 and _negative_engine(spec) == "theta":
-        return "theta"
+        return "theta-relation"  # ("theta": stores written when the d_K ≡ 1 (mod 8) third was swept)
     return "enumeration"
 
 

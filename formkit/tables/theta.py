@@ -26,9 +26,12 @@ H(16) = 3/2`` give ``6, 12, 8, 6``.  What the relation determines:
 
 So the theta series gives ``H`` — hence, by removing non-maximal orders, ``h`` — of every
 discriminant whose fundamental discriminant is ``≢ 1 (mod 8)``, unconditionally.  For
-the other third of the discriminants ``H(n)`` (``n ≡ 7 mod 8``) is the number of all
-reduced forms of discriminant ``−n``, counted by the sweep of
-:mod:`formkit.tables.sweep` on the class ``n ≡ 7 (mod 8)`` only, and ``H(4^k n) = 2^k H(n)``.
+the other third of the discriminants ``H(n)`` (``n ≡ 7 mod 8``) comes, by default
+(``seven="relation"``), from the Kronecker–Hurwitz class number relation
+(:mod:`formkit.tables.hurwitz_relation`: ``Σ_j H(8(k − T_j) − 1)`` is elementary in ``σ``
+and ``λ``, solved by an exact division by the triangular series), or (``seven="sweep"``)
+is the number of all reduced forms of discriminant ``−n``, counted by the sweep of
+:mod:`formkit.tables.sweep` on the class ``n ≡ 7 (mod 8)`` only; and ``H(4^k n) = 2^k H(n)``.
 
 *Removing non-maximal orders.*  Every form of content ``g`` is ``g`` times a primitive
 form of discriminant ``−n/g²``, so ``H(n) = Σ_{g² | n} h_w(−n/g²)`` with
@@ -41,8 +44,9 @@ of this is done on the integers ``6·H(n)``.
 ``ψ(q²)θ²``, ``ψ(q²)²θ`` up to ``N/16``), each rounded with the largest distance to an
 integer checked below ``1/4``.  The Hurwitz numbers are then assembled window by window,
 ``T(4^k·n') = 2^k·T(n') + (2^k − 1)·r₃(n')/2`` with ``T = 6H``, so a chunk ``[L, H]`` of a
-table needs the series up to ``H`` (kept per process) and the sweep only for the
-``n' ≡ 7 (mod 8)`` of its own windows ``[L/(g²4^k), H/(g²4^k)]``.
+table needs the series up to ``H`` (kept per process, as is the quotient of the relation
+up to ``H/8``), or the sweep only for the ``n' ≡ 7 (mod 8)`` of its own windows
+``[L/(g²4^k), H/(g²4^k)]``.
 
 References
 ----------
@@ -52,6 +56,8 @@ References
 .. [3] D. A. Cox, *Primes of the Form x² + ny²*, 2nd ed., Wiley 2013, Theorem 7.24.
 .. [4] A. S. Mosunov and M. J. Jacobson Jr., "Unconditional class group tabulation of
        imaginary quadratic fields to |Δ| < 2⁴⁰", Math. Comp. 85 (2016), 1983–2009.
+.. [5] A. Hurwitz, "Über Relationen zwischen Classenanzahlen binärer quadratischer
+       Formen von negativer Determinante", Math. Ann. 25 (1885), 157–196.
 """
 
 from __future__ import annotations
@@ -63,6 +69,7 @@ from fractions import Fraction
 
 from ..core.arith import as_int
 from ..errors import FormkitError
+from .hurwitz_relation import cached_seven, seven_values
 from .sweep import _count_class_seven, _mobius_table, _need_numpy, _numpy
 from .three_squares import ROUNDING_TOLERANCE, _theta_coefficients, cached_series, r3_upto
 
@@ -116,24 +123,37 @@ def three_square_counts(bound: int, *, block: int | None = None) -> list[int]:
     return _r3_upto(bound, block)[0].tolist()
 
 
-def _count_seven(lo: int, hi: int):
-    """``R(m)``, the number of all reduced forms of discriminant ``−m``, for the
-    ``m ≡ 7 (mod 8)`` in ``[lo, hi]`` (int64, increasing ``m``), by the sweep."""
+#: How the ``n ≡ 7 (mod 8)`` are obtained: the Kronecker–Hurwitz relation or the sweep.
+SEVEN_METHODS = ("relation", "sweep")
+
+
+def _check_seven(seven: str) -> str:
+    if seven not in SEVEN_METHODS:
+        raise FormkitError(f"seven must be 'relation' or 'sweep', not {seven!r}")
+    return seven
+
+
+def _count_seven(lo: int, hi: int, seven: str = "relation"):
+    """``H(m)`` — the number of all reduced forms of discriminant ``−m`` — for the
+    ``m ≡ 7 (mod 8)`` in ``[lo, hi]`` (int64, increasing ``m``), by the Kronecker–Hurwitz
+    relation (``seven="relation"``) or the sweep (``"sweep"``)."""
     np = _numpy()
     first = lo + (7 - lo) % 8
     if first > hi:
         return np.zeros(0, dtype=np.int64)
+    if seven == "relation":
+        return seven_values(np.arange(first, hi + 1, 8, dtype=np.int64))
     return _count_class_seven(first, hi).astype(np.int64)
 
 
-def _six_hurwitz_window(lo: int, hi: int, series, complete: bool = True):
+def _six_hurwitz_window(lo: int, hi: int, series, complete: bool = True, seven: str = "relation"):
     """``T(n) = 6·H(n)`` for ``lo ≤ n ≤ hi`` (``lo ≥ 1``) as int64; ``−1`` where the theta
     series says nothing and ``complete`` is False.
 
     With ``n = 4^k·n'``, ``4 ∤ n'``: ``T(n) = 2^k·T(n') + (2^k − 1)·r₃(n')/2`` (the
     recursion ``H(4m) = r₃(m)/12 + 2H(m)`` unrolled; ``r₃(4m) = r₃(m)``), with
     ``T(n') = 0`` for ``n' ≡ 1, 2 (mod 4)``, ``T(n') = r₃(n')/4`` for ``n' ≡ 3 (mod 8)``
-    and ``T(n') = 6·R(n')`` (reduced forms, the sweep) for ``n' ≡ 7 (mod 8)``.
+    and ``T(n') = 6·H(n')`` (the relation or the sweep) for ``n' ≡ 7 (mod 8)``.
     """
     np = _numpy()
     W = hi - lo + 1
@@ -157,7 +177,7 @@ def _six_hurwitz_window(lo: int, hi: int, series, complete: bool = True):
         first = a + (7 - a) % 8
         if first <= b:
             pos = slice(first * q - lo, b * q - lo + 1, 8 * q)
-            T0[pos] = 6 * _count_seven(first, b) if complete else -1
+            T0[pos] = 6 * _count_seven(first, b, seven) if complete else -1
         q *= 4
         kk += 1
     T = (T0 << k) + ((1 << k) - 1) * (r3 >> 1)
@@ -166,18 +186,18 @@ def _six_hurwitz_window(lo: int, hi: int, series, complete: bool = True):
     return T
 
 
-def _six_hurwitz(N: int, *, complete: bool = True):
+def _six_hurwitz(N: int, *, complete: bool = True, seven: str = "relation"):
     """``(6·H(0..N) as int64, known mask, rounding error)``; ``6·H(0) = −½`` is stored as 0.
 
     With ``complete`` the values the theta series leaves open (``n = 4^k·m``,
-    ``m ≡ 7 mod 8``) are filled in from the sweep; otherwise they are ``−1`` and
+    ``m ≡ 7 mod 8``) are filled in (relation or sweep); otherwise they are ``−1`` and
     ``known`` is False there.
     """
     np = _numpy()
     series = cached_series(N, N // 4)
     T = np.zeros(N + 1, dtype=np.int64)
     if N >= 1:
-        T[1:] = _six_hurwitz_window(1, N, series, complete)
+        T[1:] = _six_hurwitz_window(1, N, series, complete, seven)
     known = T >= 0
     return T, known, series.rounding_error
 
@@ -187,23 +207,31 @@ class HurwitzNumbers:
     """Hurwitz class numbers ``H(n)`` for ``1 ≤ n ≤ bound`` and how they were obtained.
 
     ``values[n]`` is ``H(n)`` as a :class:`fractions.Fraction` (``values[0]`` is
-    ``−1/12`` by convention); ``from_sweep`` counts the ``n = 4^k·m``, ``m ≡ 7 (mod 8)``,
-    taken from the reduced-form sweep; ``rounding_error`` is the largest distance of an
-    FFT coefficient to its integer (the result is exact when it is below ``1/4``).
+    ``−1/12`` by convention); ``seven_count`` counts the ``n = 4^k·m``, ``m ≡ 7 (mod 8)``,
+    and ``seven`` says how they were obtained (``"relation"``: the Kronecker–Hurwitz
+    relation, :mod:`formkit.tables.hurwitz_relation`; ``"sweep"``: counting reduced forms);
+    ``rounding_error`` is the largest distance of an FFT coefficient to its integer (the
+    result is exact when it is below ``1/4``).
     """
 
     bound: int
     values: tuple[Fraction, ...]
-    from_sweep: int
+    seven_count: int
     rounding_error: float
+    seven: str = "relation"
 
     @property
     def provenance(self) -> str:
         """How the values were obtained (one sentence)."""
+        how = (
+            "the Kronecker–Hurwitz class number relation (exact division by ψ)"
+            if self.seven == "relation"
+            else "counting reduced forms"
+        )
         return (
             f"unconditional: r₃(n) = 12(H(4n) − 2H(n)) with θ³ by FFT (largest rounding "
-            f"distance {self.rounding_error:.1e} < 1/4), and {self.from_sweep} values with "
-            "n = 4^k·m, m ≡ 7 (mod 8), by counting reduced forms"
+            f"distance {self.rounding_error:.1e} < 1/4), and {self.seven_count} values with "
+            f"n = 4^k·m, m ≡ 7 (mod 8), by {how}"
         )
 
     def __repr__(self) -> str:
@@ -231,13 +259,16 @@ class HurwitzNumbers:
         return f"${vals}{more}$ ({self.provenance})"
 
 
-def hurwitz_class_numbers(bound: int) -> HurwitzNumbers:
+def hurwitz_class_numbers(bound: int, *, seven: str = "relation") -> HurwitzNumbers:
     """Hurwitz class numbers ``H(0), …, H(bound)`` from the theta series of three squares.
 
     Parameters
     ----------
     bound : int
         The largest ``n`` (``≥ 0``).
+    seven : {"relation", "sweep"}
+        How the ``n = 4^k·m``, ``m ≡ 7 (mod 8)``, are obtained: the Kronecker–Hurwitz
+        relation (default) or counting reduced forms.
 
     Returns
     -------
@@ -246,7 +277,7 @@ def hurwitz_class_numbers(bound: int) -> HurwitzNumbers:
     Raises
     ------
     FormkitError
-        If ``bound`` is negative.
+        If ``bound`` is negative or ``seven`` is not one of the two.
 
     Examples
     --------
@@ -256,17 +287,21 @@ def hurwitz_class_numbers(bound: int) -> HurwitzNumbers:
 
     References
     ----------
-    Gauss, *Disquisitiones* art. 291–292 (three squares); Cohen GTM 138 §5.3.
+    Gauss, *Disquisitiones* art. 291–292 (three squares); Cohen GTM 138 §5.3; Hurwitz,
+    Math. Ann. 25 (1885) (the class number relation).
     """
     bound = as_int(bound, "bound")
     if bound < 0:
         raise FormkitError(f"bound must be ≥ 0, not {bound}")
+    seven = _check_seven(seven)
     _need_numpy()
-    T, _, err = _six_hurwitz(bound, complete=True)
+    T, _, err = _six_hurwitz(bound, complete=True, seven=seven)
+    if seven == "relation":
+        err = max(err, cached_seven((bound + 1) // 8)[1])
     vals = [Fraction(int(t), 6) for t in T.tolist()]
     vals[0] = Fraction(-1, 12)
     nseven = sum(1 for n in range(1, bound + 1) if _odd_part_4(n) % 8 == 7)
-    return HurwitzNumbers(bound, tuple(vals), nseven, err)
+    return HurwitzNumbers(bound, tuple(vals), nseven, err, seven)
 
 
 def _odd_part_4(n: int) -> int:
@@ -290,23 +325,24 @@ def determined_by_theta(D: int) -> bool:
     return _odd_part_4(-D) % 8 != 7
 
 
-_SMALL_T: dict = {"cap": 0, "T": None}
+_SMALL_T: dict = {}
 
 
 _SMALL_LOCK = threading.Lock()
 
 
-def _small_six_hurwitz(upto: int):
-    """``6·H(0..cap)``, ``cap ≥ upto``, kept per process (grows by doubling)."""
+def _small_six_hurwitz(upto: int, seven: str = "relation"):
+    """``6·H(0..cap)``, ``cap ≥ upto``, kept per process and method (grows by doubling)."""
     with _SMALL_LOCK:
-        if _SMALL_T["cap"] < upto:
-            cap = max(1 << 16, 2 * _SMALL_T["cap"], upto)
-            _SMALL_T["T"] = _six_hurwitz(cap)[0]
-            _SMALL_T["cap"] = cap
-        return _SMALL_T["T"]
+        cap, T = _SMALL_T.get(seven, (0, None))
+        if cap < upto:
+            cap = max(1 << 16, 2 * cap, upto)
+            T = _six_hurwitz(cap, seven=seven)[0]
+            _SMALL_T[seven] = (cap, T)
+        return T
 
 
-def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):
+def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True, seven: str = "relation"):
     """``h(−n)`` for ``n ∈ [L, H]`` by Möbius inversion of ``H(n) = Σ_{g² | n} h_w(−n/g²)``
     (int64; 0 off discriminants, −1 where an input is unknown).
 
@@ -320,6 +356,8 @@ def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):
     gmax = math.isqrt(H)
     mu = _mobius_table(max(gmax, 1))
     series = cached_series(H, H // 4)
+    if complete and seven == "relation":
+        cached_seven((H + 1) // 8)  # the quotient up to H/8 once, before the windows
     small_cap = max(1 << 16, H >> 6)
     small = None
     for g in range(1, gmax + 1):
@@ -331,10 +369,10 @@ def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):
             continue
         if g > 1 and mhi <= small_cap and complete:
             if small is None:
-                small = _small_six_hurwitz(small_cap)
+                small = _small_six_hurwitz(small_cap, seven)
             vals = small[mlo : mhi + 1]
         else:
-            vals = _six_hurwitz_window(mlo, mhi, series, complete)
+            vals = _six_hurwitz_window(mlo, mhi, series, complete, seven)
         first = g2 * mlo - L
         sl = slice(first, first + g2 * (mhi - mlo) + 1, g2)
         if mu[g] == 1:
@@ -352,13 +390,14 @@ def _class_numbers_from_hurwitz(L: int, H: int, complete: bool = True):
     return h
 
 
-def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> dict:
+def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, seven: str = "relation") -> dict:
     """Class numbers ``h(D)`` of the negative discriminants ``start ≤ D ≤ stop`` by theta series.
 
     ``H(n)`` for all ``n ≤ −start`` from ``r₃`` (module docstring), then the non-maximal
     orders removed by Möbius inversion.  The theta series alone gives every ``D`` whose
     fundamental discriminant is ``≢ 1 (mod 8)``; with ``complete`` (default) the others
-    come from the reduced-form sweep, otherwise they are left out.
+    come from the Kronecker–Hurwitz relation (``seven="relation"``, default) or the
+    reduced-form sweep (``seven="sweep"``), otherwise they are left out.
 
     Parameters
     ----------
@@ -366,6 +405,8 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> d
         The range, inclusive (only ``D ≤ −3`` are counted).
     complete : bool
         Also give the discriminants with fundamental part ``≡ 1 (mod 8)``.
+    seven : {"relation", "sweep"}
+        How ``H(n)`` for ``n ≡ 7 (mod 8)`` is obtained when ``complete``.
 
     Returns
     -------
@@ -375,7 +416,7 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> d
     Raises
     ------
     FormkitError
-        If ``start > stop``.
+        If ``start > stop`` or ``seven`` is not one of the two.
 
     Examples
     --------
@@ -387,16 +428,17 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> d
     References
     ----------
     Mosunov and Jacobson, Math. Comp. 85 (2016) (the method at scale); Gauss,
-    *Disquisitiones* art. 291–292.
+    *Disquisitiones* art. 291–292; Hurwitz, Math. Ann. 25 (1885).
     """
     start, stop = as_int(start, "start"), as_int(stop, "stop")
     if start > stop:
         raise FormkitError(f"the range start must not exceed its end, not start={start} > stop={stop}")
+    seven = _check_seven(seven)
     _need_numpy()
     L, H = max(3, -stop), -start
     if L > H:
         return {}
-    h = class_number_array(L, H, complete=complete)
+    h = class_number_array(L, H, complete=complete, seven=seven)
     out = {}
     for n, v in zip(range(L, H + 1), h.tolist()):
         if n % 4 in (0, 3) and v >= 0:
@@ -404,6 +446,7 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True) -> d
     return out
 
 
-def class_number_array(L: int, H: int, *, complete: bool = True):
-    """``h(−n)`` for ``n ∈ [L, H]`` as an int64 array (0 off discriminants, −1 if unknown)."""
-    return _class_numbers_from_hurwitz(max(L, 1), H, complete)
+def class_number_array(L: int, H: int, *, complete: bool = True, seven: str = "relation"):
+    """``h(−n)`` for ``n ∈ [L, H]`` as an int64 array (0 off discriminants, −1 if unknown);
+    ``seven`` as in :func:`class_numbers_by_theta`."""
+    return _class_numbers_from_hurwitz(max(L, 1), H, complete, _check_seven(seven))

@@ -119,13 +119,14 @@ def test_store_names_the_method_of_each_chunk(tmp_path):
     db = str(tmp_path / "t.db")
     build_table(db, -2000, -1001, invariants=False, workers=1, engine="theta")
     info = table_info(db)
-    assert info["meta"]["method"] == "theta" and "theta series" in info["meta"]["description"]
+    assert info["meta"]["method"] == "theta-relation" and "theta series" in info["meta"]["description"]
+    assert "Kronecker-Hurwitz" in info["meta"]["description"]
     assert "enumeration" not in info["meta"]["method"]
-    assert info["methods"] == {"theta": [[-2000, -1001]]}
+    assert info["methods"] == {"theta-relation": [[-2000, -1001]]}
     build_table(db, -1000, -3, invariants=False, workers=1, engine="numpy")
     info = table_info(db)
-    assert info["meta"]["method"] == "enumeration + theta"
-    assert info["methods"] == {"theta": [[-2000, -1001]], "enumeration": [[-1000, -3]]}
+    assert info["meta"]["method"] == "enumeration + theta-relation"
+    assert info["methods"] == {"theta-relation": [[-2000, -1001]], "enumeration": [[-1000, -3]]}
     rows = {r.discriminant: r.class_number for r in query_table(db)}
     assert rows == class_numbers(-2000, -3)  # both methods agree with the sweep
 
@@ -165,5 +166,5 @@ def test_theta_chunks_on_a_dask_cluster(tmp_path):
         build_table(db, -30_000, -3, invariants=False, chunk_size=10_000, engine="theta", cluster=address)
         s = build_table(db, -60_000, -3, invariants=False, chunk_size=10_000, engine="theta", cluster=address)
     assert (s.chunks_already_done, s.chunks_computed) == (3, 3)
-    assert table_info(db)["methods"] == {"theta": [[-60_000, -3]]}
+    assert table_info(db)["methods"] == {"theta-relation": [[-60_000, -3]]}
     assert [r.to_dict() for r in query_table(db)] == [r.to_dict() for r in query_table(ref)]
