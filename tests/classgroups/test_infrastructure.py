@@ -277,3 +277,37 @@ def test_regulator_search_has_a_memory_budget(monkeypatch):
     with pytest.raises(FormkitError, match="memory budget"):
         real_class_number(10**12 + 29)  # R ≈ 2.7·10^5: thousands of baby steps
     assert real_class_number(10**20 + 1).class_number_narrow == 352006328  # R tiny: the cycle closes at once
+
+
+@pytest.mark.parametrize(
+    "D", [10**10 + 1, 10**11 + 12, 4 * (10**11 + 7), 10**12 + 1, 10**12 + 5, 10**11 + 21]
+)
+def test_structure_cost_counts_the_cycle_walks(D, monkeypatch):
+    # counted: the canonical forms computed (each one walk of a cycle of about R/1.19 forms)
+    # against the walks the estimate assumes; an upper estimate within a factor 12
+    from formkit.core.factorisation import prime_factorisation
+
+    walks = [0]
+    original = infra._NarrowOps.canonical
+
+    def counting(self, x):
+        walks[0] += 1
+        return original(self, x)
+
+    monkeypatch.setattr(infra._NarrowOps, "canonical", counting)
+    infra.real_class_group(D)
+    r = infra.real_class_number(D)
+    h = r.class_number_narrow
+    assumed = 1.0 if h == 1 else 5 * (math.log2(h) + 1) * (len(prime_factorisation(h)) + 1)
+    seconds, _ = infra.structure_cost(h, genus_count(D), r.regulator)
+    assert walks[0] <= assumed <= 12 * max(walks[0], 2), (D, walks[0], assumed)
+    assert seconds >= walks[0] * (r.regulator / 1.19) * 1e-6
+
+
+def test_structure_of_a_long_cycle_is_refused_before_the_walks():
+    # D = 10^14 + 33: h⁺ = 24 and R ≈ 1.14·10^6, so dozens of walks of ~10^6 forms
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+
+    with budget("20s"), pytest.raises(BudgetError, match=r"h⁺ = 24; each comparison of classes walks"):
+        real_class_group(10**14 + 33)
