@@ -58,6 +58,7 @@ import flint
 from ..errors import FormkitError
 from .arith import as_int, xgcd
 from .displays import SentenceDisplay
+from .modular_hermite import tall_hermite_rows
 
 __all__ = [
     "HermiteForm",
@@ -131,8 +132,8 @@ def _read(A: MatrixLike, ncols: int | None, name: str = "A") -> tuple[int, list[
     return n, rows
 
 
-def _dense(rows: Sequence[Mapping[int, int]], cols: Sequence[int]) -> flint.fmpz_mat:
-    """The FLINT matrix of ``rows`` restricted to ``cols`` (in that order)."""
+def _dense_lists(rows: Sequence[Mapping[int, int]], cols: Sequence[int]) -> list[list[int]]:
+    """The rows restricted to ``cols`` (in that order), as dense lists."""
     pos = {c: k for k, c in enumerate(cols)}
     out = []
     for r in rows:
@@ -140,6 +141,12 @@ def _dense(rows: Sequence[Mapping[int, int]], cols: Sequence[int]) -> flint.fmpz
         for j, x in r.items():
             v[pos[j]] = x
         out.append(v)
+    return out
+
+
+def _dense(rows: Sequence[Mapping[int, int]], cols: Sequence[int]) -> flint.fmpz_mat:
+    """The FLINT matrix of ``rows`` restricted to ``cols`` (in that order)."""
+    out = _dense_lists(rows, cols)
     if not out:
         return flint.fmpz_mat(0, len(cols), [])
     return flint.fmpz_mat(out)
@@ -336,14 +343,22 @@ def _is_diagonal(B: list[list[int]]) -> bool:
     return all(not x or i == j for i, r in enumerate(B) for j, x in enumerate(r))
 
 
-def _dense_smith(M: flint.fmpz_mat) -> tuple[list[int], list[list[int]]]:
+def _dense_smith(
+    M: flint.fmpz_mat, rows: Sequence[Sequence[int]] | None = None, hermite: str = "sublattice"
+) -> tuple[list[int], list[list[int]]]:
     """``(d, V)`` for a dense k-column matrix: ``d`` the k diagonal entries of a Smith form
     of ``M·V`` (ones first, then entries > 1 each dividing the next, then zeros) and
-    ``V`` unimodular (k × k, as lists)."""
+    ``V`` unimodular (k × k, as lists).  ``rows`` are the rows of ``M`` as lists (if the
+    caller has them); ``hermite`` chooses how the Hermite form of ``M`` is computed (see
+    :func:`lattice_quotient`)."""
     k = M.ncols()
     if k == 0:
         return [], []
-    H = M.hnf() if M.nrows() else M
+    H = None
+    if hermite == "sublattice":
+        H = tall_hermite_rows(M, rows)
+    if H is None:
+        H = M.hnf() if M.nrows() else M
     Hl = [[int(x) for x in r] for r in H.tolist()]
     Hl = [r for r in Hl if any(r)]
     # rows whose pivot is 1: their column is a unit vector; clear the rest of the row
@@ -531,7 +546,9 @@ class LatticeQuotient:
         return f"LatticeQuotient(Z^{self.ncols} / L ≅ {inv})"
 
 
-def lattice_quotient(A: MatrixLike, *, ncols: int | None = None) -> LatticeQuotient:
+def lattice_quotient(
+    A: MatrixLike, *, ncols: int | None = None, hermite: str = "sublattice"
+) -> LatticeQuotient:
     """The abelian group ``Zⁿ/L``, L the lattice spanned by the rows of ``A``.
 
     This is the linear algebra of a group presented by generators (the n columns) and
@@ -547,6 +564,13 @@ def lattice_quotient(A: MatrixLike, *, ncols: int | None = None) -> LatticeQuoti
         are fine: unit pivots are eliminated first (see the module docstring).
     ncols : int, optional
         The number of generators n.
+    hermite : {"sublattice", "whole"}
+        How the Hermite form of the dense rest (after the elimination) is computed:
+        ``"sublattice"`` (default) from a sublattice of full rank, its determinant and a
+        membership test modulo it (:func:`formkit.core.modular_hermite.tall_hermite_rows`;
+        falls back to the whole matrix when the rest has rank below its number of
+        columns), ``"whole"`` by FLINT on all rows at once (the earlier path, kept as a
+        reference).  Both give the same result.
 
     Returns
     -------
@@ -577,22 +601,29 @@ def lattice_quotient(A: MatrixLike, *, ncols: int | None = None) -> LatticeQuoti
     Cohen, GTM 138, §2.4.3 (the Smith normal form and the structure of finitely
     generated abelian groups, Theorem 2.4.12 and Algorithm 2.4.14).
     """
+    if hermite not in ("sublattice", "whole"):
+        raise FormkitError(f"hermite must be 'sublattice' or 'whole', not {hermite!r}")
     n, rows = _read(A, ncols)
     m = len(rows)
     if n >= SPARSE_FROM_COLUMNS:
         elim = _eliminate(n, rows)
     else:
         elim = _Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
-    M = _dense(elim.rows, elim.alive)
-    d, Vd = _dense_smith(M)
+    dense_rows = _dense_lists(elim.rows, elim.alive)
+    M = flint.fmpz_mat(dense_rows) if dense_rows else flint.fmpz_mat(0, len(elim.alive), [])
+    d, Vd = _dense_smith(M, dense_rows, hermite)
     if M.nrows() and Vd:
-        # check: every remaining relation lies in the lattice of diag(d) after V
-        W = M * flint.fmpz_mat(Vd)
-        for i, di in enumerate(d):
-            for r in range(W.nrows()):
-                x = int(W[r, i])
-                if (di == 0 and x) or (di and x % di):  # pragma: no cover - internal check
-                    raise ArithmeticError("Smith normal form: a relation does not vanish")
+        # check: every remaining relation lies in the lattice of diag(d) after V (the
+        # columns with d_i = 1 hold trivially)
+        check = [i for i, di in enumerate(d) if di != 1]
+        if check:
+            W = M * flint.fmpz_mat([[row[i] for i in check] for row in Vd])
+            for c, i in enumerate(check):
+                di = d[i]
+                for r in range(W.nrows()):
+                    x = int(W[r, c])
+                    if (di == 0 and x) or (di and x % di):  # pragma: no cover - internal check
+                        raise ArithmeticError("Smith normal form: a relation does not vanish")
     return LatticeQuotient(n, m, elim, d, Vd)
 
 
