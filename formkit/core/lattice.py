@@ -15,12 +15,17 @@ by its rows in Zⁿ.  This module gives
   of any vector.  This is the linear algebra of class groups presented by relations
   between prime forms.
 
-Method.  Rows are read sparsely.  First a structured Gaussian elimination removes, one
-at a time, a column that has an entry ±1 in some row, choosing the pair of least
-Markowitz cost (fill-in); each step is a unimodular column operation followed by the
-removal of a row and a column that have become a unit vector, so it changes neither the
-quotient nor the Smith form apart from a 1 on the diagonal.  The small dense rest is
-put into Hermite normal form by FLINT (python-flint's ``fmpz_mat.hnf``); rows whose
+Method.  Rows are read sparsely.  First a structured Gaussian elimination
+(:mod:`formkit.core.sparse_elimination`) removes, one at a time, a column that has an
+entry ±1 in some row, choosing the pair of least Markowitz cost (fill-in); each step is
+a unimodular column operation followed by the removal of a row and a column that have
+become a unit vector, so it changes neither the quotient nor the Smith form apart from
+a 1 on the diagonal.  The dense rest (a few hundred columns, but as many rows as
+relations are left) is put into Hermite normal form through a sublattice of full rank,
+its determinant and a membership test modulo that determinant
+(:mod:`formkit.core.modular_hermite`, with FLINT's ``fmpz_mat.hnf`` on a nearly square
+matrix [4]), or by FLINT on all rows when the rest has
+rank below its number of columns (``hermite="whole"`` forces this); rows whose
 pivot is 1 are removed by column operations in the same way, and what remains (the
 columns with pivot > 1, usually a handful) is diagonalised by alternating row and
 column Hermite normal forms (Kannan–Bachem), the column transformations being tracked;
@@ -43,11 +48,12 @@ References
        fields", CRYPTO '90, LNCS 537 (structured Gaussian elimination); J. Buchmann,
        S. Düllmann, "Distributed class group computation" (1991) for its use on class
        group relation matrices (from memory).
+.. [4] P. D. Domich, R. Kannan, L. E. Trotter, "Hermite normal form computation using
+       modulo determinant arithmetic", Math. Oper. Res. 12 (1987), 50–59.
 """
 
 from __future__ import annotations
 
-import heapq
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass, field
 from functools import cached_property
@@ -59,6 +65,7 @@ from ..errors import FormkitError
 from .arith import as_int, xgcd
 from .displays import SentenceDisplay
 from .modular_hermite import tall_hermite_rows
+from .sparse_elimination import Elimination, eliminate_unit_pivots
 
 __all__ = [
     "HermiteForm",
@@ -74,10 +81,6 @@ __all__ = [
 MatrixLike = Union[Sequence[Sequence[int]], Sequence[Mapping[int, int]], "flint.fmpz_mat"]
 
 Rows = tuple[tuple[int, ...], ...]
-
-#: Structured elimination stops when the cheapest remaining pivot would fill in more
-#: than this many new entries, or when no entry ±1 is left; the rest goes dense.
-MARKOWITZ_LIMIT = 20000
 
 #: Below this many columns the sparse elimination is skipped (FLINT on the whole matrix
 #: is faster than the bookkeeping).
@@ -258,84 +261,6 @@ def hermite_normal_form(A: MatrixLike, *, ncols: int | None = None, transform: b
 
 
 # ---------------------------------------------------------------------------
-# structured Gaussian elimination (unit pivots)
-
-
-@dataclass
-class _Elimination:
-    """The result of eliminating unit pivots from the relations ``rows`` (in place).
-
-    ``steps`` lists ``(j, s, w)``: column j was eliminated with pivot sign s = ±1 and
-    pivot row ``w`` (a dict without column j); generator j equals
-    ``−s·Σ_k w[k]·e_k`` in the quotient.  ``rows`` are the remaining relations on the
-    columns ``alive``.
-    """
-
-    steps: list[tuple[int, int, dict[int, int]]]
-    rows: list[dict[int, int]]
-    alive: list[int]
-
-
-def _eliminate(n: int, rows: list[dict[int, int]], limit: int = MARKOWITZ_LIMIT) -> _Elimination:
-    """Structured Gaussian elimination on unit pivots (see the module docstring)."""
-    live = {i: r for i, r in enumerate(rows) if r}
-    cols: dict[int, set[int]] = {j: set() for j in range(n)}
-    for i, r in live.items():
-        for j in r:
-            cols[j].add(i)
-    steps: list[tuple[int, int, dict[int, int]]] = []
-    # heap of (column weight, column); stale entries are skipped
-    heap = [(len(s), j) for j, s in cols.items() if s]
-    heapq.heapify(heap)
-    while heap:
-        wgt, j = heapq.heappop(heap)
-        s = cols.get(j)
-        if s is None or len(s) != wgt:
-            if s:
-                heapq.heappush(heap, (len(s), j))
-            continue
-        best = None
-        for i in s:
-            r = live[i]
-            if abs(r[j]) == 1 and (best is None or len(r) < len(live[best])):
-                best = i
-        if best is None:
-            continue  # no unit entry in this column now; it may get one later
-        cost = (len(live[best]) - 1) * (wgt - 1)
-        if cost > limit:
-            heapq.heappush(heap, (wgt, j))
-            # the cheapest column by weight is too expensive: every other is too
-            break
-        piv = live.pop(best)
-        sgn = piv.pop(j)
-        for k in piv:
-            cols[k].discard(best)
-        for i in list(s):
-            if i == best:
-                continue
-            r = live[i]
-            f = r.pop(j) * sgn  # r ← r − f·(sgn·e_j + piv) clears column j
-            for k, x in piv.items():
-                y = r.get(k, 0) - f * x
-                if y:
-                    if k not in r:
-                        cols[k].add(i)
-                    r[k] = y
-                elif k in r:
-                    del r[k]
-                    cols[k].discard(i)
-            if not r:
-                del live[i]
-        del cols[j]
-        steps.append((j, sgn, piv))
-        for k in piv:
-            if cols[k]:
-                heapq.heappush(heap, (len(cols[k]), k))
-    alive = sorted(cols)
-    return _Elimination(steps=steps, rows=list(live.values()), alive=alive)
-
-
-# ---------------------------------------------------------------------------
 # dense Smith form with the column transformation
 
 
@@ -460,7 +385,7 @@ class LatticeQuotient:
     ``0 ≤ c_i < d_i`` (``c_i`` any integer where ``d_i = 0``).
     """
 
-    def __init__(self, n: int, nrows: int, elim: _Elimination, d: list[int], Vd: list[list[int]]) -> None:
+    def __init__(self, n: int, nrows: int, elim: Elimination, d: list[int], Vd: list[list[int]]) -> None:
         self.ncols = n
         self.nrows = nrows
         self._steps = elim.steps
@@ -606,9 +531,9 @@ def lattice_quotient(
     n, rows = _read(A, ncols)
     m = len(rows)
     if n >= SPARSE_FROM_COLUMNS:
-        elim = _eliminate(n, rows)
+        elim = eliminate_unit_pivots(n, rows)
     else:
-        elim = _Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
+        elim = Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
     dense_rows = _dense_lists(elim.rows, elim.alive)
     M = flint.fmpz_mat(dense_rows) if dense_rows else flint.fmpz_mat(0, len(elim.alive), [])
     d, Vd = _dense_smith(M, dense_rows, hermite)

@@ -1,33 +1,37 @@
-"""Hermite normal forms of tall integer matrices of full column rank, by a sublattice of known index.
+"""Hermite normal forms of tall integer matrices, by a sublattice and a membership test.
 
-A relation matrix after structured elimination (:mod:`formkit.core.lattice`) is tall: a
-few hundred columns, thousands of rows.  A Hermite normal form that takes every row
-into the elimination (FLINT's ``fmpz_mat.hnf`` on the whole matrix) spends most of
-its time on the rows that add nothing.  Here the lattice ``L`` spanned by the rows of
-``M`` (m × k, rank k) is found instead as follows.
+A relation matrix after structured elimination (:mod:`formkit.core.sparse_elimination`)
+is tall: a few hundred columns, thousands of rows.  A Hermite normal form that takes
+every row into the elimination (FLINT's ``fmpz_mat.hnf`` on the whole matrix) spends
+most of its time on the rows that add nothing, and is slower still when the rank is
+below the number of columns.  Here the lattice ``L`` spanned by the rows of ``M``
+(m × k) is found instead as follows.
 
 1. **A sublattice.**  ``L'`` is spanned by k rows of ``M`` and a few random
    combinations ``Σ ε_i·row_i`` (``ε_i ∈ {−1, 0, 1}``) of all rows; ``L' ⊆ L``.  Its
-   Hermite normal form ``H`` (k × k, FLINT) is cheap: the matrix is almost square and
-   its entries are small.
-2. **A multiple of the index.**  ``h* = det H = ∏ H_ii = [Zᵏ : L']`` is a multiple of
-   ``[Zᵏ : L]``, and ``h*·Zᵏ ⊆ L' ⊆ L``: from here on everything can be read modulo
-   ``h*``, as in the Hermite normal form modulo a multiple of the determinant
-   (Domich–Kannan–Trotter [1]; Cohen [2], Algorithm 2.4.8).
+   Hermite normal form ``H`` (FLINT) is cheap: the matrix is almost square and its
+   entries are small.
+2. **A multiple of the index.**  When ``L'`` has rank k, ``h* = det H = ∏ H_ii =
+   [Zᵏ : L']`` is a multiple of ``[Zᵏ : L]``, and ``h*·Zᵏ ⊆ L' ⊆ L``: from here on
+   everything can be read modulo ``h*``, as in the Hermite normal form modulo a
+   multiple of the determinant (Domich–Kannan–Trotter [1]; Cohen [2], Algorithm 2.4.8).
+   (For rank r < k the same holds on the r pivot columns.)
 3. **Membership modulo h*.**  ``L' = L`` exactly when every row ``v`` of ``M`` lies in
-   ``L'``, i.e. ``v·H⁻¹`` is integral.  With ``H⁻¹ = N/δ`` (``δ`` divides ``h*``) this is
-   ``M·N ≡ 0 (mod δ)``: one integer matrix product (FLINT) and a test that δ divides
-   its entries.  If some row fails, ``L'`` grows by new random combinations
-   (the rows of ``H`` are kept) and steps 1–3 repeat; a combination with coefficients
-   ``{−1, 0, 1}`` misses a given index-``p`` overlattice with probability about
-   ``1/p``, so a few rounds suffice.
+   ``L'``: its coordinates ``v_P·H_P⁻¹`` on the pivot columns ``P`` are integers
+   (with ``H_P⁻¹ = N/δ``, δ dividing ``h*``: ``M_P·N ≡ 0 (mod δ)``, one integer
+   product) and, for rank r < k, they give back ``v``.  If some row fails, ``L'``
+   grows by new random combinations (the rows of ``H`` are kept, and when its rank is
+   short, as many more as the rank of ``M`` modulo a prime says are missing) and steps
+   1–3 repeat; a combination with coefficients ``{−1, 0, 1}`` misses a given
+   overlattice of prime index p with probability about ``1/p``, so a few rounds
+   suffice.
 
 The result is exact whatever the random choices: the Hermite normal form of a lattice
-is unique, and the membership test proves ``L' = L``.  When ``M`` has rank below k, or
-the rounds run out, :func:`tall_hermite_rows` returns ``None`` and the caller uses the
-Hermite form of the whole matrix.  (The random combinations are the usual way to shrink
-a relation matrix before a determinant: Cohen [2], §5.5 and §2.4, and the class group
-literature (Buchmann, Jacobson; from memory).)
+is unique, and the membership test proves ``L' = L``.  When ``M`` is not tall or the
+rounds run out, :func:`tall_hermite_rows` returns ``None`` and the caller uses the
+Hermite form of the whole matrix.  (The random combinations are a common way to shrink
+a relation matrix before a determinant, e.g. in the class group literature (Buchmann,
+Jacobson; from memory).)
 
 References
 ----------
@@ -56,38 +60,40 @@ EXTRA_COMBINATIONS = 6
 #: Hermite form of the whole matrix).
 ROUNDS = 6
 
-#: The prime used to check the rank of ``M`` when the sublattice has rank < k (a rank
-#: modulo p never exceeds the rank over Q).
+#: The prime modulo which the rank of ``M`` is taken when the sublattice has rank < k
+#: (only to choose how many combinations to add: a rank modulo p never exceeds the rank
+#: over Q, and the membership test decides).
 _RANK_PRIME = (1 << 61) - 1
 
 
-def lies_in_row_lattice(M: flint.fmpz_mat, H: flint.fmpz_mat) -> bool:
-    """Whether every row of ``M`` lies in the row lattice of the non-singular square ``H``.
+def lies_in_row_lattice(M: flint.fmpz_mat, H: Sequence[Sequence[int]]) -> bool:
+    """Whether every row of ``M`` lies in the row lattice of ``H``, a matrix in Hermite normal form.
 
-    Tested as ``M·N ≡ 0 (mod δ)`` for ``H⁻¹ = N/δ`` (one integer product).
+    With ``P`` the pivot columns of the r non-zero rows of ``H`` (``H_P`` upper
+    triangular, non-singular) and ``H_P⁻¹ = N/δ``: a row ``v`` lies in the lattice iff its
+    only possible coordinates ``x = v_P·H_P⁻¹`` are integers and ``x·H = v``; for all
+    rows at once, ``M_P·N ≡ 0 (mod δ)`` and ``(M_P·N)·H = δ·M`` (integer products).
 
     Parameters
     ----------
     M : flint.fmpz_mat
         m × k integer matrix.
-    H : flint.fmpz_mat
-        k × k non-singular integer matrix.
+    H : sequence of rows
+        An integer matrix in row echelon form with non-zero pivots (a Hermite normal
+        form, e.g. FLINT's), k columns; zero rows are ignored.
 
     Returns
     -------
     bool
 
-    Raises
-    ------
-    ZeroDivisionError
-        If ``H`` is singular (from FLINT).
-
     Examples
     --------
-    >>> H = flint.fmpz_mat([[2, 1], [0, 3]])
+    >>> H = [[2, 1], [0, 3]]
     >>> lies_in_row_lattice(flint.fmpz_mat([[2, 4], [0, 6], [4, 2]]), H)
     True
     >>> lies_in_row_lattice(flint.fmpz_mat([[1, 0]]), H)
+    False
+    >>> lies_in_row_lattice(flint.fmpz_mat([[2, 4, 6], [1, 2, 4]]), [[1, 2, 3]])  # rank 1
     False
 
     References
@@ -95,17 +101,29 @@ def lies_in_row_lattice(M: flint.fmpz_mat, H: flint.fmpz_mat) -> bool:
     Cohen, GTM 138, §2.4.2 (a vector lies in the lattice of a basis iff its coordinates
     in that basis are integers).
     """
-    if M.nrows() == 0:
+    m, k = M.nrows(), M.ncols()
+    Hr = [[int(x) for x in r] for r in H if any(r)]
+    if m == 0:
         return True
-    inv: Any = H.inv()
+    if not Hr:
+        return bool(M.is_zero())
+    piv = [next(j for j, x in enumerate(r) if x) for r in Hr]
+    r = len(Hr)
+    HP = flint.fmpz_mat([[row[j] for j in piv] for row in Hr])
+    sel = flint.fmpz_mat([[1 if j == piv[c] else 0 for c in range(r)] for j in range(k)])
+    inv: Any = HP.inv()
     num, den = inv.numer_denom()
     delta = int(den)
-    if delta == 1:
-        return True
-    # M·N/δ over Q: its common denominator is 1 iff δ divides every entry of M·N
-    Q: Any = flint.fmpq_mat(M * num) * flint.fmpq(1, delta)
-    _n, d = Q.numer_denom()
-    return int(d) == 1
+    X = (M * sel) * num
+    if delta != 1:
+        # X/δ over Q: its common denominator is 1 iff δ divides every entry of X
+        Q: Any = flint.fmpq_mat(X) * flint.fmpq(1, delta)
+        _n, d = Q.numer_denom()
+        if int(d) != 1:
+            return False
+    if r == k:
+        return True  # x·H = v holds on the pivot columns, which are all the columns
+    return bool(X * flint.fmpz_mat(Hr) == M * delta)
 
 
 def _combinations(M: flint.fmpz_mat, count: int, rng: random.Random) -> flint.fmpz_mat:
@@ -127,7 +145,7 @@ def tall_hermite_rows(
     rounds: int = ROUNDS,
     seed: int = 0,
 ) -> flint.fmpz_mat | None:
-    """The Hermite normal form (its k non-zero rows) of the row lattice of a tall ``M`` of rank k.
+    """The Hermite normal form (its non-zero rows) of the row lattice of a tall ``M``.
 
     See the module docstring for the method.  The result is exact and does not depend
     on ``seed``, which only changes the random combinations (and so the time).
@@ -135,7 +153,7 @@ def tall_hermite_rows(
     Parameters
     ----------
     M : flint.fmpz_mat
-        m × k integer matrix, expected to have rank k and m well above k.
+        m × k integer matrix with m well above k (any rank).
     rows : sequence of rows, optional
         The rows of ``M`` as Python integers, when the caller has them (saves a
         conversion of the whole matrix).
@@ -149,10 +167,10 @@ def tall_hermite_rows(
     Returns
     -------
     flint.fmpz_mat or None
-        The k × k upper triangular Hermite normal form (FLINT's convention, the same as
-        the non-zero rows of ``M.hnf()``), or ``None`` when ``M`` has fewer than
-        ``k + extra`` rows, rank below k (as far as a rank modulo a prime shows), or the
-        rounds ran out; the caller then computes ``M.hnf()``.
+        The r × k Hermite normal form, r the rank of ``M`` (FLINT's convention: the
+        same as the non-zero rows of ``M.hnf()``), or ``None`` when ``M`` has fewer
+        than ``k + extra`` rows or the rounds ran out; the caller then computes
+        ``M.hnf()``.
 
     Examples
     --------
@@ -160,7 +178,9 @@ def tall_hermite_rows(
     >>> tall_hermite_rows(M, extra=2)
     [2, 0]
     [0, 2]
-    >>> tall_hermite_rows(flint.fmpz_mat([[1, 2], [2, 4], [3, 6], [4, 8]]), extra=2) is None  # rank 1
+    >>> tall_hermite_rows(flint.fmpz_mat([[1, 2], [2, 4], [3, 6], [4, 8]]), extra=2)  # rank 1
+    [1, 2]
+    >>> tall_hermite_rows(flint.fmpz_mat([[1, 2], [3, 4]])) is None  # not tall
     True
 
     References
@@ -177,20 +197,17 @@ def tall_hermite_rows(
     lists: Sequence[Sequence[Any]] = rows if rows is not None else M.tolist()
     base = [[int(x) for x in lists[int(i * stride)]] for i in range(k)]
     S = _stack(base, _combinations(M, extra, rng))
-    rank_checked = False
+    target = None
     for _ in range(rounds):
-        H = S.hnf()
-        Hrows = [[int(x) for x in r] for r in H.tolist()[:k]]
-        if not any(Hrows[k - 1]):  # rank of the sublattice below k
-            if not rank_checked:
-                rank_checked = True
-                if flint.nmod_mat([[int(x) for x in r] for r in lists], _RANK_PRIME).rank() < k:
-                    return None  # M itself has (most likely) rank < k: the caller's general path
-            Hrows = [r for r in Hrows if any(r)]
-            S = _stack(Hrows, _combinations(M, extra + k - len(Hrows), rng))
-            continue
-        Hk = flint.fmpz_mat(Hrows)
-        if lies_in_row_lattice(M, Hk):
-            return Hk
-        S = _stack(Hrows, _combinations(M, extra, rng))
+        Hrows = [r for r in ([int(x) for x in row] for row in S.hnf().tolist()) if any(r)]
+        if lies_in_row_lattice(M, Hrows):
+            return flint.fmpz_mat(Hrows) if Hrows else flint.fmpz_mat(0, k, [])
+        more = extra
+        if len(Hrows) < k:
+            # the sublattice may lack rank: as many more combinations as the rank of M
+            # modulo a prime (≤ its rank over Q) says are missing
+            if target is None:
+                target = flint.nmod_mat([[int(x) for x in r] for r in lists], _RANK_PRIME).rank()
+            more += max(0, target - len(Hrows))
+        S = _stack(Hrows, _combinations(M, more, rng))
     return None

@@ -11,6 +11,7 @@ published tables) for relation matrices of class groups.
 from __future__ import annotations
 
 import random
+from fractions import Fraction
 
 import flint
 import pytest
@@ -42,15 +43,30 @@ def _flint_hnf_rows(rows):
 @settings(max_examples=150, deadline=None)
 @given(tall_matrices, st.integers(0, 3))
 def test_tall_hermite_equals_flint_on_the_whole_matrix(case, seed):
-    rows, k = case
+    rows, _k = case
     M = flint.fmpz_mat(rows)
     H = tall_hermite_rows(M, rows, extra=6, seed=seed)
-    if H is None:
-        # declined: M has rank < k (FLINT's rank over Z; the rounds running out has
-        # probability below 3^-36 here, each combination missing a needed row w.p. 1/3)
-        assert M.rank() < k
-        return
+    # never declined here (the rounds running out has probability below 3^-36: each
+    # combination misses a needed row with probability about 1/3)
+    assert H is not None
     assert [[int(x) for x in r] for r in H.tolist()] == _flint_hnf_rows(rows)
+
+
+@settings(max_examples=80, deadline=None)
+@given(st.integers(2, 6), st.integers(0, 5), st.integers(0, 10**6))
+def test_tall_hermite_rank_deficient_equals_flint(k, deficit, seed):
+    # rank r = k − deficit (at least 0): rows are random combinations of r random rows
+    rng = random.Random(seed)
+    r = max(0, k - deficit)
+    gens = [[rng.randint(-7, 7) for _ in range(k)] for _ in range(r)]
+    rows = [
+        [sum(rng.randint(-2, 2) * g[j] for g in gens) for j in range(k)]
+        for _ in range(k + 10 + rng.randrange(10))
+    ]
+    H = tall_hermite_rows(flint.fmpz_mat(rows), rows, seed=seed)
+    assert H is not None
+    want = _flint_hnf_rows(rows) if any(map(any, rows)) else []
+    assert [[int(x) for x in row] for row in H.tolist()] == want
 
 
 def test_tall_hermite_needs_more_rounds_and_gives_up_correctly():
@@ -74,9 +90,10 @@ def test_tall_hermite_needs_more_rounds_and_gives_up_correctly():
     assert outcomes == {True, False}
 
 
-def test_tall_hermite_declines_rank_deficient_and_short():
-    rows = [[i, 2 * i, 3 * i] for i in range(1, 20)]  # rank 1
-    assert tall_hermite_rows(flint.fmpz_mat(rows)) is None
+def test_tall_hermite_rank_one_and_short():
+    rows = [[i, 2 * i, 3 * i] for i in range(1, 20)]  # rank 1, lattice Z·(1, 2, 3)
+    H = tall_hermite_rows(flint.fmpz_mat(rows))
+    assert H is not None and H.tolist() == [[1, 2, 3]]
     assert tall_hermite_rows(flint.fmpz_mat([[1, 0], [0, 1]])) is None  # not tall
     assert tall_hermite_rows(flint.fmpz_mat(5, 0, [])) is None
 
@@ -101,7 +118,14 @@ def test_lies_in_row_lattice_by_rational_solving(case):
     ]
     Hs = Matrix(H)
     inside = all(all(x.is_integer for x in (Matrix([r]) * Hs.inv())) for r in rows)
-    assert lies_in_row_lattice(flint.fmpz_mat(rows), flint.fmpz_mat(H)) == inside
+    assert lies_in_row_lattice(flint.fmpz_mat(rows), H) == inside
+    # the lattice of the first row of H only (rank 1 unless k = 1): v = x·H[0] with x
+    # an integer, decided directly
+    h0 = H[0]
+    for r in rows:
+        x = Fraction(r[0], h0[0])
+        direct = x.denominator == 1 and all(x * h0[j] == r[j] for j in range(k))
+        assert lies_in_row_lattice(flint.fmpz_mat([r]), [h0]) == direct
 
 
 @settings(max_examples=120, deadline=None)
