@@ -16,8 +16,12 @@ relations, restricted here to fundamental ``D < 0``:
    until the reduced form has a smooth first coefficient (Cohen [2], Algorithm 5.5.2,
    step 3, the relation search of Hafner–McCurley).
 3. **Linear algebra.**  The quotient ``Zⁿ/L`` of the relation lattice is computed by
-   :func:`formkit.core.lattice.lattice_quotient` (sparse elimination of unit pivots, then
-   the Smith normal form of the dense rest).  Its order ``h*`` is a multiple of ``h``
+   :func:`formkit.core.lattice.lattice_quotient`: structured elimination of unit pivots
+   (:mod:`formkit.core.sparse_elimination`), the Hermite form of the tall dense rest
+   from a sublattice, its determinant and a membership test modulo it
+   (:mod:`formkit.core.modular_hermite`), then the Smith normal form of the few columns
+   whose pivot exceeds 1, with the column transformations for generators and discrete
+   logarithms.  Its order ``h*`` is a multiple of ``h``
    (the relations are true relations and the factor base generates); relations are
    added until ``h*`` lies in the GRH interval ``[h⁻, h⁺]`` of
    :func:`formkit.analytic.lseries.class_number_estimate` with ``h* < 2·h⁻``, which

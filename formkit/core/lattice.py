@@ -86,6 +86,12 @@ Rows = tuple[tuple[int, ...], ...]
 #: is faster than the bookkeeping).
 SPARSE_FROM_COLUMNS = 24
 
+#: Below this many columns of the dense rest, its Hermite form is FLINT's on the whole
+#: matrix even with ``hermite="sublattice"`` (measured: 0.33 against 0.14 ms for 14 × 4,
+#: 2.4 against 1.9 ms for 60 × 20 random matrices; the sublattice wins from some dozens
+#: of columns and thousands of rows on).
+SUBLATTICE_FROM_COLUMNS = 32
+
 
 # ---------------------------------------------------------------------------
 # reading matrices
@@ -280,7 +286,7 @@ def _dense_smith(
     if k == 0:
         return [], []
     H = None
-    if hermite == "sublattice":
+    if hermite == "sublattice" and k >= SUBLATTICE_FROM_COLUMNS:
         H = tall_hermite_rows(M, rows)
     if H is None:
         H = M.hnf() if M.nrows() else M
@@ -491,10 +497,10 @@ def lattice_quotient(
         The number of generators n.
     hermite : {"sublattice", "whole"}
         How the Hermite form of the dense rest (after the elimination) is computed:
-        ``"sublattice"`` (default) from a sublattice of full rank, its determinant and a
-        membership test modulo it (:func:`formkit.core.modular_hermite.tall_hermite_rows`;
-        falls back to the whole matrix when the rest has rank below its number of
-        columns), ``"whole"`` by FLINT on all rows at once (the earlier path, kept as a
+        ``"sublattice"`` (default) from a sublattice, its determinant and a membership
+        test modulo it (:func:`formkit.core.modular_hermite.tall_hermite_rows`; when the
+        rest has at least :data:`SUBLATTICE_FROM_COLUMNS` columns and is tall),
+        ``"whole"`` by FLINT on all rows at once (the earlier path, kept as a
         reference).  Both give the same result.
 
     Returns

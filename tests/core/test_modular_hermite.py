@@ -16,12 +16,13 @@ from fractions import Fraction
 import flint
 import pytest
 from _relation_matrices import relation_matrix
-from hypothesis import given, settings
+from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from sympy import ZZ, Matrix
 from sympy.matrices.normalforms import smith_normal_form as sympy_snf
 
 import formkit
+from formkit.core import lattice
 from formkit.core.lattice import lattice_quotient
 from formkit.core.modular_hermite import lies_in_row_lattice, tall_hermite_rows
 from formkit.errors import FormkitError
@@ -128,9 +129,15 @@ def test_lies_in_row_lattice_by_rational_solving(case):
         assert lies_in_row_lattice(flint.fmpz_mat([r]), [h0]) == direct
 
 
-@settings(max_examples=120, deadline=None)
-@given(tall_matrices)
-def test_quotient_invariants_sympy_and_both_paths(case):
+@pytest.fixture
+def sublattice_always(monkeypatch):
+    # the sublattice path from one column on (lattice_quotient skips it below 32)
+    monkeypatch.setattr(lattice, "SUBLATTICE_FROM_COLUMNS", 1)
+
+
+@settings(max_examples=120, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(case=tall_matrices)
+def test_quotient_invariants_sympy_and_both_paths(sublattice_always, case):
     rows, k = case
     new = lattice_quotient(rows, hermite="sublattice")
     old = lattice_quotient(rows, hermite="whole")
@@ -144,7 +151,7 @@ def test_quotient_invariants_sympy_and_both_paths(case):
 
 
 @pytest.mark.parametrize("D, n", [(-1000003, 40), (-493828, 60), (-10000019, 80)])
-def test_relation_matrices_both_paths_and_enumeration(D, n):
+def test_relation_matrices_both_paths_and_enumeration(sublattice_always, D, n):
     # many more relations than columns: the tall dense rest goes through the sublattice
     R = relation_matrix(D, n, extra=3 * n)
     G = formkit.class_group(D, method="enumeration")  # formkit's complete enumeration
