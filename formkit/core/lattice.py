@@ -64,7 +64,7 @@ import flint
 from ..errors import FormkitError
 from .arith import as_int, xgcd
 from .displays import SentenceDisplay
-from .modular_hermite import tall_hermite_rows
+from .modular_hermite import sublattice_hermite_forms
 from .sparse_elimination import Elimination, eliminate_unit_pivots
 
 __all__ = [
@@ -274,23 +274,22 @@ def _is_diagonal(B: list[list[int]]) -> bool:
     return all(not x or i == j for i, r in enumerate(B) for j, x in enumerate(r))
 
 
-def _dense_smith(
-    M: flint.fmpz_mat, rows: Sequence[Sequence[int]] | None = None, hermite: str = "sublattice"
-) -> tuple[list[int], list[list[int]]]:
+def _dense_smith(M: flint.fmpz_mat) -> tuple[list[int], list[list[int]]]:
     """``(d, V)`` for a dense k-column matrix: ``d`` the k diagonal entries of a Smith form
     of ``M·V`` (ones first, then entries > 1 each dividing the next, then zeros) and
-    ``V`` unimodular (k × k, as lists).  ``rows`` are the rows of ``M`` as lists (if the
-    caller has them); ``hermite`` chooses how the Hermite form of ``M`` is computed (see
-    :func:`lattice_quotient`)."""
+    ``V`` unimodular (k × k, as lists), from FLINT's Hermite form of the whole ``M``."""
     k = M.ncols()
     if k == 0:
         return [], []
-    H = None
-    if hermite == "sublattice" and k >= SUBLATTICE_FROM_COLUMNS:
-        H = tall_hermite_rows(M, rows)
-    if H is None:
-        H = M.hnf() if M.nrows() else M
-    Hl = [[int(x) for x in r] for r in H.tolist()]
+    H = M.hnf() if M.nrows() else M
+    return _hermite_smith([[int(x) for x in r] for r in H.tolist()], k)
+
+
+def _hermite_smith(Hl: list[list[int]], k: int) -> tuple[list[int], list[list[int]]]:
+    """``(d, V)`` as in :func:`_dense_smith` for the lattice of ``Hl``, a matrix in Hermite
+    normal form with k columns (zero rows allowed)."""
+    if k == 0:
+        return [], []
     Hl = [r for r in Hl if any(r)]
     # rows whose pivot is 1: their column is a unit vector; clear the rest of the row
     # by column operations (they change that row only): V = I − E on those rows
@@ -541,21 +540,41 @@ def lattice_quotient(
     else:
         elim = Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
     dense_rows = _dense_lists(elim.rows, elim.alive)
-    M = flint.fmpz_mat(dense_rows) if dense_rows else flint.fmpz_mat(0, len(elim.alive), [])
-    d, Vd = _dense_smith(M, dense_rows, hermite)
-    if M.nrows() and Vd:
-        # check: every remaining relation lies in the lattice of diag(d) after V (the
-        # columns with d_i = 1 hold trivially)
-        check = [i for i, di in enumerate(d) if di != 1]
-        if check:
-            W = M * flint.fmpz_mat([[row[i] for i in check] for row in Vd])
-            for c, i in enumerate(check):
-                di = d[i]
-                for r in range(W.nrows()):
-                    x = int(W[r, c])
-                    if (di == 0 and x) or (di and x % di):  # pragma: no cover - internal check
-                        raise ArithmeticError("Smith normal form: a relation does not vanish")
+    k = len(elim.alive)
+    M = flint.fmpz_mat(dense_rows) if dense_rows else flint.fmpz_mat(0, k, [])
+    if hermite == "sublattice" and k >= SUBLATTICE_FROM_COLUMNS:
+        # Hermite forms of growing sublattices L' ⊆ L; the test that every relation
+        # vanishes in Zᵏ/L' (below, through the Smith form of L') proves L' = L, and the
+        # last candidate is the whole matrix's form
+        for H in sublattice_hermite_forms(M, dense_rows):
+            d, Vd = _hermite_smith(H, k)
+            if _relations_vanish(M, d, Vd):
+                break
+        else:  # pragma: no cover - the last candidate is the Hermite form of L itself
+            raise ArithmeticError("Smith normal form: a relation does not vanish")
+    else:
+        d, Vd = _dense_smith(M)
+        if not _relations_vanish(M, d, Vd):  # pragma: no cover - internal check
+            raise ArithmeticError("Smith normal form: a relation does not vanish")
     return LatticeQuotient(n, m, elim, d, Vd)
+
+
+def _relations_vanish(M: flint.fmpz_mat, d: list[int], Vd: list[list[int]]) -> bool:
+    """Whether every row of ``M`` lies in the lattice ``{x : (x·V)_i ∈ d_i·Z}`` (the lattice
+    of the Smith form ``(d, V)``); only the columns with ``d_i ≠ 1`` need a test."""
+    if not M.nrows() or not Vd:
+        return True
+    check = [i for i, di in enumerate(d) if di != 1]
+    if not check:
+        return True
+    W = M * flint.fmpz_mat([[row[i] for i in check] for row in Vd])
+    for c, i in enumerate(check):
+        di = d[i]
+        for r in range(W.nrows()):
+            x = int(W[r, c])
+            if (di == 0 and x) or (di and x % di):
+                return False
+    return True
 
 
 # ---------------------------------------------------------------------------

@@ -44,12 +44,18 @@ References
 from __future__ import annotations
 
 import random
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 from typing import Any
 
 import flint
 
-__all__ = ["tall_hermite_rows", "lies_in_row_lattice", "EXTRA_COMBINATIONS", "ROUNDS"]
+__all__ = [
+    "tall_hermite_rows",
+    "sublattice_hermite_forms",
+    "lies_in_row_lattice",
+    "EXTRA_COMBINATIONS",
+    "ROUNDS",
+]
 
 #: Random combinations of all rows added to k rows of the matrix (per round).  A handful
 #: is enough in practice: each one removes a given overlattice of prime index p with
@@ -137,6 +143,74 @@ def _stack(rows: list[list[int]], extra: flint.fmpz_mat) -> flint.fmpz_mat:
     return flint.fmpz_mat(rows + [[int(x) for x in r] for r in extra.tolist()])
 
 
+def sublattice_hermite_forms(
+    M: flint.fmpz_mat,
+    rows: Sequence[Sequence[int]] | None = None,
+    *,
+    extra: int = EXTRA_COMBINATIONS,
+    rounds: int = ROUNDS,
+    seed: int = 0,
+) -> Iterator[list[list[int]]]:
+    """Hermite normal forms (non-zero rows) of growing sublattices ``L' ⊆ L`` of the row lattice of ``M``.
+
+    Steps 1 and 3 of the module docstring without the test: each form yielded spans a
+    sublattice of ``L`` containing the previous one, built from k rows of ``M`` and
+    ``extra`` more random combinations per round (more when its rank is short).  The
+    caller tests whether the rows of ``M`` lie in it (:func:`lies_in_row_lattice`, or a
+    cheaper test of its own, e.g. through a Smith form of the candidate) and stops;
+    after ``rounds`` candidates the Hermite form of the whole ``M`` (exactly ``L``) is
+    yielded last.
+
+    Parameters
+    ----------
+    M : flint.fmpz_mat
+        m × k integer matrix (any shape and rank).
+    rows : sequence of rows, optional
+        The rows of ``M`` as Python integers, when the caller has them.
+    extra, rounds, seed
+        As in :func:`tall_hermite_rows`.
+
+    Yields
+    ------
+    list of list of int
+        Hermite normal forms (FLINT's convention) of sublattices of ``L``, the last one
+        that of ``L``.
+
+    Examples
+    --------
+    >>> M = flint.fmpz_mat([[2, 0], [0, 4], [6, 2], [4, 4], [2, 2], [8, 6], [0, 2], [2, 6], [4, 0], [6, 6]])
+    >>> forms = list(sublattice_hermite_forms(M, extra=2, rounds=2))
+    >>> forms[-1], all(lies_in_row_lattice(flint.fmpz_mat(H), forms[-1]) for H in forms if H)
+    ([[2, 0], [0, 2]], True)
+
+    References
+    ----------
+    Domich–Kannan–Trotter (1987); Cohen, GTM 138, Algorithm 2.4.8 and §2.4.2.
+    """
+    m, k = M.nrows(), M.ncols()
+    lists: Sequence[Sequence[Any]] = rows if rows is not None else M.tolist()
+    if k and m >= k + extra:
+        rng = random.Random(seed)
+        # k rows spread over M (the first rows alone are often the relations of one sieve task)
+        stride = m / k
+        base = [[int(x) for x in lists[int(i * stride)]] for i in range(k)]
+        S = _stack(base, _combinations(M, extra, rng))
+        target = None
+        for _ in range(rounds):
+            Hrows = [r for r in ([int(x) for x in row] for row in S.hnf().tolist()) if any(r)]
+            yield Hrows
+            more = extra
+            if len(Hrows) < k:
+                # the sublattice may lack rank: as many more combinations as the rank of
+                # M modulo a prime (≤ its rank over Q) says are missing
+                if target is None:
+                    target = flint.nmod_mat([[int(x) for x in r] for r in lists], _RANK_PRIME).rank()
+                more += max(0, target - len(Hrows))
+            S = _stack(Hrows, _combinations(M, more, rng))
+    whole = M.hnf() if m else M
+    yield [r for r in ([int(x) for x in row] for row in whole.tolist()) if any(r)]
+
+
 def tall_hermite_rows(
     M: flint.fmpz_mat,
     rows: Sequence[Sequence[int]] | None = None,
@@ -191,23 +265,9 @@ def tall_hermite_rows(
     m, k = M.nrows(), M.ncols()
     if k == 0 or m < k + extra:
         return None
-    rng = random.Random(seed)
-    # k rows spread over M (the first rows alone are often the relations of one sieve task)
-    stride = m / k
-    lists: Sequence[Sequence[Any]] = rows if rows is not None else M.tolist()
-    base = [[int(x) for x in lists[int(i * stride)]] for i in range(k)]
-    S = _stack(base, _combinations(M, extra, rng))
-    target = None
-    for _ in range(rounds):
-        Hrows = [r for r in ([int(x) for x in row] for row in S.hnf().tolist()) if any(r)]
+    for i, Hrows in enumerate(sublattice_hermite_forms(M, rows, extra=extra, rounds=rounds, seed=seed)):
+        if i == rounds:
+            return None  # the rounds ran out (the next form would be the whole matrix's)
         if lies_in_row_lattice(M, Hrows):
             return flint.fmpz_mat(Hrows) if Hrows else flint.fmpz_mat(0, k, [])
-        more = extra
-        if len(Hrows) < k:
-            # the sublattice may lack rank: as many more combinations as the rank of M
-            # modulo a prime (≤ its rank over Q) says are missing
-            if target is None:
-                target = flint.nmod_mat([[int(x) for x in r] for r in lists], _RANK_PRIME).rank()
-            more += max(0, target - len(Hrows))
-        S = _stack(Hrows, _combinations(M, more, rng))
-    return None
+    return None  # pragma: no cover - the generator yields rounds + 1 forms

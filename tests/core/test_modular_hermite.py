@@ -166,3 +166,31 @@ def test_relation_matrices_both_paths_and_enumeration(sublattice_always, D, n):
 def test_bad_hermite_choice():
     with pytest.raises(FormkitError, match="hermite must be"):
         lattice_quotient([[1, 2]], hermite="dense")
+
+
+def test_quotient_when_the_first_sublattice_is_too_small(sublattice_always, monkeypatch):
+    # the matrix of test_tall_hermite_needs_more_rounds_and_gives_up_correctly (index-2
+    # overlattice reached by row 13 only) with one combination per round: some seeds
+    # need a second candidate, and every seed gives the whole-matrix quotient
+    from formkit.core import modular_hermite
+
+    k = 4
+    rows = [[2 if j == (i // 10) % k else 0 for j in range(k)] for i in range(40)]
+    rows[13] = [1, 1, 0, 0]
+    want = lattice_quotient(rows, hermite="whole")
+    assert want.invariants == (2, 2, 2)  # Z⁴ / (2Z⁴ + Z·(1, 1, 0, 0)), by hand
+    candidates = []
+    for seed in range(12):
+
+        def forms(M, dense_rows, seed=seed):
+            for i, H in enumerate(
+                modular_hermite.sublattice_hermite_forms(M, dense_rows, extra=1, seed=seed)
+            ):
+                candidates.append((seed, i))
+                yield H
+
+        monkeypatch.setattr(lattice, "sublattice_hermite_forms", forms)
+        got = lattice_quotient(rows)
+        assert (got.invariants, got.generators) == (want.invariants, want.generators)
+        assert got.coordinates([1, 0, 0, 0]) == want.coordinates([1, 0, 0, 0])
+    assert any(i >= 1 for _s, i in candidates)
