@@ -33,8 +33,9 @@ processes (``workers``).  The sieve parameters come from :data:`SIEVE_TABLE`.
 
 The result is conditional on GRH (Bach's bound and the interval of the Euler
 product).  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, CLI options
-for the store and the workers, automatic choice of this method (it is slower than
-baby-step giant-step at 30 digits; docs/performance.md), two large primes (issue 18).
+for the store and the workers, automatic choice of this method (at 30 digits it is
+about as fast as baby-step giant-step, not yet measurably faster; docs/performance.md),
+two large primes (issue 18).
 
 References
 ----------
