@@ -21,14 +21,16 @@ entry ±1 in some row, choosing the pair of least Markowitz cost (fill-in); each
 a unimodular column operation followed by the removal of a row and a column that have
 become a unit vector, so it changes neither the quotient nor the Smith form apart from
 a 1 on the diagonal.  The dense rest (a few hundred columns, but as many rows as
-relations are left) is put into Hermite normal form through a sublattice of full rank,
-its determinant and a membership test modulo that determinant
-(:mod:`formkit.core.modular_hermite`, with FLINT's ``fmpz_mat.hnf`` on a nearly square
-matrix [4]), or by FLINT on all rows when the rest has
-rank below its number of columns (``hermite="whole"`` forces this); rows whose
-pivot is 1 are removed by column operations in the same way, and what remains (the
-columns with pivot > 1, usually a handful) is diagonalised by alternating row and
-column Hermite normal forms (Kannan–Bachem), the column transformations being tracked;
+relations are left) is put into Hermite normal form through sublattices: k of its rows
+and a few random combinations of all rows, a nearly square matrix for FLINT's
+``fmpz_mat.hnf``, whose determinant is a multiple of the index [4]; a candidate is
+accepted when every relation vanishes in its quotient, tested through its Smith form
+below (:mod:`formkit.core.modular_hermite`).  Below
+:data:`SUBLATTICE_FROM_COLUMNS` columns, or with ``hermite="whole"``, FLINT takes all
+rows at once.  In the Hermite form, rows whose pivot is 1 are removed by column
+operations in the same way, and what remains (the columns with pivot > 1, usually a
+handful) is diagonalised by alternating row and column Hermite normal forms
+(Kannan–Bachem), the column transformations being tracked;
 finally pairs of diagonal entries are replaced by their gcd and lcm until each divides
 the next.  Every result is checked before it is returned: ``V·V⁻¹ = I`` and the
 diagonal form ``A·V`` has the rows of ``diag(d)`` in its row lattice (see

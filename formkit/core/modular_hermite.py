@@ -26,6 +26,11 @@ below the number of columns.  Here the lattice ``L`` spanned by the rows of ``M`
    overlattice of prime index p with probability about ``1/p``, so a few rounds
    suffice.
 
+:func:`tall_hermite_rows` does steps 1–3; :func:`sublattice_hermite_forms` yields the
+candidates of step 1 and leaves the test to the caller, which may have a cheaper one
+(:func:`formkit.core.lattice.lattice_quotient` tests the relations against the Smith
+form of the candidate on its few columns with an invariant ≠ 1).
+
 The result is exact whatever the random choices: the Hermite normal form of a lattice
 is unique, and the membership test proves ``L' = L``.  When ``M`` is not tall or the
 rounds run out, :func:`tall_hermite_rows` returns ``None`` and the caller uses the
