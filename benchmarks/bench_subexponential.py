@@ -7,11 +7,11 @@ sizes given by ``--compare`` baby-step giant-step runs on the same D in the same
 the ratio of the medians is printed.  Every result of both methods is checked to agree.
 
 ``--hermite sublattice,whole`` runs the subexponential method once per choice of
-:func:`formkit.core.lattice.lattice_quotient`'s ``hermite`` (the dense Hermite form
+:func:`formkit.core.lattice.finite_lattice_quotient`'s ``hermite`` (the dense Hermite form
 from a full-rank sublattice, or FLINT on the whole dense rest: the earlier path) on the
 same D, side by side, and checks that they agree; "la" is the CPU time spent in
-``lattice_quotient`` (this process), the rest being the relation search and the
-Euler-product interval.
+``finite_lattice_quotient`` (elimination, rank test, Hermite and Smith forms; this
+process), the rest being the relation search and the Euler-product interval.
 
 Usage:  python3 benchmarks/bench_subexponential.py [--sizes 30,40,50] [--count 3]
         [--compare 30] [--workers 1] [--hermite sublattice]
@@ -54,17 +54,17 @@ LA = {"cpu": 0.0, "calls": 0}
 
 
 def use_hermite(mode: str) -> None:
-    """Make the subexponential method call lattice_quotient with ``hermite=mode`` and time it."""
+    """Make the subexponential method call finite_lattice_quotient with ``hermite=mode`` and time it."""
 
     def timed_quotient(rows, ncols):
         t = time.process_time()
         try:
-            return lattice.lattice_quotient(rows, ncols=ncols, hermite=mode)
+            return lattice.finite_lattice_quotient(rows, ncols=ncols, hermite=mode)
         finally:
             LA["cpu"] += time.process_time() - t
             LA["calls"] += 1
 
-    sub.lattice_quotient = timed_quotient
+    sub.finite_lattice_quotient = timed_quotient
 
 
 def main() -> None:

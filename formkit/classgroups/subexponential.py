@@ -63,7 +63,7 @@ import numpy as np
 
 from ..analytic.lseries import class_number_estimate
 from ..core.discriminants import discriminant_parts, validate_discriminant
-from ..core.lattice import lattice_quotient
+from ..core.lattice import finite_lattice_quotient
 from ..core.progress import progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .baby_step_giant_step import BSGSStatistics, _Ops, bach_bound
@@ -419,8 +419,11 @@ def class_group_subexponential(
                 if db is not None and fresh:
                     db.add(fresh)
                 shown = _show(bar, shown, len(col.rows), want)
-                Q = lattice_quotient(col.rows, ncols=n)
-                h = Q.order if Q.is_finite else 0
+                # the Hermite and Smith forms only once the relations have full rank (modulo
+                # a prime, after the elimination: cheap); before, the quotient is infinite,
+                # and at 50 digits such an early call cost as much as the final one
+                Q = finite_lattice_quotient(col.rows, ncols=n)
+                h = Q.order if Q is not None and Q.is_finite else 0
                 if h and lower <= h <= upper and h < 2 * max(1, lower):
                     break
                 if len(col.rows) >= limit:
@@ -434,6 +437,7 @@ def class_group_subexponential(
         if db is not None:
             db.close()
     stats.full, stats.combined = col.full, col.combined
+    assert Q is not None  # the loop ends only with a finite quotient
     h = Q.order
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",

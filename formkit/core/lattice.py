@@ -67,7 +67,7 @@ from ..errors import FormkitError
 from .arith import as_int, xgcd
 from .displays import SentenceDisplay
 from .modular_hermite import sublattice_hermite_forms
-from .sparse_elimination import Elimination, eliminate_unit_pivots
+from .sparse_elimination import RANK_PRIME, Elimination, eliminate_unit_pivots
 
 __all__ = [
     "HermiteForm",
@@ -76,6 +76,7 @@ __all__ = [
     "hermite_normal_form",
     "smith_normal_form",
     "lattice_quotient",
+    "finite_lattice_quotient",
 ]
 
 #: A matrix given by its rows: each row a sequence of integers, or a mapping
@@ -533,6 +534,53 @@ def lattice_quotient(
     Cohen, GTM 138, §2.4.3 (the Smith normal form and the structure of finitely
     generated abelian groups, Theorem 2.4.12 and Algorithm 2.4.14).
     """
+    Q = _quotient(A, ncols, hermite, finite_only=False)
+    assert Q is not None
+    return Q
+
+
+def finite_lattice_quotient(
+    A: MatrixLike, *, ncols: int | None = None, hermite: str = "sublattice"
+) -> LatticeQuotient | None:
+    """:func:`lattice_quotient` when ``L`` has rank n (checked modulo a prime), else ``None``.
+
+    After the structured elimination, the rank of the dense rest modulo the prime
+    :data:`formkit.core.sparse_elimination.RANK_PRIME` is taken first (cheap); when it
+    is below the number of its columns the quotient is infinite (unless the prime
+    divides every maximal minor, a remote case) and ``None`` is returned without the
+    Hermite and Smith forms.  A search that adds relations until the quotient is finite
+    calls this.
+
+    Parameters
+    ----------
+    A, ncols, hermite
+        As in :func:`lattice_quotient`.
+
+    Returns
+    -------
+    LatticeQuotient or None
+        A finite quotient, or ``None``.
+
+    Raises
+    ------
+    FormkitError
+        If ``A`` is not an integer matrix.
+
+    Examples
+    --------
+    >>> finite_lattice_quotient([[2, 4], [6, 6]]).invariants
+    (2, 6)
+    >>> finite_lattice_quotient([[0, 3, 0]]) is None
+    True
+
+    References
+    ----------
+    Cohen, GTM 138, §2.4.3; a rank modulo p is at most the rank over Q.
+    """
+    return _quotient(A, ncols, hermite, finite_only=True)
+
+
+def _quotient(A: MatrixLike, ncols: int | None, hermite: str, finite_only: bool) -> LatticeQuotient | None:
     if hermite not in ("sublattice", "whole"):
         raise FormkitError(f"hermite must be 'sublattice' or 'whole', not {hermite!r}")
     n, rows = _read(A, ncols)
@@ -543,6 +591,15 @@ def lattice_quotient(
         elim = Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
     dense_rows = _dense_lists(elim.rows, elim.alive)
     k = len(elim.alive)
+    if (
+        finite_only
+        and k
+        and (
+            len(dense_rows) < k
+            or flint.nmod_mat([[x % RANK_PRIME for x in r] for r in dense_rows], RANK_PRIME).rank() < k
+        )
+    ):
+        return None
     M = flint.fmpz_mat(dense_rows) if dense_rows else flint.fmpz_mat(0, k, [])
     if hermite == "sublattice" and k >= SUBLATTICE_FROM_COLUMNS:
         # Hermite forms of growing sublattices L' ⊆ L; the test that every relation

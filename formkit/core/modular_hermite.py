@@ -54,6 +54,8 @@ from typing import Any
 
 import flint
 
+from .sparse_elimination import RANK_PRIME
+
 __all__ = [
     "tall_hermite_rows",
     "sublattice_hermite_forms",
@@ -74,7 +76,7 @@ ROUNDS = 6
 #: The prime modulo which the rank of ``M`` is taken when the sublattice has rank < k
 #: (only to choose how many combinations to add: a rank modulo p never exceeds the rank
 #: over Q, and the membership test decides).
-_RANK_PRIME = (1 << 61) - 1
+_RANK_PRIME = RANK_PRIME
 
 
 def lies_in_row_lattice(M: flint.fmpz_mat, H: Sequence[Sequence[int]]) -> bool:

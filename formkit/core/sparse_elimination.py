@@ -33,7 +33,7 @@ from __future__ import annotations
 import heapq
 from dataclasses import dataclass
 
-__all__ = ["Elimination", "eliminate_unit_pivots", "MARKOWITZ_LIMIT"]
+__all__ = ["Elimination", "eliminate_unit_pivots", "MARKOWITZ_LIMIT", "RANK_PRIME"]
 
 #: Structured elimination stops when the cheapest remaining pivot would fill in more
 #: than this many new entries, or when no entry ±1 is left; the rest goes dense.
@@ -141,3 +141,8 @@ def eliminate_unit_pivots(n: int, rows: list[dict[int, int]], limit: int = MARKO
                 heapq.heappush(heap, (len(cols[k]), k))
     alive = sorted(cols)
     return Elimination(steps=steps, rows=list(live.values()), alive=alive)
+
+
+#: A prime below 2^63 for ranks modulo a prime (the Mersenne prime 2^61 − 1), e.g. in
+#: :func:`formkit.core.lattice.finite_lattice_quotient`.
+RANK_PRIME = (1 << 61) - 1
