@@ -67,7 +67,7 @@ from ..errors import FormkitError
 from .arith import as_int, xgcd
 from .displays import SentenceDisplay
 from .modular_hermite import sublattice_hermite_forms
-from .sparse_elimination import RANK_PRIME, Elimination, eliminate_unit_pivots
+from .sparse_elimination import RANK_PRIME, Elimination, eliminate_unit_pivots, markowitz_limit
 
 __all__ = [
     "HermiteForm",
@@ -586,7 +586,7 @@ def _quotient(A: MatrixLike, ncols: int | None, hermite: str, finite_only: bool)
     n, rows = _read(A, ncols)
     m = len(rows)
     if n >= SPARSE_FROM_COLUMNS:
-        elim = eliminate_unit_pivots(n, rows)
+        elim = eliminate_unit_pivots(n, rows, markowitz_limit(n))
     else:
         elim = Elimination(steps=[], rows=[r for r in rows if r], alive=list(range(n)))
     dense_rows = _dense_lists(elim.rows, elim.alive)

@@ -11,7 +11,8 @@ logarithms.
 
 The column of least weight is taken first, and in it the shortest row with a unit
 entry (the Markowitz cost ``(|r| − 1)·(w_j − 1)`` bounds the fill-in); elimination stops
-when that cost exceeds a limit, and the rest goes to the dense methods of
+when that cost exceeds a limit (:func:`markowitz_limit`, growing with the number of
+columns), and the rest goes to the dense methods of
 :mod:`formkit.core.lattice`.  Pivots of other sizes are not used: over Z they do not
 remove a column without changing the lattice, and on class group relation matrices the
 stopping cause is fill-in, not a lack of units (every remaining column of the 30- and
@@ -33,13 +34,33 @@ from __future__ import annotations
 import heapq
 from dataclasses import dataclass
 
-__all__ = ["Elimination", "eliminate_unit_pivots", "MARKOWITZ_LIMIT", "RANK_PRIME"]
+__all__ = ["Elimination", "eliminate_unit_pivots", "markowitz_limit", "MARKOWITZ_LIMIT", "RANK_PRIME"]
 
 #: Structured elimination stops when the cheapest remaining pivot would fill in more
 #: than this many new entries, or when no entry ±1 is left; the rest goes dense.
 #: (20000 was the fastest total of elimination and dense Hermite form among
 #: 3000–150000 on a 36-digit relation matrix, docs/performance.md.)
 MARKOWITZ_LIMIT = 20000
+
+
+def markowitz_limit(n: int) -> int:
+    """The Markowitz limit used for a matrix of ``n`` columns: :data:`MARKOWITZ_LIMIT` up to
+    2100 columns, then growing like ``(n/2100)⁴``.
+
+    With more columns the dense rest costs more (its Hermite form grows like a power
+    3–4 of its size) and continuing the elimination pays; the rule fits three relation
+    matrices of the subexponential method, total CPU of elimination and first Hermite
+    form (docs/performance.md; under load): 2103 columns (36 digits) 2.0 s at 20000
+    against 2.5 s at 60000; 2612 (40 digits) 4.2 / 3.2 / 3.8 s at 20000 / 60000 /
+    200000; 3758 (50 digits) 61.4 / 29.3 / 38.1 s at 20000 / 200000 / 600000.  No
+    source; beyond 3758 columns it is an extrapolation.
+
+    Examples
+    --------
+    >>> markowitz_limit(1500), markowitz_limit(2612), markowitz_limit(3758)
+    (20000, 47868, 205107)
+    """
+    return max(MARKOWITZ_LIMIT, round(MARKOWITZ_LIMIT * (n / 2100) ** 4))
 
 
 @dataclass
