@@ -6,8 +6,15 @@ factor-base size, the relations used and the sieved relations per CPU second; at
 sizes given by ``--compare`` baby-step giant-step runs on the same D in the same run and
 the ratio of the medians is printed.  Every result of both methods is checked to agree.
 
+``--hermite sublattice,whole`` runs the subexponential method once per choice of
+:func:`formkit.core.lattice.finite_lattice_quotient`'s ``hermite`` (the dense Hermite form
+from a full-rank sublattice, or FLINT on the whole dense rest: the earlier path) on the
+same D, side by side, and checks that they agree; "la" is the CPU time spent in
+``finite_lattice_quotient`` (elimination, rank test, Hermite and Smith forms; this
+process), the rest being the relation search and the Euler-product interval.
+
 Usage:  python3 benchmarks/bench_subexponential.py [--sizes 30,40,50] [--count 3]
-        [--compare 30] [--workers 1]
+        [--compare 30] [--workers 1] [--hermite sublattice]
 """
 
 from __future__ import annotations
@@ -20,6 +27,7 @@ import time
 
 from formkit.classgroups import subexponential as sub
 from formkit.classgroups.baby_step_giant_step import class_group_bsgs
+from formkit.core import lattice
 from formkit.core.discriminants import is_fundamental_discriminant
 
 
@@ -42,6 +50,23 @@ def timed(f, *args, **kw):
     return out, cpu() - c, time.perf_counter() - w
 
 
+LA = {"cpu": 0.0, "calls": 0}
+
+
+def use_hermite(mode: str) -> None:
+    """Make the subexponential method call finite_lattice_quotient with ``hermite=mode`` and time it."""
+
+    def timed_quotient(rows, ncols):
+        t = time.process_time()
+        try:
+            return lattice.finite_lattice_quotient(rows, ncols=ncols, hermite=mode)
+        finally:
+            LA["cpu"] += time.process_time() - t
+            LA["calls"] += 1
+
+    sub.finite_lattice_quotient = timed_quotient
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--sizes", default="30,40,50")
@@ -49,29 +74,50 @@ def main() -> None:
     ap.add_argument("--compare", default="30", help="sizes at which baby-step giant-step runs too")
     ap.add_argument("--workers", type=int, default=1)
     ap.add_argument("--seed", type=int, default=2026)
+    ap.add_argument("--hermite", default="sublattice", help="comma-separated: sublattice, whole")
     args = ap.parse_args()
+    modes = [m for m in args.hermite.split(",") if m]
     compare = {int(s) for s in args.compare.split(",") if s}
     rng = random.Random(args.seed)
     print(f"subexponential, D < 0, {args.count} random fundamental D per size, workers={args.workers}")
     for digits in (int(s) for s in args.sizes.split(",")):
-        cpus, walls, rates, bs = [], [], [], []
+        cpus: dict[str, list[float]] = {m: [] for m in modes}
+        las: dict[str, list[float]] = {m: [] for m in modes}
+        walls, rates, bs = [], [], []
         for _ in range(args.count):
             D = random_fundamental(rng, digits)
-            G, c, w = timed(sub.class_group_subexponential, D, workers=args.workers)
-            st = sub._LAST["stats"]
-            cpus.append(c)
-            walls.append(w)
-            rates.append(st.sieved / c)
-            line = f"  {digits} digits  D={D}  {G.invariants}  cpu {c:.1f}s wall {w:.1f}s  n={st.factor_base}"
+            line = f"  {digits} digits  D={D}"
+            first = None
+            for mode in modes:
+                use_hermite(mode)
+                LA["cpu"], LA["calls"] = 0.0, 0
+                G, c, w = timed(sub.class_group_subexponential, D, workers=args.workers)
+                st = sub._LAST["stats"]
+                if first is None:
+                    first = G
+                    walls.append(w)
+                    rates.append(st.sieved / c)
+                    line += f"  {G.invariants}  n={st.factor_base}"
+                else:
+                    assert G.invariants == first.invariants and G.generators == first.generators, (D, mode)
+                cpus[mode].append(c)
+                las[mode].append(LA["cpu"])
+                line += f"  [{mode}] cpu {c:.1f}s (la {LA['cpu']:.1f}s in {LA['calls']} calls) wall {w:.1f}s"
             if digits in compare:
                 H, cb, _wb = timed(class_group_bsgs, D)
-                assert H.invariants == G.invariants, (D, H.invariants, G.invariants)
+                assert H.invariants == first.invariants, (D, H.invariants, first.invariants)
                 bs.append(cb)
                 line += f"  bsgs cpu {cb:.1f}s"
             print(line, flush=True)
-        med = statistics.median(cpus)
-        out = (
-            f"{digits} digits: median cpu {med:.1f}s, wall {statistics.median(walls):.1f}s, "
+        med = statistics.median(cpus[modes[0]])
+        out = f"{digits} digits:"
+        for mode in modes:
+            out += (
+                f" [{mode}] median cpu {statistics.median(cpus[mode]):.1f}s"
+                f" (la {statistics.median(las[mode]):.1f}s),"
+            )
+        out += (
+            f" wall {statistics.median(walls):.1f}s, "
             f"{statistics.median(rates):.0f} sieved relations per cpu second"
         )
         if bs:

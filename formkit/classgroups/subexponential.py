@@ -16,8 +16,12 @@ relations, restricted here to fundamental ``D < 0``:
    until the reduced form has a smooth first coefficient (Cohen [2], Algorithm 5.5.2,
    step 3, the relation search of Hafner–McCurley).
 3. **Linear algebra.**  The quotient ``Zⁿ/L`` of the relation lattice is computed by
-   :func:`formkit.core.lattice.lattice_quotient` (sparse elimination of unit pivots, then
-   the Smith normal form of the dense rest).  Its order ``h*`` is a multiple of ``h``
+   :func:`formkit.core.lattice.lattice_quotient`: structured elimination of unit pivots
+   (:mod:`formkit.core.sparse_elimination`), the Hermite form of the tall dense rest
+   from a sublattice, its determinant and a membership test modulo it
+   (:mod:`formkit.core.modular_hermite`), then the Smith normal form of the few columns
+   whose pivot exceeds 1, with the column transformations for generators and discrete
+   logarithms.  Its order ``h*`` is a multiple of ``h``
    (the relations are true relations and the factor base generates); relations are
    added until ``h*`` lies in the GRH interval ``[h⁻, h⁺]`` of
    :func:`formkit.analytic.lseries.class_number_estimate` with ``h* < 2·h⁻``, which
@@ -30,8 +34,8 @@ processes (``workers``).  The sieve parameters come from :data:`SIEVE_TABLE`.
 The result is conditional on GRH (Bach's bound and the interval of the Euler
 product).  On the command line: ``formkit group D --method subexponential --workers N
 --db FILE``.  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, automatic
-choice of this method (it is slower than baby-step giant-step at 30 digits;
-docs/performance.md), two large primes (issue 18).
+choice of this method (at 30 digits it is about as fast as baby-step giant-step, not yet
+measurably faster; docs/performance.md), two large primes (issue 18).
 
 References
 ----------
@@ -59,7 +63,7 @@ import numpy as np
 
 from ..analytic.lseries import class_number_estimate
 from ..core.discriminants import discriminant_parts, validate_discriminant
-from ..core.lattice import lattice_quotient
+from ..core.lattice import finite_lattice_quotient
 from ..core.progress import progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .baby_step_giant_step import BSGSStatistics, _Ops, bach_bound
@@ -415,8 +419,11 @@ def class_group_subexponential(
                 if db is not None and fresh:
                     db.add(fresh)
                 shown = _show(bar, shown, len(col.rows), want)
-                Q = lattice_quotient(col.rows, ncols=n)
-                h = Q.order if Q.is_finite else 0
+                # the Hermite and Smith forms only once the relations have full rank (modulo
+                # a prime, after the elimination: cheap); before, the quotient is infinite,
+                # and at 50 digits such an early call cost as much as the final one
+                Q = finite_lattice_quotient(col.rows, ncols=n)
+                h = Q.order if Q is not None and Q.is_finite else 0
                 if h and lower <= h <= upper and h < 2 * max(1, lower):
                     break
                 if len(col.rows) >= limit:
@@ -430,6 +437,7 @@ def class_group_subexponential(
         if db is not None:
             db.close()
     stats.full, stats.combined = col.full, col.combined
+    assert Q is not None  # the loop ends only with a finite quotient
     h = Q.order
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",

@@ -21,6 +21,10 @@
 * :mod:`~formkit.core.polynomials_mod_p` — root counts and squarefreeness modulo a prime;
 * :mod:`~formkit.core.lattice` — Hermite and Smith normal forms with transformations and
   quotients Zⁿ/L of integer lattices (python-flint's integer matrices);
+* :mod:`~formkit.core.sparse_elimination` — structured Gaussian elimination of sparse
+  relation matrices on unit pivots (used by ``lattice``);
+* :mod:`~formkit.core.modular_hermite` — Hermite forms of tall matrices through a
+  sublattice, its determinant and a membership test (used by ``lattice``);
 * :mod:`~formkit.core.progress` — progress bars and phase lines on stderr for long jobs
   (one switch for all of them; the command line's ``--quiet``).
 
