@@ -100,6 +100,10 @@ SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
 #: worker process and of the relation store (common practice, no source).
 A_PER_TASK = 4
 
+#: Sieve tasks in a row that add no new relation before the search gives up (tiny groups,
+#: D = −20 say, have only a handful of distinct relations to find).
+STALE_TASKS = 32
+
 
 @dataclass
 class RelationStatistics:
@@ -372,6 +376,11 @@ def class_group_subexponential(
     stats.factor_base, stats.bound = n, B
     est = class_number_estimate(D)
     lower, upper = int(est.lower), int(est.upper)
+    # h is a multiple of the number of genera 2^(t−1) (Gauss): h* < 2·max(lower, genera) with
+    # h | h* leaves h = h* (for tiny D the analytic interval alone does not exclude h*/2)
+    from .genus import genus_count
+
+    floor = max(1, lower, genus_count(D))
     ops = _Ops(D, BSGSStatistics())
     rng = random.Random(seed)
     limit = max_relations if max_relations is not None else 20 * n + 500
@@ -395,9 +404,10 @@ def class_group_subexponential(
     try:
         with progress_bar(total=want, desc="relations", unit="rel") as bar:
             while True:
-                fetched = False
-                while len(col.rows) < want or not fetched:
+                fetched, stale = False, 0
+                while (len(col.rows) < want or not fetched) and stale < STALE_TASKS:
                     fetched = True
+                    before = len(col.rows)
                     task, rels = next(stream)
                     stats.tasks += 1
                     stats.sieved += len(rels)
@@ -405,6 +415,7 @@ def class_group_subexponential(
                         db.add(rels, task)
                     for r in rels:
                         col.add(r)
+                    stale = stale + 1 if len(col.rows) == before else 0
                     shown = _show(bar, shown, len(col.rows), want)
                 fresh = []
                 for i in range(n):
@@ -424,12 +435,13 @@ def class_group_subexponential(
                 # and at 50 digits such an early call cost as much as the final one
                 Q = finite_lattice_quotient(col.rows, ncols=n)
                 h = Q.order if Q is not None and Q.is_finite else 0
-                if h and lower <= h <= upper and h < 2 * max(1, lower):
+                if h and floor <= h <= upper and h < 2 * floor:
                     break
-                if len(col.rows) >= limit:
+                if len(col.rows) >= limit or stale >= STALE_TASKS:
                     raise FormkitError(
                         f"the subexponential method did not pin down h(D) for D = {D} within {limit} "
-                        f"relations (factor base of {n} prime forms up to {B}); use method 'bsgs'"
+                        f"relations (factor base of {n} prime forms up to {B}, {len(col.rows)} distinct relations "
+                        "found); use method 'bsgs' or 'enumeration'"
                     )
                 want = len(col.rows) + max(10, n // 10)
     finally:
@@ -444,8 +456,9 @@ def class_group_subexponential(
         f"{len(col.rows)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
         f"large-prime pairs, {stats.expressed} by random walks"
         + (f"; {stats.resumed} read back from the store)" if db is not None else ")"),
-        f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{lower},"
-        " so the relation lattice is the full lattice",
+        f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{floor}"
+        + ("" if floor == lower else f" ({floor} genera divide h)")
+        + ", so the relation lattice is the full lattice",
     ]
     invariants = tuple(d for d in Q.invariants if d != 1)
 

@@ -210,3 +210,12 @@ def test_both_hermite_paths_give_the_same_group(monkeypatch):
         results.append((G.invariants, [g.form for g in G.generators], logs))
     assert results[0] == results[1]
     assert results[0][0] == H.invariants
+
+
+@pytest.mark.parametrize("D", [-15, -20, -24, -40])
+def test_class_number_two_is_pinned_by_the_genera(D):
+    # h = 2 (Watkins' table / enumeration): the GRH interval [1, 3] alone leaves h*/2 = 1 open,
+    # the two genera (Gauss: 2^(t−1) divides h) close it; before, the search never stopped
+    G = class_group_subexponential(D)
+    assert G.invariants == class_group_enumerated(D).invariants == (2,)
+    assert "2 genera divide h" in G.provenance.detail
