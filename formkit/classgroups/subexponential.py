@@ -51,6 +51,7 @@ References
 
 from __future__ import annotations
 
+import math
 import multiprocessing
 import random
 from collections import deque
@@ -123,6 +124,42 @@ class RelationStatistics:
 
 
 _LAST: dict[str, RelationStatistics] = {}
+
+
+def subexponential_cost(D: int) -> tuple[float, float]:
+    """Estimated ``(seconds, bytes)`` of :func:`class_group_subexponential` for ``D``.
+
+    Fitted to the measured medians (docs/performance.md, one worker: 4 CPU-s at 30 digits,
+    15–22 s at 40, 167 s at 50): ``3 · 167 s · exp(0.6·(ℓ(D) − ℓ(10^50)))`` with
+    ``ℓ(D) = √(log|D|·log log|D|)``, the exponent of ``L_|D|[1/2, ·]`` (Hafner–McCurley,
+    Buchmann); memory ``0.5 GB·(log|D|/log 10^50)^4`` (the relation matrix, whose two
+    sides grow like the factor base, about ``log²|D|``).  An upper estimate (3 times the
+    measured time at 50 digits, more below); it only decides whether to start.
+
+    Examples
+    --------
+    >>> subexponential_cost(-10**30 - 3)[0] < 60
+    True
+    >>> subexponential_cost(-(3**226) - 30)[0] > 86400
+    True
+    """
+    ln = math.log(abs(D))
+    ell = math.sqrt(ln * math.log(ln))
+    ln50 = 50 * math.log(10)
+    ell50 = math.sqrt(ln50 * math.log(ln50))
+    return 3 * 167.0 * math.exp(min(700.0, 0.6 * (ell - ell50))), 5e8 * (ln / ln50) ** 4
+
+
+def _check_subexponential_cost(D: int) -> None:
+    from ..core.budget import check_cost, describe_integer
+
+    seconds, memory = subexponential_cost(D)
+    check_cost(
+        f"the class group of D = {describe_integer(D)} by the subexponential method ({len(str(abs(D)))} digits)",
+        seconds=seconds,
+        memory=memory,
+        further="--workers N shares the sieve among N processes; no method here reaches further for D < 0",
+    )
 
 
 def factor_base_bound(D: int) -> int:
@@ -353,6 +390,7 @@ def class_group_subexponential(
     D = validate_discriminant(D)
     if D > 0:
         raise DiscriminantError(f"the subexponential method is implemented for D < 0 only, not {D}")
+    _check_subexponential_cost(D)  # before D is factored
     _d_K, f = discriminant_parts(D)
     if f != 1:
         raise DiscriminantError(

@@ -219,3 +219,12 @@ def test_class_number_two_is_pinned_by_the_genera(D):
     G = class_group_subexponential(D)
     assert G.invariants == class_group_enumerated(D).invariants == (2,)
     assert "2 genera divide h" in G.provenance.detail
+
+
+def test_a_hundred_digit_discriminant_is_refused_before_any_work():
+    # priced before D is factored (3^226 + 30 has 108 digits): days of work, refused at 20 s
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+
+    with budget("20s"), pytest.raises(BudgetError, match=r"subexponential method \(108 digits\)"):
+        class_group_subexponential(-(3**226) - 30)
