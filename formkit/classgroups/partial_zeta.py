@@ -33,9 +33,14 @@ and partial summation the primitive ideals of norm ``> X`` of *all* classes add 
 
 so ``ζ(s, C) ∈ ζ(2s)·(S_C(X) + [0, T])``.  The tail decays only like ``X^(1−s)·log X``:
 this is a direct summation, good for a few digits at ``s = 2`` and more for larger
-``s``; the digits that the bound certifies are the ones reported.  (A Hecke-style
-integral over the unit interval of Epstein zeta functions of positive definite forms
-would converge fast and continue ``ζ(s, C)`` analytically; it is not implemented.)
+``s``; the digits that the bound certifies are the ones reported.  This route is taken
+when a ``bound`` is given.
+
+**Analytic continuation** (the default, no ``bound``): every ``ζ(s, C)`` and ``L(s, ψ)`` at
+any complex ``s ≠ 1``, from the functional equation ``Λ(s, ψ) = Λ(1 − s, ψ̄)`` of the class
+character L-series and a rapidly convergent smoothed sum
+(:mod:`formkit.classgroups.partial_zeta_continuation`, where ``W(ψ) = 1`` is proved for
+every order and the cuts are bounded explicitly).
 
 **Checks and characters.**  For fundamental ``D > 0``, ``Σ_C ζ(s, C) = ζ_K(s) =
 ζ(s)·L(s, χ_D)`` (:func:`real_class_zeta_sum`, the right side from
