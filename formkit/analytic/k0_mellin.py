@@ -34,7 +34,7 @@ from collections.abc import Callable, Sequence
 from ..errors import FormkitError
 from .balls import CertifiedValue, ComplexArgument, as_complex_argument, bits_for, certified, check_digits
 
-__all__ = ["is_pole_of_gamma_half", "incomplete_mellin_balls", "incomplete_k0_mellin"]
+__all__ = ["incomplete_k0_mellin"]
 
 
 def is_pole_of_gamma_half(w: ComplexArgument) -> bool:
