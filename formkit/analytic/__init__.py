@@ -35,6 +35,8 @@ from .eta import *  # noqa: F403
 from .eta import __all__ as _eta_all
 from .j_function import *  # noqa: F403
 from .j_function import __all__ as _j_all
+from .k0_mellin import *  # noqa: F403
+from .k0_mellin import __all__ as _k0_mellin_all
 from .l_series import *  # noqa: F403
 from .l_series import __all__ as _l_series_all
 from .local_densities import *  # noqa: F403
@@ -53,6 +55,7 @@ __all__ = [
     *_j_all,
     *_balls_all,
     *_l_series_all,
+    *_k0_mellin_all,
     *_special_values_all,
     *_eta_all,
     *_epstein_all,

@@ -19,7 +19,7 @@
   Σ Z_C = w·ζ_K·∏_{p|f} e_p, ring class and genus characters of orders, the factors at p | f;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
   Eisenstein series from the genus characters, the cusp part;
-* :mod:`~formkit.classgroups.partial_zeta` — partial zeta functions ζ(s, C) of the narrow classes
+* :mod:`~formkit.classgroups.partial_zeta` (continued by :mod:`~formkit.classgroups.partial_zeta_continuation`) — partial zeta functions ζ(s, C) of the narrow classes
   of D > 0, Σ_C ζ(s, C) = ζ_K(s), narrow class and genus character L-series for D > 0;
 * :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
   eigenforms, the cusp part as a sum of eigenforms.
@@ -50,6 +50,8 @@ from .orders import *  # noqa: F403
 from .orders import __all__ as _orders_all
 from .partial_zeta import *  # noqa: F403
 from .partial_zeta import __all__ as _partial_zeta_all
+from .partial_zeta_continuation import *  # noqa: F403
+from .partial_zeta_continuation import __all__ as _continuation_all
 from .principal_genus_theorem import *  # noqa: F403
 from .principal_genus_theorem import __all__ as _theorem_all
 
@@ -66,4 +68,5 @@ __all__ = [
     *_genus_theta_all,
     *_hecke_theta_all,
     *_partial_zeta_all,
+    *_continuation_all,
 ]

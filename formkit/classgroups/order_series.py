@@ -376,14 +376,12 @@ def _class_values(D: int, s: ComplexArgument, digits: int, bound: object, values
     G = _classes(D)
     if D < 0:
         return G, {x: epstein_zeta(x.form, s, digits=digits + 5) for x in G.elements()}, str(G.provenance)
-    from .partial_zeta import DEFAULT_IDEAL_NORM_BOUND, PartialZetaValues, partial_zeta_values
+    from .partial_zeta import PartialZetaValues, partial_zeta_values
 
     if isinstance(values, PartialZetaValues) and values.discriminant == D and values.s == s:
         z = values
-    else:
-        z = partial_zeta_values(
-            D, s, bound=DEFAULT_IDEAL_NORM_BOUND if bound is None else bound, digits=digits
-        )
+    else:  # no bound: the analytic continuation (any s ≠ 1); a bound: direct summation
+        z = partial_zeta_values(D, s, bound=bound, digits=digits)
     return G, {G(f): v for f, v in zip(z.classes, z.values)}, z.provenance
 
 
@@ -559,10 +557,6 @@ def order_genus_character_l_series(
         raise FormkitError(
             f"s = 1 is the pole of L_O(s, ψ) for the trivial character (ψ_{d1} is trivial on Cl({D}))"
         )
-    if D > 0 and not (s.is_real and s.real > 1):
-        raise FormkitError(
-            f"for D > 0 the partial zeta functions are summed directly: real s > 1 only, not {s}"
-        )
     factors = _local_factors(D, phase)
     G, values, prov = _left_values(D, s, digits, bound, trivial)
     w = unit_count(D) if D < 0 else 1
@@ -704,11 +698,9 @@ def ring_class_l_series(
 
         v = class_character_l_series(D, k, s, digits=digits + 5)
     else:
-        from .partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_class_character_l_series
+        from .partial_zeta import real_class_character_l_series
 
-        v = real_class_character_l_series(
-            D, k, s, bound=DEFAULT_IDEAL_NORM_BOUND if bound is None else bound, digits=digits
-        )
+        v = real_class_character_l_series(D, k, s, bound=bound, digits=digits)
     factors = _local_factors(D, phase)
     conductor = math.prod(e.prime**e.conductor_exponent for e in factors)
     with ctx.workprec(bits_for(digits) + 40):

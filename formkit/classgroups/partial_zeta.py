@@ -33,9 +33,14 @@ and partial summation the primitive ideals of norm ``> X`` of *all* classes add 
 
 so ``ζ(s, C) ∈ ζ(2s)·(S_C(X) + [0, T])``.  The tail decays only like ``X^(1−s)·log X``:
 this is a direct summation, good for a few digits at ``s = 2`` and more for larger
-``s``; the digits that the bound certifies are the ones reported.  (A Hecke-style
-integral over the unit interval of Epstein zeta functions of positive definite forms
-would converge fast and continue ``ζ(s, C)`` analytically; it is not implemented.)
+``s``; the digits that the bound certifies are the ones reported.  This route is taken
+when a ``bound`` is given.
+
+**Analytic continuation** (the default, no ``bound``): every ``ζ(s, C)`` and ``L(s, ψ)`` at
+any complex ``s ≠ 1``, from the functional equation ``Λ(s, ψ) = Λ(1 − s, ψ̄)`` of the class
+character L-series and a rapidly convergent smoothed sum
+(:mod:`formkit.classgroups.partial_zeta_continuation`, where ``W(ψ) = 1`` is proved for
+every order and the cuts are bounded explicitly).
 
 **Checks and characters.**  For fundamental ``D > 0``, ``Σ_C ζ(s, C) = ζ_K(s) =
 ζ(s)·L(s, χ_D)`` (:func:`real_class_zeta_sum`, the right side from
@@ -63,28 +68,28 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from fractions import Fraction
 
 from ..analytic.balls import (
     CertifiedValue,
     ComplexArgument,
-    _radius,
     as_ball,
     as_complex_argument,
-    ball_lower,
     bits_for,
     certified,
     check_digits,
 )
 from ..analytic.l_series import l_series, quadratic_field_zeta, riemann_zeta
 from ..core.arith import as_int, kronecker
-from ..core.discriminants import is_fundamental_discriminant, validate_discriminant
+from ..core.discriminants import is_fundamental_discriminant
 from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, as_form
 from ..core.modular_roots import sqrt_mod
 from ..errors import DiscriminantError, FormkitError
 from .class_series import SeriesIdentity, genus_character_discriminants
+from .partial_zeta_continuation import _digits_of
+from .partial_zeta_continuation import _positive as _positive_discriminant
 
 __all__ = [
     "DEFAULT_IDEAL_NORM_BOUND",
@@ -105,12 +110,7 @@ MAX_IDEAL_NORM_BOUND = 10**6
 
 
 def _positive(D: object, what: str, fundamental: bool = False) -> int:
-    D = validate_discriminant(D)
-    if D < 0:
-        raise DiscriminantError(
-            f"{what} is the real quadratic (D > 0) counterpart of the Epstein zeta function; for D = {D} < 0 "
-            "use the Epstein zeta functions of the positive definite forms (formkit epstein D S --classes)"
-        )
+    D = _positive_discriminant(D, what)
     if fundamental and not is_fundamental_discriminant(D):
         raise DiscriminantError(
             f"{what} is stated for fundamental discriminants; {D} is not fundamental (for an order use "
@@ -119,14 +119,17 @@ def _positive(D: object, what: str, fundamental: bool = False) -> int:
     return D
 
 
-def _real_s(s: object) -> ComplexArgument:
+def _route(s: object, bound: object) -> tuple[ComplexArgument, bool]:
+    """``(s, direct)``: direct summation when a ``bound`` is given, else the analytic continuation."""
     s = as_complex_argument(s)
+    if bound is None:
+        return s, False
     if not (s.is_real and s.real > 1):
         raise FormkitError(
-            f"the partial zeta functions of real quadratic classes are summed directly, which converges for "
-            f"real s > 1 only; s = {s} is not (no analytic continuation is implemented for D > 0)"
+            f"a bound on the ideal norms selects direct summation, which converges for real s > 1 only; "
+            f"s = {s} is not (leave the bound out: the analytic continuation takes any s ≠ 1)"
         )
-    return s
+    return s, True
 
 
 def _square_part(D: int) -> int:
@@ -239,10 +242,14 @@ def _ideal_sums(D: int, s: ComplexArgument, X: int, prec: int):
     return G, sums, counts
 
 
-def partial_zeta_values(
-    D: object, s: object, *, bound: object = DEFAULT_IDEAL_NORM_BOUND, digits: int = 30
-) -> PartialZetaValues:
-    """``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` for every narrow class of discriminant ``D > 0``.
+def partial_zeta_values(D: object, s: object, *, bound: object = None, digits: int = 30) -> PartialZetaValues:
+    """``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` (continued analytically) for every narrow class of ``D > 0``.
+
+    Without ``bound``: the analytic continuation by the functional equation of the class
+    character L-series (:mod:`formkit.classgroups.partial_zeta_continuation`), any complex
+    ``s ≠ 1`` with ``|Im s| ≤ 100``; ``bound`` is then the largest norm summed and
+    ``tail_bound`` 0 (the cuts are inside each ball).  With ``bound``: direct summation over
+    the ideals of norm ``≤ bound`` (real ``s > 1``; module docstring).
 
     Parameters
     ----------
@@ -250,9 +257,10 @@ def partial_zeta_values(
         A positive non-square discriminant (fundamental or not: the invertible ideals of
         the order of discriminant ``D``).
     s : number or text
-        A real ``s > 1`` (``2``, ``5/2``, ``3.5``).
-    bound : int
-        ``X``: the primitive ideals of norm ``≤ X`` are listed (default 20000, at most 10^6).
+        Any complex ``s ≠ 1`` (``"1/2+14i"``, ``-3``); with ``bound``, a real ``s > 1``.
+    bound : int, optional
+        ``X``: direct summation over the primitive ideals of norm ``≤ X`` (at most 10^6;
+        the CLI's default is 20000).
     digits : int
         The most digits reported; fewer when the tail bound does not allow them.
 
@@ -265,20 +273,38 @@ def partial_zeta_values(
     DiscriminantError
         If ``D`` is not a positive discriminant.
     FormkitError
-        If ``s`` is not real ``> 1``, ``bound`` is out of range, or the tail bound leaves
-        no certified digit.
+        At ``s = 1``; with ``bound``, if ``s`` is not real ``> 1``, ``bound`` is out of
+        range, or the tail bound leaves no certified digit.
 
     Examples
     --------
     >>> z = partial_zeta_values(12, 4, bound=2000, digits=8)
     >>> [f.to_list() for f in z.classes], [v.text() for v in z.values]     # h⁺(12) = 2
     ([[1, 2, -2], [-1, 2, 2]], ['1.0049347', '0.07530141'])
+    >>> [v.text() for v in partial_zeta_values(12, 4, digits=12).values]    # continuation
+    ['1.00493467851', '0.0753014029058']
+    >>> partial_zeta_values(5, -1).values[0].text()                      # ζ_K(−1) = 1/30 for Q(√5)
+    '0.0333333333333333333333333333333'
     """
     from flint import arb, ctx
 
+    from .partial_zeta_continuation import continued_partial_zeta
+
     D = _positive(D, "the partial zeta function ζ(s, C)")
-    s = _real_s(s)
+    s, direct = _route(s, bound)
     digits = check_digits(digits)
+    if not direct:
+        forms, vals, N, counts, prov = continued_partial_zeta(D, s, digits=digits)
+        return PartialZetaValues(
+            D,
+            s,
+            N,
+            forms,
+            vals,
+            counts,
+            0.0,
+            f"{prov}; analytic continuation (functional equation), norms ≤ {N}",
+        )
     X = as_int(bound, "bound")
     if not 1 <= X <= MAX_IDEAL_NORM_BOUND:
         raise FormkitError(f"bound must lie in [1, {MAX_IDEAL_NORM_BOUND}], not {X}")
@@ -328,17 +354,6 @@ def partial_zeta_values(
     )
 
 
-def _digits_of(ball, cap: int) -> int:
-    """The number of significant digits a ball certifies (at most ``cap``; 0 when none)."""
-    r = _radius(ball)
-    low = ball_lower(ball)
-    if r == 0:
-        return cap
-    if not low > 0:
-        return 0
-    return max(0, min(cap, math.floor(math.log10(low / r))))
-
-
 def _positive_value_prime_to(form: Form, D: int) -> int:
     """A value ``Q(x, y) > 0`` prime to ``D`` (the genus characters read positive norms)."""
     for size in range(1, 200):
@@ -350,18 +365,23 @@ def _positive_value_prime_to(form: Form, D: int) -> int:
     raise ArithmeticError(f"no positive value of {form!r} prime to {D} found")  # pragma: no cover
 
 
-def partial_zeta(
-    form: FormLike, s: object, *, bound: object = DEFAULT_IDEAL_NORM_BOUND, digits: int = 30
-) -> CertifiedValue:
+def partial_zeta(form: FormLike, s: object, *, bound: object = None, digits: int = 30) -> CertifiedValue:
     """``ζ(s, C)`` for the narrow class ``C`` of one indefinite form (see :func:`partial_zeta_values`).
 
     Examples
     --------
     >>> partial_zeta((1, 1, -1), 3, bound=3000, digits=6).text()     # h⁺(5) = 1: ζ_K(3) for Q(√5)
     '1.0275'
+    >>> partial_zeta((1, 1, -1), "1/2", digits=15).text()           # ζ_K(1/2), continued
+    '-0.338438541108383'
     """
     Q = as_form(form)
     return partial_zeta_values(Q.discriminant, s, bound=bound, digits=digits).value(Q)
+
+
+def _at(ball, s: ComplexArgument):
+    """The real part of an acb ball at real ``s`` (the series are real there), else the ball."""
+    return ball.real if s.is_real else ball
 
 
 def _sum_identity(
@@ -379,7 +399,7 @@ def _sum_identity(
             method=values[0].method if values else "",
             terms=values[0].terms if values else 0,
         )
-        agrees = bool(left_ball.overlaps(as_ball(right).real))
+        agrees = bool(left_ball.overlaps(_at(as_ball(right), s)))
     return SeriesIdentity(statement, D, s, left, right, agrees, len(values), prov)
 
 
@@ -387,21 +407,24 @@ def real_class_zeta_sum(
     D: object,
     s: object,
     *,
-    bound: object = DEFAULT_IDEAL_NORM_BOUND,
+    bound: object = None,
     digits: int = 30,
     values: PartialZetaValues | None = None,
 ) -> SeriesIdentity:
     """``Σ_C ζ(s, C)`` over the narrow classes of a fundamental ``D > 0``, beside ``ζ(s)·L(s, χ_D)``.
 
-    ``values`` may pass the :class:`PartialZetaValues` of ``D`` at ``s`` already computed.
+    ``values`` may pass the :class:`PartialZetaValues` of ``D`` at ``s`` already computed;
+    ``bound`` selects direct summation (real ``s > 1``), as in :func:`partial_zeta_values`.
 
     Examples
     --------
     >>> r = real_class_zeta_sum(229, 3, bound=3000, digits=10)     # Cl⁺(229) ≅ C3
     >>> r.agrees, r.class_number
     (True, 3)
+    >>> real_class_zeta_sum(229, "-1/2+3i", digits=10).agrees
+    True
     """
-    from flint import arb, ctx
+    from flint import acb, ctx
 
     D = _positive(D, "Σ_C ζ(s, C) = ζ(s)·L(s, χ_D)", fundamental=True)
     if values is not None and values.discriminant == D and values.s == as_complex_argument(s):
@@ -410,9 +433,9 @@ def real_class_zeta_sum(
         z = partial_zeta_values(D, s, bound=bound, digits=digits)
     right = quadratic_field_zeta(D, z.s, digits=check_digits(digits))
     with ctx.workprec(bits_for(digits) + 40):
-        total = arb(0)
+        total = _at(acb(0), z.s)
         for v in z.values:
-            total += as_ball(v).real
+            total += _at(as_ball(v), z.s)
     return _sum_identity(total, right, "Σ_C ζ(s, C) = ζ(s)·L(s, χ_D)", D, z.s, z.values, z.provenance)
 
 
@@ -443,23 +466,32 @@ def real_class_character_l_series(
     character: Sequence[int],
     s: object,
     *,
-    bound: object = DEFAULT_IDEAL_NORM_BOUND,
+    bound: object = None,
     digits: int = 30,
 ) -> CertifiedValue:
     """``L(s, ψ) = Σ_C ψ(C)·ζ(s, C)`` for a character ``ψ`` of the narrow class group of ``D > 0``.
 
     ``character`` gives ``ψ(g_i) = e^(2πi·k_i/n_i)`` on the generators of ``class_group(D)``.
+    Without ``bound``: any complex ``s`` (``s ≠ 1`` for ``ψ = 1``), by
+    :func:`~formkit.classgroups.partial_zeta_continuation.continued_class_character_l_series`;
+    with ``bound``: direct summation (real ``s > 1``).
 
     Examples
     --------
     >>> real_class_character_l_series(229, [1], 3, bound=3000, digits=8).text()
     '0.96944'
+    >>> real_class_character_l_series(229, [1], 3, digits=12).text()
+    '0.969440675897'
     """
     from flint import acb, ctx
 
+    from .partial_zeta_continuation import continued_class_character_l_series
+
     D = _positive(D, "the L-series of a narrow class group character")
-    s = _real_s(s)
+    s, direct = _route(s, bound)
     digits = check_digits(digits)
+    if not direct:
+        return continued_class_character_l_series(D, character, s, digits=digits)
     G, k, psis = _character_values(D, character)
     z = partial_zeta_values(D, s, bound=bound, digits=digits)
     with ctx.workprec(bits_for(digits) + 40):
@@ -482,20 +514,27 @@ def real_class_character_l_series(
 
 
 def real_genus_character_l_series(
-    D: object, d1: object, s: object, *, bound: object = DEFAULT_IDEAL_NORM_BOUND, digits: int = 30
+    D: object, d1: object, s: object, *, bound: object = None, digits: int = 30
 ) -> SeriesIdentity:
-    """``L(s, ψ_{d₁,d₂})`` by the partial zeta functions and as ``L(s, χ_{d₁})·L(s, χ_{d₂})`` (fundamental ``D > 0``).
+    """``L(s, ψ_{d₁,d₂})`` by the classes and as ``L(s, χ_{d₁})·L(s, χ_{d₂})`` (fundamental ``D > 0``).
+
+    Without ``bound`` the left side is the continued ``L(s, ψ)`` of the genus character
+    (any complex ``s``; ``s ≠ 1`` when ``d₁ = 1``); with ``bound`` it is
+    ``Σ_C ψ(C)·ζ(s, C)`` summed directly (real ``s > 1``).
 
     Examples
     --------
     >>> r = real_genus_character_l_series(12, -3, 4, bound=2000, digits=8)   # L(4, χ₋₃)·L(4, χ₋₄)
     >>> r.agrees, r.right.text()
     (True, '0.92963328')
+    >>> r = real_genus_character_l_series(12, -3, "1/2+2i", digits=15)
+    >>> r.agrees, r.left.digits
+    (True, 15)
     """
-    from flint import arb, ctx
+    from flint import acb, ctx
 
     D = _positive(D, "a genus character L-series", fundamental=True)
-    s = _real_s(s)
+    s, direct = _route(s, bound)
     digits = check_digits(digits)
     d1 = as_int(d1, "d1")
     pairs = genus_character_discriminants(D)
@@ -505,23 +544,34 @@ def real_genus_character_l_series(
             f"{sorted({p[0] for p in pairs} | {p[1] for p in pairs})}"
         )
     d2 = D // d1
-    z = partial_zeta_values(D, s, bound=bound, digits=digits)
-    with ctx.workprec(bits_for(digits) + 40):
-        total = arb(0)
-        for f, v in zip(z.classes, z.values):
-            # ψ(C) = χ_{d₁}(m) = χ_{d₂}(m) for a norm m > 0 of an ideal of C (or C⁻¹) prime to D
-            m = _positive_value_prime_to(f, D)
-            psi = kronecker(d1, m)
-            if psi != kronecker(d2, m):  # pragma: no cover - genus theory
-                raise ArithmeticError(f"χ_{d1}({m}) ≠ χ_{d2}({m}) for a value of {f!r}")
-            total += psi * as_ball(v).real
+    signs = []
+    for x in _classes(D).elements():
+        # ψ(C) = χ_{d₁}(m) = χ_{d₂}(m) for a norm m > 0 of an ideal of C (or C⁻¹) prime to D
+        m = _positive_value_prime_to(x.form, D)
+        signs.append(kronecker(d1, m))
+        if signs[-1] != kronecker(d2, m):  # pragma: no cover - genus theory
+            raise ArithmeticError(f"χ_{d1}({m}) ≠ χ_{d2}({m}) for a value of {x.form!r}")
+    if direct:
+        z = partial_zeta_values(D, s, bound=bound, digits=digits)
+        vals, prov = z.values, z.provenance
+        with ctx.workprec(bits_for(digits) + 40):
+            total = _at(acb(0), s)
+            for psi, v in zip(signs, z.values):
+                total += psi * _at(as_ball(v), s)
+    else:
+        from .partial_zeta_continuation import continued_class_character_l_series
+
+        one = continued_class_character_l_series(D, _genus_exponents(D, signs), s, digits=digits)
+        vals, prov = (one,), str(_classes(D).provenance)
+        with ctx.workprec(bits_for(digits) + 40):
+            total = _at(as_ball(one), s)
 
     def factor(d: int) -> CertifiedValue:
         return riemann_zeta(s, digits=digits + 5) if d == 1 else l_series(d, s, digits=digits + 5)
 
     f1, f2 = factor(d1), factor(d2)
     with ctx.workprec(bits_for(digits) + 40):
-        prod = (as_ball(f1) * as_ball(f2)).real
+        prod = _at(as_ball(f1) * as_ball(f2), s)
         right = certified(
             prod,
             digits,
@@ -530,4 +580,29 @@ def real_genus_character_l_series(
             method=f1.method,
             terms=f1.terms + f2.terms,
         )
-    return _sum_identity(total, right, f"L(s, ψ) = L(s, χ_{d1})·L(s, χ_{d2})", D, s, z.values, z.provenance)
+    identity = _sum_identity(total, right, f"L(s, ψ) = L(s, χ_{d1})·L(s, χ_{d2})", D, s, vals, prov)
+    return replace(identity, class_number=_classes(D).order)
+
+
+def _classes(D: int):
+    from .dispatch import class_group
+
+    return class_group(D, method="enumeration")
+
+
+def _genus_exponents(D: int, signs: Sequence[int]) -> tuple[int, ...]:
+    """The exponents ``k`` of the character of ``class_group(D)`` with the values ``signs`` (±1)."""
+    from itertools import product
+
+    G = _classes(D)
+    logs = [G.discrete_log(x) for x in G.elements()]
+    inv = G.invariants
+    for k in product(*[(0, n // 2) if n % 2 == 0 else (0,) for n in inv]):
+        if all(
+            (-1) ** int(2 * sum((Fraction(ki * ei, ni) for ki, ei, ni in zip(k, e, inv)), Fraction(0))) == sg
+            for e, sg in zip(logs, signs)
+        ):
+            return tuple(k)
+    raise ArithmeticError(
+        f"the genus character {list(signs)} is no character of {G.structure}"
+    )  # pragma: no cover

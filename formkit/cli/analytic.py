@@ -61,16 +61,12 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     if args.genus is not None:
         d1 = parse_integer(args.genus, "--genus")
         if D > 0:
-            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_genus_character_l_series
+            from ..classgroups.partial_zeta import real_genus_character_l_series
 
             r = _order_or_field(
                 D,
-                lambda: real_genus_character_l_series(
-                    D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
-                ),
-                lambda: order_genus_character_l_series(
-                    D, d1, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
-                ),
+                lambda: real_genus_character_l_series(D, d1, args.s, bound=bound, digits=digits),
+                lambda: order_genus_character_l_series(D, d1, args.s, bound=bound, digits=digits),
             )
         else:
             r = _order_or_field(
@@ -95,11 +91,9 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
         if not is_fundamental_discriminant(D):
             return _ring_class(args, D, k, bound, digits)
         if D > 0:
-            from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, real_class_character_l_series
+            from ..classgroups.partial_zeta import real_class_character_l_series
 
-            v = real_class_character_l_series(
-                D, k, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits
-            )
+            v = real_class_character_l_series(D, k, args.s, bound=bound, digits=digits)
         else:
             v = class_character_l_series(D, k, args.s, digits=digits)
         name = v.quantity.replace("L(s, ψ)", f"L({v.s}, ψ)")
@@ -247,13 +241,13 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
 
 
 def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: int) -> int:
-    from ..classgroups.partial_zeta import DEFAULT_IDEAL_NORM_BOUND, partial_zeta_values, real_class_zeta_sum
+    from ..classgroups.partial_zeta import partial_zeta_values, real_class_zeta_sum
     from ..core.discriminants import is_fundamental_discriminant
     from .conventions import CommandError, emit
 
     if args.s is None:
         raise CommandError("--classes needs S (the point s)")
-    z = partial_zeta_values(D, args.s, bound=bound or DEFAULT_IDEAL_NORM_BOUND, digits=digits)
+    z = partial_zeta_values(D, args.s, bound=bound, digits=digits)
     if is_fundamental_discriminant(D):
         r = real_class_zeta_sum(D, args.s, digits=digits, values=z)
     else:
@@ -278,8 +272,14 @@ def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: i
         lines = [
             f"partial zeta functions zeta(s, C) = sum of N(a)^-s over the invertible ideals a of the narrow class C, "
             f"D = {D}, s = {z.s}:",
-            f"  direct sum over the ideals of norm <= {z.bound}, the rest bounded by {z.tail_bound:.1e} "
-            "(explicit tail bound); ball arithmetic, unconditional",
+            (
+                f"  direct sum over the ideals of norm <= {z.bound}, the rest bounded by {z.tail_bound:.1e} "
+                "(explicit tail bound); ball arithmetic, unconditional"
+                if bound is not None
+                else f"  analytic continuation: functional equation of the class character L-series and a smoothed "
+                f"sum over the ideals of norm <= {z.bound} (explicit cuts, checked at two values of t); "
+                "ball arithmetic, unconditional"
+            ),
         ]
         for f, v, n in zip(z.classes, z.values, z.ideal_counts):
             lines.append(
@@ -504,8 +504,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "--class-character K1,K2,... the L-series of the character of Cl(D) sending the i-th "
             "generator of 'formkit group D' to exp(2 pi i K_i/n_i): for D < 0 as (1/w) sum over classes of "
             "psi(C) Z_C(s) (Epstein zeta functions, any s); for D > 0 as the sum of psi(C) zeta(s, C) over the "
-            "narrow classes (partial zeta functions summed directly over the ideals of norm <= --bound, real "
-            "s > 1 only, with an explicit tail bound: few digits at s = 2, more at larger s); "
+            "narrow classes: at any complex s by the analytic continuation (Hecke's functional equation "
+            "Lambda(s, psi) = Lambda(1 - s, conj psi) and a smoothed sum with K_0, explicit bounds), or with "
+            "--bound X by direct summation over the ideals of norm <= X (real s > 1, explicit tail bound); "
             "--genus D1 the genus character for D = D1*D2, computed by the classes and as "
             "L(s, chi_D1) L(s, chi_D2). For an order (D = f^2 d_K, f > 1) the series by the classes runs over the "
             "invertible ideals of the order and differs from the L-series by a factor e_p(s), a polynomial in p^-s, at "
@@ -553,8 +554,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
             "--classes: the target is a D < 0 and the sum of Z_C(s) over its classes is set beside "
             "w zeta(s) L(s, chi_D), times a factor e_p(s) (a polynomial in p^-s, printed) at each prime p | f for an order "
             "of conductor f > 1; for D > 0 (where the forms are indefinite and Z_Q is no sum) the partial zeta "
-            "functions zeta(s, C) of the narrow ideal classes are given instead, summed directly over the ideals "
-            "of norm <= --bound (real s > 1, explicit tail bound), and their sum is set beside "
+            "functions zeta(s, C) of the narrow ideal classes are given instead, at any complex s != 1 by the "
+            "analytic continuation (functional equation of the class character L-series), or with --bound X "
+            "summed directly over the ideals of norm <= X (real s > 1, explicit tail bound), and their sum is set beside "
             "zeta(s) L(s, chi_dK) (times the e_p(s) for an order). --chowla-selberg: both sides of the Chowla-Selberg formula for D < 0 (the product "
             "over classes of sqrt(Im tau) |eta(tau)|^2 and the Gamma-value product; a statement about CM points, "
             "so D > 0 is refused). "

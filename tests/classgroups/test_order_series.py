@@ -252,5 +252,14 @@ def test_errors():
         order_genus_character_l_series(-36, -4, 1)  # (−4, 9) is the trivial character of Cl(−36)
     with pytest.raises(FormkitError, match="exponents"):
         order_local_factors(-63, [1, 0])
-    with pytest.raises(FormkitError, match="real s > 1"):
-        order_genus_character_l_series(48, -3, "1/2")
+    with pytest.raises(FormkitError, match="real s > 1"):  # a bound selects direct summation
+        order_genus_character_l_series(48, -3, "1/2", bound=1000)
+
+
+def test_real_orders_continued_to_complex_s():
+    # D > 0 without a bound: the analytic continuation; the sum over the narrow classes of the
+    # order equals ζ_K(s)·∏ e_p(s) and the genus identity holds at complex s and s < 0
+    # (two independent routes: the continued partial zeta values and mpmath-checked ζ_K)
+    assert order_zeta_sum(20, "1/2+2i", digits=15).agrees
+    assert order_zeta_sum(45, -1, digits=15).agrees
+    assert order_genus_character_l_series(48, -3, "1/2", digits=15).agrees

@@ -110,10 +110,12 @@ def test_single_class_and_larger_s():
 def test_bad_input():
     with pytest.raises(DiscriminantError, match="D > 0"):
         partial_zeta_values(-23, 3)
-    with pytest.raises(FormkitError, match="real s > 1"):
+    with pytest.raises(FormkitError, match="pole"):
         partial_zeta_values(5, 1)
-    with pytest.raises(FormkitError, match="real s > 1"):
-        partial_zeta_values(5, "2+i")
+    with pytest.raises(FormkitError, match="real s > 1"):  # a bound selects direct summation
+        partial_zeta_values(5, "2+i", bound=100)
+    with pytest.raises(FormkitError, match="Im s"):
+        partial_zeta_values(5, "2+101i")
     with pytest.raises(FormkitError, match="bound"):
         partial_zeta_values(5, 2, bound=0)
     with pytest.raises(DiscriminantError, match="fundamental"):
