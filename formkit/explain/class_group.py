@@ -158,6 +158,10 @@ def worked_class_group(D: object, *, max_classes: int = 500) -> WorkedExample:
 
     D = validate_discriminant(D)
     max_classes = _check_count(max_classes, "max_classes", 1)
+    if D > 0:  # the class table lists the classes (by enumeration): priced before the group itself
+        from ..core.enumeration import _check_enumeration_cost
+
+        _check_enumeration_cost(D)
     G = class_group(D)
     prov = G.provenance
     title = f"The class group of discriminant {D}"

@@ -474,3 +474,18 @@ def test_worked_group_refuses_a_huge_class_number_in_one_line():
 
     with budget("1s"), pytest.raises(BudgetError, match="visit all"):
         worked_class_group(-(10**12) - 3)
+
+
+def test_worked_real_group_is_priced_before_the_group_is_computed(monkeypatch):
+    # the class table of D > 0 lists every class by enumeration; for D = 2^42 + 44 that is
+    # refused before the group is computed (it used to run the infrastructure first, 45 CPU-s)
+    import formkit.classgroups.dispatch as dispatch
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+
+    def not_called(*args, **kwargs):
+        raise AssertionError("class_group computed before the enumeration was priced")
+
+    monkeypatch.setattr(dispatch, "class_group", not_called)
+    with budget("20s,1G"), pytest.raises(BudgetError, match="enumerating the classes of D = 4398046511148"):
+        worked_class_group(2**42 + 44)
