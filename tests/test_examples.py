@@ -63,9 +63,9 @@ def test_referee_order_class_groups():
     assert "internal cross-checks disagree" not in out
 
 
-def test_lecture_handout_genera(tmp_path):
+def test_course_handout_genera(tmp_path):
     tex = tmp_path / "cl260.tex"
-    out = run_example("lecture_handout_genera.py", "--tex", str(tex))
+    out = run_example("course_handout_genera.py", "--tex", str(tex))
     # D = -260 = -4·65: h = 8, Cl ≅ C2 × C4, characters (n/5), (n/13), delta, 4 genera
     # (Cox §3 table of genus characters; 65 is not idoneal; from memory).
     assert "# Handout: genera of discriminant -260" in out

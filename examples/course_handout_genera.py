@@ -1,8 +1,8 @@
-"""A lecturer prepares a handout on one discriminant with several genera.
+"""A teacher prepares a course handout on one discriminant with several genera.
 
 Scenario
 --------
-For a lecture on genus theory the lecturer wants one discriminant whose class group
+For a class on genus theory the teacher wants one discriminant whose class group
 has several genera *and* several classes in each genus, so that the students see
 both what the genus characters separate and what they cannot: D = -260 = -4*65
 (forms x^2 + 65y^2 and relatives).  The handout has
@@ -15,7 +15,7 @@ both what the genus characters separate and what they cannot: D = -260 = -4*65
 * one worked composition inside the principal genus (a square, as Gauss's theorem
   says every class of the principal genus is).
 
-Run:  python examples/lecture_handout_genera.py [D] [--tex FILE]
+Run:  python examples/course_handout_genera.py [D] [--tex FILE]
 With --tex the class-group part is also written as a complete LaTeX document.
 """
 
