@@ -36,8 +36,44 @@ def _factor_abs(n: int, factors: dict[int, int] | None) -> dict[int, int]:
     return checked_factorisation(n, factors)
 
 
+def square_divisor_cost(fac: dict[int, int]) -> tuple[float, float]:
+    """Estimated ``(seconds, bytes)`` of the work over the ``g`` with ``g² | n`` (``n`` factored as ``fac``).
+
+    There are ``S = ∏_p (⌊e_p/2⌋ + 1)`` of them; each is kept with the factorisation of
+    ``n/g²`` (about ``200 + 60·ω(n)`` bytes) and costs at least one square root of ``D``
+    modulo ``4n/g²`` (about ``2·10⁻⁵`` s, more for long numbers: measured 15 µs a divisor
+    for ``n = 10^1000``, 251 001 divisors in 3.8 s, on the development machine).
+
+    Examples
+    --------
+    >>> square_divisor_cost({2: 100000, 5: 100000})[1] > 10**11       # 50001² divisors
+    True
+    >>> square_divisor_cost({2: 3, 5: 2})[0] < 0.01
+    True
+    """
+    S = 1
+    for e in fac.values():
+        S *= e // 2 + 1
+    bits = sum(e * p.bit_length() for p, e in fac.items())
+    return float(S) * 2e-5 * (1 + bits / 1e4), float(S) * (200 + 60 * len(fac))
+
+
 def _square_divisors(fac: dict[int, int]) -> list[tuple[int, dict[int, int]]]:
-    """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²``."""
+    """All ``g`` with ``g² | n`` together with the factorisation of ``n/g²`` (priced first)."""
+    from ..core.budget import check_cost, describe_integer
+
+    seconds, memory = square_divisor_cost(fac)
+    if seconds > 1 or memory > 10**8:
+        S = 1
+        for e in fac.values():
+            S *= e // 2 + 1
+        check_cost(
+            f"the {describe_integer(S)} square divisors g² of N (each a set of square roots of D modulo 4N/g²)",
+            seconds=seconds,
+            memory=memory,
+            further="their number is ∏(⌊e/2⌋ + 1) over the prime powers p^e ∥ N, so only an N with fewer "
+            "repeated prime factors is cheaper",
+        )
     out: list[tuple[int, dict[int, int]]] = [(1, dict(fac))]
     for p, e in fac.items():
         new = []

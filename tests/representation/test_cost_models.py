@@ -78,3 +78,21 @@ def test_class_polynomial_precision_covers_the_counted_coefficients(D, monkeypat
     assert largest <= calls[0] <= 2 * largest + 200, (D, largest, calls[0])
     assert abs(largest - model_bits) <= 3 * h + 12, (D, largest, model_bits)
     assert H.verification is not None and H.verification.precision_bits == calls[0]
+
+
+def test_square_divisors_are_counted_and_priced_before_they_are_listed():
+    # counted: the list has ∏(⌊e/2⌋ + 1) entries (brute force over g with g² | n); for
+    # n = 10^100000 (50001² of them) the listing is refused before it starts
+    from formkit.core.budget import budget
+    from formkit.errors import BudgetError
+    from formkit.representation.representations import represent
+    from formkit.representation.square_root_method import _square_divisors, square_divisor_cost
+
+    n, fac = 2**5 * 3**4 * 7**2, {2: 5, 3: 4, 7: 2}
+    listed = _square_divisors(fac)
+    assert sorted(g for g, _ in listed) == [g for g in range(1, math.isqrt(n) + 1) if n % (g * g) == 0]
+    assert len(listed) == 3 * 3 * 2
+    assert square_divisor_cost({2: 100000, 5: 100000})[1] > 10**11
+    for form in ((1, 1, 6), (1, 1, -1)):
+        with budget("20s"), pytest.raises(BudgetError, match="2500100001 square divisors"):
+            represent(form, 10**100000)
