@@ -16,6 +16,19 @@ CYCLE_LIMIT = 10_000
 MAX_CYCLE_STEPS = 1_000_000
 
 
+def _listing_cap(start) -> int:
+    """The most forms of a cycle that ``reduce --all`` lists within the budget: about 6 µs and
+    ``200 + 3·(digits of D)/2`` bytes a form (a ρ-step and the kept form; measured about
+    2–6.5 µs a step for D ≈ 10^40 … 10^200 on the development machine under load, rounded up)."""
+    from ..core.budget import current_budget
+
+    b = current_budget()
+    per_form = 200 + 1.5 * len(str(start.discriminant))
+    by_memory = b.memory / per_form
+    by_time = b.seconds / 6e-6
+    return max(1, int(min(by_memory, by_time, 10**9)))
+
+
 def _matrix_text(m) -> str:
     return f"[[{m[0][0]}, {m[0][1]}], [{m[1][0]}, {m[1][1]}]]"
 
@@ -32,7 +45,17 @@ def _cmd_reduce(args: argparse.Namespace) -> int:
     complete = True
     if f.is_indefinite:
         limit = limit_of(args, zero_means_all=True)
-        cyc, complete = _cycle_prefix(res.reduced, limit or 0)
+        cap = _listing_cap(res.reduced) if not limit else 0
+        cyc, complete = _cycle_prefix(res.reduced, limit or cap)
+        if not limit and not complete:
+            from ..core.budget import current_budget
+            from ..errors import BudgetError
+
+            raise BudgetError(
+                f"the cycle of reduced forms of {form_text(res.reduced)} has more than {cap} forms: listing "
+                f"all of them is over the budget of {current_budget()}; --limit N lists the first N "
+                "(its length is about R/1.19, R the regulator: formkit class-number D)"
+            )
         payload["cycle"] = [g.to_list() for g in cyc]
         payload["cycle_complete"] = complete
     if args.steps:

@@ -231,3 +231,13 @@ def test_equivalent_max_steps(capsys):
     assert_usage_error(*run(capsys, "equivalent", "1,0,-7", "-3,2,2", "--max-steps", "0"))
     d = run_json(capsys, "equivalent", "1,0,-7", "-3,2,2", "--max-steps", "10")
     assert d["equivalent"] is True
+
+
+def test_reduce_all_lists_a_whole_cycle_or_stops_at_the_budget(capsys):
+    # the cycle of (1, 18, -13), D = 376, is listed completely (it closes on its first form); a cycle of about 10^55 forms (D ≈ 4·10^110) stops at the forms the budget
+    # holds, in one line naming --limit
+    data = run_json(capsys, "reduce", "1,0,-94", "--all")
+    assert data["cycle_complete"] and data["cycle"][0] == data["reduced"]
+    code, out, err = run(capsys, "reduce", "1,-10^55+22,2^118-21", "--all", "--budget", "1s,100M")
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert "listing all of them is over the budget" in err and "--limit N" in err
