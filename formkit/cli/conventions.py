@@ -81,6 +81,7 @@ class _Parser(argparse.ArgumentParser):
         m = re.match(r"argument (\S+): (\1\b.*)", message, re.S)
         if m:
             message = m.group(2)
+        message = " ".join(message.split())  # one line, even when the text given holds line breaks
         sys.stderr.write(f"formkit: error: {message}\n")
         raise SystemExit(2)
 

@@ -229,3 +229,12 @@ def test_every_help_example_runs(path, sp, capsys, monkeypatch, tmp_path):
             continue  # queries the store of a skipped cluster example
         code, _out, err = _run(argv, capsys)
         assert code == 0, (argv, err)
+
+
+def test_a_stray_argument_with_line_breaks_is_reported_on_one_line(capsys):
+    # found by the fuzz run: argparse echoed the junk argument, line break and all
+    from formkit.cli import main
+
+    code = main(["group", "-23", "junk\nmore\r\njunk"])
+    err = capsys.readouterr().err
+    assert code == 2 and err.count("\n") == 1 and err.startswith("formkit: error: unrecognized arguments")
