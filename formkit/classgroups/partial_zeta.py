@@ -210,7 +210,7 @@ def _ideal_sums(D: int, s: ComplexArgument, X: int, prec: int):
     """Per class: ``(Σ_{𝔟 ∈ C primitive, N𝔟 ≤ X} N𝔟^(−s) as an arb, count)``; the group."""
     from flint import arb, ctx
 
-    from ..core.enumeration import _spf_sieve
+    from ..core.enumeration import _factor_with, _spf_sieve
     from .dispatch import class_group
 
     G = class_group(D, method="enumeration")
@@ -222,12 +222,7 @@ def _ideal_sums(D: int, s: ComplexArgument, X: int, prec: int):
         sums = [arb(0) for _ in range(h)]
         minus_s = -s.ball()
         for a in range(1, X + 1):
-            factors: dict[int, int] = {}
-            n = 4 * a
-            while n > 1:
-                p = spf[n]
-                factors[p] = factors.get(p, 0) + 1
-                n //= p
+            factors = _factor_with(spf, 4 * a)
             roots = {r % (2 * a) for r in sqrt_mod(D, 4 * a, factors)}
             if not roots:
                 continue

@@ -161,18 +161,13 @@ def _ideal_counts(D: int, N: int, G):
 
     Returned with the same lists for the primitive ideals only.
     """
-    from ..core.enumeration import _spf_sieve
+    from ..core.enumeration import _factor_with, _spf_sieve
 
     index = {x: i for i, x in enumerate(G.elements())}
     spf = _spf_sieve(4 * N + 4)
     primitive: list[dict[int, int]] = [{} for _ in range(N + 1)]
     for a in range(1, N + 1):
-        factors: dict[int, int] = {}
-        n = 4 * a
-        while n > 1:
-            p = spf[n]
-            factors[p] = factors.get(p, 0) + 1
-            n //= p
+        factors = _factor_with(spf, 4 * a)
         for b in {r % (2 * a) for r in sqrt_mod(D, 4 * a, factors)}:
             c = (b * b - D) // (4 * a)
             if math.gcd(a, b, c) == 1:  # invertible

@@ -157,17 +157,8 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
         js = sorted({weber_root_to_j(x, p, D) for x in xs if x}) if weber else xs
         roots = {"p": p, "roots": xs, "j_invariants": js}
         payload["roots_mod_p"] = roots
-    curve = None
-    if args.cm_curve is not None:
-        from ..representation.cm_method import cm_curve, cm_j_invariants, cm_prime
-
-        if D >= -4:
-            raise CommandError(f"--cm-curve needs D < -4 (j ≠ 0, 1728), not {D}")
-        if not 16 <= args.cm_curve <= 1024:
-            raise CommandError(f"--cm-curve BITS must be in [16, 1024], not {args.cm_curve}")
-        p, t, v = cm_prime(D, args.cm_curve)
-        js = cm_j_invariants(D, p, invariant="weber" if weber else "j")
-        curve = {**cm_curve(D, p, t, js[0]).to_dict(), "v": v, "roots_found": len(js)}
+    curve = None if args.cm_curve is None else _cm_curve_payload(D, args.cm_curve, "weber" if weber else "j")
+    if curve is not None:
         payload["cm_curve"] = curve
 
     def human() -> str:
@@ -239,6 +230,20 @@ def _cmd_hilbert(args: argparse.Namespace) -> int:
     return 0
 
 
+def _cm_curve_payload(D: int, bits: int, invariant: str, primes=None) -> dict:
+    """``--cm-curve BITS``: a CM prime of that size, the roots of H_D through ``invariant`` and a curve."""
+    from ..representation.cm_method import cm_curve, cm_j_invariants, cm_prime
+    from .conventions import CommandError
+
+    if D >= -4:
+        raise CommandError(f"--cm-curve needs D < -4 (j ≠ 0, 1728), not {D}")
+    if not 16 <= bits <= 1024:
+        raise CommandError(f"--cm-curve BITS must be in [16, 1024], not {bits}")
+    p, t, v = cm_prime(D, bits)
+    js = cm_j_invariants(D, p, invariant=invariant, **({"primes": primes} if primes is not None else {}))
+    return {**cm_curve(D, p, t, js[0]).to_dict(), "v": v, "roots_found": len(js)}
+
+
 def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
     """``hilbert --invariant double-eta``: the polynomial, and with ``--roots-mod`` / ``--cm-curve``
     the step to ``j`` through the modular polynomial ``Ψ(w^s, j)`` (pairs of degree 2 in ``j``)."""
@@ -293,17 +298,8 @@ def _hilbert_double_eta(args: argparse.Namespace, D: int) -> int:
         js = sorted({j for x in xs if x for j in double_eta_roots_to_j(x, p, pair)})
         roots = {"p": p, "roots": xs, "j_invariants": js}
         payload["roots_mod_p"] = roots
-    curve = None
-    if args.cm_curve is not None:
-        from ..representation.cm_method import cm_curve, cm_j_invariants, cm_prime
-
-        if D >= -4:
-            raise CommandError(f"--cm-curve needs D < -4 (j ≠ 0, 1728), not {D}")
-        if not 16 <= args.cm_curve <= 1024:
-            raise CommandError(f"--cm-curve BITS must be in [16, 1024], not {args.cm_curve}")
-        p, t, v = cm_prime(D, args.cm_curve)
-        js = cm_j_invariants(D, p, invariant="double-eta", primes=pair)
-        curve = {**cm_curve(D, p, t, js[0]).to_dict(), "v": v, "roots_found": len(js)}
+    curve = None if args.cm_curve is None else _cm_curve_payload(D, args.cm_curve, "double-eta", pair)
+    if curve is not None:
         payload["cm_curve"] = curve
 
     def human() -> str:
