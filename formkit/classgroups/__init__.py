@@ -29,7 +29,9 @@
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
   Eisenstein series from the genus characters, the cusp part;
 * :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
-  eigenforms, the cusp part as a sum of eigenforms.
+  eigenforms, the cusp part as a sum of eigenforms (the matrices of T_p proved by Sturm's
+  bound in :mod:`~formkit.classgroups.hecke_operators`, the eigenvalue fields Q[x]/(g) in
+  :mod:`~formkit.classgroups.number_fields`).
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -53,6 +55,8 @@ from .genus_theta import *  # noqa: F403
 from .genus_theta import __all__ as _genus_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
+from .hecke_operators import *  # noqa: F403
+from .hecke_operators import __all__ as _hecke_operators_all
 from .hecke_theta import *  # noqa: F403
 from .hecke_theta import __all__ as _hecke_theta_all
 from .infrastructure import *  # noqa: F403
@@ -88,6 +92,7 @@ __all__ = [
     *_class_series_all,
     *_order_series_all,
     *_genus_theta_all,
+    *_hecke_operators_all,
     *_hecke_theta_all,
     *_partial_zeta_all,
     *_continuation_all,
