@@ -29,7 +29,6 @@ from formkit.core.arith import kronecker
 from formkit.errors import DiscriminantError, FormkitError
 
 # the module (its name is shadowed by the function l_series in formkit.analytic)
-l_series_module = importlib.import_module("formkit.analytic.l_series")
 # the series itself (its tunables and helpers) lives in the engine module
 engine = importlib.import_module("formkit.analytic.theta_split_series")
 
