@@ -270,6 +270,18 @@ def order_local_factors(D: object, character: Sequence[int] | None = None) -> tu
         Exponents ``(k₁, …)`` as for :func:`formkit.class_character_l_series`; default the
         trivial character.
 
+    Returns
+    -------
+    tuple of OrderLocalFactor
+        One per prime ``p | f``, by increasing ``p``.
+
+    Raises
+    ------
+    DiscriminantError
+        If ``D`` is not a discriminant.
+    FormkitError
+        If the number of exponents does not match the class group.
+
     Examples
     --------
     >>> [e.text() for e in order_local_factors(-12)]            # Σ'(x²+3y²)^(−s) = 2(1 + 2^(1−2s))ζ(s)L(s, χ₋₃)

@@ -122,7 +122,8 @@ class PartialZetaValues:
     ``classes[i]`` is the reduced form of the class (as in ``class_group(D)``),
     ``values[i]`` the certified ``ζ(s, C)``, ``ideal_counts[i]`` the number of primitive
     invertible ideals of norm ``≤ bound`` found in it; ``tail_bound`` is ``ζ(2s)·T(X, s)``
-    (module docstring), the width of every interval.
+    (module docstring), the width of every interval, for direct summation, and 0 for the
+    continuation (whose cuts are inside each ball).
     """
 
     discriminant: int
