@@ -74,7 +74,7 @@ def main() -> None:
             print(f"    = {L.text()[:40]}…  ({L.terms} terms, error ≤ {L.error_bound:.1e})")
 
     print("## what the Taylor blocks buy (same run)")
-    mod = importlib.import_module("formkit.analytic.l_series")
+    mod = importlib.import_module("formkit.analytic.theta_split_series")  # the series' tunables
     D = fundamental_near(-(10**8))
     blocked, _ = measure(f"L(1, χ_D), D = {D}, Taylor blocks", lambda: l_series(D, 1, digits=30), r)
     saved = mod._DIRECT_TERMS
@@ -102,7 +102,7 @@ def main() -> None:
 
 def compare_paths(r: int, skip_large: bool) -> None:
     """The previous L-series path against the present one, in the same run."""
-    mod = importlib.import_module("formkit.analytic.l_series")
+    mod = importlib.import_module("formkit.analytic.theta_split_series")  # the series' tunables
     print(
         "## L(s, χ_D), 30 digits: previous path (blocks n/16, integer moments) vs present (n/32 or n/64, doubles)"
     )

@@ -10,7 +10,8 @@
 * :mod:`~formkit.analytic.balls` — exact arguments and certified values in ball arithmetic;
 * :mod:`~formkit.analytic.l_series` — L(s, χ_D) and ζ(s) at any complex s, certified, and
   their exact values at s = 0, −1, −2, … (generalised Bernoulli numbers, in
-  :mod:`~formkit.analytic.special_values`);
+  :mod:`~formkit.analytic.special_values`; the series summed with its tail bound and Taylor
+  blocks in :mod:`~formkit.analytic.theta_split_series`);
 * :mod:`~formkit.analytic.eta` — Dedekind's η(τ), certified;
 * :mod:`~formkit.analytic.epstein` — the Epstein zeta function Z_Q(s) of a positive definite
   form (Chowla–Selberg expansion) and Kronecker's first limit formula;

@@ -13,16 +13,25 @@
 * :mod:`~formkit.classgroups.orders` — orders of conductor f: Cl(D) → Cl(d_K), the class
   number formula for orders;
 * :mod:`~formkit.classgroups.principal_genus_theorem` — Gauss's theorem checked on Cl(D);
-* :mod:`~formkit.classgroups.class_series` — Dirichlet series over the classes: Σ Z_C = w·ζ_K,
-  L-series of class group (ring class) and genus characters, the Chowla–Selberg formula;
-* :mod:`~formkit.classgroups.order_series` — the same series for orders (conductor f > 1):
-  Σ Z_C = w·ζ_K·∏_{p|f} e_p, ring class and genus characters of orders, the factors at p | f;
+* the series over the classes, bottom first:
+  :mod:`~formkit.classgroups.series_identity` (the result type of an identity checked two
+  ways), :mod:`~formkit.classgroups.genus_characters` (the splittings D = d₁·d₂ of the genus
+  characters), :mod:`~formkit.classgroups.narrow_class_zeta` (partial zeta functions ζ(s, C)
+  of the narrow classes of D > 0, continued by
+  :mod:`~formkit.classgroups.partial_zeta_continuation`),
+  :mod:`~formkit.classgroups.class_character_series` (L-series of class group characters,
+  D < 0 and D > 0, every order), :mod:`~formkit.classgroups.conductor_factors` (the factors
+  e_p at p | f of an order), :mod:`~formkit.classgroups.order_series` (Σ Z_C = w·ζ_K·∏ e_p,
+  ring class and genus characters of orders), then
+  :mod:`~formkit.classgroups.class_series` (D < 0: Σ Z_C = w·ζ_K, genus characters, the
+  Chowla–Selberg formula) and :mod:`~formkit.classgroups.partial_zeta` (D > 0: Σ_C ζ(s, C)
+  = ζ_K(s), genus characters); these two hand a non-fundamental D to ``order_series``;
 * :mod:`~formkit.classgroups.genus_theta` — genus theta series, Siegel's weighted average, its
   Eisenstein series from the genus characters, the cusp part;
-* :mod:`~formkit.classgroups.partial_zeta` (continued by :mod:`~formkit.classgroups.partial_zeta_continuation`) — partial zeta functions ζ(s, C) of the narrow classes
-  of D > 0, Σ_C ζ(s, C) = ζ_K(s), narrow class and genus character L-series for D > 0;
 * :mod:`~formkit.classgroups.hecke_theta` — Hecke operators on the theta series of D, their
-  eigenforms, the cusp part as a sum of eigenforms.
+  eigenforms, the cusp part as a sum of eigenforms (the matrices of T_p proved by Sturm's
+  bound in :mod:`~formkit.classgroups.hecke_operators`, the eigenvalue fields Q[x]/(g) in
+  :mod:`~formkit.classgroups.number_fields`).
 
 This layer imports :mod:`formkit.core`, :mod:`formkit.analytic` and :mod:`formkit.errors`;
 the names below are re-exported by :mod:`formkit`.
@@ -30,20 +39,30 @@ the names below are re-exported by :mod:`formkit`.
 
 from .baby_step_giant_step import *  # noqa: F403
 from .baby_step_giant_step import __all__ as _bsgs_all
+from .class_character_series import *  # noqa: F403
+from .class_character_series import __all__ as _class_character_series_all
 from .class_series import *  # noqa: F403
 from .class_series import __all__ as _class_series_all
+from .conductor_factors import *  # noqa: F403
+from .conductor_factors import __all__ as _conductor_factors_all
 from .dispatch import *  # noqa: F403
 from .dispatch import __all__ as _dispatch_all
 from .genus import *  # noqa: F403
 from .genus import __all__ as _genus_all
+from .genus_characters import *  # noqa: F403
+from .genus_characters import __all__ as _genus_characters_all
 from .genus_theta import *  # noqa: F403
 from .genus_theta import __all__ as _genus_theta_all
 from .group import *  # noqa: F403
 from .group import __all__ as _group_all
+from .hecke_operators import *  # noqa: F403
+from .hecke_operators import __all__ as _hecke_operators_all
 from .hecke_theta import *  # noqa: F403
 from .hecke_theta import __all__ as _hecke_theta_all
 from .infrastructure import *  # noqa: F403
 from .infrastructure import __all__ as _infrastructure_all
+from .narrow_class_zeta import *  # noqa: F403
+from .narrow_class_zeta import __all__ as _narrow_class_zeta_all
 from .order_series import *  # noqa: F403
 from .order_series import __all__ as _order_series_all
 from .orders import *  # noqa: F403
@@ -54,6 +73,8 @@ from .partial_zeta_continuation import *  # noqa: F403
 from .partial_zeta_continuation import __all__ as _continuation_all
 from .principal_genus_theorem import *  # noqa: F403
 from .principal_genus_theorem import __all__ as _theorem_all
+from .series_identity import *  # noqa: F403
+from .series_identity import __all__ as _series_identity_all
 
 __all__ = [
     *_group_all,
@@ -63,9 +84,15 @@ __all__ = [
     *_orders_all,
     *_bsgs_all,
     *_infrastructure_all,
+    *_series_identity_all,
+    *_genus_characters_all,
+    *_narrow_class_zeta_all,
+    *_class_character_series_all,
+    *_conductor_factors_all,
     *_class_series_all,
     *_order_series_all,
     *_genus_theta_all,
+    *_hecke_operators_all,
     *_hecke_theta_all,
     *_partial_zeta_all,
     *_continuation_all,

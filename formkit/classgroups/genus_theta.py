@@ -157,7 +157,7 @@ def eisenstein_coefficients(D: object, symbol: tuple[int, ...] | FormLike, N: ob
     import numpy as np
 
     from ..core.discriminants import validate_discriminant
-    from .class_series import genus_character_discriminants
+    from .genus_characters import genus_character_discriminants
 
     D = validate_discriminant(D)
     if D > 0 or not is_fundamental_discriminant(D):

@@ -62,17 +62,19 @@ from typing import Any
 
 from ..analytic.theta_series import theta_series
 from ..core.arith import as_int, kronecker
-from ..core.discriminants import validate_discriminant
 from ..core.displays import SentenceDisplay
 from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, as_form
 from ..core.reduction import reduced
 from ..errors import DiscriminantError, FormError, FormkitError
 from .genus import genera
+from .hecke_operators import _factor_list, _hecke_matrix, _independent, _NotStable
+from .hecke_operators import sturm_bound as sturm_bound
+from .number_fields import _Field, _poly_list, _poly_text
 
+# sturm_bound is defined in hecke_operators and stays importable from here
 __all__ = [
     "MAX_HECKE_DISCRIMINANT",
-    "sturm_bound",
     "HeckeEigenform",
     "HeckeDecomposition",
     "hecke_decomposition",
@@ -86,198 +88,6 @@ _PRIME_COUNT = 8
 
 #: The operators ``U_p`` (``p | D``) are tried for the primes up to this bound.
 _RAMIFIED_LIMIT = 60
-
-
-class _NotStable(Exception):
-    """``U_p`` (``p | D``) does not preserve the span: it is then left out."""
-
-
-def sturm_bound(D: object) -> int:
-    """``B = ⌊m/12⌋``, ``m = |D|·∏_{p | D}(1 + 1/p)``: weight-1 forms on ``Γ₀(|D|)`` are fixed by ``a(0..B)``.
-
-    Examples
-    --------
-    >>> sturm_bound(-23), sturm_bound(-4)          # m = 24 and 6
-    (2, 0)
-    """
-    D = validate_discriminant(D)
-    N = abs(D)
-    m = N
-    for p in prime_factorisation(N) if N > 1 else ():
-        m = m // p * (p + 1)
-    return m // 12
-
-
-# ---------------------------------------------------------------------------------------
-# number fields Q[x]/(g) with python-flint polynomials
-# ---------------------------------------------------------------------------------------
-
-
-def _poly_list(p) -> tuple[Fraction, ...]:
-    """Coefficients (constant first) of an fmpq_poly as Fractions."""
-    return tuple(Fraction(int(c.p), int(c.q)) for c in p.coeffs())
-
-
-def _poly_text(coeffs: tuple[Fraction, ...], var: str = "x") -> str:
-    """``x^2 - x - 1`` from constant-first coefficients."""
-    terms = []
-    for k in range(len(coeffs) - 1, -1, -1):
-        c = coeffs[k]
-        if c == 0:
-            continue
-        sign = "-" if c < 0 else "+"
-        a = abs(c)
-        mono = "" if k == 0 else (var if k == 1 else f"{var}^{k}")
-        body = str(a) if (a != 1 or k == 0) else ""
-        if body and mono:
-            body = f"{body}*{mono}" if "/" not in body else f"({body})*{mono}"
-        elif mono:
-            body = mono
-        terms.append((sign, body))
-    if not terms:
-        return "0"
-    out = ("-" if terms[0][0] == "-" else "") + terms[0][1]
-    for sign, body in terms[1:]:
-        out += f" {sign} {body}"
-    return out
-
-
-class _Field:
-    """``Q[x]/(g)`` for a monic irreducible ``g`` (``deg g = 1``: the rationals)."""
-
-    def __init__(self, g) -> None:
-        from flint import fmpq_mat
-
-        self.g = g
-        self.degree = g.degree()
-        d = self.degree
-        # the companion matrix: multiplication by x on 1, x, …, x^(d−1)
-        c = list(g.coeffs())
-        rows: list[list[Any]] = [[0] * d for _ in range(d)]
-        for i in range(d - 1):
-            rows[i + 1][i] = 1
-        for i in range(d):
-            rows[i][d - 1] = -c[i]
-        # row vector convention: (coordinates of p)·C = coordinates of x·p
-        self._companion = fmpq_mat(d, d, [v for row in rows for v in row]).transpose()
-
-    def reduce(self, p):
-        return p % self.g
-
-    def inverse(self, p):
-        d, u, _v = p.xgcd(self.g)
-        if d.degree() != 0:  # pragma: no cover - g irreducible and p ≢ 0
-            raise ArithmeticError("not invertible in the number field")
-        return self.reduce(u / d[0])
-
-    def trace(self, p) -> Fraction:
-        """``Tr_{K/Q}(p(α))``: the trace of ``p`` at the companion matrix."""
-        from flint import fmpq_mat
-
-        d = self.degree
-        M = fmpq_mat(d, d)
-        P = fmpq_mat(d, d, [1 if i == j else 0 for i in range(d) for j in range(d)])
-        for c in p.coeffs():
-            M += P * c
-            P = P * self._companion
-        return sum((Fraction(int(M[i, i].p), int(M[i, i].q)) for i in range(d)), Fraction(0))
-
-    def coordinates(self, p) -> list:
-        """The coordinates of ``p(α)`` on ``1, α, …, α^(d−1)`` (fmpq)."""
-        from flint import fmpq
-
-        c = list(self.reduce(p).coeffs())
-        return c + [fmpq(0)] * (self.degree - len(c))
-
-    def rebased(self, lam):
-        """``(Q[y]/(m), convert)`` with ``y ↦ lam`` when ``lam`` generates ``K``, else ``None``.
-
-        ``m`` is the minimal polynomial of ``lam``; ``convert`` maps an element of this
-        field to the fmpq_poly in ``y`` with the same value.
-        """
-        from flint import fmpq_mat, fmpq_poly
-
-        d = self.degree
-        rows = []
-        power = fmpq_poly(1)
-        for _k in range(d):
-            rows.append(self.coordinates(power))
-            power = self.reduce(power * lam)
-        L = fmpq_mat(d, d, [v for row in rows for v in row])
-        if L.rank() < d:
-            return None
-        Linv = L.inv()
-        last = fmpq_mat(1, d, self.coordinates(power)) * Linv  # lam^d on 1, lam, …, lam^(d−1)
-        m = fmpq_poly([-last[0, k] for k in range(d)] + [1])
-
-        def convert(beta):
-            c = fmpq_mat(1, d, self.coordinates(beta)) * Linv
-            return fmpq_poly([c[0, k] for k in range(d)])
-
-        return _Field(m), convert
-
-    def polynomial(self) -> tuple[Fraction, ...]:
-        return _poly_list(self.g)
-
-    def element(self, p) -> tuple[Fraction, ...]:
-        out = _poly_list(self.reduce(p))
-        return out + (Fraction(0),) * (self.degree - len(out)) if self.degree > 1 else (out or (Fraction(0),))
-
-
-# ---------------------------------------------------------------------------------------
-# linear algebra on q-expansions
-# ---------------------------------------------------------------------------------------
-
-
-def _independent(rows: list[list[int]], upto: int) -> tuple[list[int], list[int]]:
-    """Indices of a maximal independent subset of ``rows`` (first ``upto + 1`` entries) and pivots."""
-    from flint import fmpq_mat
-
-    chosen: list[int] = []
-    rank = 0
-    for i, _r in enumerate(rows):
-        trial = chosen + [i]
-        M = fmpq_mat(len(trial), upto + 1, [rows[k][n] for k in trial for n in range(upto + 1)])
-        if M.rank() > rank:
-            chosen, rank = trial, rank + 1
-    if not chosen:
-        return [], []
-    M = fmpq_mat(len(chosen), upto + 1, [rows[k][n] for k in chosen for n in range(upto + 1)])
-    R, _rk = M.rref()
-    pivots = []
-    for i in range(len(chosen)):
-        j = next(j for j in range(upto + 1) if R[i, j] != 0)
-        pivots.append(j)
-    return chosen, pivots
-
-
-def _hecke_matrix(basis: list[list[Any]], pivots: list[int], p: int, chi_p: int, B: int):
-    """The rational matrix ``C`` with ``T_p b_i = Σ_j C_ij b_j``, checked on ``a(0..B)``."""
-    from flint import fmpq, fmpq_mat
-
-    r = len(basis)
-    A = fmpq_mat(r, r, [basis[j][pv] for j in range(r) for pv in pivots])  # A[j, k] = b_j(pivot_k)
-    Ainv = A.inv()
-    out = []
-    for b in basis:
-        t = [b[p * n] + (chi_p * b[n // p] if n % p == 0 else 0) for n in range(B + 1)]
-        rhs = fmpq_mat(1, r, [t[pv] for pv in pivots])
-        c = rhs * Ainv
-        for n in range(B + 1):
-            if sum((c[0, j] * basis[j][n] for j in range(r)), fmpq(0)) != t[n]:
-                if chi_p == 0:
-                    raise _NotStable(p)
-                raise ArithmeticError(
-                    f"T_{p} does not preserve the span of the theta series (checked to q^{B}): "
-                    "this contradicts Hecke's theory; please report it"
-                )
-        out.append([c[0, j] for j in range(r)])
-    return fmpq_mat(r, r, [v for row in out for v in row])
-
-
-def _factor_list(poly) -> tuple[tuple[tuple[Fraction, ...], int], ...]:
-    _content, fac = poly.factor()
-    return tuple((_poly_list(g), int(e)) for g, e in fac)
 
 
 # ---------------------------------------------------------------------------------------

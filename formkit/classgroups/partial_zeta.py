@@ -1,55 +1,26 @@
-"""Partial zeta functions ζ(s, C) of the narrow ideal classes of a real quadratic order (D > 0).
+"""Identities of the partial zeta functions of real quadratic classes (D > 0): ζ_K and genus characters.
 
-For ``D < 0`` the ideals of a class are counted by the Epstein zeta function of a form
-(:mod:`formkit.classgroups.class_series`); for ``D > 0`` the form is indefinite, every
-number it represents is represented infinitely often (the automorphs), and
-``Σ' Q(x, y)^(−s)`` is no sum at all.  The analogue (Dedekind, Hecke) is the partial zeta
-function of a narrow class ``C`` of invertible ideals of the order ``O_D``,
+The partial zeta function ``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` of a narrow class ``C`` of
+invertible ideals of the order of discriminant ``D > 0`` — by direct summation with an
+explicit tail bound, or continued analytically to every complex ``s ≠ 1`` — is computed in
+:mod:`formkit.classgroups.narrow_class_zeta`, the L-series ``L(s, ψ) = Σ_C ψ(C)·ζ(s, C)`` of
+a narrow class character in :mod:`formkit.classgroups.class_character_series` (both
+re-exported here).  This module gives ``ζ(s, C)`` for the class of one form
+(:func:`partial_zeta`) and checks the values against the closed formulas:
 
-    ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)        (Re s > 1),
+* for fundamental ``D > 0``, ``Σ_C ζ(s, C) = ζ_K(s) = ζ(s)·L(s, χ_D)``
+  (:func:`real_class_zeta_sum`, the right side from
+  :func:`formkit.analytic.l_series.quadratic_field_zeta`);
+* for a genus character ``ψ_{d₁,d₂}`` Kronecker's factorisation ``L(s, ψ) =
+  L(s, χ_{d₁})·L(s, χ_{d₂})`` holds as for ``D < 0`` (:func:`real_genus_character_l_series`;
+  ``ψ(C) = χ_{d₁}(m)`` for a norm ``m > 0`` of an ideal of ``C`` prime to ``D``);
+* for an order (``D = f²·d_K``, ``f > 1``) both functions hand ``D`` to
+  :func:`~formkit.classgroups.order_series.order_zeta_sum` and
+  :func:`~formkit.classgroups.order_series.order_genus_character_l_series`, whose right sides
+  carry the factors ``e_p(s, ψ)`` at ``p | f``.
 
-equivalently the sum over the representations ``Q(x, y) > 0`` modulo the proper
-automorphs.  Here it is summed directly:
-
-* every ideal is ``m·𝔟`` with ``m ≥ 1`` and ``𝔟`` primitive, in the same narrow class
-  (``m`` is totally positive) and invertible together, so ``ζ(s, C) = ζ(2s)·Σ_{𝔟 ∈ C
-  primitive} N(𝔟)^(−s)``;
-* the primitive ideals of norm ``a`` are the lattices ``[a, (−b + √D)/2]`` with
-  ``b mod 2a``, ``b² ≡ D (mod 4a)`` (Cohen, GTM 138, §5.2, from memory); it is
-  invertible iff the form ``(a, b, c)``, ``c = (b² − D)/4a``, is primitive, and its
-  narrow class corresponds to the proper class of that form (up to inversion, which
-  does not change ``ζ(s, C)``: the conjugate ideal has the same norm and the inverse
-  class);
-* all ``a ≤ X`` are listed (square roots modulo ``4a``), the class of each form found
-  in the enumerated class group, and ``Σ a^(−s)`` summed in ball arithmetic.
-
-**Tail bound.**  The number ``ρ(a)`` of ``b mod 2a`` is half the number of square roots
-of ``D`` modulo ``4a``; modulo ``p^j`` with ``p^v ∥ D`` there are at most ``2p^⌊v/2⌋``
-(odd ``p``) and ``4·2^⌊v/2⌋`` (``p = 2``) roots, so ``ρ(a) ≤ 2M·2^ω(a) ≤ 2M·τ(a)`` with
-``M`` the largest integer whose square divides ``D``.  With ``Σ_{n ≤ t} τ(n) ≤ t(1 + log t)``
-and partial summation the primitive ideals of norm ``> X`` of *all* classes add at most
-
-    T(X, s) = 2M·s·X^(1−s)/(s − 1)·(log X + 1 + 1/(s − 1))      (real s > 1),
-
-so ``ζ(s, C) ∈ ζ(2s)·(S_C(X) + [0, T])``.  The tail decays only like ``X^(1−s)·log X``:
-this is a direct summation, good for a few digits at ``s = 2`` and more for larger
-``s``; the digits that the bound certifies are the ones reported.  This route is taken
-when a ``bound`` is given.
-
-**Analytic continuation** (the default, no ``bound``): every ``ζ(s, C)`` and ``L(s, ψ)`` at
-any complex ``s ≠ 1``, from the functional equation ``Λ(s, ψ) = Λ(1 − s, ψ̄)`` of the class
-character L-series and a rapidly convergent smoothed sum
-(:mod:`formkit.classgroups.partial_zeta_continuation`, where ``W(ψ) = 1`` is proved for
-every order and the cuts are bounded explicitly).
-
-**Checks and characters.**  For fundamental ``D > 0``, ``Σ_C ζ(s, C) = ζ_K(s) =
-ζ(s)·L(s, χ_D)`` (:func:`real_class_zeta_sum`, the right side from
-:func:`formkit.analytic.l_series.quadratic_field_zeta`).  A character ``ψ`` of the narrow
-class group (a ring class character; ``ψ`` and ``ψ̄`` give the same series at real
-``s``) has ``L(s, ψ) = Σ_C ψ(C)·ζ(s, C)`` (:func:`real_class_character_l_series`); for a
-genus character ``ψ_{d₁,d₂}`` Kronecker's factorisation ``L(s, ψ) = L(s, χ_{d₁})·L(s, χ_{d₂})``
-holds as for ``D < 0`` (:func:`real_genus_character_l_series`).  The Chowla–Selberg
-formula has no analogue here: it is a statement about η at CM points (``D < 0``).
+The Chowla–Selberg formula has no analogue here: it is a statement about η at CM points
+(``D < 0``).
 
 References
 ----------
@@ -57,18 +28,13 @@ References
        die Klassenzahl relativ-Abelscher Körper", Verh. Naturf. Ges. Basel 28 (1917)
        (partial zeta functions of real quadratic classes; from memory).
 .. [2] D. Zagier, *Zetafunktionen und quadratische Körper*, Springer 1981, §10–13.
-.. [3] H. Cohen, *A Course in Computational Algebraic Number Theory*, GTM 138,
-       Springer 1993, §5.2 (ideals of quadratic orders and forms).
-.. [4] T. M. Apostol, *Introduction to Analytic Number Theory*, Springer 1976, Thm 3.3
-       (``Σ_{n ≤ x} τ(n) = x log x + O(x)``; the bound ``t(1 + log t)`` from
-       ``Σ_{d ≤ t} ⌊t/d⌋``).
 """
 
 from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass, replace
+from dataclasses import replace
 from fractions import Fraction
 
 from ..analytic.balls import (
@@ -83,270 +49,28 @@ from ..analytic.balls import (
 from ..analytic.l_series import l_series, quadratic_field_zeta, riemann_zeta
 from ..core.arith import as_int, kronecker
 from ..core.discriminants import is_fundamental_discriminant
-from ..core.factorisation import prime_factorisation
 from ..core.forms import Form, FormLike, as_form
-from ..core.modular_roots import sqrt_mod
-from ..errors import DiscriminantError, FormkitError
-from .class_series import SeriesIdentity, genus_character_discriminants
-from .partial_zeta_continuation import _digits_of
-from .partial_zeta_continuation import _positive as _positive_discriminant
+from ..errors import FormkitError
+from .class_character_series import enumerated_classes
+from .class_character_series import real_class_character_l_series as real_class_character_l_series
+from .genus_characters import genus_character_discriminants
+from .narrow_class_zeta import DEFAULT_IDEAL_NORM_BOUND as DEFAULT_IDEAL_NORM_BOUND
+from .narrow_class_zeta import MAX_IDEAL_NORM_BOUND as MAX_IDEAL_NORM_BOUND
+from .narrow_class_zeta import PartialZetaValues as PartialZetaValues
+from .narrow_class_zeta import _route
+from .narrow_class_zeta import partial_zeta_values as partial_zeta_values
+from .order_series import order_genus_character_l_series, order_zeta_sum
+from .partial_zeta_continuation import _digits_of, _positive, continued_class_character_l_series
+from .series_identity import SeriesIdentity
 
+# partial_zeta_values, PartialZetaValues, the two bounds and real_class_character_l_series
+# are defined in the modules imported above and stay importable from here; the names this
+# module defines are:
 __all__ = [
-    "DEFAULT_IDEAL_NORM_BOUND",
-    "MAX_IDEAL_NORM_BOUND",
-    "PartialZetaValues",
-    "partial_zeta_values",
     "partial_zeta",
     "real_class_zeta_sum",
-    "real_class_character_l_series",
     "real_genus_character_l_series",
 ]
-
-#: Ideals of norm up to this bound are listed by default (about 1 s here for D ≈ 10^3).
-DEFAULT_IDEAL_NORM_BOUND = 20_000
-
-#: The largest bound accepted (about a minute of square roots and class look-ups).
-MAX_IDEAL_NORM_BOUND = 10**6
-
-
-def _positive(D: object, what: str, fundamental: bool = False) -> int:
-    D = _positive_discriminant(D, what)
-    if fundamental and not is_fundamental_discriminant(D):
-        raise DiscriminantError(
-            f"{what} is stated for fundamental discriminants; {D} is not fundamental (for an order use "
-            "order_zeta_sum or order_genus_character_l_series, which add the factors at p | f)"
-        )
-    return D
-
-
-def _route(s: object, bound: object) -> tuple[ComplexArgument, bool]:
-    """``(s, direct)``: direct summation when a ``bound`` is given, else the analytic continuation."""
-    s = as_complex_argument(s)
-    if bound is None:
-        return s, False
-    if not (s.is_real and s.real > 1):
-        raise FormkitError(
-            f"a bound on the ideal norms selects direct summation, which converges for real s > 1 only; "
-            f"s = {s} is not (leave the bound out: the analytic continuation takes any s ≠ 1)"
-        )
-    return s, True
-
-
-def _square_part(D: int) -> int:
-    m = 1
-    for p, e in prime_factorisation(abs(D)).items():
-        m *= p ** (e // 2)
-    return m
-
-
-@dataclass(frozen=True)
-class PartialZetaValues:
-    """``ζ(s, C)`` for every narrow class ``C`` of discriminant ``D > 0``, by direct summation.
-
-    ``classes[i]`` is the reduced form of the class (as in ``class_group(D)``),
-    ``values[i]`` the certified ``ζ(s, C)``, ``ideal_counts[i]`` the number of primitive
-    invertible ideals of norm ``≤ bound`` found in it; ``tail_bound`` is ``ζ(2s)·T(X, s)``
-    (module docstring), the width of every interval.
-    """
-
-    discriminant: int
-    s: ComplexArgument
-    bound: int
-    classes: tuple[Form, ...]
-    values: tuple[CertifiedValue, ...]
-    ideal_counts: tuple[int, ...]
-    tail_bound: float
-    provenance: str
-
-    def value(self, form: FormLike) -> CertifiedValue:
-        """``ζ(s, C)`` for the class of ``form``."""
-        from .dispatch import class_group
-
-        G = class_group(self.discriminant, method="enumeration")
-        x = G(form)
-        for f, v in zip(self.classes, self.values):
-            if G(f) == x:
-                return v
-        raise FormkitError(f"{form!r} is in no class of {self.discriminant}")  # pragma: no cover
-
-    def to_dict(self) -> dict:
-        """JSON-ready dictionary."""
-        return {
-            "discriminant": self.discriminant,
-            "s": str(self.s),
-            "bound": self.bound,
-            "tail_bound": f"{self.tail_bound:.3e}",
-            "classes": [
-                {"form": f.to_list(), "ideals": n, "zeta": v.to_dict()}
-                for f, v, n in zip(self.classes, self.values, self.ideal_counts)
-            ],
-            "provenance": self.provenance,
-        }
-
-    def __repr__(self) -> str:
-        return (
-            f"PartialZetaValues(D={self.discriminant}, s={self.s}, ideals of norm ≤ {self.bound}: "
-            + ", ".join(f"({f.a}, {f.b}, {f.c}): {v.text()}" for f, v in zip(self.classes, self.values))
-            + f"; tail ≤ {self.tail_bound:.1e})"
-        )
-
-    def _repr_html_(self) -> str:
-        rows = "".join(
-            f"<tr><td>({f.a}, {f.b}, {f.c})</td><td><code>{v.text()}</code></td><td>{n}</td></tr>"
-            for f, v, n in zip(self.classes, self.values, self.ideal_counts)
-        )
-        return (
-            f"<p>ζ(s, C) for D = {self.discriminant}, s = {self.s} (ideals of norm ≤ {self.bound}, "
-            f"tail ≤ {self.tail_bound:.1e}):</p><table><tr><th>class</th><th>ζ(s, C)</th><th>ideals</th></tr>"
-            f"{rows}</table><p><small>{self.provenance}</small></p>"
-        )
-
-    def _repr_latex_(self) -> str:
-        body = r",\ ".join(f"{v.text()}" for v in self.values)
-        return rf"$\zeta(s, C) = {body}$ \quad(\text{{{self.provenance}}})"
-
-
-def _ideal_sums(D: int, s: ComplexArgument, X: int, prec: int):
-    """Per class: ``(Σ_{𝔟 ∈ C primitive, N𝔟 ≤ X} N𝔟^(−s) as an arb, count)``; the group."""
-    from flint import arb, ctx
-
-    from ..core.enumeration import _factor_with, _spf_sieve
-    from .dispatch import class_group
-
-    G = class_group(D, method="enumeration")
-    index = {x: i for i, x in enumerate(G.elements())}
-    h = len(index)
-    counts = [0] * h
-    spf = _spf_sieve(4 * X)
-    with ctx.workprec(prec):
-        sums = [arb(0) for _ in range(h)]
-        minus_s = -s.ball()
-        for a in range(1, X + 1):
-            factors = _factor_with(spf, 4 * a)
-            roots = {r % (2 * a) for r in sqrt_mod(D, 4 * a, factors)}
-            if not roots:
-                continue
-            power = (minus_s * arb(a).log()).exp()
-            for b in roots:
-                c = (b * b - D) // (4 * a)
-                if math.gcd(a, b, c) != 1:
-                    continue  # not invertible
-                i = index[G((a, b, c))]
-                sums[i] += power
-                counts[i] += 1
-    return G, sums, counts
-
-
-def partial_zeta_values(D: object, s: object, *, bound: object = None, digits: int = 30) -> PartialZetaValues:
-    """``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` (continued analytically) for every narrow class of ``D > 0``.
-
-    Without ``bound``: the analytic continuation by the functional equation of the class
-    character L-series (:mod:`formkit.classgroups.partial_zeta_continuation`), any complex
-    ``s ≠ 1`` with ``|Im s| ≤ 100``; ``bound`` is then the largest norm summed and
-    ``tail_bound`` 0 (the cuts are inside each ball).  With ``bound``: direct summation over
-    the ideals of norm ``≤ bound`` (real ``s > 1``; module docstring).
-
-    Parameters
-    ----------
-    D : int
-        A positive non-square discriminant (fundamental or not: the invertible ideals of
-        the order of discriminant ``D``).
-    s : number or text
-        Any complex ``s ≠ 1`` (``"1/2+14i"``, ``-3``); with ``bound``, a real ``s > 1``.
-    bound : int, optional
-        ``X``: direct summation over the primitive ideals of norm ``≤ X`` (at most 10^6;
-        the CLI's default is 20000).
-    digits : int
-        The most digits reported; fewer when the tail bound does not allow them.
-
-    Returns
-    -------
-    PartialZetaValues
-
-    Raises
-    ------
-    DiscriminantError
-        If ``D`` is not a positive discriminant.
-    FormkitError
-        At ``s = 1``; with ``bound``, if ``s`` is not real ``> 1``, ``bound`` is out of
-        range, or the tail bound leaves no certified digit.
-
-    Examples
-    --------
-    >>> z = partial_zeta_values(12, 4, bound=2000, digits=8)
-    >>> [f.to_list() for f in z.classes], [v.text() for v in z.values]     # h⁺(12) = 2
-    ([[1, 2, -2], [-1, 2, 2]], ['1.0049347', '0.07530141'])
-    >>> [v.text() for v in partial_zeta_values(12, 4, digits=12).values]    # continuation
-    ['1.00493467851', '0.0753014029058']
-    >>> partial_zeta_values(5, -1).values[0].text()                      # ζ_K(−1) = 1/30 for Q(√5)
-    '0.0333333333333333333333333333333'
-    """
-    from flint import arb, ctx
-
-    from .partial_zeta_continuation import continued_partial_zeta
-
-    D = _positive(D, "the partial zeta function ζ(s, C)")
-    s, direct = _route(s, bound)
-    digits = check_digits(digits)
-    if not direct:
-        forms, vals, N, counts, prov = continued_partial_zeta(D, s, digits=digits)
-        return PartialZetaValues(
-            D,
-            s,
-            N,
-            forms,
-            vals,
-            counts,
-            0.0,
-            f"{prov}; analytic continuation (functional equation), norms ≤ {N}",
-        )
-    X = as_int(bound, "bound")
-    if not 1 <= X <= MAX_IDEAL_NORM_BOUND:
-        raise FormkitError(f"bound must lie in [1, {MAX_IDEAL_NORM_BOUND}], not {X}")
-    prec = bits_for(digits) + 40
-    G, sums, counts = _ideal_sums(D, s, X, prec)
-    M = _square_part(D)
-    z2 = riemann_zeta(s * 2, digits=digits + 5)
-    values = []
-    with ctx.workprec(prec):
-        sb = s.ball()
-        lx = arb(X).log()
-        T = 2 * M * sb / (sb - 1) * ((1 - sb) * lx).exp() * (lx + 1 + 1 / (sb - 1))
-        zeta2 = as_ball(z2).real
-        tail = float(T.upper()) * float(zeta2.upper())
-        quantity_forms = [x.form for x in G.elements()]
-        for f, part in zip(quantity_forms, sums):
-            ball = zeta2 * (part + T / 2 + arb(0, 1) * (T / 2))
-            ball = arb(ball.mid(), ball.rad()) if ball.is_finite() else ball
-            got = _digits_of(ball, digits)
-            if got < 1:
-                raise FormkitError(
-                    f"ζ({s}, C) for D = {D}: the tail bound {tail:.1e} beyond norm {X} leaves no certified "
-                    "digit; raise --bound or take a larger s"
-                )
-            values.append(
-                certified(
-                    ball,
-                    got,
-                    quantity=f"ζ(s, C), C = class of ({f.a}, {f.b}, {f.c}) (D = {D})",
-                    s=s,
-                    method=(
-                        f"direct sum over the invertible ideals of norm ≤ {X} times ζ(2s), tail ≤ {tail:.1e} "
-                        "(explicit bound), ball arithmetic (unconditional)"
-                    ),
-                    terms=X,
-                )
-            )
-    return PartialZetaValues(
-        D,
-        s,
-        X,
-        tuple(quantity_forms),
-        tuple(values),
-        tuple(counts),
-        tail,
-        f"{G.provenance}; ideals listed by square roots of D modulo 4a, a ≤ {X}",
-    )
 
 
 def _positive_value_prime_to(form: Form, D: int) -> int:
@@ -384,7 +108,7 @@ def _sum_identity(
 ):
     from flint import ctx
 
-    with ctx.workprec(bits_for(30) + 40):
+    with ctx.workprec(bits_for(right.digits) + 40):
         got = _digits_of(left_ball, right.digits)
         left = certified(
             left_ball,
@@ -406,10 +130,38 @@ def real_class_zeta_sum(
     digits: int = 30,
     values: PartialZetaValues | None = None,
 ) -> SeriesIdentity:
-    """``Σ_C ζ(s, C)`` over the narrow classes of a fundamental ``D > 0``, beside ``ζ(s)·L(s, χ_D)``.
+    """``Σ_C ζ(s, C)`` over the narrow classes of ``D > 0``, beside ``ζ(s)·L(s, χ_D)`` (times ``∏_{p|f} e_p(s)`` for an order).
 
-    ``values`` may pass the :class:`PartialZetaValues` of ``D`` at ``s`` already computed;
-    ``bound`` selects direct summation (real ``s > 1``), as in :func:`partial_zeta_values`.
+    For fundamental ``D`` the right side is ``ζ_K(s)``; for ``D = f²·d_K`` with ``f > 1``
+    the call is handed to :func:`~formkit.classgroups.order_series.order_zeta_sum`, whose
+    right side is ``ζ(s)·L(s, χ_{d_K})·∏_{p|f} e_p(s)``.
+
+    Parameters
+    ----------
+    D : int
+        A positive non-square discriminant.
+    s : number or text
+        Any complex ``s ≠ 1``; with ``bound``, a real ``s > 1``.
+    bound : int, optional
+        Direct summation over the ideals of norm ``≤ bound``, as in
+        :func:`~formkit.classgroups.narrow_class_zeta.partial_zeta_values`; without it the
+        analytic continuation.
+    digits : int
+        The most digits reported (fewer on the side by the classes when a tail bound allows
+        fewer).
+    values : PartialZetaValues, optional
+        The values of ``D`` at ``s`` already computed (used when they match ``D`` and ``s``).
+
+    Returns
+    -------
+    SeriesIdentity
+
+    Raises
+    ------
+    DiscriminantError
+        If ``D`` is not a positive discriminant.
+    FormkitError
+        At ``s = 1``, or as :func:`~formkit.classgroups.narrow_class_zeta.partial_zeta_values`.
 
     Examples
     --------
@@ -418,10 +170,20 @@ def real_class_zeta_sum(
     (True, 3)
     >>> real_class_zeta_sum(229, "-1/2+3i", digits=10).agrees
     True
+    >>> r = real_class_zeta_sum(45, 2, digits=15)                  # the order of conductor 3 in Q(√5)
+    >>> r.statement, r.agrees
+    ('Σ_C ζ(s, C) = ζ(s)·L(s, χ_5)·e_3(s)', True)
+
+    References
+    ----------
+    Zagier, *Zetafunktionen und quadratische Körper*, §13 (``ζ_K`` as the sum of the
+    partial zeta functions).
     """
     from flint import acb, ctx
 
-    D = _positive(D, "Σ_C ζ(s, C) = ζ(s)·L(s, χ_D)", fundamental=True)
+    D = _positive(D, "Σ_C ζ(s, C) = ζ(s)·L(s, χ_D)")
+    if not is_fundamental_discriminant(D):
+        return order_zeta_sum(D, s, digits=digits, bound=bound, values=values)
     if values is not None and values.discriminant == D and values.s == as_complex_argument(s):
         z = values
     else:
@@ -434,88 +196,42 @@ def real_class_zeta_sum(
     return _sum_identity(total, right, "Σ_C ζ(s, C) = ζ(s)·L(s, χ_D)", D, z.s, z.values, z.provenance)
 
 
-def _character_values(D: int, character: Sequence[int]):
-    """``ψ(C)`` (complex balls) for the classes of ``class_group(D)`` in its element order."""
-    from flint import acb, fmpq
-
-    from .dispatch import class_group
-
-    G = class_group(D, method="enumeration")
-    inv = G.invariants
-    k = [as_int(x, "character exponent") for x in character]
-    if len(k) != len(inv):
-        raise FormkitError(
-            f"a character of Cl⁺({D}) ≅ {G.structure} is given by {len(inv)} exponents (one per "
-            f"invariant {list(inv)}), not {len(k)}"
-        )
-    out = []
-    for x in G.elements():
-        e = G.discrete_log(x)
-        phase = sum((Fraction(ki * ei, ni) for ki, ei, ni in zip(k, e, inv)), Fraction(0))
-        out.append(acb.exp_pi_i(acb(2 * fmpq(phase.numerator, phase.denominator))))
-    return G, k, out
-
-
-def real_class_character_l_series(
-    D: object,
-    character: Sequence[int],
-    s: object,
-    *,
-    bound: object = None,
-    digits: int = 30,
-) -> CertifiedValue:
-    """``L(s, ψ) = Σ_C ψ(C)·ζ(s, C)`` for a character ``ψ`` of the narrow class group of ``D > 0``.
-
-    ``character`` gives ``ψ(g_i) = e^(2πi·k_i/n_i)`` on the generators of ``class_group(D)``.
-    Without ``bound``: any complex ``s`` (``s ≠ 1`` for ``ψ = 1``), by
-    :func:`~formkit.classgroups.partial_zeta_continuation.continued_class_character_l_series`;
-    with ``bound``: direct summation (real ``s > 1``).
-
-    Examples
-    --------
-    >>> real_class_character_l_series(229, [1], 3, bound=3000, digits=8).text()
-    '0.96944'
-    >>> real_class_character_l_series(229, [1], 3, digits=12).text()
-    '0.969440675897'
-    """
-    from flint import acb, ctx
-
-    from .partial_zeta_continuation import continued_class_character_l_series
-
-    D = _positive(D, "the L-series of a narrow class group character")
-    s, direct = _route(s, bound)
-    digits = check_digits(digits)
-    if not direct:
-        return continued_class_character_l_series(D, character, s, digits=digits)
-    G, k, psis = _character_values(D, character)
-    z = partial_zeta_values(D, s, bound=bound, digits=digits)
-    with ctx.workprec(bits_for(digits) + 40):
-        total = acb(0)
-        for psi, v in zip(psis, z.values):
-            total += psi * as_ball(v)
-        ball = total.real if total.imag.contains(0) else total
-        got = _digits_of(ball, digits)
-        if got < 1:
-            raise FormkitError(f"L({s}, ψ) for D = {D}: no certified digit at bound {z.bound}; raise --bound")
-        label = "(" + ", ".join(str(v) for v in k) + ")"
-        return certified(
-            ball,
-            got,
-            quantity=f"L(s, ψ), ψ = {label} on Cl⁺({D}) ≅ {G.structure}",
-            s=s,
-            method=f"Σ_C ψ(C)·ζ(s, C) over {len(psis)} narrow classes; {z.values[0].method}",
-            terms=z.bound,
-        )
-
-
 def real_genus_character_l_series(
     D: object, d1: object, s: object, *, bound: object = None, digits: int = 30
 ) -> SeriesIdentity:
-    """``L(s, ψ_{d₁,d₂})`` by the classes and as ``L(s, χ_{d₁})·L(s, χ_{d₂})`` (fundamental ``D > 0``).
+    """``L(s, ψ_{d₁,d₂})`` by the classes and as ``L(s, χ_{d₁})·L(s, χ_{d₂})`` (``D = d₁·d₂ > 0``).
 
     Without ``bound`` the left side is the continued ``L(s, ψ)`` of the genus character
     (any complex ``s``; ``s ≠ 1`` when ``d₁ = 1``); with ``bound`` it is
-    ``Σ_C ψ(C)·ζ(s, C)`` summed directly (real ``s > 1``).
+    ``Σ_C ψ(C)·ζ(s, C)`` summed directly (real ``s > 1``).  For ``D = f²·d_K`` with
+    ``f > 1`` the call is handed to
+    :func:`~formkit.classgroups.order_series.order_genus_character_l_series` (``d₁``
+    fundamental or 1, ``d₂ = D/d₁ ≡ 0, 1 (mod 4)``; right side
+    ``L(s, χ_{d₁*})·L(s, χ_{d₂*})·∏_{p|f} e_p(s, ψ)``).
+
+    Parameters
+    ----------
+    D : int
+        A positive non-square discriminant.
+    d1 : int
+        For fundamental ``D`` one of
+        :func:`~formkit.classgroups.genus_characters.genus_character_discriminants`, for an
+        order one of :func:`~formkit.classgroups.genus_characters.order_genus_character_discriminants`.
+    s : number or text
+        Any complex ``s`` (``s ≠ 1`` for the trivial character); with ``bound`` a real ``s > 1``.
+    bound : int, optional
+        Direct summation over the ideals of norm ``≤ bound``.
+    digits : int
+        The most digits reported.
+
+    Returns
+    -------
+    SeriesIdentity
+
+    Raises
+    ------
+    DiscriminantError, FormkitError
+        If ``D`` is not positive, ``d₁`` does not split it, or at the pole.
 
     Examples
     --------
@@ -525,10 +241,19 @@ def real_genus_character_l_series(
     >>> r = real_genus_character_l_series(12, -3, "1/2+2i", digits=15)
     >>> r.agrees, r.left.digits
     (True, 15)
+    >>> r = real_genus_character_l_series(45, -3, 2, digits=15)   # an order: L(2, χ₋₃)·L(2, χ₋₁₅)·e_3
+    >>> r.statement.split(" = ")[1], r.agrees
+    ('L(s, χ_-3)·L(s, χ_-15)·e_3(s, ψ)', True)
+
+    References
+    ----------
+    Zagier, *Zetafunktionen und quadratische Körper*, §12–13.
     """
     from flint import acb, ctx
 
-    D = _positive(D, "a genus character L-series", fundamental=True)
+    D = _positive(D, "a genus character L-series")
+    if not is_fundamental_discriminant(D):
+        return order_genus_character_l_series(D, d1, s, digits=digits, bound=bound)
     s, direct = _route(s, bound)
     digits = check_digits(digits)
     d1 = as_int(d1, "d1")
@@ -540,7 +265,7 @@ def real_genus_character_l_series(
         )
     d2 = D // d1
     signs = []
-    for x in _classes(D).elements():
+    for x in enumerated_classes(D).elements():
         # ψ(C) = χ_{d₁}(m) = χ_{d₂}(m) for a norm m > 0 of an ideal of C (or C⁻¹) prime to D
         m = _positive_value_prime_to(x.form, D)
         signs.append(kronecker(d1, m))
@@ -554,10 +279,8 @@ def real_genus_character_l_series(
             for psi, v in zip(signs, z.values):
                 total += psi * _at(as_ball(v), s)
     else:
-        from .partial_zeta_continuation import continued_class_character_l_series
-
         one = continued_class_character_l_series(D, _genus_exponents(D, signs), s, digits=digits)
-        vals, prov = (one,), str(_classes(D).provenance)
+        vals, prov = (one,), str(enumerated_classes(D).provenance)
         with ctx.workprec(bits_for(digits) + 40):
             total = _at(as_ball(one), s)
 
@@ -576,20 +299,14 @@ def real_genus_character_l_series(
             terms=f1.terms + f2.terms,
         )
     identity = _sum_identity(total, right, f"L(s, ψ) = L(s, χ_{d1})·L(s, χ_{d2})", D, s, vals, prov)
-    return replace(identity, class_number=_classes(D).order)
-
-
-def _classes(D: int):
-    from .dispatch import class_group
-
-    return class_group(D, method="enumeration")
+    return replace(identity, class_number=enumerated_classes(D).order)
 
 
 def _genus_exponents(D: int, signs: Sequence[int]) -> tuple[int, ...]:
     """The exponents ``k`` of the character of ``class_group(D)`` with the values ``signs`` (±1)."""
     from itertools import product
 
-    G = _classes(D)
+    G = enumerated_classes(D)
     logs = [G.discrete_log(x) for x in G.elements()]
     inv = G.invariants
     for k in product(*[(0, n // 2) if n % 2 == 0 else (0,) for n in inv]):

@@ -1,6 +1,6 @@
 """Analytic continuation of the partial zeta functions ζ(s, C) of real quadratic classes (D > 0).
 
-:mod:`formkit.classgroups.partial_zeta` sums ``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` directly
+:mod:`formkit.classgroups.narrow_class_zeta` sums ``ζ(s, C) = Σ_{𝔞 ∈ C} N(𝔞)^(−s)`` directly
 for real ``s > 1``.  Here every narrow class character ``ψ`` of the order ``O`` of
 discriminant ``D > 0`` (fundamental or not) gets its completed L-series and functional
 equation, and a rapidly convergent smoothed sum gives ``L(s, ψ)`` and
@@ -28,7 +28,7 @@ units (Hecke's unit integral) then gives
 sgn(Nα)^δ·|Nα|^(−s)``.  Summing ``ψ̄(𝔟)·Λ_δ(s, 𝔟)`` over the wide classes, the sign
 ``(−1)^δ`` cancels against ``ψ((√D)) = sign N(√D)^δ = (−1)^δ``, and what remains is
 ``Λ(1 − s, ψ̄)``: ``W(ψ) = 1`` for every character, real or complex.  (For a non-maximal
-order this is consistent with the factors of :mod:`formkit.classgroups.order_series`:
+order this is consistent with the factors of :mod:`formkit.classgroups.conductor_factors`:
 ``f^s·e_p(s)`` is invariant under ``s ↦ 1 − s``.)  For ``ψ = 1`` the poles are at
 ``s = 1`` (residue ``r = h⁺·log ε⁺``: each narrow class contributes ``log ε⁺/√D`` to the
 residue of ``ζ(s, C)``, ``ε⁺ > 1`` the least totally positive unit of ``O``) and ``s = 0``
@@ -472,7 +472,7 @@ def continued_partial_zeta(D: object, s: object, *, digits: int = 30, check: boo
         ``(forms, values, N, primitive_counts, provenance)``: the reduced forms of the
         classes (in ``class_group(D)`` order), the certified ``ζ(s, C)``, the largest norm
         summed, the primitive invertible ideals of norm ``≤ N`` per class, and the classes'
-        provenance.  :func:`formkit.classgroups.partial_zeta.partial_zeta_values` wraps this.
+        provenance.  :func:`formkit.classgroups.narrow_class_zeta.partial_zeta_values` wraps this.
 
     Raises
     ------

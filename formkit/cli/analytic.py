@@ -46,7 +46,6 @@ def _ideal_bound(args: argparse.Namespace) -> int | None:
 def _cmd_l_value(args: argparse.Namespace) -> int:
     from ..analytic.l_series import l_series, quadratic_field_zeta
     from ..classgroups.class_series import class_character_l_series, genus_character_l_series
-    from ..classgroups.order_series import order_genus_character_l_series
     from ..core.discriminants import is_fundamental_discriminant
     from .conventions import CommandError, emit
 
@@ -63,17 +62,9 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
         if D > 0:
             from ..classgroups.partial_zeta import real_genus_character_l_series
 
-            r = _order_or_field(
-                D,
-                lambda: real_genus_character_l_series(D, d1, args.s, bound=bound, digits=digits),
-                lambda: order_genus_character_l_series(D, d1, args.s, bound=bound, digits=digits),
-            )
-        else:
-            r = _order_or_field(
-                D,
-                lambda: genus_character_l_series(D, d1, args.s, digits=digits),
-                lambda: order_genus_character_l_series(D, d1, args.s, digits=digits),
-            )
+            r = real_genus_character_l_series(D, d1, args.s, bound=bound, digits=digits)
+        else:  # fundamental or not: an order's D is handed to order_series
+            r = genus_character_l_series(D, d1, args.s, digits=digits)
         payload = {"kind": "genus_character", **r.to_dict()}
         lines = _identity_lines(r)
         if not is_fundamental_discriminant(D):
@@ -110,15 +101,8 @@ def _cmd_l_value(args: argparse.Namespace) -> int:
     return 0
 
 
-def _order_or_field(D: int, field, order):
-    """The maximal-order function for fundamental ``D``, the order one (conductor f > 1) otherwise."""
-    from ..core.discriminants import is_fundamental_discriminant
-
-    return field() if is_fundamental_discriminant(D) else order()
-
-
 def _factor_dicts(D: int, character=None, genus: int | None = None) -> list[dict]:
-    from ..classgroups.order_series import _local_factors, order_local_factors
+    from ..classgroups.conductor_factors import _local_factors, order_local_factors
 
     if genus is None:
         return [e.to_dict() for e in order_local_factors(D, character)]
@@ -180,7 +164,6 @@ def _ring_class(args: argparse.Namespace, D: int, k: list[int], bound: int | Non
 def _cmd_epstein(args: argparse.Namespace) -> int:
     from ..analytic.epstein import epstein_zeta, kronecker_limit
     from ..classgroups.class_series import chowla_selberg, class_zeta_sum
-    from ..classgroups.order_series import order_zeta_sum
     from ..core.forms import as_form
     from .conventions import CommandError, emit
 
@@ -199,11 +182,7 @@ def _cmd_epstein(args: argparse.Namespace) -> int:
         else:
             if args.s is None:
                 raise CommandError("--classes needs S (the point s)")
-            r = _order_or_field(
-                D,
-                lambda: class_zeta_sum(D, args.s, digits=digits),
-                lambda: order_zeta_sum(D, args.s, digits=digits),
-            )
+            r = class_zeta_sum(D, args.s, digits=digits)  # an order's D is handed to order_zeta_sum
         payload = {"kind": "identity", **r.to_dict()}
         lines = _identity_lines(r)
         if r.statement.startswith("Σ_C Z_C(s)") and "e_" in r.statement:
@@ -248,12 +227,7 @@ def _real_classes(args: argparse.Namespace, D: int, bound: int | None, digits: i
     if args.s is None:
         raise CommandError("--classes needs S (the point s)")
     z = partial_zeta_values(D, args.s, bound=bound, digits=digits)
-    if is_fundamental_discriminant(D):
-        r = real_class_zeta_sum(D, args.s, digits=digits, values=z)
-    else:
-        from ..classgroups.order_series import order_zeta_sum
-
-        r = order_zeta_sum(D, args.s, digits=digits, values=z)
+    r = real_class_zeta_sum(D, args.s, digits=digits, values=z)  # an order's D goes to order_zeta_sum
     info = z.to_dict()
     payload = {
         "kind": "partial_zeta",

@@ -29,7 +29,8 @@ from formkit.core.arith import kronecker
 from formkit.errors import DiscriminantError, FormkitError
 
 # the module (its name is shadowed by the function l_series in formkit.analytic)
-l_series_module = importlib.import_module("formkit.analytic.l_series")
+# the series itself (its tunables and helpers) lives in the engine module
+engine = importlib.import_module("formkit.analytic.theta_split_series")
 
 
 def _mp(s):
@@ -171,7 +172,7 @@ def test_blocks_agree_with_term_by_term(monkeypatch):
     # the Taylor blocks against the plain sum (common practice: two evaluations of one series)
     D = -20011
     blocked = l_series(D, "0.5+1i", digits=30)
-    monkeypatch.setattr(l_series_module, "_DIRECT_TERMS", 10**9)
+    monkeypatch.setattr(engine, "_DIRECT_TERMS", 10**9)
     plain = l_series(D, "0.5+1i", digits=30)
     assert abs(blocked.value - plain.value) <= blocked.error_bound + plain.error_bound
 
@@ -184,12 +185,12 @@ def test_double_moments_agree_with_integer_moments(monkeypatch, D, s, digits):
     # the Taylor blocks with high moments in doubles (proved error bound) against the all-integer
     # moments with the narrower blocks of the previous path (common practice: two evaluations of one series)
     calls = []
-    pairwise = l_series_module._pairwise_sum
-    monkeypatch.setattr(l_series_module, "_pairwise_sum", lambda x: calls.append(1) or pairwise(x))
+    pairwise = engine._pairwise_sum
+    monkeypatch.setattr(engine, "_pairwise_sum", lambda x: calls.append(1) or pairwise(x))
     fast = l_series(D, s, digits=digits)
     assert calls  # the doubles were used
-    monkeypatch.setattr(l_series_module, "_FLOAT_MOMENTS", False)
-    monkeypatch.setattr(l_series_module, "_BLOCK_DIVISOR", 16)
+    monkeypatch.setattr(engine, "_FLOAT_MOMENTS", False)
+    monkeypatch.setattr(engine, "_BLOCK_DIVISOR", 16)
     exact = l_series(D, s, digits=digits)
     assert abs(fast.value - exact.value) <= fast.error_bound + exact.error_bound
     assert fast.error_bound < 10.0**-digits * abs(fast.value)
@@ -203,7 +204,7 @@ def test_pairwise_sum():
 
     for n in (1, 2, 3, 7, 8, 1000, 4097):
         x = np.arange(1, n + 1, dtype=np.float64) / 8
-        assert l_series_module._pairwise_sum(x) == math.fsum(x.tolist())
+        assert engine._pairwise_sum(x) == math.fsum(x.tolist())
 
 
 @settings(max_examples=3, deadline=None)
@@ -237,7 +238,7 @@ def test_bad_input():
 
 
 def test_too_many_terms_refused(monkeypatch):
-    monkeypatch.setattr(l_series_module, "MAX_SERIES_TERMS", 1000)
+    monkeypatch.setattr(engine, "MAX_SERIES_TERMS", 1000)
     with pytest.raises(FormkitError, match="terms"):
         l_series(-(10**8) - 7, 1, digits=30)
 
@@ -257,7 +258,7 @@ def test_tail_bounds_in_ball_arithmetic_bound_the_true_tails():
     import mpmath
     from flint import ctx
 
-    from formkit.analytic.l_series import _tail_bound_ball
+    from formkit.analytic.theta_split_series import _tail_bound_ball
     from formkit.core.arith import kronecker
 
     for d, s in ((-4, Fraction(2)), (5, Fraction(3)), (-23, Fraction(1, 2)), (13, Fraction(7, 2))):

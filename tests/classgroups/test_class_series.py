@@ -106,10 +106,11 @@ def test_class_character_errors():
         class_character_l_series(-84, [1], 2)
     with pytest.raises(FormkitError, match="pole"):
         class_character_l_series(-23, [0], 1)
-    with pytest.raises(DiscriminantError):
+    # D > 0: the message names the function for it
+    with pytest.raises(DiscriminantError, match="real_class_zeta_sum"):
         class_zeta_sum(5, 2)
-    with pytest.raises(DiscriminantError, match="fundamental"):
-        class_zeta_sum(-12, 2)
+    with pytest.raises(FormkitError, match="split"):  # an order: d1 must split D (order_series' rule)
+        genus_character_l_series(-36, 5, 2)
     with pytest.raises(FormkitError, match="split"):
         genus_character_l_series(-84, 5, 2)
 
