@@ -13,7 +13,7 @@ and class-group invariants from the known h against the enumeration path, in one
   (structure from h, sweep included) against what table rows did before (the structure
   when h and the genus count force it, else ``class_group(D, method="enumerate")``).
 
-Run:  nice -n 10 python benchmarks/bench_theta.py [--bounds 1e6,1e7,1e8] [--window 4000]
+Run:  nice -n 10 python benchmarks/bench_theta.py [--bounds 1e6,1e7,1e8] [--window 4000] [--threads 1]
       [--skip-sweep-above 2e8] [--skip-old-above 2e8] [--skip-alone-above 2e8]
       (``--bounds ""`` runs only the invariants part, ``--no-invariants`` only the first)
 """
@@ -60,15 +60,20 @@ def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float, ski
     from formkit.tables.three_squares import cached_series
 
     chunks = sorted(split_range(-N, -3, CHUNK_THETA), key=lambda c: c[0])
-    _, cs, _ = timed(lambda: cached_series(N, N // 4))
-    (_, rel_err), cr, _ = timed(lambda: cached_seven((N + 1) // 8))
+    from formkit.tables.theta import theta_memory
+
+    w0 = time.perf_counter()
+    _, cs, ws = timed(lambda: cached_series(N, N // 4))
+    rss_series = peak_mb()
+    (_, rel_err), cr, wr = timed(lambda: cached_seven((N + 1) // 8))
     rss_relation = peak_mb()
-    ct = cold = ca = csw = 0.0
+    ct = cold = ca = csw = wt = 0.0
     agree = True
     for lo, hi in chunks:
         L, H = max(3, -hi), -lo
-        h, c, _ = timed(lambda L=L, H=H: class_number_array(L, H))
+        h, c, w = timed(lambda L=L, H=H: class_number_array(L, H))
         ct += c
+        wt += w
         if skip_alone_above >= N:
             _, c, _ = timed(lambda L=L, H=H: class_number_array(L, H, complete=False))
             ca += c
@@ -89,6 +94,13 @@ def class_number_run(N: int, skip_sweep_above: float, skip_old_above: float, ski
         return f"{x:.1f} s" if x else "not run"
 
     print(
+        f"N = {N:.0e}: wall s: FFT series {ws:.1f}, relation {wr:.1f}, chunks {wt:.1f} (theta + relation "
+        f"{ws + wr + wt:.1f}; whole run so far {time.perf_counter() - w0:.1f}); peak RSS after the series "
+        f"{rss_series:.0f} MB; estimate theta_memory {theta_memory(N) / 2**20:.0f} MB (+ interpreter); "
+        f"load average now {os.getloadavg()[0]:.1f}",
+        flush=True,
+    )
+    print(
         f"N = {N:.0e} ({len(chunks)} chunks): FFT series {cs:.1f} s; relation series {cr:.1f} s "
         f"(rounding {rel_err:.1e}, peak RSS so far {rss_relation:.0f} MB); theta + relation {new:.1f} s; "
         f"theta + swept seventh {secs(old if cold else 0)}; theta alone {secs(alone if ca else 0)}; "
@@ -107,7 +119,11 @@ def main() -> None:
     ap.add_argument("--skip-old-above", type=float, default=2e8, help="theta with the seventh swept")
     ap.add_argument("--skip-alone-above", type=float, default=2e8, help="theta alone (complete=False)")
     ap.add_argument("--no-invariants", action="store_true")
+    ap.add_argument("--threads", type=int, default=1, help="threads of the blocked FFT products")
     a = ap.parse_args()
+    from formkit.tables import blocked_convolution
+
+    blocked_convolution.THREADS = a.threads
     print(f"load average {os.getloadavg()[0]:.1f}; CPU seconds of this process")
     for N in (int(float(x)) for x in a.bounds.split(",") if x):
         class_number_run(N, a.skip_sweep_above, a.skip_old_above, a.skip_alone_above)

@@ -41,7 +41,12 @@ below ``2^45``, and each rounded coefficient's distance to its integer is checke
 below ``1/4``.  A leaf of ``W`` coefficients, whose contributions from the left are then
 all in, is solved modulo the prime ``p = 2^30 − 35``: ``G ≡ (1/ψ mod p, q^W)·(C − acc)``,
 the inverse computed once by Newton's iteration modulo ``p``, the products by FFT on two
-balanced 15-bit limbs (rounding checked the same way).  The residue determines ``G``
+balanced 15-bit limbs (rounding checked the same way).  Since only ``C − acc`` modulo
+``p`` enters a leaf, the running sums ``acc`` are kept modulo ``p`` (int32); the middle
+products longer than ``2^23`` are cut into blocks of ``2^22``
+(:mod:`formkit.tables.blocked_convolution`: the same integers, each block rounded and
+checked), so the memory stays near 3.6 GB at ``N = 10^9`` (one transform of ``2^27``
+points held about 7 GB).  The residue determines ``G``
 because ``0 ≤ H(n) < p`` for ``n < 6·10^9``: ``H(n)`` is at most the number of reduced
 forms ``(a, b, c)``, ``|b| ≤ a ≤ c``, of discriminant ``−n``; then ``3a² ≤ n`` and ``b``, of
 the parity of ``n``, takes at most ``a + 1`` values, so
@@ -71,6 +76,8 @@ from typing import Any
 
 from ..core.arith import as_int
 from ..errors import FormkitError
+from . import blocked_convolution as _blocked
+from .blocked_convolution import blocked_convolution, dense_block, sparse_block
 from .sweep import _need_numpy, _numpy
 
 __all__ = ["hurwitz_seven"]
@@ -225,18 +232,30 @@ def _leaf_solve(rhs, W: int) -> tuple[Any, float]:
     return _combine(r0, r1, I0, I1, W)
 
 
-def _seven_series(K: int, leaf: int = 1 << 16, segment: int = 1 << 22) -> tuple[Any, float]:
+def _seven_series(
+    K: int,
+    leaf: int = 1 << 16,
+    segment: int = 1 << 22,
+    max_block: int | None = None,
+    threads: int | None = None,
+) -> tuple[Any, float]:
     """``(G(0..K) as int32, largest rounding distance)``, ``G(k) = H(8k − 1)``, by the division
     ``G = C/ψ`` of the module docstring (leaves of ``leaf`` coefficients, ``6c`` sieved in
-    segments of ``segment``)."""
+    segments of ``segment``, the middle products beyond ``2·max_block`` in blocks of
+    ``max_block``, :mod:`formkit.tables.blocked_convolution`; default its ``MAX_BLOCK``
+    and ``THREADS``)."""
     np = _numpy()
+    max_block = max_block or _blocked.MAX_BLOCK
+    threads = threads or _blocked.THREADS
     W = 1 << max(min(leaf, K + 1) - 1, 1).bit_length()
     top = W
     while top < K + 1:
         top *= 2
     seg = max(segment // W, 1) * W
     G = np.zeros(top, dtype=np.int32)
-    acc = np.zeros(top, dtype=np.int64)  # Σ_{i < leaf start, …} G(i)ψ(k − i), filled by the middle products
+    # Σ_{i < leaf start} G(i)ψ(k − i) modulo p (all the leaves use), filled by the middle products
+    acc = np.zeros(top, dtype=np.int32)
+    psi_block = sparse_block(_triangular_indices(top))
     spectra: dict = {}
     cseg: dict = {}
     worst = [0.0]
@@ -250,7 +269,7 @@ def _seven_series(K: int, leaf: int = 1 << 16, segment: int = 1 << 22) -> tuple[
         return np.concatenate([c, np.zeros(hi - lo - len(c), dtype=np.int64)])
 
     def leaf_at(lo: int) -> None:
-        g, err = _leaf_solve(c_at(lo, lo + W) - acc[lo : lo + W], W)
+        g, err = _leaf_solve(c_at(lo, lo + W) - acc[lo : lo + W].astype(np.int64), W)
         worst[0] = max(worst[0], err)
         n = 8 * np.arange(lo, lo + W, dtype=np.int64) - 1
         A = np.sqrt(np.maximum(n, 0) / 3.0).astype(np.int64)
@@ -272,6 +291,21 @@ def _seven_series(K: int, leaf: int = 1 << 16, segment: int = 1 << 22) -> tuple[
         if mid > K:
             return
         w = hi - lo
+        if w // 2 > max_block:  # the large middle products in blocks (bounded memory)
+
+            def add(start: int, vals) -> None:
+                acc[start : start + len(vals)] = (
+                    acc[start : start + len(vals)] + vals.astype(np.int64) % PRIME
+                ) % PRIME
+
+            _, err = blocked_convolution(
+                dense_block(G[lo:mid]), 0, mid - lo, psi_block, mid - lo, w,
+                block=max_block, sink=lambda start, vals: add(lo + start, vals),
+                what="a middle product", threads=threads,
+            )  # fmt: skip
+            worst[0] = max(worst[0], err)
+            solve(mid, hi)
+            return
         spec = spectra.get(w)
         if spec is None:
             spec = _psi_spectrum(w)
@@ -292,11 +326,43 @@ def _seven_series(K: int, leaf: int = 1 << 16, segment: int = 1 << 22) -> tuple[
                 f"FFT rounding error {err:.3g} in a middle product exceeds {ROUNDING_TOLERANCE}"
             )
         worst[0] = max(worst[0], err)
-        acc[mid:hi] += r.astype(np.int64)
+        acc[mid:hi] = (acc[mid:hi] + r.astype(np.int64) % PRIME) % PRIME
+        del r
         solve(mid, hi)
 
     solve(0, top)
     return G[: K + 1], worst[0]
+
+
+def seven_memory(
+    K: int, *, max_block: int | None = None, threads: int | None = None, segment: int = 1 << 22
+) -> int:
+    """Peak bytes of :func:`_seven_series` up to ``K``: the quotient and the residues of its
+    running sums (int32 each, to a power of two), a segment of the sieve, and the largest
+    middle product — in blocks (kept spectra and working buffers) beyond ``2·max_block``,
+    else one transform (about five arrays of its length).
+
+    Examples
+    --------
+    >>> round(seven_memory((10**9 + 1) // 8) / 2**30, 1)   # GiB, at N = 10^9
+    3.5
+    """
+    max_block = max_block or _blocked.MAX_BLOCK
+    threads = threads or _blocked.THREADS
+    top = 1 << max(K, 1).bit_length()
+    whole = 40 * min(top, 2 * max_block)  # the largest middle product done in one transform
+    if top // 2 > max_block:
+        blocked = _blocked.kept_bytes(top // 2, top // 2, max_block, True) + _blocked.working_bytes(
+            max_block, threads
+        )
+    else:
+        blocked = 0
+    return 8 * top + 24 * segment + max(whole, blocked)
+
+
+def seven_bytes(K: int) -> int:
+    """Bytes of the quotient kept per process (int32 to a power of two above ``K``)."""
+    return 4 * (1 << max(K, 1).bit_length())
 
 
 # ---------------------------------------------------------------------------

@@ -232,14 +232,15 @@ def table_cost(
     True
     >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
     True
-    >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta + relation: 50 CPU-s, 1.5 GB measured
-    >>> 50 < t < 150 and 1.5 * 2**30 < m < 3 * 2**30
+    >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta + relation: 50 CPU-s measured
+    >>> 50 < t < 150 and 1.5 * 2**30 < m < 2 * 2**30  # theta_memory (0.97 GiB) + 200 B per row of a chunk
     True
     """
     from ..classgroups.baby_step_giant_step import bsgs_cost
     from ..classgroups.dispatch import ENUMERATION_LIMIT
     from ..core.budget import to_float
     from ..core.enumeration import enumeration_cost
+    from .theta import theta_memory
 
     seconds = memory = 0.0
     for lo, hi in intervals:
@@ -255,7 +256,7 @@ def table_cost(
                 and (engine == "theta" or (engine == "auto" and M >= THETA_CROSSOVER))
             ):
                 seconds += 3.5e-7 * M + count * 4e-7
-                memory = max(memory, 16 * M + 200 * min(count, CHUNK_THETA))
+                memory = max(memory, theta_memory(int(M)) + 200 * min(count, CHUNK_THETA))
             elif b < 0 and not invariants:
                 seconds += 3e-6 * root + 1e-6 * count * (1 + math.log(root + 2))
                 memory = max(memory, 40 * root + 200 * min(count, CHUNK_NEGATIVE_PYTHON))

@@ -79,6 +79,7 @@ __all__ = [
     "class_numbers_by_theta",
     "determined_by_theta",
     "three_square_counts",
+    "theta_memory",
 ]
 
 
@@ -444,6 +445,32 @@ def class_numbers_by_theta(start: int, stop: int, *, complete: bool = True, seve
         if n % 4 in (0, 3) and v >= 0:
             out[-n] = v
     return out
+
+
+def theta_memory(N: int, *, windows: bool = True, chunk: int = 1 << 22) -> int:
+    """Peak bytes of the theta engine for the class numbers of ``[−N, −3]`` in one process
+    (the interpreter itself not counted): the largest of the three-squares series
+    (:func:`formkit.tables.three_squares.series_memory`), the quotient of the
+    Kronecker–Hurwitz relation beside the series
+    (:func:`formkit.tables.hurwitz_relation.seven_memory`) and, with ``windows``, the
+    assembly of a chunk of ``chunk`` discriminants beside both (about ten int64 arrays of
+    the window, and of the per-process table of small windows, ``N/64`` long).
+
+    Examples
+    --------
+    >>> round(theta_memory(10**9) / 2**30, 1)   # GiB
+    4.6
+    """
+    from .hurwitz_relation import seven_bytes, seven_memory
+    from .three_squares import series_bytes, series_memory
+
+    K = (N + 1) // 8
+    kept = series_bytes(N, N // 4)
+    peaks = [series_memory(N, N // 4), kept + seven_memory(K)]
+    if windows:
+        small = max(1 << 16, N >> 6)
+        peaks.append(kept + seven_bytes(K) + 88 * max(min(chunk, N), small))
+    return max(peaks)
 
 
 def class_number_array(L: int, H: int, *, complete: bool = True, seven: str = "relation"):

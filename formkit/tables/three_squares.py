@@ -17,11 +17,17 @@ the class numbers up to ``N`` only ``r₃`` at ``n ≡ 3 (mod 8)`` up to ``N`` a
 ``N/16`` coefficients instead of the ``N`` of ``θ³`` — and ``ψ`` has only ``√(2m)``
 nonzero terms among ``m``.
 
-*Exactness.*  Each product is one real FFT (numpy, float64) of a power-of-two length
-``L`` larger than the degree of the full product, so there is no wrap-around; every
-coefficient is an integer, is rounded, and the largest distance to the nearest integer
-is checked to be below ``1/4`` (about ``10⁻¹⁰`` in practice), else :class:`ArithmeticError`.
-The largest distance seen is returned with the series.
+*How, and exactly.*  ``ψ²`` and ``θ²`` are counted, not transformed: their coefficients
+are the numbers of pairs of triangular numbers (of squares) with a given sum, a histogram
+per block (:func:`formkit.tables.blocked_convolution.pair_counts`; exact integers).  The
+three products with a sparse factor (``ψ²·ψ``, ``θ²·ψ(q²)``, ``ψ(q²)²·θ``) are real FFT
+products (numpy, float64) cut into blocks of at most ``2^22`` coefficients, so that the
+memory is a bounded number of spectra of ``2^22 + 1`` values beside the results (about
+4.5 GB at ``N = 10^9`` where one transform of the whole length needed 10.5 GB;
+:mod:`formkit.tables.blocked_convolution`).  Every coefficient is an integer, is rounded,
+and the largest distance to the nearest integer is checked to be below ``1/4`` (about
+``10⁻¹¹`` in practice), else :class:`ArithmeticError`.  The largest distance seen is
+returned with the series.
 
 References
 ----------
@@ -38,6 +44,8 @@ import threading
 from dataclasses import dataclass
 from typing import Any
 
+from . import blocked_convolution as _blocked
+from .blocked_convolution import block_size, blocked_convolution, dense_block, pair_counts, sparse_block
 from .sweep import _numpy
 
 __all__: list = []  # private helpers of formkit.tables.theta
@@ -56,28 +64,19 @@ def _theta_coefficients(m: int):
     return out
 
 
-def _triangular_coefficients(m: int, stretch: int = 1):
-    """ψ(q^stretch) = Σ_{j ≥ 0} q^{stretch·j(j+1)/2} at indices ``0 … m`` (float64)."""
+def _triangular_numbers(m: int):
+    """The triangular numbers ``j(j+1)/2 ≤ m`` (int64, increasing)."""
     np = _numpy()
-    out = np.zeros(m + 1, dtype=np.float64)
-    j = np.arange(0, math.isqrt(2 * (m // stretch)) + 2, dtype=np.int64)
-    t = stretch * (j * (j + 1) // 2)
-    out[t[t <= m]] = 1.0
-    return out
+    j = np.arange(0, math.isqrt(2 * max(m, 0)) + 2, dtype=np.int64)
+    t = j * (j + 1) // 2
+    return t[t <= m]
 
 
-def _fft_length(m: int) -> int:
-    return 1 << max(m - 1, 1).bit_length()
-
-
-def _rounded(x, what: str) -> tuple[Any, float]:
-    """``(x rounded to int32, largest rounding distance)``; refuses a distance ≥ 1/4."""
+def _squares(m: int, start: int = 0):
+    """The squares ``k² ≤ m``, ``k ≥ start`` (int64, increasing)."""
     np = _numpy()
-    r = np.rint(x)
-    err = float(np.max(np.abs(x - r))) if len(x) else 0.0
-    if err >= ROUNDING_TOLERANCE:  # pragma: no cover - far from happening at these sizes
-        raise ArithmeticError(f"FFT rounding error {err:.3g} in {what} exceeds {ROUNDING_TOLERANCE}")
-    return r.astype(np.int32), err
+    k = np.arange(start, math.isqrt(max(m, 0)) + 1, dtype=np.int64)
+    return k * k
 
 
 @dataclass(frozen=True, eq=False)
@@ -110,36 +109,89 @@ class ThreeSquareSeries:
         return out
 
 
-def three_square_series(top3: int, top12: int) -> ThreeSquareSeries:
+def three_square_series(
+    top3: int, top12: int, *, max_block: int | None = None, threads: int | None = None
+) -> ThreeSquareSeries:
     """The three products of the module docstring, enough for ``r₃(n)`` at ``n ≡ 3 (mod 8)``,
-    ``n ≤ top3``, and at ``n ≡ 1, 2 (mod 4)``, ``n ≤ top12``."""
+    ``n ≤ top3``, and at ``n ≡ 1, 2 (mod 4)``, ``n ≤ top12``: ``ψ²`` and ``θ²`` by exact
+    pair counts, the three products with a sparse factor by blocked transforms of at most
+    ``2·max_block`` points (:mod:`formkit.tables.blocked_convolution`; default its
+    ``MAX_BLOCK`` and ``THREADS``)."""
     np = _numpy()
+    max_block = max_block or _blocked.MAX_BLOCK
+    threads = threads or _blocked.THREADS
     M3 = max((top3 - 3) // 8, 0)
     Ma = max((top12 - 1) // 4, 0)
     Mp = max(M3, Ma // 2)  # ψ² is needed up to M3 (for ψ³) and up to Ma/2 (for ψ(q²)²)
-    L = _fft_length(2 * Mp + 1)
-    spsi = np.fft.rfft(_triangular_coefficients(Mp), L)
-    psi2, e1 = _rounded(np.fft.irfft(spsi * spsi, L)[: Mp + 1], "ψ²")
-    t = np.fft.rfft(psi2[: M3 + 1].astype(np.float64), L)
-    t *= spsi
-    del spsi
-    P3, e2 = _rounded(np.fft.irfft(t, L)[: M3 + 1], "ψ³")
-    del t
-    La = _fft_length(2 * Ma + 1)
-    stheta = np.fft.rfft(_theta_coefficients(Ma), La)
-    r2, e3 = _rounded(np.fft.irfft(stheta * stheta, La)[: Ma + 1], "θ²")
-    t = np.fft.rfft(r2.astype(np.float64), La)
+    tri = _triangular_numbers(Mp)
+    ones = np.ones(1, dtype=np.float64)
+
+    def product(a, length, b, what):
+        out = np.empty(length, dtype=np.int32)
+
+        def put(start: int, vals) -> None:
+            out[start : start + len(vals)] = vals
+
+        _, err = blocked_convolution(
+            a,
+            0,
+            length,
+            b,
+            0,
+            length,
+            block=block_size(length, max_block),
+            sink=put,
+            what=what,
+            threads=threads,
+        )
+        return out, err
+
+    # θ² = r₂: 4·#{x ≥ 1, y ≥ 0} (the four rotations of that quadrant cover ℤ² ∖ {0})
+    r2 = pair_counts(_squares(Ma, 1), _squares(Ma), Ma)
+    r2 *= 4
+    r2[0] = 1
+    A1, e1 = product(dense_block(r2), Ma + 1, sparse_block(2 * tri), "ψ(q²)θ²")
     del r2
-    t *= np.fft.rfft(_triangular_coefficients(Ma, 2), La)
-    A1, e4 = _rounded(np.fft.irfft(t, La)[: Ma + 1], "ψ(q²)θ²")
-    sq = np.zeros(Ma + 1, dtype=np.float64)
-    sq[::2] = psi2[: Ma // 2 + 1]
+    psi2 = pair_counts(tri, tri, Mp)
+    if len(psi2) and int(psi2.max()) < 1 << 15:  # (≤ the divisor count of 4n + 1: small) half the memory
+        psi2 = psi2.astype(np.int16)
+    sq = _squares(Ma)
+    theta_weights = np.full(len(sq), 2.0)
+    theta_weights[:1] = ones
+    A2, e2 = product(dense_block(psi2, 2), Ma + 1, sparse_block(sq, theta_weights), "ψ(q²)²θ")
+    P3, e3 = product(dense_block(psi2), M3 + 1, sparse_block(tri), "ψ³")
     del psi2
-    t = np.fft.rfft(sq, La)
-    t *= stheta
-    del stheta, sq
-    A2, e5 = _rounded(np.fft.irfft(t, La)[: Ma + 1], "ψ(q²)²θ")
-    return ThreeSquareSeries(top3, top12, P3, A1, A2, max(e1, e2, e3, e4, e5))
+    return ThreeSquareSeries(top3, top12, P3, A1, A2, max(e1, e2, e3))
+
+
+def series_memory(top3: int, top12: int, *, max_block: int | None = None, threads: int | None = None) -> int:
+    """Peak bytes of :func:`three_square_series` (its arrays, the kept spectra and the working
+    buffers of the largest product; the inputs of the interpreter not counted).
+
+    Examples
+    --------
+    >>> round(series_memory(10**9, 10**9 // 4) / 2**30, 1)   # GiB, at N = 10^9
+    4.6
+    """
+    max_block = max_block or _blocked.MAX_BLOCK
+    threads = threads or _blocked.THREADS
+    M3 = max((top3 - 3) // 8, 0) + 1
+    Ma = max((top12 - 1) // 4, 0) + 1
+    Mp = max(M3, Ma // 2 + 1)
+
+    def product(length: int) -> int:
+        B = block_size(length, max_block)
+        return _blocked.kept_bytes(length, length, B, False) + _blocked.working_bytes(B, threads)
+
+    first = 8 * Ma + product(Ma)  # r₂ and ψ(q²)θ²
+    second = 6 * Mp + 8 * Ma + product(Ma)  # ψ² (int32, then int16), the two products to N/16
+    third = 2 * Mp + 8 * Ma + 4 * M3 + product(M3)  # and ψ³
+    return max(first, second, third)
+
+
+def series_bytes(top3: int, top12: int) -> int:
+    """Bytes of the arrays a :class:`ThreeSquareSeries` keeps."""
+    return 4 * (max((top3 - 3) // 8, 0) + 1) + 8 * (max((top12 - 1) // 4, 0) + 1)
 
 
 _CACHE: list = []
