@@ -57,7 +57,7 @@ def ambiguous_forms(D: int, factors: dict[int, int] | None = None) -> list[tuple
     Examples
     --------
     >>> ambiguous_forms(-84)
-    [(1, 0, 21), (3, 0, 7), (2, 2, 11), (5, 4, 5)]
+    [(1, 0, 21), (2, 2, 11), (3, 0, 7), (5, 4, 5)]
     >>> ambiguous_forms(-23)
     [(1, 1, 6)]
 
@@ -68,24 +68,28 @@ def ambiguous_forms(D: int, factors: dict[int, int] | None = None) -> list[tuple
     n = -D
     if factors is None:
         factors = prime_factorisation(n)
+    return sorted(_ambiguous_iter(n, factors))
+
+
+def _ambiguous_iter(n: int, factors: dict[int, int]):
+    """The ambiguous reduced forms of ``−n`` from the divisors ``d < √n`` of ``n``."""
     divs = [1]
     for p, e in factors.items():
         divs = [d * p**k for d in divs for k in range(e + 1)]
-    divs.sort()
-    zero, half, equal = [], [], []
     m = n // 4 if n % 4 == 0 else 0
     for d in divs:
+        if d * d >= n:
+            continue
         q = n // d
         if m and d * d <= m and m % d == 0 and gcd(d, m // d) == 1:
-            zero.append((d, 0, m // d))
+            yield (d, 0, m // d)
         t = q + d
-        if t % 4 == 0 and t // 4 >= d and gcd(d, t // 4) == 1:
-            half.append((d, d, t // 4))
-        if d < q < 3 * d and (d + q) % 4 == 0:  # (2a − b)(2a + b) = n with 0 < b < a
+        if t % 4 == 0 and t >= 4 * d and gcd(d, t // 4) == 1:
+            yield (d, d, t // 4)
+        if q < 3 * d and (d + q) % 4 == 0:  # (2a − b)(2a + b) = n with 0 < b < a
             a, b = (d + q) // 4, (q - d) // 2
             if gcd(a, b) == 1:
-                equal.append((a, b, a))
-    return zero + half + equal
+                yield (a, b, a)
 
 
 def _symbol_bits(D: int, odd: list[int], kinds: tuple[str, ...], form: tuple[int, int, int]) -> int:
@@ -138,7 +142,9 @@ def four_rank(D: int, genus_count: int | None = None, at_least: int = 0) -> int:
     Raises
     ------
     ArithmeticError
-        If the number of ambiguous forms is not ``2^(μ−1)`` (an internal check).
+        If the number of ambiguous forms is not ``2^(μ−1)`` (an internal check, made
+        whenever the rank of the symbols is not already at its bound), or
+        ``genus_count`` disagrees with the assigned characters.
 
     Examples
     --------
@@ -156,16 +162,17 @@ def four_rank(D: int, genus_count: int | None = None, at_least: int = 0) -> int:
     odd = [p for p in factors if p != 2]
     kinds = _two_adic_kinds(D)
     mu = len(odd) + len(kinds)
-    forms = ambiguous_forms(D, factors)
-    if len(forms) != 1 << (mu - 1) or (genus_count is not None and genus_count != len(forms)):
-        raise ArithmeticError(
-            f"{len(forms)} ambiguous forms of {D}, but genus theory counts {1 << (mu - 1)} classes of order ≤ 2"
-        )
+    if genus_count is not None and genus_count != 1 << (mu - 1):
+        raise ArithmeticError(f"{genus_count} genera given for {D}, but it has {mu} assigned characters")
     basis: list[int] = []  # F₂ elimination on the symbols
     top = mu - 1 - at_least
-    for form in forms:
+    count = 0
+    for form in _ambiguous_iter(n, factors):
         if len(basis) >= top:
+            # the bound: no further form can raise the rank, and the 4-rank is at_least
+            # whether or not the forms were complete
             break
+        count += 1
         if form[0] == 1:  # the principal form: symbol all +1
             continue
         v = _symbol_bits(D, odd, kinds, form)
@@ -173,6 +180,11 @@ def four_rank(D: int, genus_count: int | None = None, at_least: int = 0) -> int:
             v = min(v, v ^ w)
         if v:
             basis.append(v)
+    else:
+        if count != 1 << (mu - 1):  # the rank rests on all of Cl[2]: the forms must be complete
+            raise ArithmeticError(
+                f"{count} ambiguous forms of {D}, but genus theory counts {1 << (mu - 1)} classes of order ≤ 2"
+            )
     return mu - 1 - len(basis)
 
 

@@ -259,6 +259,12 @@ def _build_sylows(
     part = 1
     for ell, e in todo.items():
         part *= ell**e
+    # the exponent of the Sylow subgroups already known (the largest invariant of each)
+    # kills them: usually smaller than h/part when the 2-part is not cyclic
+    kill = 1
+    for ell, exps in sylows.items():
+        if exps:
+            kill *= ell ** max(exps)
     f = discriminant_parts(D)[1] if conductor is None else conductor
     cap = 2 * isqrt(-D) + 1000  # far beyond what any class group needs; guards a wrong h
     forms = ops.prime_forms(f) if isinstance(ops, SmallFormGroup) else _prime_forms(D, f)
@@ -267,7 +273,7 @@ def _build_sylows(
         if p > cap:
             raise ArithmeticError(f"prime forms of {D} up to {cap} do not reach the order {h}: h is wrong")
         used += 1
-        y = ops.pow(g, h // part)  # the component of g in the Sylow subgroups to build
+        y = ops.pow(g, kill)  # the component of g in the Sylow subgroups to build
         for ell, e in todo.items():
             if ell in done:
                 continue
