@@ -296,9 +296,9 @@ def _build_sylows(
             wait.append(z)
             if ell != 2 or rank2 == 2:
                 two = pairs.get(ell) or pairs.setdefault(ell, _TwoGenerators(ops, ell, e))
-                exps = two.offer(z, a)
-                if exps is not None:
-                    done[ell] = exps
+                found = two.offer(z, a)
+                if found is not None:
+                    done[ell] = found
                     continue
             if len(wait) >= PATIENCE:
                 sy = S.get(ell) or S.setdefault(ell, _Sylow(ops, ell))
