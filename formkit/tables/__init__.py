@@ -12,6 +12,10 @@
 * :mod:`~formkit.tables.hurwitz_relation` — ``H(n)`` for ``n ≡ 7 (mod 8)`` from the
   Kronecker–Hurwitz class number relation (the third the theta series leaves open);
 * :mod:`~formkit.tables.structure` — class-group invariants from the known ``h``;
+* :mod:`~formkit.tables.four_rank` — the 4-rank from the ambiguous forms and the genus
+  characters (the 2-part the structure rarely has to build);
+* :mod:`~formkit.tables.small_forms` — composition and prime forms on plain integers for
+  ``|D| < 2^60`` (the inner loops of the structure);
 * :mod:`~formkit.tables.statistics` — p-ranks and the other counts users tabulate,
   beside the Cohen–Lenstra and Gerth predictions.
 

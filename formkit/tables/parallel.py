@@ -36,6 +36,7 @@ from .rows import (
     compute_chunk,
     split_range,
 )
+from .small_forms import WORD_BOUND
 from .store import _check_or_record_meta, _connect, _done_intervals, _drop_damaged, _missing, _write_chunk
 
 __all__ = [
@@ -219,8 +220,10 @@ def table_cost(
     the Kronecker–Hurwitz relation to ``|D|/8`` once per worker (``2·10⁻⁷·|D|`` s) and the
     windows (``4·10⁻⁷`` s per ``D``); fitted to ``benchmarks/bench_theta.py`` at ``10⁷`` and
     ``10⁸`` (docs/performance.md, "Tables at scale") and rounded up.
-    Positive ranges, and invariants, cost one class-group computation per
-    discriminant, priced at the largest ``|D|`` by
+    Invariants of negative ranges: the sweep per chunk and the structure from ``h``
+    (:mod:`formkit.tables.structure`, ``10⁻⁵·log₂ √|D|`` s per discriminant, about twice
+    the measured figure).  Positive ranges, and invariants beyond ``|D| = 2^60``, cost
+    one class-group computation per discriminant, priced at the largest ``|D|`` by
     :func:`formkit.core.enumeration.enumeration_cost` (about half the integers are
     discriminants).  Memory: the sweep tables, one chunk of rows, and about 200 bytes
     per row kept for the caller.
@@ -231,6 +234,8 @@ def table_cost(
     >>> t < 60 and m < 2**30
     True
     >>> table_cost([(-30, 10**10)], invariants=True)[0] > 10**6
+    True
+    >>> 300 < table_cost([(-10**7, -3)], invariants=True)[0] < 1800   # about 300 CPU-s measured
     True
     >>> t, m = table_cost([(-10**8, -3)], invariants=False)  # theta + relation: 50 CPU-s measured
     >>> 50 < t < 150 and 1.5 * 2**30 < m < 2 * 2**30  # theta_memory (0.97 GiB) + 200 B per row of a chunk
@@ -259,6 +264,14 @@ def table_cost(
                 memory = max(memory, theta_memory(int(M)) + 200 * min(count, CHUNK_THETA))
             elif b < 0 and not invariants:
                 seconds += 3e-6 * root + 1e-6 * count * (1 + math.log(root + 2))
+                memory = max(memory, 40 * root + 200 * min(count, CHUNK_NEGATIVE_PYTHON))
+            elif b < 0 and M < WORD_BOUND:
+                # h swept chunk by chunk, then the structure from h (formkit.tables.structure):
+                # measured about 6·10⁻⁵ CPU-s per discriminant near |D| = 10⁷, priced at
+                # 10⁻⁵·log₂ √M per discriminant (twice that there)
+                chunks = count / CHUNK_WITH_INVARIANTS + 1
+                seconds += 3e-6 * root * chunks + 1e-6 * count * (1 + math.log(root + 2))
+                seconds += (count / 2) * 1e-5 * math.log2(root + 2)
                 memory = max(memory, 40 * root + 200 * min(count, CHUNK_NEGATIVE_PYTHON))
             else:
                 if b < 0 and M > ENUMERATION_LIMIT:  # class_group uses baby-step giant-step there
