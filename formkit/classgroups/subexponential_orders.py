@@ -132,7 +132,8 @@ def class_group_subexponential_order(D: object, *, reuse: bool = True, **kw) -> 
         return _RESULTS[D]
     from .subexponential import _check_subexponential_cost, class_group_subexponential
 
-    _check_subexponential_cost(D)  # before D is factored
+    if kw.get("cluster") is None:  # priced by |D| ≥ |d_K| before D is factored (as the plain method)
+        _check_subexponential_cost(D)
     d_K, f = discriminant_parts(D)
     if f == 1:
         return _remember(class_group_subexponential(D, **kw))
