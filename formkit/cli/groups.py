@@ -154,7 +154,11 @@ def _group_of(D: int, args: argparse.Namespace):
         return class_group(D, method=args.method)
     from ..classgroups.subexponential_orders import class_group_subexponential_order
 
-    return class_group_subexponential_order(D, workers=args.workers or 1, store=args.db, cluster=args.cluster)
+    # a fresh run with these options (the store is read back), remembered for the kernel and
+    # the class number formula that follow
+    return class_group_subexponential_order(
+        D, reuse=False, workers=args.workers or 1, store=args.db, cluster=args.cluster
+    )
 
 
 def _cmd_group(args: argparse.Namespace) -> int:

@@ -133,7 +133,7 @@ def test_sieve_options_need_the_subexponential_method(capsys):
 # --- Dask ---------------------------------------------------------------------------
 
 
-def test_relations_on_a_local_dask_cluster(tmp_path):
+def test_relations_on_a_local_dask_cluster(tmp_path, capsys):
     # two in-process Dask workers sieve; the relations go to the store as they come, a second
     # call reads them back; the group is baby-step giant-step's (formkit, independent method)
     distributed = pytest.importorskip("distributed")
@@ -149,6 +149,13 @@ def test_relations_on_a_local_dask_cluster(tmp_path):
         assert first.tasks >= 1 and first.resumed == 0
         G2 = class_group_subexponential(D, cluster=cluster.scheduler_address, store=path)
         assert sub._LAST["stats"].resumed >= first.sieved
+        # the command line, with the option name and behaviour of formkit table --cluster
+        from formkit.cli import main
+
+        argv = ["group", str(D), "--method", "subexponential", "--cluster", cluster.scheduler_address]
+        assert main([*argv, "--db", str(path), "--json", "--quiet"]) in (0, None)
+        out = json.loads(capsys.readouterr().out)
+        assert out["invariants"] == list(G.invariants) and "read back from the store" in out["detail"]
     H = class_group_bsgs(D)
     _same_group(G, H)
     assert G2.invariants == H.invariants
