@@ -228,7 +228,9 @@ def _tasks(
     closing the generator stops the workers (their unfinished tasks are lost, never
     half-stored)."""
     if cluster is not None:
-        yield from _cluster_tasks(D, params, todo, seed, cluster)
+        from ..core.cluster import stream_tasks
+
+        yield from stream_tasks(cluster, _run_task, ((D, params, t, seed) for t in todo))
         return
     if workers <= 1:
         for t in todo:
@@ -247,41 +249,6 @@ def _tasks(
     finally:
         pool.terminate()
         pool.join()
-
-
-def _cluster_tasks(
-    D: int, params: SieveParameters, todo: Iterator[int], seed: int, cluster
-) -> Generator[tuple[int, list[Relation]], None, None]:
-    """The sieve tasks as futures on a Dask cluster, yielded in the order they finish
-    (``distributed.as_completed``), a new one submitted for each result that comes back;
-    closing the generator cancels the futures still running."""
-    from ..core.cluster import connect_cluster
-
-    client, own = connect_cluster(cluster, "--cluster")
-    from distributed import as_completed
-
-    pending: set = set()
-    try:
-        threads = max(1, sum(client.nthreads().values()))
-
-        def submit(t: int):
-            fut = client.submit(_run_task, D, params, t, seed, pure=False)
-            pending.add(fut)
-            return fut
-
-        flight = as_completed([submit(t) for _, t in zip(range(2 * threads), todo)])
-        for fut in flight:
-            pending.discard(fut)
-            result = fut.result()
-            nxt = next(todo, None)
-            if nxt is not None:
-                flight.add(submit(nxt))
-            yield result
-    finally:
-        if pending:
-            client.cancel(list(pending))
-        if own:
-            client.close()
 
 
 # --- collecting relations ------------------------------------------------------------

@@ -3,7 +3,8 @@
 :func:`connect_cluster` turns what the user gave (a scheduler address such as
 ``"tcp://10.0.0.5:8786"``, or a ``distributed.Client``) into a client, checks that the
 workers can import formkit, and says whether the caller owns (and so must close) the
-client.  Used by :func:`formkit.tables.parallel.build_table` (chunks of a table) and
+client; :func:`stream_tasks` runs a stream of calls as futures and yields their results
+as they finish.  Used by :func:`formkit.tables.parallel.build_table` (chunks of a table) and
 :func:`formkit.classgroups.subexponential.class_group_subexponential` (sieve tasks).
 
 References
@@ -14,9 +15,11 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Callable, Generator, Iterator
+
 from ..errors import FormkitError
 
-__all__ = ["connect_cluster"]
+__all__ = ["connect_cluster", "stream_tasks"]
 
 
 def _cluster_probe() -> str:  # runs on a Dask worker
@@ -73,3 +76,56 @@ def connect_cluster(cluster, option: str = "--cluster"):
             f"{' '.join(str(exc).split())[:200]}); install formkit on the scheduler and every worker"
         ) from None
     return client, own
+
+
+def stream_tasks(
+    cluster, fn: Callable, calls: Iterator[tuple], option: str = "--cluster", per_thread: int = 2
+) -> Generator:
+    """Yield ``fn(*args)`` for the argument tuples of ``calls``, run as futures on a Dask
+    cluster, in the order they finish (``distributed.as_completed``).
+
+    At most ``per_thread`` futures per worker thread are in flight; a new one is submitted
+    for each result that comes back, so an endless ``calls`` is fine.  Closing the
+    generator cancels the futures still running (and closes a client made here).
+
+    Parameters
+    ----------
+    cluster : str or distributed.Client
+        As for :func:`connect_cluster`.
+    fn : callable
+        A module-level function (the workers import it by name).
+    calls : iterator of tuple
+        The arguments of each call.
+    option, per_thread
+        The option name for error messages; futures in flight per worker thread.
+
+    Raises
+    ------
+    FormkitError
+        As :func:`connect_cluster`.
+    """
+    client, own = connect_cluster(cluster, option)
+    from distributed import as_completed
+
+    pending: set = set()
+    try:
+        threads = max(1, sum(client.nthreads().values()))
+
+        def submit(args: tuple):
+            fut = client.submit(fn, *args, pure=False)
+            pending.add(fut)
+            return fut
+
+        flight = as_completed([submit(a) for _, a in zip(range(per_thread * threads), calls)])
+        for fut in flight:
+            pending.discard(fut)
+            result = fut.result()
+            nxt = next(calls, None)
+            if nxt is not None:
+                flight.add(submit(nxt))
+            yield result
+    finally:
+        if pending:
+            client.cancel(list(pending))
+        if own:
+            client.close()
