@@ -2,9 +2,12 @@
 
 Up to :data:`ENUMERATION_LIMIT` (D < 0) and :data:`REAL_ENUMERATION_LIMIT` (D > 0) the
 classes are enumerated (:mod:`formkit.classgroups.enumerated`, unconditional); beyond,
-baby-step giant-step (:mod:`formkit.classgroups.baby_step_giant_step`, D < 0) or the
-infrastructure of the principal cycle (:mod:`formkit.classgroups.infrastructure`,
-D > 0) give results conditional on GRH.  :func:`class_number_summary` gives the class
+baby-step giant-step (:mod:`formkit.classgroups.baby_step_giant_step`, D < 0) up to
+:data:`SUBEXPONENTIAL_FROM` and the subexponential method above
+(:mod:`formkit.classgroups.subexponential`, orders through
+:mod:`formkit.classgroups.subexponential_orders`), or for D > 0 the
+infrastructure of the principal cycle (:mod:`formkit.classgroups.infrastructure`)
+give results conditional on GRH (:func:`chosen_method` names the choice).  :func:`class_number_summary` gives the class
 numbers (and for D > 0 the regulator) without the structure, by the same choice.
 Every result says how it was obtained (:class:`formkit.classgroups.group.Provenance`).
 """
@@ -20,21 +23,24 @@ __all__ = [
     "class_number_summary",
     "ENUMERATION_LIMIT",
     "REAL_ENUMERATION_LIMIT",
+    "SUBEXPONENTIAL_FROM",
+    "chosen_method",
     "METHODS",
     "SUMMARY_METHODS",
 ]
 
 #: The method names: the option values of ``formkit group --method`` and the ``"method"`` of
-#: the results (a method chosen by name comes back under that name).  ``"subexponential"``
-#: (:mod:`formkit.classgroups.subexponential`, fundamental D < 0 only) is never chosen by
-#: ``"auto"`` yet: at 18 digits it is slower than baby-step giant-step here (11 s CPU).
+#: the results (a method chosen by name comes back under that name; under ``"auto"`` the
+#: method chosen).  ``"subexponential"`` (:mod:`formkit.classgroups.subexponential`, D < 0,
+#: orders through the maximal order) is chosen by ``"auto"`` from :data:`SUBEXPONENTIAL_FROM`
+#: on; for D > 0 it does not exist yet (``"auto"`` keeps the infrastructure there).
 METHODS = ("auto", "enumeration", "bsgs", "subexponential")
 #: The methods of :func:`class_number_summary` (``formkit class-number --method``): those of
-#: :func:`class_group` but ``"subexponential"``, and ``"infrastructure"`` (D > 0 only: the
+#: :func:`class_group`, and ``"infrastructure"`` (D > 0 only: the
 #: regulator by the infrastructure and ``h`` from the analytic interval, no structure).  The
 #: ``"method"`` of a summary is the method run: the one asked for, or under ``"auto"`` the one
 #: chosen.
-SUMMARY_METHODS = ("auto", "enumeration", "bsgs", "infrastructure")
+SUMMARY_METHODS = ("auto", "enumeration", "bsgs", "subexponential", "infrastructure")
 _METHOD_ALIASES = {"enumerate": "enumeration"}
 
 #: Largest |D| for which ``class_group(D, method="auto")`` enumerates when D < 0
@@ -46,6 +52,12 @@ ENUMERATION_LIMIT = (
 #: For D > 0, ``method="auto"`` enumerates up to this D (about 2 s here at 10^9, 10 s at
 #: 10^10, 3 min at 10^12) and uses :func:`formkit.classgroups.infrastructure.real_class_group` above.
 REAL_ENUMERATION_LIMIT = 10**9
+#: From this |D| on, ``method="auto"`` uses the subexponential method for D < 0 (fundamental or
+#: not) instead of baby-step giant-step.  Measured with benchmarks/bench_auto_choice.py
+#: (docs/performance.md, "Automatic choice of the method"; medians of 3 random fundamental D,
+#: CPU s, subexponential / BSGS): 26 digits 2.4 / 2.4, 28 digits 1.1 / 1.5, 30 digits 3.8 / 5.1,
+#: 32 digits 4.5 / 8.0, 34 digits 6.5 / 12.1; equal at 26 digits, faster from 28 digits on.
+SUBEXPONENTIAL_FROM = 10**27
 
 _GROUP_CACHE: dict[int, ClassGroup] = {}
 
@@ -75,6 +87,32 @@ def _check_method(D: int, method: str, allowed: tuple[str, ...]) -> str:
     return method
 
 
+def chosen_method(D: object, method: str = "auto") -> str:
+    """The method :func:`class_group` runs for ``D`` when asked for ``method``.
+
+    ``"auto"`` resolves by size: ``"enumeration"`` up to :data:`ENUMERATION_LIMIT`
+    (:data:`REAL_ENUMERATION_LIMIT` for D > 0), then for D < 0 ``"bsgs"`` below
+    :data:`SUBEXPONENTIAL_FROM` and ``"subexponential"`` from it on, for D > 0 ``"bsgs"``
+    (the infrastructure of :mod:`formkit.classgroups.infrastructure`).
+
+    Examples
+    --------
+    >>> [chosen_method(D) for D in (-4004, -10**20 - 3, -10**40 - 3, 10**20 + 1)]
+    ['enumeration', 'bsgs', 'subexponential', 'bsgs']
+    >>> chosen_method(-4004, "enumerate")
+    'enumeration'
+    """
+    D = validate_discriminant(D)
+    method = _check_method(D, method, METHODS)
+    if method != "auto":
+        return method
+    if D > 0:
+        return "bsgs" if D > REAL_ENUMERATION_LIMIT else "enumeration"
+    if -D >= SUBEXPONENTIAL_FROM:
+        return "subexponential"
+    return "bsgs" if -D > ENUMERATION_LIMIT else "enumeration"
+
+
 def class_group(D: object, method: str = "auto") -> ClassGroup:
     """The class group of discriminant ``D`` with its structure.
 
@@ -83,13 +121,16 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     D : int
         A non-square discriminant (fundamental or not, negative or positive).
     method : {"auto", "enumeration", "bsgs", "subexponential"}
-        ``"subexponential"`` uses relations among prime forms under GRH (fundamental D < 0,
-        :mod:`formkit.classgroups.subexponential`);
+        ``"subexponential"`` uses relations among prime forms under GRH (D < 0,
+        :mod:`formkit.classgroups.subexponential`; non-fundamental D through the maximal
+        order and the class number formula, :mod:`formkit.classgroups.subexponential_orders`);
         ``"enumeration"`` (older spelling ``"enumerate"``) lists every class (unconditional, about √|D| work);
         ``"bsgs"`` uses baby-step giant-step under GRH (D < 0: see
         :mod:`formkit.classgroups.baby_step_giant_step`; D > 0: the infrastructure and class orders of
         :mod:`formkit.classgroups.infrastructure`); ``"auto"`` enumerates up to
-        :data:`ENUMERATION_LIMIT` for D < 0 and :data:`REAL_ENUMERATION_LIMIT` for D > 0.
+        :data:`ENUMERATION_LIMIT` for D < 0 and :data:`REAL_ENUMERATION_LIMIT` for D > 0,
+        then runs ``"bsgs"``, for D < 0 from :data:`SUBEXPONENTIAL_FROM` on
+        ``"subexponential"`` (:func:`chosen_method`).
 
     Returns
     -------
@@ -115,10 +156,10 @@ def class_group(D: object, method: str = "auto") -> ClassGroup:
     """
     D = validate_discriminant(D)
     method = _check_method(D, method, METHODS)
-    if method == "subexponential":
-        from .subexponential import class_group_subexponential
+    if chosen_method(D, method) == "subexponential":
+        from .subexponential_orders import class_group_subexponential_order
 
-        return class_group_subexponential(D)
+        return class_group_subexponential_order(D)
     if _infrastructure_path(D, method):
         from .infrastructure import real_class_group
 
@@ -154,12 +195,14 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     ----------
     D : int
         A non-square discriminant.
-    method : {"auto", "enumeration", "bsgs", "infrastructure"}
-        ``"enumeration"`` and ``"bsgs"`` as for :func:`class_group` (for ``D > 0``, ``"bsgs"``
+    method : {"auto", "enumeration", "bsgs", "subexponential", "infrastructure"}
+        ``"enumeration"``, ``"bsgs"`` and ``"subexponential"`` (``D < 0``) as for
+        :func:`class_group` (for ``D > 0``, ``"bsgs"``
         finds the structure by baby-step giant-step among the classes, which needs short
         cycles of reduced forms); ``"infrastructure"`` (``D > 0``): the regulator by the
         infrastructure and ``h`` from the analytic interval under GRH; ``"auto"``: enumeration
-        up to the limits of :func:`class_group`, then ``"bsgs"`` (``D < 0``) or
+        up to the limits of :func:`class_group`, then ``"bsgs"`` and from
+        :data:`SUBEXPONENTIAL_FROM` on ``"subexponential"`` (``D < 0``), or
         ``"infrastructure"`` (``D > 0``).  The ``"method"`` of the result is the method run.
     interval : bool
         Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``

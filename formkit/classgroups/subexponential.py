@@ -29,13 +29,16 @@ relations, restricted here to fundamental ``D < 0``:
 
 Relations can be kept in an SQLite file (:class:`formkit.classgroups.relation_store.RelationStore`)
 as they are found, so that a killed run resumes; the sieve runs on several local
-processes (``workers``).  The sieve parameters come from :data:`SIEVE_TABLE`.
+processes (``workers``) or as futures on a Dask cluster (``cluster``, the plumbing of
+:mod:`formkit.core.cluster` shared with the tables).  The sieve parameters come from
+:data:`SIEVE_TABLE`.
 
 The result is conditional on GRH (Bach's bound and the interval of the Euler
 product).  On the command line: ``formkit group D --method subexponential --workers N
---db FILE``.  Not yet here: ``D > 0``, non-fundamental ``D``, a Dask cluster, automatic
-choice of this method (at 30 digits it is about as fast as baby-step giant-step, not yet
-measurably faster; docs/performance.md), two large primes (issue 18).
+--db FILE`` (or ``--cluster ADDRESS``).  Non-fundamental ``D`` go through the maximal
+order (:mod:`formkit.classgroups.subexponential_orders`); :func:`formkit.class_group`
+chooses this method by size (:data:`formkit.classgroups.dispatch.SUBEXPONENTIAL_FROM`).
+Not yet here: ``D > 0``, two large primes (issue 18).
 
 References
 ----------
@@ -216,12 +219,19 @@ def _run_task(D: int, params: SieveParameters, task: int, seed: int) -> tuple[in
 
 
 def _tasks(
-    D: int, params: SieveParameters, todo: Iterator[int], seed: int, workers: int
+    D: int, params: SieveParameters, todo: Iterator[int], seed: int, workers: int, cluster=None
 ) -> Generator[tuple[int, list[Relation]], None, None]:
-    """Yield ``(task, relations)`` as tasks finish, on ``workers`` local processes.
+    """Yield ``(task, relations)`` as tasks finish, on ``workers`` local processes or on
+    the Dask cluster ``cluster`` (a scheduler address or a client).
 
-    At most ``2·workers`` tasks are in flight; closing the generator stops the workers
-    (their unfinished tasks are lost, never half-stored)."""
+    At most ``2·workers`` tasks (on a cluster: two per worker thread) are in flight;
+    closing the generator stops the workers (their unfinished tasks are lost, never
+    half-stored)."""
+    if cluster is not None:
+        from ..core.cluster import stream_tasks
+
+        yield from stream_tasks(cluster, _run_task, ((D, params, t, seed) for t in todo))
+        return
     if workers <= 1:
         for t in todo:
             yield _run_task(D, params, t, seed)
@@ -342,6 +352,7 @@ def class_group_subexponential(
     store: str | Path | None = None,
     workers: int = 1,
     params: SieveParameters | None = None,
+    cluster=None,
 ) -> ClassGroup:
     """The class group ``Cl(D)`` of a fundamental ``D < 0`` from relations among prime forms.
 
@@ -362,6 +373,11 @@ def class_group_subexponential(
         Local processes for the sieve (1: in this process).
     params : SieveParameters, optional
         Instead of :func:`sieve_parameters` (its ``bound`` must be at least Bach's bound).
+    cluster : str or distributed.Client, optional
+        Run the sieve tasks on this Dask distributed cluster (a scheduler address such as
+        ``"tcp://10.0.0.5:8786"``, or a client) instead of local processes; the results
+        are stored as they come back (``workers`` is then ignored; no local cost check,
+        as for tables).
 
     Returns
     -------
@@ -390,12 +406,14 @@ def class_group_subexponential(
     D = validate_discriminant(D)
     if D > 0:
         raise DiscriminantError(f"the subexponential method is implemented for D < 0 only, not {D}")
-    _check_subexponential_cost(D)  # before D is factored
+    if cluster is None:
+        _check_subexponential_cost(D)  # before D is factored
     _d_K, f = discriminant_parts(D)
     if f != 1:
         raise DiscriminantError(
             f"the subexponential method is implemented for fundamental D only; {D} has conductor {f} "
-            "(use method 'bsgs', which handles orders)"
+            "(formkit.classgroups.subexponential_orders.class_group_subexponential_order and method "
+            "'subexponential' of class_group go through the maximal order)"
         )
     params = params if params is not None else sieve_parameters(D)
     if params.bound < bach_bound(D):
@@ -435,7 +453,7 @@ def class_group_subexponential(
             col.add(r)
         done = db.done_tasks()
         stats.resumed, stats.tasks_resumed = len(stored), len(done)
-    stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers)
+    stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers, cluster)
     Q = None
     want = n + 10
     shown = 0

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import argparse
 
-from ..classgroups.dispatch import class_group, class_number_summary
+from ..classgroups.dispatch import chosen_method, class_group, class_number_summary
 from ..core.composition import compose, power
 from ..core.forms import as_form
 from ..core.parse import parse_integer
@@ -133,13 +133,32 @@ def _digits(args: argparse.Namespace) -> int | None:
 
 
 def _group_of(D: int, args: argparse.Namespace):
-    """``class_group(D, method)``, or for the subexponential method with its workers and store
-    ``class_group_subexponential(D, workers=…, store=…)``."""
-    if args.method != "subexponential":
+    """``class_group(D, method)``, or when the subexponential method runs (asked for, or
+    chosen by ``auto``) with its workers, store and cluster
+    ``class_group_subexponential_order(D, workers=…, store=…, cluster=…)``."""
+    sieve_options = [
+        name
+        for name, value in (("--workers", args.workers), ("--db", args.db), ("--cluster", args.cluster))
+        if value is not None
+    ]
+    method = chosen_method(D, args.method)
+    if method != "subexponential":
+        if sieve_options:
+            raise CommandError(
+                f"{' and '.join(sieve_options)} {'is' if len(sieve_options) == 1 else 'are'} for the "
+                f"subexponential method (its relation sieve and store), and --method {args.method} runs "
+                f"{method} for D = {D}; use --method subexponential"
+            )
         return class_group(D, method=args.method)
-    from ..classgroups.subexponential import class_group_subexponential
+    if not sieve_options:
+        return class_group(D, method=args.method)
+    from ..classgroups.subexponential_orders import class_group_subexponential_order
 
-    return class_group_subexponential(D, workers=args.workers or 1, store=args.db)
+    # a fresh run with these options (the store is read back), remembered for the kernel and
+    # the class number formula that follow
+    return class_group_subexponential_order(
+        D, reuse=False, workers=args.workers or 1, store=args.db, cluster=args.cluster
+    )
 
 
 def _cmd_group(args: argparse.Namespace) -> int:
@@ -147,10 +166,6 @@ def _cmd_group(args: argparse.Namespace) -> int:
     from .conventions import emit
 
     D = discriminant_of(args)
-    if (args.workers is not None or args.db is not None) and args.method != "subexponential":
-        raise CommandError(
-            "--workers and --db are for --method subexponential (its relation sieve and store)"
-        )
     G = _group_of(D, args)
     payload = G.to_dict()
     # every listed class with its order and discrete logarithm (as in the text table)
@@ -319,8 +334,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         choices=("auto", "enumeration", "bsgs", "subexponential"),
         default="auto",
         help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
-        "subexponential (relations among prime forms, GRH; fundamental D < 0), "
-        "or auto (enumeration for small |D|)",
+        "subexponential (relations among prime forms, GRH; D < 0, orders through the maximal order), "
+        "or auto (enumeration for small |D|, then bsgs, and subexponential for D < 0 from |D| = 10^27 "
+        "on: the crossover measured here)",
     )
     p.add_argument(
         "--digits",
@@ -342,6 +358,14 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         metavar="FILE",
         help="--method subexponential: keep the relations in this SQLite file as they are found; "
         "the same command with the same file continues a stopped run",
+    )
+    p.add_argument(
+        "--cluster",
+        metavar="ADDRESS",
+        default=None,
+        help="--method subexponential: run the sieve tasks on this Dask distributed scheduler "
+        "instead of local processes, as formkit table --cluster does (needs formkit[cluster]; "
+        "formkit must be importable on the workers); with --db the relations are stored as they come",
     )
     add_limit_options(p, "classes in the text table", 200)
     p.set_defaults(handler=_cmd_group)
@@ -371,13 +395,15 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
     add_discriminant_argument(c, "the discriminant D (negative or positive)")
     c.add_argument(
         "--method",
-        choices=("auto", "enumeration", "bsgs", "infrastructure"),
+        choices=("auto", "enumeration", "bsgs", "subexponential", "infrastructure"),
         default="auto",
         help="enumeration (unconditional); bsgs (conditional on GRH: baby-step giant-step among the "
-        "classes; for D > 0 it needs short cycles of reduced forms); infrastructure (D > 0, "
+        "classes; for D > 0 it needs short cycles of reduced forms); subexponential (D < 0, "
+        "conditional on GRH: relations among prime forms); infrastructure (D > 0, "
         "conditional on GRH: the regulator by the infrastructure of the principal cycle, h from the "
-        "analytic interval; reaches furthest); or auto (enumeration for small |D|, then bsgs for "
-        "D < 0 and infrastructure for D > 0). The output's method line names the method run",
+        "analytic interval; reaches furthest); or auto (enumeration for small |D|, then bsgs and from "
+        "|D| = 10^27 on subexponential for D < 0, infrastructure for D > 0). The output's method line "
+        "names the method run",
     )
     c.add_argument(
         "--digits",

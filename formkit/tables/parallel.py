@@ -127,23 +127,12 @@ def _run_chunks(specs: list[ChunkSpec], workers: int, cluster, sink: Callable, b
 
 
 def _run_on_cluster(specs: list[ChunkSpec], cluster, sink: Callable, bar) -> None:
+    from ..core.cluster import connect_cluster
+
+    client, own = connect_cluster(cluster)
+    from distributed import as_completed
+
     try:
-        from distributed import Client, as_completed
-    except ImportError:
-        raise FormkitError("--cluster needs Dask distributed: pip install 'formkit[cluster]'") from None
-    own = isinstance(cluster, str)
-    try:
-        client = Client(cluster) if own else cluster
-    except (OSError, TimeoutError, ValueError) as exc:
-        raise FormkitError(f"could not connect to the Dask scheduler at {cluster!r}: {exc}") from None
-    try:
-        try:  # the scheduler and every worker must be able to import formkit
-            client.submit(_cluster_probe, pure=False).result()
-        except Exception as exc:
-            raise FormkitError(
-                f"the Dask cluster at {cluster!r} cannot run formkit tasks ({type(exc).__name__}: "
-                f"{' '.join(str(exc).split())[:200]}); install formkit on the scheduler and every worker"
-            ) from None
         futures = client.map(compute_chunk, specs, pure=False)
         for fut in as_completed(futures):
             sink(*fut.result())
@@ -151,12 +140,6 @@ def _run_on_cluster(specs: list[ChunkSpec], cluster, sink: Callable, bar) -> Non
     finally:
         if own:
             client.close()
-
-
-def _cluster_probe() -> str:  # runs on a Dask worker
-    from .._version import __version__
-
-    return __version__
 
 
 class _NoBar:

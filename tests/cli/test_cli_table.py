@@ -208,7 +208,7 @@ def test_pipe_is_quiet_subprocess(tmp_path):
 
 def test_cluster_option_and_probe(tmp_path, capsys, monkeypatch):
     distributed = pytest.importorskip("distributed")
-    import formkit.tables.parallel as store
+    import formkit.core.cluster as store  # the probe lives with the shared cluster plumbing
 
     db = str(tmp_path / "c.db")
     with distributed.LocalCluster(
