@@ -86,22 +86,31 @@ Triple = tuple[int, int, int]
 
 #: Sieve parameters by size: ``(largest number of digits of |D|, M, polynomials per a,
 #: large-prime factor)``; the factor-base bound is Bach's bound (see
-#: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py
-#: (docs/performance.md, "Subexponential class groups").
+#: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py and
+#: sieve runs of six values of a per setting (docs/performance.md, "Subexponential class
+#: groups", 2026-12-03): full relations per CPU second grow with M up to 640000 at 40
+#: and 50 digits (the per-prime loop of the sieve is paid once per polynomial), 4 and 8
+#: polynomials per a do about equally well, and a factor-base bound 1.5 or 2 times
+#: Bach's bound gave fewer full relations per second per column (so it stays at Bach's).
 SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
     (15, 1000, 2, 30),
     (20, 3000, 2, 40),
     (25, 6000, 4, 50),
-    (30, 15000, 4, 60),
-    (35, 25000, 4, 60),
-    (40, 40000, 8, 80),
-    (50, 80000, 8, 100),
-    (10**9, 150000, 8, 100),
+    (30, 60000, 4, 60),
+    (35, 100000, 4, 60),
+    (40, 160000, 4, 80),
+    (45, 320000, 4, 100),
+    (10**9, 640000, 4, 100),
 )
 
 #: Cover primes (values of ``a``) per sieve task: one task is the unit of work of a
 #: worker process and of the relation store (common practice, no source).
 A_PER_TASK = 4
+
+#: Rounds of sieving with the weak columns (:func:`~formkit.classgroups.relation_combination.weak_columns`)
+#: as cover primes before the random walks take the rest (one round nearly always pins
+#: them all; no source).
+WEAK_ROUNDS = 2
 
 #: Sieve tasks in a row that add no new relation before the search gives up (tiny groups,
 #: D = −20 say, have only a handful of distinct relations to find).
@@ -119,6 +128,7 @@ class RelationStatistics:
     combined: int = 0
     sieved: int = 0
     expressed: int = 0
+    weak_sieved: int = 0
     tasks: int = 0
     resumed: int = 0
     tasks_resumed: int = 0
@@ -185,7 +195,7 @@ def sieve_parameters(D: int) -> SieveParameters:
     --------
     >>> p = sieve_parameters(-10**30 - 3)
     >>> p.bound, p.half_width
-    (28630, 25000)
+    (28630, 100000)
     """
     digits = len(str(abs(D)))
     for top, M, per_a, lp in SIEVE_TABLE:
@@ -406,6 +416,7 @@ def class_group_subexponential(
     rng = random.Random(seed)
     limit = max_relations if max_relations is not None else 20 * n + 500
     smooth = _Smoothness(base.primes)
+    cover_set = set(base.a_candidates)
     col = RelationCollector()
     # a ramified P_p is its own inverse: 2·[P_p] = 0 (the sieve sees only the parity of its exponent)
     for p in sorted(base.ramified):
@@ -439,16 +450,33 @@ def class_group_subexponential(
                     stale = stale + 1 if len(col.rows) == before else 0
                     shown = _show(bar, shown, len(col.rows), want)
                 fresh = []
-                # columns that no relation pins down (cheap peeling, no linear algebra): a
-                # relation from a random walk for each, so that the rank test below does not
-                # fail for them (at 50 digits the earlier loop sieved 1.5·n relations first)
-                for i in weak_columns(col.rows, n):
-                    w = _express(base, ops, i, rng, 100_000, smooth)
-                    if w is None:
-                        raise FormkitError(f"no relation found for the prime form of norm {base.primes[i]}")
-                    stats.expressed += 1
-                    fresh.append(w)
-                    col.add(w)
+                # columns that no relation pins down (cheap peeling, no linear algebra), so
+                # that the rank test below does not fail for them (at 50 digits the earlier
+                # loop sieved 1.5·n relations first): a sieve over polynomials whose a
+                # contains that prime (every relation from them contains its form), a few
+                # rounds, then a random walk for what is left (small or ramified primes)
+                for round_ in range(WEAK_ROUNDS + 1):
+                    weak = weak_columns(col.rows, n)
+                    if not weak:
+                        break
+                    covers = [base.primes[i] for i in weak if base.primes[i] in cover_set]
+                    if round_ < WEAK_ROUNDS and covers:
+                        got = list(sieve_relations(base, params, covers, rng.randrange(1 << 62)))
+                        stats.sieved += len(got)
+                        stats.weak_sieved += len(covers)
+                    else:
+                        got = []
+                        for i in weak:
+                            w = _express(base, ops, i, rng, 400_000, smooth)
+                            if w is None:
+                                raise FormkitError(
+                                    f"no relation found for the prime form of norm {base.primes[i]}"
+                                )
+                            stats.expressed += 1
+                            got.append(w)
+                    fresh.extend(got)
+                    for w in got:
+                        col.add(w)
                 if db is not None and fresh:
                     db.add(fresh)
                 shown = _show(bar, shown, len(col.rows), want)
@@ -476,7 +504,8 @@ def class_group_subexponential(
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",
         f"{len(col.rows)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
-        f"large-prime pairs, {stats.expressed} by random walks"
+        f"large-prime pairs, {stats.expressed} by random walks, {stats.weak_sieved} polynomial families "
+        "aimed at prime forms no relation pinned down"
         + (f"; {stats.resumed} read back from the store)" if db is not None else ")"),
         f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{floor}"
         + ("" if floor == lower else f" ({floor} genera divide h)")
