@@ -89,17 +89,20 @@ Triple = tuple[int, int, int]
 #: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py and
 #: sieve runs of six values of a per setting (docs/performance.md, "Subexponential class
 #: groups", 2026-12-03): full relations per CPU second grow with M up to 640000 at 40
-#: and 50 digits (the per-prime loop of the sieve is paid once per polynomial), 4 and 8
-#: polynomials per a do about equally well, and a factor-base bound 1.5 or 2 times
-#: Bach's bound gave fewer full relations per second per column (so it stays at Bach's).
+#: and 50 digits (the per-prime loop of the sieve is paid once per polynomial), but a
+#: task then brings far more relations than needed and the linear algebra grows with
+#: them (30 digits 4.1 -> 5.3 s, 40 digits 14.9 -> 16.7 s with M = 60000 / 160000), so
+#: up to 50 digits the earlier rows stay; from 51 digits M = 640000 (measured at 60
+#: digits).  A factor-base bound 1.5 or 2 times Bach's bound gave fewer full relations
+#: per second per column, so it stays at Bach's.
 SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
     (15, 1000, 2, 30),
     (20, 3000, 2, 40),
     (25, 6000, 4, 50),
-    (30, 60000, 4, 60),
-    (35, 100000, 4, 60),
-    (40, 160000, 4, 80),
-    (45, 320000, 4, 100),
+    (30, 15000, 4, 60),
+    (35, 25000, 4, 60),
+    (40, 40000, 8, 80),
+    (50, 80000, 8, 100),
     (10**9, 640000, 4, 100),
 )
 
@@ -195,7 +198,7 @@ def sieve_parameters(D: int) -> SieveParameters:
     --------
     >>> p = sieve_parameters(-10**30 - 3)
     >>> p.bound, p.half_width
-    (28630, 100000)
+    (28630, 25000)
     """
     digits = len(str(abs(D)))
     for top, M, per_a, lp in SIEVE_TABLE:
@@ -417,6 +420,11 @@ def class_group_subexponential(
     limit = max_relations if max_relations is not None else 20 * n + 500
     smooth = _Smoothness(base.primes)
     cover_set = set(base.a_candidates)
+    # one polynomial over a quarter of the interval per weak column: a few full relations
+    # each (at 50 digits the full family gave 3.6·n relations and a 49-s linear algebra)
+    weak_params = SieveParameters(
+        params.bound, max(1000, params.half_width // 4), params.large_prime_factor, 1, params.slack
+    )
     col = RelationCollector()
     # a ramified P_p is its own inverse: 2·[P_p] = 0 (the sieve sees only the parity of its exponent)
     for p in sorted(base.ramified):
@@ -461,7 +469,7 @@ def class_group_subexponential(
                         break
                     covers = [base.primes[i] for i in weak if base.primes[i] in cover_set]
                     if round_ < WEAK_ROUNDS and covers:
-                        got = list(sieve_relations(base, params, covers, rng.randrange(1 << 62)))
+                        got = list(sieve_relations(base, weak_params, covers, rng.randrange(1 << 62)))
                         stats.sieved += len(got)
                         stats.weak_sieved += len(covers)
                     else:
