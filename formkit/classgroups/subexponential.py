@@ -11,10 +11,12 @@ relations, restricted here to fundamental ``D < 0``:
    with ``a`` a product of factor-base primes are sieved over an interval
    (:mod:`formkit.classgroups.relation_sieve`, self-initialising, one large prime);
    each smooth value is a relation.  Every ``a`` contains a *cover prime*, taken in
-   turn from the largest down, and the prime forms that no sieved relation reaches are
-   then expressed one by one: a random walk ``P_p·∏P_s^{±1}`` over small prime forms
-   until the reduced form has a smooth first coefficient (Cohen [2], Algorithm 5.5.2,
-   step 3, the relation search of Hafner–McCurley).
+   turn from the largest down.  Before each linear algebra call the prime forms that
+   the relations cannot pin down (:func:`~formkit.classgroups.relation_combination.weak_columns`,
+   singleton peeling) get a sieve polynomial whose ``a`` contains their prime, and
+   those still left (small or ramified primes) a random walk ``P_p·∏P_s^{±1}`` over
+   small prime forms until the reduced form has a smooth first coefficient (Cohen [2],
+   Algorithm 5.5.2, step 3, the relation search of Hafner–McCurley).
 3. **Linear algebra.**  The quotient ``Zⁿ/L`` of the relation lattice is computed by
    :func:`formkit.core.lattice.lattice_quotient`: structured elimination of unit pivots
    (:mod:`formkit.core.sparse_elimination`), the Hermite form of the tall dense rest
