@@ -13,8 +13,12 @@ same D, side by side, and checks that they agree; "la" is the CPU time spent in
 ``finite_lattice_quotient`` (elimination, rank test, Hermite and Smith forms; this
 process), the rest being the relation search and the Euler-product interval.
 
+``--workers 1,2`` runs each D once per number of worker processes (CPU then includes the
+workers; wall time shows what the second core buys).  ``--budget`` raises formkit's cost
+refusal (60 digits is estimated above the default 30 minutes).
+
 Usage:  python3 benchmarks/bench_subexponential.py [--sizes 30,40,50] [--count 3]
-        [--compare 30] [--workers 1] [--hermite sublattice]
+        [--compare 30] [--workers 1] [--hermite sublattice] [--budget 3h]
 """
 
 from __future__ import annotations
@@ -28,6 +32,7 @@ import time
 from formkit.classgroups import subexponential as sub
 from formkit.classgroups.baby_step_giant_step import class_group_bsgs
 from formkit.core import lattice
+from formkit.core.budget import set_budget
 from formkit.core.discriminants import is_fundamental_discriminant
 
 
@@ -72,26 +77,29 @@ def main() -> None:
     ap.add_argument("--sizes", default="30,40,50")
     ap.add_argument("--count", type=int, default=3)
     ap.add_argument("--compare", default="30", help="sizes at which baby-step giant-step runs too")
-    ap.add_argument("--workers", type=int, default=1)
+    ap.add_argument("--workers", default="1", help="comma-separated numbers of worker processes")
+    ap.add_argument("--budget", default="3h")
     ap.add_argument("--seed", type=int, default=2026)
     ap.add_argument("--hermite", default="sublattice", help="comma-separated: sublattice, whole")
     args = ap.parse_args()
-    modes = [m for m in args.hermite.split(",") if m]
+    set_budget(args.budget)
+    modes = [(m, int(w)) for m in args.hermite.split(",") if m for w in args.workers.split(",") if w]
     compare = {int(s) for s in args.compare.split(",") if s}
     rng = random.Random(args.seed)
-    print(f"subexponential, D < 0, {args.count} random fundamental D per size, workers={args.workers}")
+    print(f"subexponential, D < 0, {args.count} random fundamental D per size, workers {args.workers}")
     for digits in (int(s) for s in args.sizes.split(",")):
-        cpus: dict[str, list[float]] = {m: [] for m in modes}
-        las: dict[str, list[float]] = {m: [] for m in modes}
+        cpus: dict[tuple[str, int], list[float]] = {m: [] for m in modes}
+        las: dict[tuple[str, int], list[float]] = {m: [] for m in modes}
+        walls_by: dict[tuple[str, int], list[float]] = {m: [] for m in modes}
         walls, rates, bs = [], [], []
         for _ in range(args.count):
             D = random_fundamental(rng, digits)
             line = f"  {digits} digits  D={D}"
             first = None
-            for mode in modes:
+            for mode, workers in modes:
                 use_hermite(mode)
                 LA["cpu"], LA["calls"] = 0.0, 0
-                G, c, w = timed(sub.class_group_subexponential, D, workers=args.workers)
+                G, c, w = timed(sub.class_group_subexponential, D, workers=workers)
                 st = sub._LAST["stats"]
                 if first is None:
                     first = G
@@ -100,9 +108,13 @@ def main() -> None:
                     line += f"  {G.invariants}  n={st.factor_base}"
                 else:
                     assert G.invariants == first.invariants and G.generators == first.generators, (D, mode)
-                cpus[mode].append(c)
-                las[mode].append(LA["cpu"])
-                line += f"  [{mode}] cpu {c:.1f}s (la {LA['cpu']:.1f}s in {LA['calls']} calls) wall {w:.1f}s"
+                cpus[(mode, workers)].append(c)
+                las[(mode, workers)].append(LA["cpu"])
+                walls_by[(mode, workers)].append(w)
+                line += (
+                    f"  [{mode}, {workers} worker(s)] cpu {c:.1f}s (la {LA['cpu']:.1f}s in {LA['calls']} calls)"
+                    f" wall {w:.1f}s"
+                )
             if digits in compare:
                 H, cb, _wb = timed(class_group_bsgs, D)
                 assert H.invariants == first.invariants, (D, H.invariants, first.invariants)
@@ -113,8 +125,8 @@ def main() -> None:
         out = f"{digits} digits:"
         for mode in modes:
             out += (
-                f" [{mode}] median cpu {statistics.median(cpus[mode]):.1f}s"
-                f" (la {statistics.median(las[mode]):.1f}s),"
+                f" [{mode[0]}, {mode[1]} worker(s)] median cpu {statistics.median(cpus[mode]):.1f}s"
+                f" (la {statistics.median(las[mode]):.1f}s, wall {statistics.median(walls_by[mode]):.1f}s),"
             )
         out += (
             f" wall {statistics.median(walls):.1f}s, "

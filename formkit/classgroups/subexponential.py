@@ -11,10 +11,12 @@ relations, restricted here to fundamental ``D < 0``:
    with ``a`` a product of factor-base primes are sieved over an interval
    (:mod:`formkit.classgroups.relation_sieve`, self-initialising, one large prime);
    each smooth value is a relation.  Every ``a`` contains a *cover prime*, taken in
-   turn from the largest down, and the prime forms that no sieved relation reaches are
-   then expressed one by one: a random walk ``P_p·∏P_s^{±1}`` over small prime forms
-   until the reduced form has a smooth first coefficient (Cohen [2], Algorithm 5.5.2,
-   step 3, the relation search of Hafner–McCurley).
+   turn from the largest down.  Before each linear algebra call the prime forms that
+   the relations cannot pin down (:func:`~formkit.classgroups.relation_combination.weak_columns`,
+   singleton peeling) get a sieve polynomial whose ``a`` contains their prime, and
+   those still left (small or ramified primes) a random walk ``P_p·∏P_s^{±1}`` over
+   small prime forms until the reduced form has a smooth first coefficient (Cohen [2],
+   Algorithm 5.5.2, step 3, the relation search of Hafner–McCurley).
 3. **Linear algebra.**  The quotient ``Zⁿ/L`` of the relation lattice is computed by
    :func:`formkit.core.lattice.lattice_quotient`: structured elimination of unit pivots
    (:mod:`formkit.core.sparse_elimination`), the Hermite form of the tall dense rest
@@ -66,12 +68,14 @@ from pathlib import Path
 import numpy as np
 
 from ..analytic.lseries import class_number_estimate
+from ..core.arith import mpz
 from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..core.lattice import finite_lattice_quotient
 from ..core.progress import progress_bar
 from ..errors import DiscriminantError, FormkitError
 from .baby_step_giant_step import BSGSStatistics, _Ops, bach_bound
 from .group import ClassGroup, Provenance
+from .relation_combination import RelationCollector, weak_columns
 from .relation_sieve import FactorBase, Relation, SieveParameters, sieve_relations
 from .relation_store import RelationStore
 
@@ -87,8 +91,15 @@ Triple = tuple[int, int, int]
 
 #: Sieve parameters by size: ``(largest number of digits of |D|, M, polynomials per a,
 #: large-prime factor)``; the factor-base bound is Bach's bound (see
-#: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py
-#: (docs/performance.md, "Subexponential class groups").
+#: :func:`factor_base_bound`).  Chosen with benchmarks/bench_subexponential.py and
+#: sieve runs of six values of a per setting (docs/performance.md, "Subexponential class
+#: groups", 2026-12-03): full relations per CPU second grow with M up to 640000 at 40
+#: and 50 digits (the per-prime loop of the sieve is paid once per polynomial), but a
+#: task then brings far more relations than needed and the linear algebra grows with
+#: them (30 digits 4.1 -> 5.3 s, 40 digits 14.9 -> 16.7 s with M = 60000 / 160000), so
+#: up to 50 digits the earlier rows stay; from 51 digits M = 640000 (measured at 60
+#: digits).  A factor-base bound 1.5 or 2 times Bach's bound gave fewer full relations
+#: per second per column, so it stays at Bach's.
 SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
     (15, 1000, 2, 30),
     (20, 3000, 2, 40),
@@ -97,12 +108,17 @@ SIEVE_TABLE: tuple[tuple[int, int, int, int], ...] = (
     (35, 25000, 4, 60),
     (40, 40000, 8, 80),
     (50, 80000, 8, 100),
-    (10**9, 150000, 8, 100),
+    (10**9, 640000, 4, 100),
 )
 
 #: Cover primes (values of ``a``) per sieve task: one task is the unit of work of a
 #: worker process and of the relation store (common practice, no source).
 A_PER_TASK = 4
+
+#: Rounds of sieving with the weak columns (:func:`~formkit.classgroups.relation_combination.weak_columns`)
+#: as cover primes before the random walks take the rest (one round nearly always pins
+#: them all; no source).
+WEAK_ROUNDS = 2
 
 #: Sieve tasks in a row that add no new relation before the search gives up (tiny groups,
 #: D = −20 say, have only a handful of distinct relations to find).
@@ -120,6 +136,7 @@ class RelationStatistics:
     combined: int = 0
     sieved: int = 0
     expressed: int = 0
+    weak_sieved: int = 0
     tasks: int = 0
     resumed: int = 0
     tasks_resumed: int = 0
@@ -254,44 +271,6 @@ def _tasks(
 # --- collecting relations ------------------------------------------------------------
 
 
-class _Collector:
-    """Full relations as sparse rows; partial relations paired by their large prime."""
-
-    def __init__(self) -> None:
-        self.rows: list[dict[int, int]] = []
-        self.seen: set[tuple[tuple[int, int], ...]] = set()
-        self.partials: dict[int, Relation] = {}
-        self.covered: set[int] = set()
-        self.full = 0
-        self.combined = 0
-
-    def _row(self, items: tuple[tuple[int, int], ...]) -> None:
-        if not items or items in self.seen:
-            return
-        self.seen.add(items)
-        self.rows.append(dict(items))
-        self.covered.update(i for i, _k in items)
-
-    def add(self, r: Relation) -> None:
-        if r.large == 1:
-            self.full += 1
-            self._row(r.exponents)
-            return
-        first = self.partials.get(r.large)
-        if first is None:
-            self.partials[r.large] = r
-            return
-        # r = s·[ℓ], first = s'·[ℓ]  ⇒  r − s·s'·first = 0
-        comb = dict(r.exponents)
-        f = r.large_sign * first.large_sign
-        for i, k in first.exponents:
-            comb[i] = comb.get(i, 0) - f * k
-        items = tuple(sorted((i, k) for i, k in comb.items() if k))
-        if items:
-            self.combined += 1
-            self._row(items)
-
-
 def _residues(n: int, primes: np.ndarray) -> np.ndarray:
     """``n mod p`` for every p of ``primes`` (all < 2^31), by 31-bit limbs in int64."""
     limbs = []
@@ -304,22 +283,41 @@ def _residues(n: int, primes: np.ndarray) -> np.ndarray:
     return r
 
 
-def _smooth(a: int, primes: np.ndarray) -> dict[int, int] | None:
-    """The exponents of ``a`` over ``primes`` when ``a`` factors over them, else None."""
-    exps: dict[int, int] = {}
-    for p in primes[_residues(a, primes) == 0].tolist():
-        k = 0
-        while a % p == 0:
-            a //= p
-            k += 1
-        exps[p] = k
-    return exps if a == 1 else None
+class _Smoothness:
+    """Factorisations over the primes of the factor base, with a fast test first.
+
+    ``a`` factors over the primes ``p₁, …, p_n`` iff ``a`` divides ``P^{2^e}`` for
+    ``P = ∏ p_i`` and ``2^e`` at least the largest exponent (``2^e > log₂ a``), i.e. iff
+    ``(P mod a)^{2^e} ≡ 0 (mod a)``: one reduction of ``P`` and ``e`` squarings modulo
+    ``a`` (the product test of Bernstein's batch smoothness detection, D. J. Bernstein,
+    "How to find smooth parts of integers", 2004; from memory).  Only the values that
+    pass are divided out (about ten times faster on the random walks at 50 digits,
+    where nearly every value fails).
+    """
+
+    def __init__(self, primes: list[int]) -> None:
+        self.primes = np.array(primes, dtype=np.int64)
+        self.product = mpz(math.prod(primes))
+
+    def __call__(self, a: int) -> dict[int, int] | None:
+        """The exponents of ``a ≥ 1`` over the primes when ``a`` factors over them, else None."""
+        if a > 1 and pow(self.product % a, 1 << a.bit_length().bit_length(), a) != 0:
+            return None
+        exps: dict[int, int] = {}
+        for p in self.primes[_residues(a, self.primes) == 0].tolist():
+            k = 0
+            while a % p == 0:
+                a //= p
+                k += 1
+            exps[p] = k
+        return exps if a == 1 else None
 
 
-def _express(base: FactorBase, ops: _Ops, col: int, rng: random.Random, trials: int) -> Relation | None:
+def _express(
+    base: FactorBase, ops: _Ops, col: int, rng: random.Random, trials: int, smooth: _Smoothness
+) -> Relation | None:
     """A relation containing ``P_col`` once: a random walk ``P_col·∏P_s^{±1}`` until the
     reduced form ``(a, b, c)`` has ``a`` smooth (Cohen, Algorithm 5.5.2)."""
-    primes = np.array(base.primes, dtype=np.int64)
     small = min(len(base), 24)
     x = base.forms[col]
     walk = {col: 1}
@@ -330,7 +328,7 @@ def _express(base: FactorBase, ops: _Ops, col: int, rng: random.Random, trials: 
         x = ops.mul(x, g)
         walk[s] = walk.get(s, 0) + e
         b = int(x[1])
-        exps = _smooth(int(x[0]), primes)
+        exps = smooth(int(x[0]))
         if exps is None:
             continue
         row = dict(walk)
@@ -440,8 +438,14 @@ def class_group_subexponential(
     ops = _Ops(D, BSGSStatistics())
     rng = random.Random(seed)
     limit = max_relations if max_relations is not None else 20 * n + 500
-    primes = np.array(base.primes, dtype=np.int64)
-    col = _Collector()
+    smooth = _Smoothness(base.primes)
+    cover_set = set(base.a_candidates)
+    # one polynomial over a quarter of the interval per weak column: a few full relations
+    # each (at 50 digits the full family gave 3.6·n relations and a 49-s linear algebra)
+    weak_params = SieveParameters(
+        params.bound, max(1000, params.half_width // 4), params.large_prime_factor, 1, params.slack
+    )
+    col = RelationCollector()
     # a ramified P_p is its own inverse: 2·[P_p] = 0 (the sieve sees only the parity of its exponent)
     for p in sorted(base.ramified):
         col.add(Relation(((base.index[p], 2),)))
@@ -474,15 +478,33 @@ def class_group_subexponential(
                     stale = stale + 1 if len(col.rows) == before else 0
                     shown = _show(bar, shown, len(col.rows), want)
                 fresh = []
-                for i in range(n):
-                    if i in col.covered:
-                        continue
-                    w = _express(base, ops, i, rng, 100_000)
-                    if w is None:
-                        raise FormkitError(f"no relation found for the prime form of norm {base.primes[i]}")
-                    stats.expressed += 1
-                    fresh.append(w)
-                    col.add(w)
+                # columns that no relation pins down (cheap peeling, no linear algebra), so
+                # that the rank test below does not fail for them (at 50 digits the earlier
+                # loop sieved 1.5·n relations first): a sieve over polynomials whose a
+                # contains that prime (every relation from them contains its form), a few
+                # rounds, then a random walk for what is left (small or ramified primes)
+                for round_ in range(WEAK_ROUNDS + 1):
+                    weak = weak_columns(col.rows, n)
+                    if not weak:
+                        break
+                    covers = [base.primes[i] for i in weak if base.primes[i] in cover_set]
+                    if round_ < WEAK_ROUNDS and covers:
+                        got = list(sieve_relations(base, weak_params, covers, rng.randrange(1 << 62)))
+                        stats.sieved += len(got)
+                        stats.weak_sieved += len(covers)
+                    else:
+                        got = []
+                        for i in weak:
+                            w = _express(base, ops, i, rng, 400_000, smooth)
+                            if w is None:
+                                raise FormkitError(
+                                    f"no relation found for the prime form of norm {base.primes[i]}"
+                                )
+                            stats.expressed += 1
+                            got.append(w)
+                    fresh.extend(got)
+                    for w in got:
+                        col.add(w)
                 if db is not None and fresh:
                     db.add(fresh)
                 shown = _show(bar, shown, len(col.rows), want)
@@ -510,7 +532,8 @@ def class_group_subexponential(
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",
         f"{len(col.rows)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
-        f"large-prime pairs, {stats.expressed} by random walks"
+        f"large-prime pairs, {stats.expressed} by random walks, {stats.weak_sieved} polynomial families "
+        "aimed at prime forms no relation pinned down"
         + (f"; {stats.resumed} read back from the store)" if db is not None else ")"),
         f"h = {h} lies in [{lower}, {upper}] (Euler product to {est.l_value.prime_bound}, GRH) and h < 2·{floor}"
         + ("" if floor == lower else f" ({floor} genera divide h)")
@@ -541,7 +564,7 @@ def class_group_subexponential(
             y = canonical(x)
             for j, k in r.items():
                 y = ops.mul(y, ops.pow(base.forms[j], k))
-            exps = _smooth(int(y[0]), primes)
+            exps = smooth(int(y[0]))
             if exps is None:
                 continue
             vec = [0] * n

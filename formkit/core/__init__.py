@@ -25,6 +25,10 @@
   relation matrices on unit pivots (used by ``lattice``);
 * :mod:`~formkit.core.modular_hermite` — Hermite forms of tall matrices through a
   sublattice, its determinant and a membership test (used by ``lattice``);
+* :mod:`~formkit.core.abelian_quotient` — the group Zⁿ/L of a relation lattice:
+  invariants, generators, coordinates (importable from ``lattice``);
+* :mod:`~formkit.core.smith_diagonal` — the Smith form with its column transformation from
+  a Hermite form; :mod:`~formkit.core.matrix_input` — reading dense, sparse or FLINT matrices;
 * :mod:`~formkit.core.progress` — progress bars and phase lines on stderr for long jobs
   (one switch for all of them; the command line's ``--quiet``).
 

@@ -77,6 +77,49 @@ class Elimination:
     rows: list[dict[int, int]]
     alive: list[int]
 
+    def reduce(self, vec: dict[int, int]) -> dict[int, int]:
+        """The sparse vector ``vec`` with the eliminated columns replaced by their classes (in place).
+
+        Column j of a step ``(j, s, w)`` equals ``−s·Σ_k w[k]·e_k`` in the quotient, so
+        the result has entries on the columns :attr:`alive` only and the same class.
+
+        Examples
+        --------
+        >>> E = eliminate_unit_pivots(3, [{0: 1, 1: 2}, {1: 3, 2: 1}, {2: 4}])
+        >>> E.reduce({0: 1})   # e_0 = −2·e_1 in the quotient
+        {1: -2}
+        """
+        for j, s, w in self.steps:
+            v = vec.pop(j, 0)
+            if v:
+                f = s * v
+                for k, c in w.items():
+                    vec[k] = vec.get(k, 0) - f * c
+        return vec
+
+    def lift_rows(self, V: list[list[int]]) -> None:
+        """``V ← C_1 ⋯ C_T · V`` (in place) for the column operations ``C_t = I − s·e_j·wᵀ``
+        of the steps: the transformation of the whole matrix from the one of the rest."""
+        for j, s, w in reversed(self.steps):
+            row = V[j]
+            for k, c in w.items():
+                f = s * c
+                rk = V[k]
+                for col, x in enumerate(rk):
+                    if x:
+                        row[col] -= f * x
+
+    def lift_columns(self, W: list[list[int]]) -> None:
+        """``W ← W · C_T⁻¹ ⋯ C_1⁻¹`` (in place), ``C_t⁻¹ = I + s·e_j·wᵀ``: the inverse of
+        :meth:`lift_rows`."""
+        for j, s, w in reversed(self.steps):
+            for r in W:
+                x = r[j]
+                if x:
+                    f = s * x
+                    for k, c in w.items():
+                        r[k] += f * c
+
 
 def eliminate_unit_pivots(n: int, rows: list[dict[int, int]], limit: int = MARKOWITZ_LIMIT) -> Elimination:
     """Structured Gaussian elimination of the sparse rows on pivots ±1 (see the module docstring).

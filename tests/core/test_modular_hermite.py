@@ -22,7 +22,7 @@ from sympy import ZZ, Matrix
 from sympy.matrices.normalforms import smith_normal_form as sympy_snf
 
 import formkit
-from formkit.core import lattice
+from formkit.core import abelian_quotient
 from formkit.core.lattice import finite_lattice_quotient, lattice_quotient
 from formkit.core.modular_hermite import lies_in_row_lattice, tall_hermite_rows
 from formkit.errors import FormkitError
@@ -132,7 +132,7 @@ def test_lies_in_row_lattice_by_rational_solving(case):
 @pytest.fixture
 def sublattice_always(monkeypatch):
     # the sublattice path from one column on (lattice_quotient skips it below 32)
-    monkeypatch.setattr(lattice, "SUBLATTICE_FROM_COLUMNS", 1)
+    monkeypatch.setattr(abelian_quotient, "SUBLATTICE_FROM_COLUMNS", 1)
 
 
 @settings(max_examples=120, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
@@ -189,7 +189,7 @@ def test_quotient_when_the_first_sublattice_is_too_small(sublattice_always, monk
                 candidates.append((seed, i))
                 yield H
 
-        monkeypatch.setattr(lattice, "sublattice_hermite_forms", forms)
+        monkeypatch.setattr(abelian_quotient, "sublattice_hermite_forms", forms)
         got = lattice_quotient(rows)
         assert (got.invariants, got.generators) == (want.invariants, want.generators)
         assert got.coordinates([1, 0, 0, 0]) == want.coordinates([1, 0, 0, 0])
