@@ -253,7 +253,9 @@ def relation_matrix(D: int, ncols: int, extra: int | None = None, seed: int = 1)
     bookkeeping being reported)."""
     from formkit.classgroups.abelian_groups import BSGSStatistics
     from formkit.classgroups.baby_step_giant_step import _Ops
-    from formkit.classgroups.subexponential import RelationStatistics, _Base, _relation_rows
+    from formkit.classgroups.relation_sieve import FactorBase
+    from formkit.classgroups.relation_tasks import _Smoothness
+    from formkit.classgroups.subexponential import _express
     from formkit.core.enumeration import _prime_forms
 
     if extra is None:
@@ -263,14 +265,16 @@ def relation_matrix(D: int, ncols: int, extra: int | None = None, seed: int = 1)
         last = p
         if k == ncols:
             break
-    base = _Base(D, last)
-    assert len(base.primes) == ncols
+    base = FactorBase(D, last)
+    assert len(base) == ncols
     ops = _Ops(D, BSGSStatistics())
+    smooth = _Smoothness(list(base.primes))
+    rng = random.Random(seed)
     rows: list[dict[int, int]] = []
-    for r in _relation_rows(D, base, ops, 20, random.Random(seed), RelationStatistics()):
-        rows.append(r)
-        if len(rows) >= ncols + extra:
-            break
+    while len(rows) < ncols + extra:  # random walks from each prime form in turn
+        r = _express(base, ops, len(rows) % ncols, rng, 10_000, smooth)
+        if r is not None and r.large == 1:
+            rows.append(dict(r.exponents))
     return rows
 
 

@@ -1,4 +1,4 @@
-"""Relations among prime forms of ``D < 0`` by sieving quadratic polynomials (Jacobson's method).
+"""Relations among prime forms of ``D < 0`` (and ``D > 0``, the sign kept) by sieving quadratic polynomials (Jacobson's method).
 
 For a form ``A = (a, b, c)`` of discriminant ``D`` with ``a = q₁·q₂·…·q_k`` a product of
 distinct split primes of the factor base, the polynomial ``f(x) = a x² + b x + c`` takes
@@ -93,6 +93,10 @@ class Relation:
     exponents: tuple[tuple[int, int], ...]
     large: int = 1
     large_sign: int = 1
+    #: ``D > 0`` only (0 otherwise): the relation is the principal ideal ``((β + √D)/2)``
+    #: (times the ideal of the large prime), ``β = −(2ax + b)``; its norm ``a·f(x)`` has the
+    #: sign of ``β² − D`` (:mod:`formkit.classgroups.subexponential_real` reads both).
+    beta: int = 0
 
 
 class FactorBase:
@@ -238,7 +242,7 @@ def sieve_relations(
     M = params.half_width
     width = 2 * M
     rng = random.Random(seed)
-    target = math.sqrt(-D / 2) / M
+    target = math.sqrt(abs(D) / 2) / M
     large_max = min(params.large_prime_factor * base.B, base.B * base.B)
     P = base.sieved
     T = base.sqrt_d
@@ -267,7 +271,8 @@ def sieve_relations(
                 if i2 != i1:
                     sieve[i2::p] += lp
             fx = (float(a) * xs + float(b)) * xs + float(c)
-            thresh = np.log2(fx) - math.log2(large_max) - params.slack
+            # D > 0: f changes sign; the sieve sees |f(x)| (the sign is kept with the relation)
+            thresh = np.log2(np.abs(fx)) - math.log2(large_max) - params.slack
             cand = np.nonzero(sieve >= thresh)[0]
             for pos in cand.tolist():
                 x = pos - M
@@ -300,6 +305,7 @@ def _trial_divide(
                 v //= p
                 e += 1
             exps[p] = exps.get(p, 0) + e
+    v = abs(v)  # D > 0: a negative value is a relation whose generator has negative norm
     if v != 1 and v > large_max:
         return None
     beta = -(2 * a * x + b)
@@ -307,9 +313,10 @@ def _trial_divide(
     for i, k in base.signed(beta, exps).items():
         row[i] = row.get(i, 0) - k
     items = tuple(sorted((i, k) for i, k in row.items() if k))
+    gen = beta if base.D > 0 else 0
     if v == 1:
-        return Relation(items)
+        return Relation(items, beta=gen)
     # all prime factors of v exceed B (primes with χ = −1 never divide a primitive value),
     # and v ≤ B², so v is prime; its form is (v, β mod 2v): record which of the two
     sign = 1 if beta % (2 * v) <= v else -1
-    return Relation(items, v, sign)
+    return Relation(items, v, sign, gen)

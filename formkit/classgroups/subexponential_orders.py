@@ -87,12 +87,13 @@ def _field_group(d_K: int, reuse: bool, kw: dict) -> ClassGroup:
 
 
 def class_group_subexponential_order(D: object, *, reuse: bool = True, **kw) -> ClassGroup:
-    """``Cl(D)`` for any ``D < 0``: the subexponential method on ``d_K``, the order formula, the structure.
+    """``Cl(D)`` for any ``D < 0`` (subexponential on ``d_K``, the order formula, the structure); fundamental ``D > 0``.
 
     Parameters
     ----------
     D : int
-        A negative discriminant, fundamental or not.
+        A negative discriminant, fundamental or not, or a fundamental positive one
+        (then :func:`~formkit.classgroups.subexponential_real.class_group_subexponential_real`).
     reuse : bool
         Return a group computed by an earlier call for the same ``D`` (and use a stored
         ``Cl(d_K)``) instead of computing again.
@@ -111,7 +112,7 @@ def class_group_subexponential_order(D: object, *, reuse: bool = True, **kw) -> 
     Raises
     ------
     DiscriminantError
-        If ``D`` is not a negative discriminant.
+        If ``D`` is not a discriminant, or is positive and not fundamental.
     FormkitError
         As :func:`~formkit.classgroups.subexponential.class_group_subexponential`.
 
@@ -126,11 +127,19 @@ def class_group_subexponential_order(D: object, *, reuse: bool = True, **kw) -> 
     Cox, Theorem 7.24; Cohen, GTM 138, §5.5; Teske (1998).
     """
     D = validate_discriminant(D)
-    if D > 0:
-        raise DiscriminantError(f"the subexponential method is implemented for D < 0 only, not {D}")
+    if D > 0:  # real quadratic: fundamental D only (Buchmann's method with the regulator)
+        if discriminant_parts(D)[1] != 1:
+            raise DiscriminantError(
+                f"the subexponential method for D > 0 is implemented for fundamental D only; {D} "
+                f"has conductor {discriminant_parts(D)[1]} (use method 'bsgs')"
+            )
+        from .subexponential import class_group_subexponential
+
+        return class_group_subexponential(D, **kw)
     if reuse and D in _RESULTS:
         return _RESULTS[D]
-    from .subexponential import _check_subexponential_cost, class_group_subexponential
+    from .relation_tasks import _check_subexponential_cost
+    from .subexponential import class_group_subexponential
 
     if kw.get("cluster") is None:  # priced by |D| ≥ |d_K| before D is factored (as the plain method)
         _check_subexponential_cost(D)

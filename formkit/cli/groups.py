@@ -334,7 +334,8 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         choices=("auto", "enumeration", "bsgs", "subexponential"),
         default="auto",
         help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
-        "subexponential (relations among prime forms, GRH; D < 0, orders through the maximal order), "
+        "subexponential (relations among prime forms, GRH; D < 0, orders through the maximal order, "
+        "and fundamental 10^5 ≤ D ≤ 10^23 with the regulator from the units of the relations), "
         "or auto (enumeration for small |D|, then bsgs, and subexponential for D < 0 from |D| = 10^27 "
         "on: the crossover measured here)",
     )

@@ -43,7 +43,36 @@ __all__ = [
     "next_prime",
     "factorint",
     "divisors",
+    "mpfr",
+    "real_log",
+    "real_log2",
+    "real_sqrt",
+    "real_rint",
+    "real_precision",
+    "set_real_precision",
 ]
+
+# Multiple-precision reals (MPFR through gmpy2, whatever the integer backend): only for
+# the analytic steps that need them, such as the logarithms of units in the real
+# subexponential method.  This module is the one place gmpy2 is imported.
+import gmpy2 as _mpfr_lib
+
+mpfr = _mpfr_lib.mpfr
+real_log = _mpfr_lib.log
+real_log2 = _mpfr_lib.log2
+real_sqrt = _mpfr_lib.sqrt
+real_rint = _mpfr_lib.rint
+
+
+def real_precision() -> int:
+    """The working precision of :func:`mpfr` arithmetic, in bits."""
+    return int(_mpfr_lib.get_context().precision)
+
+
+def set_real_precision(bits: int) -> None:
+    """Set the working precision of :func:`mpfr` arithmetic to ``bits`` bits."""
+    _mpfr_lib.get_context().precision = int(bits)
+
 
 BACKEND: str = os.environ.get("FORMKIT_INTEGER_BACKEND", "gmpy2").strip().lower() or "gmpy2"
 

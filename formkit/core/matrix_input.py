@@ -23,7 +23,6 @@ from .arith import as_int
 
 __all__ = [
     "MatrixLike",
-    "Rows",
     "read_matrix",
     "dense_lists",
     "dense_matrix",

@@ -14,7 +14,7 @@ from sympy import factorint, primerange
 
 from formkit.classgroups.relation_combination import RelationCollector, weak_columns
 from formkit.classgroups.relation_sieve import Relation
-from formkit.classgroups.subexponential import _Smoothness
+from formkit.classgroups.relation_tasks import _Smoothness
 
 sparse_rows = st.integers(1, 9).flatmap(
     lambda n: st.tuples(

@@ -81,11 +81,16 @@ def test_huge_conductor_over_a_small_field():
     _same_group(G, class_group_bsgs(D))  # reference: formkit's baby-step giant-step
 
 
-def test_fundamental_D_is_the_plain_method_and_positive_D_is_refused():
+def test_fundamental_D_is_the_plain_method_and_positive_D_goes_to_the_real_method():
     G = so.class_group_subexponential_order(-1_000_003, reuse=False)
     assert G.invariants == class_group_enumerated(-1_000_003).invariants
-    with pytest.raises(FormkitError, match="D < 0 only"):
+    # D > 0: the real method (which refuses D below 10^5) for fundamental D, an error otherwise
+    with pytest.raises(FormkitError, match="starts at"):
         so.class_group_subexponential_order(4 * 79)
+    D = 10**12 + 1  # fundamental: the value 50280 is checked against the infrastructure in test_subexponential_real
+    assert so.class_group_subexponential_order(D).class_number == 50280
+    with pytest.raises(FormkitError, match="fundamental D only.*conductor 3"):
+        so.class_group_subexponential_order(9 * D)
 
 
 # --- automatic choice --------------------------------------------------------------------
