@@ -6,15 +6,16 @@ baby-step giant-step (:mod:`formkit.classgroups.baby_step_giant_step`, D < 0) up
 :data:`SUBEXPONENTIAL_FROM` and the subexponential method above
 (:mod:`formkit.classgroups.subexponential`, orders through
 :mod:`formkit.classgroups.subexponential_orders`), or for D > 0 the
-infrastructure of the principal cycle (:mod:`formkit.classgroups.infrastructure`)
-give results conditional on GRH (:func:`chosen_method` names the choice).  :func:`class_number_summary` gives the class
+infrastructure of the principal cycle (:mod:`formkit.classgroups.infrastructure`), for
+fundamental D > 0 from :data:`REAL_SUBEXPONENTIAL_FROM` on the subexponential method with the
+regulator (:mod:`formkit.classgroups.subexponential_real`), give results conditional on GRH (:func:`chosen_method` names the choice).  :func:`class_number_summary` gives the class
 numbers (and for D > 0 the regulator) without the structure, by the same choice.
 Every result says how it was obtained (:class:`formkit.classgroups.group.Provenance`).
 """
 
 from __future__ import annotations
 
-from ..core.discriminants import validate_discriminant
+from ..core.discriminants import discriminant_parts, validate_discriminant
 from ..errors import FormkitError
 from .group import ClassGroup
 
@@ -24,6 +25,7 @@ __all__ = [
     "ENUMERATION_LIMIT",
     "REAL_ENUMERATION_LIMIT",
     "SUBEXPONENTIAL_FROM",
+    "REAL_SUBEXPONENTIAL_FROM",
     "chosen_method",
     "METHODS",
     "SUMMARY_METHODS",
@@ -33,7 +35,8 @@ __all__ = [
 #: the results (a method chosen by name comes back under that name; under ``"auto"`` the
 #: method chosen).  ``"subexponential"`` (:mod:`formkit.classgroups.subexponential`, D < 0,
 #: orders through the maximal order) is chosen by ``"auto"`` from :data:`SUBEXPONENTIAL_FROM`
-#: on; for D > 0 it does not exist yet (``"auto"`` keeps the infrastructure there).
+#: on, and for fundamental D > 0 (:mod:`formkit.classgroups.subexponential_real`) from
+#: :data:`REAL_SUBEXPONENTIAL_FROM` on.
 METHODS = ("auto", "enumeration", "bsgs", "subexponential")
 #: The methods of :func:`class_number_summary` (``formkit class-number --method``): those of
 #: :func:`class_group`, and ``"infrastructure"`` (D > 0 only: the
@@ -58,6 +61,14 @@ REAL_ENUMERATION_LIMIT = 10**9
 #: CPU s, subexponential / BSGS): 26 digits 2.4 / 2.4, 28 digits 1.1 / 1.5, 30 digits 3.8 / 5.1,
 #: 32 digits 4.5 / 8.0, 34 digits 6.5 / 12.1; equal at 26 digits, faster from 28 digits on.
 SUBEXPONENTIAL_FROM = 10**27
+#: From this D on, ``method="auto"`` uses the subexponential method for fundamental D > 0
+#: (:mod:`formkit.classgroups.subexponential_real`) instead of the infrastructure (which stays
+#: for non-fundamental D).  Measured with benchmarks/bench_subexponential_real.py on
+#: 2026-12-04 (docs/performance.md, "D > 0"; medians of 3 random fundamental D, CPU s,
+#: subexponential / ``real_class_group``): 20 digits 2.2 / 0.46, 21 digits 2.1 / 0.51,
+#: 22 digits 1.6 / 1.5, 23 digits 3.2 / 2.7, 24 digits 2.2 / 6.8; the infrastructure's
+#: cost grows with the regulator (about √D) and reaches its limit near 10^26.
+REAL_SUBEXPONENTIAL_FROM = 10**23
 
 _GROUP_CACHE: dict[int, ClassGroup] = {}
 
@@ -93,12 +104,15 @@ def chosen_method(D: object, method: str = "auto") -> str:
     ``"auto"`` resolves by size: ``"enumeration"`` up to :data:`ENUMERATION_LIMIT`
     (:data:`REAL_ENUMERATION_LIMIT` for D > 0), then for D < 0 ``"bsgs"`` below
     :data:`SUBEXPONENTIAL_FROM` and ``"subexponential"`` from it on, for D > 0 ``"bsgs"``
-    (the infrastructure of :mod:`formkit.classgroups.infrastructure`).
+    (the infrastructure of :mod:`formkit.classgroups.infrastructure`), for fundamental
+    D > 0 from :data:`REAL_SUBEXPONENTIAL_FROM` on ``"subexponential"``.
 
     Examples
     --------
-    >>> [chosen_method(D) for D in (-4004, -10**20 - 3, -10**40 - 3, 10**20 + 1)]
-    ['enumeration', 'bsgs', 'subexponential', 'bsgs']
+    >>> [chosen_method(D) for D in (-4004, -10**20 - 3, -10**40 - 3, 10**20 + 1, 10**30 + 1)]
+    ['enumeration', 'bsgs', 'subexponential', 'bsgs', 'subexponential']
+    >>> chosen_method(9 * (10**30 + 1))  # not fundamental: the infrastructure
+    'bsgs'
     >>> chosen_method(-4004, "enumerate")
     'enumeration'
     """
@@ -107,6 +121,8 @@ def chosen_method(D: object, method: str = "auto") -> str:
     if method != "auto":
         return method
     if D > 0:
+        if D >= REAL_SUBEXPONENTIAL_FROM and discriminant_parts(D)[1] == 1:
+            return "subexponential"
         return "bsgs" if D > REAL_ENUMERATION_LIMIT else "enumeration"
     if -D >= SUBEXPONENTIAL_FROM:
         return "subexponential"
@@ -203,7 +219,8 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
         infrastructure and ``h`` from the analytic interval under GRH; ``"auto"``: enumeration
         up to the limits of :func:`class_group`, then ``"bsgs"`` and from
         :data:`SUBEXPONENTIAL_FROM` on ``"subexponential"`` (``D < 0``), or
-        ``"infrastructure"`` (``D > 0``).  The ``"method"`` of the result is the method run.
+        ``"infrastructure"`` (``D > 0``; ``"subexponential"`` for fundamental ``D`` from
+        :data:`REAL_SUBEXPONENTIAL_FROM` on).  The ``"method"`` of the result is the method run.
     interval : bool
         Also give ``analytic_interval``: the interval for ``h`` (``D < 0``) or ``h·R``
         (``D > 0``) from :func:`formkit.analytic.lseries.class_number_estimate` (primes up to
@@ -238,7 +255,7 @@ def class_number_summary(D: object, method: str = "auto", *, interval: bool = Fa
     """
     D = validate_discriminant(D)
     method = _check_method(D, method, SUMMARY_METHODS)
-    if method == "infrastructure" or (method == "auto" and D > REAL_ENUMERATION_LIMIT):
+    if method == "infrastructure" or (method == "auto" and D > 0 and chosen_method(D) == "bsgs"):
         from .infrastructure import real_class_number
 
         r = real_class_number(D)

@@ -30,6 +30,7 @@ from collections.abc import Generator, Iterator
 import numpy as np
 
 from ..core.arith import mpz
+from ..errors import FormkitError
 from .baby_step_giant_step import bach_bound
 from .relation_sieve import FactorBase, Relation, SieveParameters, sieve_relations
 
@@ -121,6 +122,22 @@ def factor_base_bound(D: int) -> int:
     12724
     """
     return max(50, bach_bound(D))
+
+
+def _prepared_factor_base(D: int, params: SieveParameters | None) -> tuple[SieveParameters, FactorBase]:
+    """The sieve parameters (by default :func:`sieve_parameters`) and the factor base of ``D``,
+    checked: the bound at least Bach's bound, and a split prime to cover the sieve polynomials."""
+    params = params if params is not None else sieve_parameters(D)
+    if params.bound < bach_bound(D):
+        raise FormkitError(
+            f"factor-base bound {params.bound} is below Bach's bound {bach_bound(D)} for D = {D}"
+        )
+    base = FactorBase(D, params.bound)
+    if not base.a_candidates:
+        raise FormkitError(
+            f"D = {D} is too small for the sieve (no split prime in [30, {params.bound}]); use 'enumeration'"
+        )
+    return params, base
 
 
 def sieve_parameters(D: int) -> SieveParameters:

@@ -77,6 +77,7 @@ from .relation_tasks import (
     SIEVE_TABLE,
     STALE_TASKS,
     _check_subexponential_cost,
+    _prepared_factor_base,
     _Smoothness,
     _tasks,
     factor_base_bound,
@@ -234,20 +235,11 @@ def class_group_subexponential(
             "(formkit.classgroups.subexponential_orders.class_group_subexponential_order and method "
             "'subexponential' of class_group go through the maximal order)"
         )
-    params = params if params is not None else sieve_parameters(D)
-    if params.bound < bach_bound(D):
-        raise FormkitError(
-            f"factor-base bound {params.bound} is below Bach's bound {bach_bound(D)} for D = {D}"
-        )
+    params, base = _prepared_factor_base(D, params)
     stats = RelationStatistics()
     _LAST["stats"] = stats
     B = params.bound
-    base = FactorBase(D, B)
     n = len(base)
-    if not base.a_candidates:
-        raise FormkitError(
-            f"D = {D} is too small for the sieve (no split prime in [30, {B}]); use 'enumeration'"
-        )
     stats.factor_base, stats.bound = n, B
     est = class_number_estimate(D)
     lower, upper = int(est.lower), int(est.upper)

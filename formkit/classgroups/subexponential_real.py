@@ -69,7 +69,13 @@ from .baby_step_giant_step import bach_bound
 from .group import ClassGroup, Provenance
 from .infrastructure import _NarrowOps
 from .relation_sieve import FactorBase, Relation, SieveParameters
-from .relation_tasks import STALE_TASKS, _Smoothness, _tasks, sieve_parameters, subexponential_cost
+from .relation_tasks import (
+    STALE_TASKS,
+    _prepared_factor_base,
+    _Smoothness,
+    _tasks,
+    subexponential_cost,
+)
 from .unit_relations import UnitRow, real_gcd, unit_logarithms
 
 __all__ = ["class_group_subexponential_real", "RealRelationStatistics"]
@@ -83,12 +89,11 @@ START_PRECISION = 256
 #: above √D) found no full relation lattice with units for 5 of 16 random D in [10^3, 10^5),
 #: and all 16 in [10^5, 10^9) succeeded (measured during development); enumeration is instant there.
 MIN_DISCRIMINANT = 10**5
-#: Largest D taken (for now): at 22 digits the method agrees with the infrastructure path in a few
-#: CPU-s, but at 26 digits the integer kernel step (the Hermite form in
-#: :func:`formkit.classgroups.unit_relations` of a sublattice of huge index) ran for over 3 CPU-min
-#: without an end in sight, a cost the budget cannot price yet; the infrastructure path reaches
-#: about 10^26 (issue 18).
-MAX_DISCRIMINANT = 10**23
+#: Largest D taken (for now): the largest size measured (benchmarks/bench_subexponential_real.py
+#: and docs/performance.md, "D > 0": 30 digits in about 7 CPU-s, 40 in 30, 45 in 42, 50 in
+#: MEASURE50); beyond it the sieve parameters and the cost estimate are untried for D > 0.
+MAX_DIGITS = 50
+MAX_DISCRIMINANT = 10**MAX_DIGITS
 #: Below this regulator classes get the canonical forms of the infrastructure path (cycle walks).
 CYCLE_CANONICAL_REGULATOR = 50_000.0
 
@@ -295,8 +300,8 @@ def class_group_subexponential_real(
         )
     if D > MAX_DISCRIMINANT:
         raise DiscriminantError(
-            f"the subexponential method for D > 0 is implemented up to D = 10^23, not D = {D} "
-            "(beyond, its unit step is not yet fast enough; method 'bsgs' — the infrastructure — reaches about 10^26)"
+            f"the subexponential method for D > 0 is implemented up to D = 10^{MAX_DIGITS}, not D = {D} "
+            f"({len(str(D))} digits: larger D are untried here)"
         )
     _check_cost(D)
     if discriminant_parts(D)[1] != 1:
@@ -304,20 +309,11 @@ def class_group_subexponential_real(
             f"the subexponential method is implemented for fundamental D only; {D} has conductor "
             f"{discriminant_parts(D)[1]} (use method 'bsgs', which handles orders)"
         )
-    params = params if params is not None else sieve_parameters(D)
-    if params.bound < bach_bound(D):
-        raise FormkitError(
-            f"factor-base bound {params.bound} is below Bach's bound {bach_bound(D)} for D = {D}"
-        )
+    params, base = _prepared_factor_base(D, params)
     stats = RealRelationStatistics()
     _LAST["stats"] = stats
     B = params.bound
-    base = FactorBase(D, B)
     n = len(base)
-    if not base.a_candidates:
-        raise FormkitError(
-            f"D = {D} is too small for the sieve (no split prime in [30, {B}]); use 'enumeration'"
-        )
     stats.factor_base, stats.bound = n, B
     P = max(default_prime_bound(D), min(2 * 10**6, D))
     est = class_number_estimate(D, P)
@@ -412,11 +408,13 @@ def _try_pin(D, n, records, lower, upper, rng, stats, precision):
         return None
     rows = _unit_rows(D, records, precision)
     units = unit_logarithms(n, rows, Q.order, extra=40 + 8 * stats.lattice_calls, rng=rng)
-    # Euclid's algorithm on the logarithms multiplies their errors by up to max|log|/R, and
-    # R > 0.48 for every real quadratic field, so the gcd costs as many bits again as the
-    # largest logarithm has above the binary point.
+    # The real gcd multiplies the errors of the logarithms by up to (max|log|/R)²: Euclid's
+    # algorithm on two of them by max|log|/g, and each later value is reduced modulo the
+    # gcd g so far, whose error is multiplied by max|log|/g again (measured at 26 digits:
+    # inputs right to 1e-113, g wrong by 1e-17).  R > 0.48 for every real quadratic field,
+    # so the gcd costs twice the bits the largest logarithm has above the binary point.
     top = max((abs(v) for v in units.logs), default=0)
-    needed = units.needed + (int(real_log2(top + 2)) + 2 if top else 0)
+    needed = units.needed + (2 * (int(real_log2(top + 2)) + 2) if top else 0)
     if needed > precision - 96:
         return ("precision", needed + 192)
     stats.precision = precision

@@ -335,9 +335,9 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         default="auto",
         help="enumeration (unconditional), bsgs (baby-step giant-step, conditional on GRH), "
         "subexponential (relations among prime forms, GRH; D < 0, orders through the maximal order, "
-        "and fundamental 10^5 ≤ D ≤ 10^23 with the regulator from the units of the relations), "
+        "and fundamental 10^5 ≤ D ≤ 10^50 with the regulator from the units of the relations), "
         "or auto (enumeration for small |D|, then bsgs, and subexponential for D < 0 from |D| = 10^27 "
-        "on: the crossover measured here)",
+        "and for fundamental D > 0 from 10^23 on: the crossovers measured here)",
     )
     p.add_argument(
         "--digits",
@@ -399,11 +399,12 @@ def register(sub: argparse._SubParsersAction, parent: argparse.ArgumentParser) -
         choices=("auto", "enumeration", "bsgs", "subexponential", "infrastructure"),
         default="auto",
         help="enumeration (unconditional); bsgs (conditional on GRH: baby-step giant-step among the "
-        "classes; for D > 0 it needs short cycles of reduced forms); subexponential (D < 0, "
-        "conditional on GRH: relations among prime forms); infrastructure (D > 0, "
-        "conditional on GRH: the regulator by the infrastructure of the principal cycle, h from the "
-        "analytic interval; reaches furthest); or auto (enumeration for small |D|, then bsgs and from "
-        "|D| = 10^27 on subexponential for D < 0, infrastructure for D > 0). The output's method line "
+        "classes; for D > 0 it needs short cycles of reduced forms); subexponential (conditional on "
+        "GRH: relations among prime forms; D < 0, and fundamental 10^5 ≤ D ≤ 10^50 with the regulator); "
+        "infrastructure (D > 0, conditional on GRH: the regulator by the infrastructure of the "
+        "principal cycle, h from the analytic interval; about 10^26 at most); or auto (enumeration "
+        "for small |D|, then bsgs and from |D| = 10^27 on subexponential for D < 0; infrastructure for "
+        "D > 0, and subexponential for fundamental D from 10^23 on). The output's method line "
         "names the method run",
     )
     c.add_argument(

@@ -87,9 +87,9 @@ def test_fundamental_D_is_the_plain_method_and_positive_D_goes_to_the_real_metho
     # D > 0: the real method (which refuses D below 10^5) for fundamental D, an error otherwise
     with pytest.raises(FormkitError, match="starts at"):
         so.class_group_subexponential_order(4 * 79)
-    D = 10**12 + 1  # fundamental: the value 50280 is checked against the infrastructure in test_subexponential_real
+    D = 10**12 + 1  # fundamental; h = 50280 is checked against the infrastructure in test_subexponential_real
     assert so.class_group_subexponential_order(D).class_number == 50280
-    with pytest.raises(FormkitError, match="fundamental D only.*conductor 3"):
+    with pytest.raises(FormkitError, match=r"fundamental D only.*conductor 3"):
         so.class_group_subexponential_order(9 * D)
 
 
@@ -102,7 +102,11 @@ def test_chosen_method_by_size():
     assert dispatch.chosen_method(-(L + 3)) == "bsgs"
     assert dispatch.chosen_method(-S - 3) == "subexponential"
     assert dispatch.chosen_method(-9 * (S + 3)) == "subexponential"  # orders too
-    assert dispatch.chosen_method(10**40 + 1) == "bsgs"  # D > 0: the infrastructure, not the sieve
+    T = dispatch.REAL_SUBEXPONENTIAL_FROM
+    assert is_fundamental_discriminant(10**40 + 1) and T <= 10**40 + 1
+    assert dispatch.chosen_method(10**40 + 1) == "subexponential"  # fundamental D > 0: the real sieve
+    assert dispatch.chosen_method(9 * (10**40 + 1)) == "bsgs"  # an order: the infrastructure
+    assert dispatch.chosen_method(10**20 + 1) == "bsgs"  # below the threshold
     assert dispatch.chosen_method(-(L + 3), "subexponential") == "subexponential"
 
 

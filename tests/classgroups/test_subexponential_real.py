@@ -118,3 +118,16 @@ def test_against_infrastructure_16_to_20_digits(seed):
     r = real_class_number(D)
     assert (G.class_number, G.order, G._units[1]) == (r.class_number, r.class_number_narrow, r.unit_norm)
     assert abs(G._units[0] - r.regulator) < 1e-9 * r.regulator
+
+
+def test_26_digit_field_of_richaud_degert_type():
+    # D = n² + 4 with n odd: ε = (n + √D)/2 is the fundamental unit, of norm −1 (fields of
+    # Richaud–Degert type; from memory), so R = log ε exactly; h against formkit's
+    # infrastructure path.  Here h ≈ 5.5·10^10 and the unit logarithms reach 10^50: before
+    # the precision covered the error growth of the real gcd, no run pinned h·R.
+    n = 10**13 + 1
+    D = n * n + 4
+    G = class_group_subexponential_real(D)
+    assert G._units[1] == -1
+    assert abs(G._units[0] - math.log((n + math.sqrt(D)) / 2)) < 1e-9
+    assert G.class_number == G.order == real_class_number(D).class_number
