@@ -15,31 +15,12 @@ from __future__ import annotations
 
 import argparse
 import random
-import resource
 import statistics
+
+from bench_subexponential import random_fundamental, timed
 
 from formkit.classgroups.baby_step_giant_step import class_group_bsgs
 from formkit.classgroups.subexponential import class_group_subexponential
-from formkit.core.discriminants import is_fundamental_discriminant
-
-
-def random_fundamental(rng: random.Random, digits: int) -> int:
-    while True:
-        D = -rng.randrange(10 ** (digits - 1), 10**digits)
-        if is_fundamental_discriminant(D):
-            return D
-
-
-def cpu() -> float:
-    me = resource.getrusage(resource.RUSAGE_SELF)
-    kids = resource.getrusage(resource.RUSAGE_CHILDREN)
-    return me.ru_utime + me.ru_stime + kids.ru_utime + kids.ru_stime
-
-
-def timed(f, *args):
-    c = cpu()
-    out = f(*args)
-    return out, cpu() - c
 
 
 def main() -> None:
@@ -54,8 +35,8 @@ def main() -> None:
         bs, ss = [], []
         for _ in range(args.count):
             D = random_fundamental(rng, digits)
-            H, cb = timed(class_group_bsgs, D)
-            G, cs = timed(class_group_subexponential, D)
+            H, cb, _wb = timed(class_group_bsgs, D)
+            G, cs, _ws = timed(class_group_subexponential, D)
             assert G.invariants == H.invariants, (D, G.invariants, H.invariants)
             bs.append(cb)
             ss.append(cs)

@@ -36,10 +36,13 @@ from formkit.core.budget import set_budget
 from formkit.core.discriminants import is_fundamental_discriminant
 
 
-def random_fundamental(rng: random.Random, digits: int) -> int:
+def random_fundamental(rng: random.Random, digits: int, sign: int = -1) -> int:
+    """A random fundamental discriminant of sign ``sign`` with ``digits`` digits (uniform in
+    ``[10^(digits−1), 10^digits)`` before the test; also used by the other subexponential
+    benchmarks)."""
     while True:
-        D = -rng.randrange(10 ** (digits - 1), 10**digits)
-        if is_fundamental_discriminant(D):
+        D = sign * rng.randrange(10 ** (digits - 1), 10**digits)
+        if is_fundamental_discriminant(D) and D != 1:
             return D
 
 

@@ -10,7 +10,7 @@ runs on the same D in the same run, the results are checked to agree (regulator 
 relative, h, h⁺ and, for the group, the invariants of Cl⁺) and the ratio of the medians
 is printed.
 
-Usage:  python3 benchmarks/bench_subexponential_real.py [--sizes 14,18,22] [--count 3]
+Usage:  python3 benchmarks/bench_subexponential_real.py [--sizes 20,24,30,40] [--count 3]
         [--compare 20] [--compare-numbers 24]
 """
 
@@ -18,38 +18,23 @@ from __future__ import annotations
 
 import argparse
 import random
-import resource
 import statistics
-import time
+
+from bench_subexponential import random_fundamental as _random_fundamental
+from bench_subexponential import timed
 
 from formkit.classgroups import subexponential_real as subr
 from formkit.classgroups.infrastructure import real_class_group, real_class_number
-from formkit.core.discriminants import is_fundamental_discriminant
 from formkit.errors import FormkitError
 
 
 def random_fundamental(rng: random.Random, digits: int) -> int:
-    while True:
-        D = rng.randrange(10 ** (digits - 1), 10**digits)
-        if is_fundamental_discriminant(D) and D > 1:
-            return D
-
-
-def cpu() -> float:
-    me = resource.getrusage(resource.RUSAGE_SELF)
-    kids = resource.getrusage(resource.RUSAGE_CHILDREN)
-    return me.ru_utime + me.ru_stime + kids.ru_utime + kids.ru_stime
-
-
-def timed(f, *args, **kw):
-    c, w = cpu(), time.perf_counter()
-    out = f(*args, **kw)
-    return out, cpu() - c, time.perf_counter() - w
+    return _random_fundamental(rng, digits, sign=1)
 
 
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    ap.add_argument("--sizes", default="14,18,22")  # the method takes D ≤ 10^23 for now
+    ap.add_argument("--sizes", default="20,24,30,40")  # the method takes D ≤ 10^50
     ap.add_argument("--count", type=int, default=3)
     ap.add_argument("--compare", default="20", help="sizes at which real_class_group runs too")
     ap.add_argument("--compare-numbers", default="", help="sizes at which real_class_number runs too")
