@@ -255,3 +255,11 @@ class _Smoothness:
                 k += 1
             exps[p] = k
         return exps if a == 1 else None
+
+
+def _show(bar, shown: int, found: int, needed: int) -> int:
+    """Advance the progress bar to ``found`` relations and show ``found/needed``."""
+    if found > shown:
+        bar.update(found - shown)
+    bar.set_postfix_str(f"{found}/{needed} relations")
+    return max(shown, found)

@@ -78,6 +78,7 @@ from .relation_tasks import (
     STALE_TASKS,
     _check_subexponential_cost,
     _prepared_factor_base,
+    _show,
     _Smoothness,
     _tasks,
     factor_base_bound,
@@ -398,14 +399,6 @@ def class_group_subexponential(
         provenance=Provenance("subexponential", False, "GRH", B, detail),
         forms=None,
     )
-
-
-def _show(bar, shown: int, found: int, needed: int) -> int:
-    """Advance the progress bar to ``found`` relations and show ``found/needed``."""
-    if found > shown:
-        bar.update(found - shown)
-    bar.set_postfix_str(f"{found}/{needed} relations")
-    return max(shown, found)
 
 
 def _identity(D: int) -> Triple:

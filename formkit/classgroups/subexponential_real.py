@@ -72,6 +72,7 @@ from .relation_sieve import FactorBase, Relation, SieveParameters
 from .relation_tasks import (
     STALE_TASKS,
     _prepared_factor_base,
+    _show,
     _Smoothness,
     _tasks,
     subexponential_cost,
@@ -497,10 +498,3 @@ def _build_group(D, base, QN, ncols, narrow, R, norm, B, seed, detail) -> ClassG
         forms=None,
         units=(R, norm),
     )
-
-
-def _show(bar, shown: int, found: int, needed: int) -> int:
-    if found > shown:
-        bar.update(found - shown)
-    bar.set_postfix_str(f"{found}/{needed} relations")
-    return max(shown, found)
