@@ -16,9 +16,11 @@ common divisor of their logarithms (Buchmann [1]; Cohen [2], §5.9):
    some other rows ``r``, the rational solution ``x_r`` of ``x·M_S = r`` (FLINT).  With
    ``t = |det M_S| / h*`` (``h*`` the index of the relation lattice) the vectors ``t·x_r``
    are integral, and the integer kernel vectors supported on ``S`` and these rows are the
-   ``c`` with ``Σ c_r·t·x_r ≡ 0 (mod t)`` — a lattice found by one Hermite normal form;
+   ``c`` with ``Σ c_r·t·x_r ≡ 0 (mod t)`` — a lattice built one column at a time by small
+   Hermite normal forms (:func:`_kernel_combinations`);
 3. the logarithms ``Σ c_r·λ_r − (Σ c_r x_r)·λ_S`` in multiple precision (gmpy2's MPFR,
-   with the precision raised until it covers the size of the ``x_r``), then their real
+   with the precision raised by the caller until it covers the size of the ``x_r`` and the
+   error growth of the gcd), then their real
    Euclidean gcd, checked: every logarithm is an integer multiple of it to within
    ``2^-40``.
 
