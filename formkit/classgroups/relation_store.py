@@ -50,7 +50,7 @@ class RelationStore:
     ...     s.add([Relation(((0, 1), (3, -2)))], task=0)
     >>> with RelationStore(path, -10**12 - 3, 4595) as s:
     ...     s.relations(), s.done_tasks()
-    ([Relation(exponents=((0, 1), (3, -2)), large=1, large_sign=1)], {0})
+    ([Relation(exponents=((0, 1), (3, -2)), large=1, large_sign=1, beta=0)], {0})
     """
 
     def __init__(self, path: str | Path, D: int, bound: int) -> None:
