@@ -91,8 +91,8 @@ START_PRECISION = 256
 #: and all 16 in [10^5, 10^9) succeeded (measured during development); enumeration is instant there.
 MIN_DISCRIMINANT = 10**5
 #: Largest D taken (for now): the largest size measured (benchmarks/bench_subexponential_real.py
-#: and docs/performance.md, "D > 0 (2026-12-04)": medians of three, 30 digits 6.7 CPU-s and 40
-#: digits 24 CPU-s; single D: 45 digits 42 s, 50 digits 139 s); beyond it the sieve
+#: and docs/performance.md, "D > 0 (2026-12-04)": medians of three, 30 digits 6.7 CPU-s, 40
+#: digits 24 CPU-s, 50 digits 276 CPU-s; single D: 45 digits 42 s); beyond it the sieve
 #: parameters and the cost estimate are untried for D > 0.
 MAX_DIGITS = 50
 MAX_DISCRIMINANT = 10**MAX_DIGITS
