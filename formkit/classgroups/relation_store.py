@@ -8,8 +8,10 @@ running, and the same call with the same store continues where it stopped.
 
 The layout is formkit's own (plain SQLite, readable with any SQLite client):
 ``meta(key TEXT PRIMARY KEY, value TEXT)``, ``relations(exponents TEXT, large INTEGER,
-sign INTEGER)`` with ``exponents`` the JSON list of ``[column, exponent]`` pairs,
-``tasks(task INTEGER PRIMARY KEY)``.
+sign INTEGER, beta TEXT)`` with ``exponents`` the JSON list of ``[column, exponent]`` pairs
+and ``beta`` the decimal ``β`` of the generator ``(β + √D)/2`` (``D > 0``; ``0`` for
+``D < 0``), ``tasks(task INTEGER PRIMARY KEY)``.  A store written before ``beta`` existed
+(for ``D < 0``) gains the column with the value 0 when it is opened.
 """
 
 from __future__ import annotations
@@ -40,7 +42,7 @@ class RelationStore:
     Raises
     ------
     FormkitError
-        If the file is not a relation store, or holds relations of another ``D`` or bound.
+        If the file cannot be opened, is not a relation store, or holds relations of another ``D`` or bound.
 
     Examples
     --------
@@ -59,12 +61,16 @@ class RelationStore:
             self._db = sqlite3.connect(self.path)
             self._db.execute("CREATE TABLE IF NOT EXISTS meta (key TEXT PRIMARY KEY, value TEXT)")
             self._db.execute(
-                "CREATE TABLE IF NOT EXISTS relations (exponents TEXT, large INTEGER, sign INTEGER)"
+                "CREATE TABLE IF NOT EXISTS relations (exponents TEXT, large INTEGER, sign INTEGER, beta TEXT)"
             )
+            columns = [row[1] for row in self._db.execute("PRAGMA table_info(relations)")]
+            if "beta" not in columns:  # a store of the first layout (D < 0 only)
+                with self._db:
+                    self._db.execute("ALTER TABLE relations ADD COLUMN beta TEXT DEFAULT '0'")
             self._db.execute("CREATE TABLE IF NOT EXISTS tasks (task INTEGER PRIMARY KEY)")
             meta = dict(self._db.execute("SELECT key, value FROM meta").fetchall())
         except sqlite3.DatabaseError as exc:
-            raise FormkitError(f"store {self.path!r} is not a relation store ({exc})") from None
+            raise FormkitError(f"store {self.path!r} cannot be opened as a relation store ({exc})") from None
         want = {"discriminant": str(D), "bound": str(bound), "format": "formkit-relations-1"}
         if not meta:
             with self._db:
@@ -88,21 +94,27 @@ class RelationStore:
     def add(self, relations: Iterable[Relation], task: int | None = None) -> None:
         """Write ``relations`` (and mark ``task`` finished) in one transaction."""
         rows = [
-            (json.dumps([[int(i), int(k)] for i, k in r.exponents]), int(r.large), int(r.large_sign))
+            (
+                json.dumps([[int(i), int(k)] for i, k in r.exponents]),
+                int(r.large),
+                int(r.large_sign),
+                str(int(r.beta)),
+            )
             for r in relations
         ]
         with self._db:
-            self._db.executemany("INSERT INTO relations VALUES (?, ?, ?)", rows)
+            self._db.executemany("INSERT INTO relations VALUES (?, ?, ?, ?)", rows)
             if task is not None:
                 self._db.execute("INSERT OR IGNORE INTO tasks VALUES (?)", (task,))
 
     def relations(self) -> list[Relation]:
         """Every relation in the store, in the order written."""
         out = []
-        for text, large, sign in self._db.execute(
-            "SELECT exponents, large, sign FROM relations ORDER BY rowid"
+        for text, large, sign, beta in self._db.execute(
+            "SELECT exponents, large, sign, beta FROM relations ORDER BY rowid"
         ):
-            out.append(Relation(tuple((int(i), int(k)) for i, k in json.loads(text)), int(large), int(sign)))
+            exps = tuple((int(i), int(k)) for i, k in json.loads(text))
+            out.append(Relation(exps, int(large), int(sign), int(beta or 0)))
         return out
 
     def done_tasks(self) -> set[int]:

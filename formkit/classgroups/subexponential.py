@@ -167,7 +167,7 @@ def class_group_subexponential(
 
     A fundamental ``D > 0`` is passed to
     :func:`formkit.classgroups.subexponential_real.class_group_subexponential_real` (the narrow
-    group, ``h`` and the regulator; no ``store`` there).
+    group, ``h`` and the regulator, with the same store and cluster).
 
     Parameters
     ----------
@@ -218,14 +218,16 @@ def class_group_subexponential(
     """
     D = validate_discriminant(D)
     if D > 0:  # Buchmann's method with the regulator: its own module
-        if store is not None:
-            raise FormkitError(f"the relation store (--db) is implemented for D < 0 only, not D = {D}")
-        if cluster is not None:
-            raise FormkitError(f"a Dask cluster (--cluster) is implemented for D < 0 only, not D = {D}")
         from .subexponential_real import class_group_subexponential_real
 
         return class_group_subexponential_real(
-            D, seed=seed, max_relations=max_relations, workers=workers, params=params
+            D,
+            seed=seed,
+            max_relations=max_relations,
+            workers=workers,
+            params=params,
+            store=store,
+            cluster=cluster,
         )
     if cluster is None:
         _check_subexponential_cost(D)  # before D is factored

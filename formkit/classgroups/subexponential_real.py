@@ -56,6 +56,7 @@ import math
 import random
 from dataclasses import dataclass, field
 from itertools import count
+from pathlib import Path
 from typing import Any
 
 from ..analytic.lseries import class_number_estimate, default_prime_bound
@@ -69,6 +70,7 @@ from .baby_step_giant_step import bach_bound
 from .group import ClassGroup, Provenance
 from .infrastructure import _NarrowOps
 from .relation_sieve import FactorBase, Relation, SieveParameters
+from .relation_store import RelationStore
 from .relation_tasks import (
     STALE_TASKS,
     _prepared_factor_base,
@@ -112,6 +114,8 @@ class RealRelationStatistics:
     tasks: int = 0
     walks: int = 0
     units: int = 0
+    resumed: int = 0
+    tasks_resumed: int = 0
     lattice_calls: int = 0
     precision: int = 0
     checks: list[str] = field(default_factory=list)
@@ -249,6 +253,8 @@ def class_group_subexponential_real(
     max_relations: int | None = None,
     workers: int = 1,
     params: SieveParameters | None = None,
+    store: str | Path | None = None,
+    cluster: Any = None,
 ) -> ClassGroup:
     """The narrow class group ``Cl⁺(D)``, ``h``, ``h⁺`` and the regulator of a fundamental ``D > 0``.
 
@@ -267,6 +273,15 @@ def class_group_subexponential_real(
     params : SieveParameters, optional
         Instead of :func:`formkit.classgroups.subexponential.sieve_parameters` (its
         ``bound`` must be at least Bach's bound).
+    store : str or Path, optional
+        An SQLite file for the sieved relations with their generators
+        (:class:`~formkit.classgroups.relation_store.RelationStore`): relations are
+        written as each sieve task finishes, and a later call with the same file reads
+        them back and skips the finished tasks (the random-walk relations are found again).
+    cluster : str or distributed.Client, optional
+        A Dask scheduler address or client: the sieve tasks run there as futures
+        (:mod:`formkit.core.cluster`; ``workers`` is then ignored and the local cost check
+        skipped).
 
     Returns
     -------
@@ -305,7 +320,8 @@ def class_group_subexponential_real(
             f"the subexponential method for D > 0 is implemented up to D = 10^{MAX_DIGITS}, not D = {D} "
             f"({len(str(D))} digits: larger D are untried here)"
         )
-    _check_cost(D)
+    if cluster is None:
+        _check_cost(D)
     if discriminant_parts(D)[1] != 1:
         raise DiscriminantError(
             f"the subexponential method is implemented for fundamental D only; {D} has conductor "
@@ -325,7 +341,15 @@ def class_group_subexponential_real(
     for p in sorted(base.ramified):  # 𝔭² = (p): a relation with a rational generator
         col._keep(((base.index[p], 2),), ())
     rng = random.Random(seed)
-    stream = _tasks(D, params, count(), seed, workers)
+    db = RelationStore(store, D, B) if store is not None else None
+    done: set[int] = set()
+    if db is not None:
+        stored = db.relations()
+        for r in stored:
+            col.add(r)
+        done = db.done_tasks()
+        stats.resumed, stats.tasks_resumed = len(stored), len(done)
+    stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers, cluster)
     want = n + max(20, n // 10)
     precision = START_PRECISION
     smooth = _Smoothness(list(base.primes))
@@ -337,9 +361,11 @@ def class_group_subexponential_real(
                 stale = 0
                 while len(col.records) < want and stale < STALE_TASKS:
                     before = len(col.records)
-                    _task, rels = next(stream)
+                    task, rels = next(stream)
                     stats.tasks += 1
                     stats.sieved += len(rels)
+                    if db is not None:
+                        db.add(rels, task)
                     for r in rels:
                         col.add(r)
                     stale = stale + 1 if len(col.records) == before else 0
@@ -369,6 +395,8 @@ def class_group_subexponential_real(
                     want = len(col.records) + max(10, n // 10)
     finally:
         stream.close()
+        if db is not None:
+            db.close()
     _kind, Q, R, norm, unit_count = pinned
     h = Q.order
     stats.relations, stats.combined, stats.units = len(col.records), col.combined, unit_count
@@ -389,7 +417,9 @@ def class_group_subexponential_real(
     stats.checks = [
         f"factor base: all {n} prime forms of norm ≤ {B} (Bach's bound {bach_bound(D)}: generators under GRH)",
         f"{len(col.records)} relations ({stats.sieved} sieved in {stats.tasks} tasks, {col.combined} from "
-        f"large-prime pairs, {stats.walks} by random walks), {unit_count} units from kernel vectors "
+        f"large-prime pairs, {stats.walks} by random walks"
+        + (f", {stats.resumed} read back from the store" if db is not None else "")
+        + f"), {unit_count} units from kernel vectors "
         f"(logarithms to {stats.precision} bits)",
         f"h·R = {h}·{float(R):.12g} lies in [{lower:.9g}, {upper:.9g}] (Euler product to {P}, GRH) and is "
         f"below twice its lower end, so h and R are exact",

@@ -84,8 +84,8 @@ def test_group_operations_and_discrete_logs():
 
 def test_dispatch_and_bad_input():
     assert class_group_subexponential(10**12 + 1).class_number == 50280
-    with pytest.raises(FormkitError, match="store"):
-        class_group_subexponential(10**12 + 1, store="/nonexistent/x.db")
+    with pytest.raises(FormkitError, match="cannot be opened as a relation store"):
+        class_group_subexponential(10**12 + 1, store="/nonexistent/x.db")  # D > 0 uses the store too
     with pytest.raises(DiscriminantError, match="conductor"):
         class_group_subexponential_real(9 * (10**10 + 1))
     with pytest.raises(DiscriminantError, match="starts at"):
@@ -131,3 +131,71 @@ def test_26_digit_field_of_richaud_degert_type():
     assert G._units[1] == -1
     assert abs(G._units[0] - math.log((n + math.sqrt(D)) / 2)) < 1e-9
     assert G.class_number == G.order == real_class_number(D).class_number
+
+
+# --- the relation store and a Dask cluster (as for D < 0) ---------------------------------
+
+
+def test_store_resumes_a_stopped_run(tmp_path, monkeypatch):
+    # a run stopped (here by its relation limit, the linear algebra made to fail) has
+    # stored its finished sieve tasks with their generators; the same call with the same
+    # store reads them back, skips those tasks and gives the infrastructure's numbers
+    import sqlite3
+
+    from formkit.classgroups import subexponential_real as subr
+
+    D = 4 * (10**13 + 3)
+    path = tmp_path / "real.sqlite"
+    with monkeypatch.context() as m:
+        m.setattr(subr, "_try_pin", lambda *a, **k: None)
+        with pytest.raises(FormkitError, match="did not pin down"):
+            class_group_subexponential_real(D, store=path, max_relations=1)
+    with sqlite3.connect(path) as db:
+        stored = db.execute("SELECT count(*) FROM relations").fetchone()[0]
+        done = db.execute("SELECT count(*) FROM tasks").fetchone()[0]
+        betas = db.execute("SELECT count(*) FROM relations WHERE beta != '0'").fetchone()[0]
+    assert stored > 0 and done > 0 and betas == stored  # every relation keeps its generator
+    G = class_group_subexponential_real(D, store=path)
+    st = subr._LAST["stats"]
+    assert st.resumed == stored and st.tasks_resumed == done
+    assert "read back from the store" in G.provenance.detail
+    r = real_class_number(D)
+    assert (G.class_number, G.order, G._units[1]) == (r.class_number, r.class_number_narrow, r.unit_norm)
+    assert abs(G._units[0] - r.regulator) < 1e-9 * r.regulator
+
+
+def test_store_of_the_first_layout_gains_the_generator_column(tmp_path):
+    # a store written before the beta column existed (D < 0) opens and reads as before
+    import sqlite3
+
+    from formkit.classgroups.relation_sieve import Relation
+    from formkit.classgroups.relation_store import RelationStore
+
+    path = tmp_path / "old.sqlite"
+    with sqlite3.connect(path) as db:
+        db.execute("CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT)")
+        db.execute("CREATE TABLE relations (exponents TEXT, large INTEGER, sign INTEGER)")
+        db.execute("CREATE TABLE tasks (task INTEGER PRIMARY KEY)")
+        meta = {"discriminant": "-1000003", "bound": "1000", "format": "formkit-relations-1"}
+        db.executemany("INSERT INTO meta VALUES (?, ?)", list(meta.items()))
+        db.execute("INSERT INTO relations VALUES ('[[0, 1], [2, -1]]', 1, 1)")
+    with RelationStore(path, -1000003, 1000) as s:
+        assert s.relations() == [Relation(((0, 1), (2, -1)))]
+        s.add([Relation(((1, 2),), beta=-7)], task=3)
+    with RelationStore(path, -1000003, 1000) as s:
+        assert s.relations()[-1].beta == -7 and s.done_tasks() == {3}
+
+
+def test_sieve_on_a_local_dask_cluster(tmp_path):
+    distributed = pytest.importorskip("distributed")
+    from formkit.classgroups import subexponential_real as subr
+
+    D = 4 * (10**13 + 3)
+    path = tmp_path / "real.sqlite"
+    with distributed.LocalCluster(
+        n_workers=2, threads_per_worker=1, processes=False, dashboard_address="127.0.0.1:0"
+    ) as cluster:
+        G = class_group_subexponential(D, cluster=cluster.scheduler_address, store=path)
+        assert subr._LAST["stats"].tasks >= 1
+    H = class_group_subexponential_real(D)  # in this process, no store
+    assert (G.invariants, G.class_number, G._units) == (H.invariants, H.class_number, H._units)
