@@ -75,18 +75,24 @@ STALE_TASKS = 32
 
 
 def subexponential_cost(D: int) -> tuple[float, float]:
-    """Estimated ``(seconds, bytes)`` of :func:`class_group_subexponential` for ``D``.
+    """Estimated ``(seconds, bytes)`` of :func:`class_group_subexponential` for ``D < 0``.
 
-    Fitted to the measured medians (docs/performance.md, one worker: 4 CPU-s at 30 digits,
-    15–22 s at 40, 167 s at 50): ``3 · 167 s · exp(0.6·(ℓ(D) − ℓ(10^50)))`` with
+    Fitted to the measured times (docs/performance.md, "Subexponential class groups",
+    2026-12-03, one worker: medians 5.5 CPU-s at 30 digits, 19.8 s at 40; 82 s at 50 and
+    525 s at 60 digits for one D each): ``3 · 82 s · exp(0.6·(ℓ(D) − ℓ(10^50)))`` with
     ``ℓ(D) = √(log|D|·log log|D|)``, the exponent of ``L_|D|[1/2, ·]`` (Hafner–McCurley,
-    Buchmann); memory ``0.5 GB·(log|D|/log 10^50)^4`` (the relation matrix, whose two
-    sides grow like the factor base, about ``log²|D|``).  An upper estimate (3 times the
-    measured time at 50 digits, more below); it only decides whether to start.
+    Buchmann), which gives 34–41 s at 40 digits and 18–21 min at 60; memory
+    ``0.5 GB·(log|D|/log 10^50)^4`` (the relation matrix, whose two sides grow like the
+    factor base, about ``log²|D|``).  An upper estimate (3 times the measured time at 50
+    digits, 2.4 times at 60, about equal at 30 digits where it does not matter); it only
+    decides whether to start.  (Until 2026-12-04 it was fitted to 167 s at 50 digits, and
+    refused 60 digits under the default budget of 30 min.)
 
     Examples
     --------
     >>> subexponential_cost(-10**30 - 3)[0] < 60
+    True
+    >>> 15 * 60 < subexponential_cost(-(10**59) - 3)[0] < 30 * 60   # 60 digits: under the default budget
     True
     >>> subexponential_cost(-(3**226) - 30)[0] > 86400
     True
@@ -95,7 +101,7 @@ def subexponential_cost(D: int) -> tuple[float, float]:
     ell = math.sqrt(ln * math.log(ln))
     ln50 = 50 * math.log(10)
     ell50 = math.sqrt(ln50 * math.log(ln50))
-    return 3 * 167.0 * math.exp(min(700.0, 0.6 * (ell - ell50))), 5e8 * (ln / ln50) ** 4
+    return 3 * 82.0 * math.exp(min(700.0, 0.6 * (ell - ell50))), 5e8 * (ln / ln50) ** 4
 
 
 def _check_subexponential_cost(D: int) -> None:

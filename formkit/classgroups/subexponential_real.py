@@ -236,7 +236,10 @@ def _unit_rows(D: int, records: list[Record], precision: int) -> list[UnitRow]:
 def _check_cost(D: int) -> None:
     from ..core.budget import check_cost, describe_integer
 
+    # D > 0 took 0.6–1.2 times the D < 0 fit at 40 digits and 1.1–2.0 times it at 50
+    # (docs/performance.md, "D > 0 (2026-12-04)": 22–49 s and 274–470 s): four times it
     seconds, memory = subexponential_cost(-D)
+    seconds *= 4
     check_cost(
         f"the class group and regulator of D = {describe_integer(D)} by the subexponential method "
         f"({len(str(D))} digits)",

@@ -290,7 +290,7 @@ def _built_discriminant(rng: random.Random, small: int, digits: int, residues: b
 def _check_ranks(D: int, primes: list[int]) -> None:
     from formkit.core.budget import budget
 
-    with budget("3h"):  # the default 30 min is below the (upper) estimate at 60 digits
+    with budget("3h"):  # room to spare: the (upper) estimate at 60 digits is 18–21 min
         G = class_group_subexponential(D)
     assert G.two_rank == len(primes) - 1  # Gauss's genus theory: t prime divisors, 2^(t−1) genera
     assert _four_rank(G.invariants) == redei_four_rank(primes, D)  # Rédei
