@@ -25,7 +25,7 @@ from __future__ import annotations
 import math
 import multiprocessing
 from collections import deque
-from collections.abc import Generator, Iterator
+from collections.abc import Callable, Generator, Iterator
 
 import numpy as np
 
@@ -33,6 +33,7 @@ from ..core.arith import mpz
 from ..errors import FormkitError
 from .baby_step_giant_step import bach_bound
 from .relation_sieve import FactorBase, Relation, SieveParameters, sieve_relations
+from .relation_store import RelationStore
 
 __all__ = [
     "SIEVE_TABLE",
@@ -75,7 +76,7 @@ STALE_TASKS = 32
 
 
 def subexponential_cost(D: int) -> tuple[float, float]:
-    """Estimated ``(seconds, bytes)`` of :func:`class_group_subexponential` for ``D < 0``.
+    """Estimated ``(seconds, bytes)`` of :func:`class_group_subexponential` for ``D``.
 
     Fitted to the measured times (docs/performance.md, "Subexponential class groups",
     2026-12-03, one worker: medians 5.5 CPU-s at 30 digits, 19.8 s at 40; 82 s at 50 and
@@ -86,7 +87,9 @@ def subexponential_cost(D: int) -> tuple[float, float]:
     factor base, about ``log²|D|``).  An upper estimate (3 times the measured time at 50
     digits, 2.4 times at 60, about equal at 30 digits where it does not matter); it only
     decides whether to start.  (Until 2026-12-04 it was fitted to 167 s at 50 digits, and
-    refused 60 digits under the default budget of 30 min.)
+    refused 60 digits under the default budget of 30 min.)  For ``D > 0`` four times the
+    time: it took 0.6–1.2 times the ``D < 0`` fit at 40 digits and 1.1–2.0 times it at 50
+    (docs/performance.md, "D > 0 (2026-12-04)": 22–49 s and 274–470 s).
 
     Examples
     --------
@@ -101,19 +104,50 @@ def subexponential_cost(D: int) -> tuple[float, float]:
     ell = math.sqrt(ln * math.log(ln))
     ln50 = 50 * math.log(10)
     ell50 = math.sqrt(ln50 * math.log(ln50))
-    return 3 * 82.0 * math.exp(min(700.0, 0.6 * (ell - ell50))), 5e8 * (ln / ln50) ** 4
+    seconds = 3 * 82.0 * math.exp(min(700.0, 0.6 * (ell - ell50)))
+    return (4 * seconds if D > 0 else seconds), 5e8 * (ln / ln50) ** 4
 
 
 def _check_subexponential_cost(D: int) -> None:
     from ..core.budget import check_cost, describe_integer
 
     seconds, memory = subexponential_cost(D)
+    what = "class group and regulator" if D > 0 else "class group"
+    further = "--workers N shares the sieve among N processes"
     check_cost(
-        f"the class group of D = {describe_integer(D)} by the subexponential method ({len(str(abs(D)))} digits)",
+        f"the {what} of D = {describe_integer(D)} by the subexponential method ({len(str(abs(D)))} digits)",
         seconds=seconds,
         memory=memory,
-        further="--workers N shares the sieve among N processes; no method here reaches further for D < 0",
+        further=further if D > 0 else further + "; no method here reaches further for D < 0",
     )
+
+
+def _resume(
+    store, D: int, bound: int, add: Callable[[Relation], object], stats
+) -> tuple[RelationStore | None, set[int]]:
+    """Open the relation store ``store`` (if any) of ``D`` and ``bound``, hand its relations to
+    ``add`` and count them in ``stats``: ``(store or None, the finished tasks)``."""
+    if store is None:
+        return None, set()
+    db = RelationStore(store, D, bound)
+    stored = db.relations()
+    for r in stored:
+        add(r)
+    done = db.done_tasks()
+    stats.resumed, stats.tasks_resumed = len(stored), len(done)
+    return db, done
+
+
+def _next_task(stream: Iterator[tuple[int, list[Relation]]], db: RelationStore | None, add, stats) -> None:
+    """Take the next finished sieve task of ``stream``: count it in ``stats``, write it to the
+    store ``db`` (if any) and hand its relations to ``add``."""
+    task, rels = next(stream)
+    stats.tasks += 1
+    stats.sieved += len(rels)
+    if db is not None:
+        db.add(rels, task)
+    for r in rels:
+        add(r)
 
 
 def factor_base_bound(D: int) -> int:

@@ -72,12 +72,13 @@ from .baby_step_giant_step import BSGSStatistics, _Ops, bach_bound
 from .group import ClassGroup, Provenance
 from .relation_combination import RelationCollector, weak_columns
 from .relation_sieve import FactorBase, Relation, SieveParameters, sieve_relations
-from .relation_store import RelationStore
 from .relation_tasks import (
     SIEVE_TABLE,
     STALE_TASKS,
     _check_subexponential_cost,
+    _next_task,
     _prepared_factor_base,
+    _resume,
     _show,
     _Smoothness,
     _tasks,
@@ -265,14 +266,7 @@ def class_group_subexponential(
     # a ramified P_p is its own inverse: 2·[P_p] = 0 (the sieve sees only the parity of its exponent)
     for p in sorted(base.ramified):
         col.add(Relation(((base.index[p], 2),)))
-    db = RelationStore(store, D, B) if store is not None else None
-    done: set[int] = set()
-    if db is not None:
-        stored = db.relations()
-        for r in stored:
-            col.add(r)
-        done = db.done_tasks()
-        stats.resumed, stats.tasks_resumed = len(stored), len(done)
+    db, done = _resume(store, D, B, col.add, stats)
     stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers, cluster)
     Q = None
     want = n + 10
@@ -284,13 +278,7 @@ def class_group_subexponential(
                 while (len(col.rows) < want or not fetched) and stale < STALE_TASKS:
                     fetched = True
                     before = len(col.rows)
-                    task, rels = next(stream)
-                    stats.tasks += 1
-                    stats.sieved += len(rels)
-                    if db is not None:
-                        db.add(rels, task)
-                    for r in rels:
-                        col.add(r)
+                    _next_task(stream, db, col.add, stats)
                     stale = stale + 1 if len(col.rows) == before else 0
                     shown = _show(bar, shown, len(col.rows), want)
                 fresh = []

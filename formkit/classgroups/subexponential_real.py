@@ -70,14 +70,15 @@ from .baby_step_giant_step import bach_bound
 from .group import ClassGroup, Provenance
 from .infrastructure import _NarrowOps
 from .relation_sieve import FactorBase, Relation, SieveParameters
-from .relation_store import RelationStore
 from .relation_tasks import (
     STALE_TASKS,
+    _check_subexponential_cost,
+    _next_task,
     _prepared_factor_base,
+    _resume,
     _show,
     _Smoothness,
     _tasks,
-    subexponential_cost,
 )
 from .unit_relations import UnitRow, real_gcd, unit_logarithms
 
@@ -233,22 +234,6 @@ def _unit_rows(D: int, records: list[Record], precision: int) -> list[UnitRow]:
     return out
 
 
-def _check_cost(D: int) -> None:
-    from ..core.budget import check_cost, describe_integer
-
-    # D > 0 took 0.6–1.2 times the D < 0 fit at 40 digits and 1.1–2.0 times it at 50
-    # (docs/performance.md, "D > 0 (2026-12-04)": 22–49 s and 274–470 s): four times it
-    seconds, memory = subexponential_cost(-D)
-    seconds *= 4
-    check_cost(
-        f"the class group and regulator of D = {describe_integer(D)} by the subexponential method "
-        f"({len(str(D))} digits)",
-        seconds=seconds,
-        memory=memory,
-        further="--workers N shares the sieve among N processes",
-    )
-
-
 def class_group_subexponential_real(
     D: object,
     *,
@@ -324,7 +309,7 @@ def class_group_subexponential_real(
             f"({len(str(D))} digits: larger D are untried here)"
         )
     if cluster is None:
-        _check_cost(D)
+        _check_subexponential_cost(D)
     if discriminant_parts(D)[1] != 1:
         raise DiscriminantError(
             f"the subexponential method is implemented for fundamental D only; {D} has conductor "
@@ -344,14 +329,7 @@ def class_group_subexponential_real(
     for p in sorted(base.ramified):  # 𝔭² = (p): a relation with a rational generator
         col._keep(((base.index[p], 2),), ())
     rng = random.Random(seed)
-    db = RelationStore(store, D, B) if store is not None else None
-    done: set[int] = set()
-    if db is not None:
-        stored = db.relations()
-        for r in stored:
-            col.add(r)
-        done = db.done_tasks()
-        stats.resumed, stats.tasks_resumed = len(stored), len(done)
+    db, done = _resume(store, D, B, col.add, stats)
     stream = _tasks(D, params, (t for t in count() if t not in done), seed, workers, cluster)
     want = n + max(20, n // 10)
     precision = START_PRECISION
@@ -364,13 +342,7 @@ def class_group_subexponential_real(
                 stale = 0
                 while len(col.records) < want and stale < STALE_TASKS:
                     before = len(col.records)
-                    task, rels = next(stream)
-                    stats.tasks += 1
-                    stats.sieved += len(rels)
-                    if db is not None:
-                        db.add(rels, task)
-                    for r in rels:
-                        col.add(r)
+                    _next_task(stream, db, col.add, stats)
                     stale = stale + 1 if len(col.records) == before else 0
                     shown = _show(bar, shown, len(col.records), want)
                 for i in range(n):
